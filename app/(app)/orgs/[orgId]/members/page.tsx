@@ -1,0 +1,59 @@
+import { notFound } from 'next/navigation';
+import { requireUser } from '@/lib/auth/session';
+import { getMembershipRole, listMembers } from '@/db/queries/projects';
+import { pendingInvitations } from '@/lib/auth/service';
+import { can, ROLE_LABEL, ROLES } from '@/lib/auth/permissions';
+import { SimpleForm } from '@/components/simple-form';
+import { Denied } from '@/components/denied';
+import { changeRoleAction, inviteAction, removeMemberAction } from './actions';
+import { MemberRowActions } from './member-row-actions';
+
+export const metadata = { title: 'Members' };
+
+export default async function MembersPage({ params }: { params: Promise<{ orgId: string }> }) {
+  const { orgId } = await params;
+  const { user } = await requireUser();
+  if (!/^[0-9a-f-]{36}$/i.test(orgId)) notFound();
+  const role = await getMembershipRole({ userId: user.id, organizationId: orgId });
+  if (!role) notFound();
+  if (!can(role, 'members.read')) return <main className="p-6"><Denied what="The member list" /></main>;
+  const manage = can(role, 'members.manage');
+  const [members, invites] = await Promise.all([listMembers({ organizationId: orgId }), manage ? pendingInvitations(orgId) : []]);
+  return (
+    <main className="mx-auto max-w-5xl px-6 py-8">
+      <h1 className="mb-4">Members</h1>
+      <table className="table-dense panel">
+        <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{manage ? <th>Change</th> : null}</tr></thead>
+        <tbody>
+          {members.map((m) => (
+            <tr key={m.userId}>
+              <td>{m.name}</td><td>{m.email}</td><td>{ROLE_LABEL[m.role]}</td>
+              {manage ? <td>{m.userId === user.id ? <span className="text-xs text-ink-500">you</span> : (
+                <MemberRowActions organizationId={orgId} userId={m.userId} role={m.role} name={m.name} changeRole={changeRoleAction} remove={removeMemberAction} />
+              )}</td> : null}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {manage ? (
+        <div className="mt-6 grid gap-6 md:grid-cols-2">
+          <section className="panel p-5">
+            <h2 className="mb-3">Invite someone</h2>
+            <SimpleForm action={inviteAction} schema="invite" submitLabel="Send invitation" hidden={{ organizationId: orgId }}
+              successMessage="Invitation sent."
+              fields={[
+                { name: 'email', label: 'E-mail', type: 'email' },
+                { name: 'role', label: 'Role', type: 'select', options: ROLES.map((r) => ({ value: r, label: ROLE_LABEL[r] })) },
+              ]} />
+          </section>
+          <section className="panel p-5">
+            <h2 className="mb-3">Open invitations</h2>
+            {invites.length === 0 ? <p className="text-sm text-ink-500">None.</p> : (
+              <ul className="space-y-1 text-sm">{invites.map((i) => <li key={i.id}>{i.email} · {ROLE_LABEL[i.role]} · expires {i.expiresAt.toISOString().slice(0, 10)}</li>)}</ul>
+            )}
+          </section>
+        </div>
+      ) : null}
+    </main>
+  );
+}

@@ -1,0 +1,76 @@
+'use server';
+import { redirect } from 'next/navigation';
+import { parseWithZod } from '@conform-to/zod/v4';
+import type { SubmissionResult } from '@conform-to/react';
+import { formSchemas } from '@/lib/forms/schemas';
+import * as auth from '@/lib/auth/service';
+import { clearSessionCookie, clientIp, setSessionCookie, validateRequest } from '@/lib/auth/session';
+import { isAppError } from '@/lib/errors';
+
+// Account actions run before there is a session, so they do not use the role wrapper;
+// each still parses on the server and answers with conform field errors.
+function failed(submission: { reply: (o: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
+  if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields, hideFields: ['password'] });
+  console.error('[auth] unexpected', e);
+  return submission.reply({ formErrors: ['Something went wrong on our side. Try again.'] });
+}
+
+export async function signInAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.signIn });
+  if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
+  try {
+    const { session } = await auth.signIn({ ...submission.value, ip: await clientIp() });
+    await setSessionCookie(session.id);
+  } catch (e) { return failed(submission, e); }
+  redirect('/projects');
+}
+
+export async function signUpAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.signUp });
+  if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
+  try {
+    const { session } = await auth.signUp(submission.value);
+    await setSessionCookie(session.id);
+  } catch (e) { return failed(submission, e); }
+  redirect('/projects');
+}
+
+export async function forgotPasswordAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.forgotPassword });
+  if (submission.status !== 'success') return submission.reply();
+  try { await auth.requestPasswordReset(submission.value); } catch (e) { return failed(submission, e); }
+  return submission.reply({ resetForm: true });
+}
+
+export async function resetPasswordAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.resetPassword });
+  if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
+  try { await auth.resetPassword(submission.value); } catch (e) { return failed(submission, e); }
+  redirect('/sign-in?reset=1');
+}
+
+export async function acceptInviteNewAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.acceptInviteNew });
+  if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
+  try {
+    const r = await auth.acceptInvitation(submission.value);
+    if (r.session) await setSessionCookie(r.session.id);
+  } catch (e) { return failed(submission, e); }
+  redirect('/projects');
+}
+
+export async function acceptInviteExistingAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.acceptInviteExisting });
+  if (submission.status !== 'success') return submission.reply();
+  const { user } = await validateRequest();
+  if (!user) return submission.reply({ formErrors: ['Sign in first, then open the invitation link again.'] });
+  try { await auth.acceptInvitation({ token: submission.value.token, userId: user.id }); } catch (e) { return failed(submission, e); }
+  redirect('/projects');
+}
+
+export async function signOutAction() {
+  const { session } = await validateRequest();
+  if (session) await auth.signOut(session.id);
+  await clearSessionCookie();
+  redirect('/sign-in');
+}

@@ -1,0 +1,62 @@
+import type { Role } from '@/db/schema';
+
+/**
+ * The whole authorization policy: every role × action decision lives in this table.
+ * Server actions and route handlers call `assertCan`; pages call `can` to hide controls.
+ */
+export const ACTIONS = [
+  'project.view',         // open the project at all
+  'project.create',
+  'lines.read',           // line list, results, design basis (read)
+  'lines.edit',           // upload / edit the line list
+  'designBasis.edit',
+  'design.pick',          // choose thickness per line
+  'calc.run',             // calculation API
+  'review.read',
+  'review.request',
+  'review.dispose',
+  'review.signoff',
+  'budget.read',
+  'budget.edit',
+  'boq.read',             // web view and issued downloads
+  'boq.issue',
+  'members.read',
+  'members.manage',       // invite, change role, remove
+  'org.settings',
+] as const;
+export type Action = (typeof ACTIONS)[number];
+
+export const ROLES: readonly Role[] = ['owner', 'engineer', 'reviewer', 'contractor'];
+
+export const ROLE_LABEL: Record<Role, string> = {
+  owner: 'Owner',
+  engineer: 'Engineer',
+  reviewer: 'Safety reviewer',
+  contractor: 'Contractor',
+};
+
+const O = 'owner', E = 'engineer', R = 'reviewer', C = 'contractor';
+const MATRIX: Record<Action, readonly Role[]> = {
+  'project.view': [O, E, R, C],
+  'project.create': [O, E],
+  'lines.read': [O, E, R],
+  'lines.edit': [O, E],
+  'designBasis.edit': [O, E],
+  'design.pick': [O, E],
+  'calc.run': [O, E, R],
+  'review.read': [O, E, R],
+  'review.request': [O, E],
+  'review.dispose': [R],
+  'review.signoff': [R],
+  'budget.read': [O, E, R],
+  'budget.edit': [O, E],
+  'boq.read': [O, E, R, C],
+  'boq.issue': [O, E],
+  'members.read': [O, E, R],
+  'members.manage': [O],
+  'org.settings': [O],
+};
+
+export function can(role: Role | null | undefined, action: Action): boolean {
+  return !!role && MATRIX[action].includes(role);
+}

@@ -1,0 +1,213 @@
+/**
+ * Account flows, free of Next.js: callers pass the request facts (IP) and get back results.
+ * Server actions wrap these; integration tests call them directly against PostgreSQL.
+ */
+import { and, eq, gt, isNull, sql, count } from 'drizzle-orm';
+import { generateIdFromEntropySize, type Session } from 'lucia';
+import { db } from '@/db/client';
+import { invitations, memberships, organizations, passwordResets, signInFailures, users, type Role } from '@/db/schema';
+import { AppError } from '@/lib/errors';
+import { env } from '@/lib/env';
+import { composeMail, sendMail } from '@/lib/mail';
+import { lucia } from './lucia';
+import { hashPassword, passwordWeakness, verifyPassword } from './password';
+import { hashToken, newToken } from './tokens';
+import { ROLE_LABEL } from './permissions';
+
+export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
+export const RESET_TTL_MINUTES = 60;
+export const INVITE_TTL_DAYS = 7;
+
+export const normalizeEmail = (e: string) => e.trim().toLowerCase();
+
+async function findUserByEmail(email: string) {
+  const [u] = await db.select().from(users).where(sql`lower(${users.email}) = ${normalizeEmail(email)}`).limit(1);
+  return u ?? null;
+}
+
+function weakPassword(password: string, email: string) {
+  const reason = passwordWeakness(password, email);
+  if (reason) throw new AppError('invalid', reason, { password: [reason] });
+}
+
+export async function signUp(input: { name: string; email: string; password: string; organizationName: string }): Promise<{ userId: string; organizationId: string; session: Session }> {
+  const email = normalizeEmail(input.email);
+  weakPassword(input.password, email);
+  if (await findUserByEmail(email)) {
+    throw new AppError('conflict', 'An account with this e-mail already exists. Sign in, or reset the password.', { email: ['An account with this e-mail already exists.'] });
+  }
+  const passwordHash = await hashPassword(input.password);
+  const userId = generateIdFromEntropySize(10);
+  const organizationId = await db.transaction(async (tx) => {
+    await tx.insert(users).values({ id: userId, email, name: input.name.trim(), passwordHash });
+    const [org] = await tx.insert(organizations).values({ name: input.organizationName.trim() }).returning();
+    await tx.insert(memberships).values({ organizationId: org.id, userId, role: 'owner' });
+    return org.id;
+  }).catch((e) => {
+    if (String(e?.cause?.code ?? e?.code) === '23505') throw new AppError('conflict', 'An account with this e-mail already exists.', { email: ['An account with this e-mail already exists.'] });
+    throw e;
+  });
+  const session = await lucia.createSession(userId, {});
+  return { userId, organizationId, session };
+}
+
+async function recentFailures(email: string, ip: string) {
+  const since = sql`now() - make_interval(mins => ${THROTTLE.windowMinutes})`;
+  const [byEmail] = await db.select({ n: count() }).from(signInFailures).where(and(eq(signInFailures.email, email), gt(signInFailures.at, since)));
+  const [byIp] = await db.select({ n: count() }).from(signInFailures).where(and(eq(signInFailures.ip, ip), gt(signInFailures.at, since)));
+  return Math.max(byEmail.n, byIp.n);
+}
+
+export const GENERIC_SIGN_IN_ERROR = 'E-mail or password is not right.';
+
+/** Same message whether the e-mail exists or not; throttled per account and per IP. */
+export async function signIn(input: { email: string; password: string; ip: string }): Promise<{ userId: string; session: Session }> {
+  const email = normalizeEmail(input.email);
+  if ((await recentFailures(email, input.ip)) >= THROTTLE.maxFailures) {
+    throw new AppError('throttled', `Too many failed sign-ins. Wait ${THROTTLE.windowMinutes} minutes and try again.`);
+  }
+  const user = await findUserByEmail(email);
+  // Verify against a dummy hash when the user is missing so timing does not reveal the account.
+  const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, input.password) : (await verifyPassword(DUMMY_HASH, input.password), false);
+  if (!user || !ok) {
+    await db.insert(signInFailures).values({ email, ip: input.ip });
+    throw new AppError('invalid', GENERIC_SIGN_IN_ERROR);
+  }
+  await db.delete(signInFailures).where(eq(signInFailures.email, email));
+  const session = await lucia.createSession(user.id, {});
+  return { userId: user.id, session };
+}
+const DUMMY_HASH = '$argon2id$v=19$m=19456,t=2,p=1$DN8ZQWr0qgAEHEnXRnl6Hg$gAPp3//QS6kOcgBtUOMsCxwIqnFf2ON/Vp0xnsRHuq0';
+
+export async function signOut(sessionId: string) {
+  await lucia.invalidateSession(sessionId);
+}
+
+/** Always succeeds from the caller's view; sends a message only when the account exists. */
+export async function requestPasswordReset(input: { email: string }): Promise<void> {
+  const user = await findUserByEmail(input.email);
+  if (!user) return;
+  const { token, hash } = newToken();
+  await db.insert(passwordResets).values({ tokenHash: hash, userId: user.id, expiresAt: new Date(Date.now() + RESET_TTL_MINUTES * 60_000) });
+  const url = `${env.appUrl()}/reset-password/${token}`;
+  await sendMail(composeMail({
+    to: user.email,
+    subject: 'Reset your Lagwise password',
+    lines: [`Hello ${user.name},`, `Someone asked to reset the password of your Lagwise account. The link works once and expires in ${RESET_TTL_MINUTES} minutes.`],
+    link: { label: 'Choose a new password', url },
+    footer: 'If you did not ask for this, ignore this message; your password stays as it is.',
+  }));
+}
+
+export async function resetPassword(input: { token: string; password: string }): Promise<{ userId: string }> {
+  const tokenHash = hashToken(input.token);
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select().from(passwordResets).where(eq(passwordResets.tokenHash, tokenHash)).for('update');
+    if (!row || row.usedAt) throw new AppError('invalid', 'This reset link has already been used or is not valid. Ask for a new one.');
+    if (row.expiresAt.getTime() < Date.now()) throw new AppError('invalid', 'This reset link has expired. Ask for a new one.');
+    const [user] = await tx.select().from(users).where(eq(users.id, row.userId));
+    weakPassword(input.password, user.email);
+    await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, user.id));
+    await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
+    await tx.delete(signInFailures).where(eq(signInFailures.email, user.email));
+    return { userId: user.id };
+  }).then(async (r) => { await lucia.invalidateUserSessions(r.userId); return r; });
+}
+
+export async function inviteMember(input: { actorId: string; organizationId: string; email: string; role: Role }): Promise<{ invitationId: string }> {
+  const email = normalizeEmail(input.email);
+  const [org] = await db.select().from(organizations).where(eq(organizations.id, input.organizationId));
+  if (!org) throw new AppError('not_found');
+  const existing = await findUserByEmail(email);
+  if (existing) {
+    const [m] = await db.select().from(memberships).where(and(eq(memberships.organizationId, org.id), eq(memberships.userId, existing.id)));
+    if (m) throw new AppError('conflict', 'This person is already a member.', { email: ['Already a member of this organization.'] });
+  }
+  const [actor] = await db.select().from(users).where(eq(users.id, input.actorId));
+  const { token, hash } = newToken();
+  const [inv] = await db.insert(invitations).values({
+    organizationId: org.id, email, role: input.role, tokenHash: hash, invitedBy: input.actorId,
+    expiresAt: new Date(Date.now() + INVITE_TTL_DAYS * 86_400_000),
+  }).returning();
+  await sendMail(composeMail({
+    to: email,
+    subject: `${actor?.name ?? 'A colleague'} invited you to ${org.name} on Lagwise`,
+    lines: [`${actor?.name ?? 'A colleague'} invited you to join ${org.name} on Lagwise as ${ROLE_LABEL[input.role]}.`,
+      `The link works once and expires in ${INVITE_TTL_DAYS} days.`],
+    link: { label: 'Accept the invitation', url: `${env.appUrl()}/invite/${token}` },
+  }));
+  return { invitationId: inv.id };
+}
+
+export async function getInvitation(token: string) {
+  const [row] = await db.select({ inv: invitations, orgName: organizations.name })
+    .from(invitations).innerJoin(organizations, eq(organizations.id, invitations.organizationId))
+    .where(eq(invitations.tokenHash, hashToken(token)));
+  if (!row || row.inv.acceptedAt || row.inv.revokedAt) return { status: 'used' as const };
+  if (row.inv.expiresAt.getTime() < Date.now()) return { status: 'expired' as const };
+  const hasAccount = !!(await findUserByEmail(row.inv.email));
+  return { status: 'open' as const, email: row.inv.email, role: row.inv.role, organizationName: row.orgName, hasAccount };
+}
+
+/**
+ * Accept an invitation. A signed-in user whose e-mail matches joins directly; a new person
+ * creates an account (name + password) in the same transaction.
+ */
+export async function acceptInvitation(input: { token: string; userId?: string; name?: string; password?: string }): Promise<{ userId: string; organizationId: string; session?: Session }> {
+  const tokenHash = hashToken(input.token);
+  let createdUser = false;
+  const result = await db.transaction(async (tx) => {
+    const [inv] = await tx.select().from(invitations).where(eq(invitations.tokenHash, tokenHash)).for('update');
+    if (!inv || inv.acceptedAt || inv.revokedAt) throw new AppError('invalid', 'This invitation has already been used or is not valid.');
+    if (inv.expiresAt.getTime() < Date.now()) throw new AppError('invalid', 'This invitation has expired. Ask the owner for a new one.');
+    let userId = input.userId;
+    if (userId) {
+      const [u] = await tx.select().from(users).where(eq(users.id, userId));
+      if (!u || normalizeEmail(u.email) !== inv.email) throw new AppError('forbidden', `This invitation is for ${inv.email}. Sign in with that address.`);
+    } else {
+      const [existing] = await tx.select().from(users).where(sql`lower(${users.email}) = ${inv.email}`);
+      if (existing) throw new AppError('invalid', 'An account with this e-mail exists. Sign in first, then open the link again.');
+      if (!input.name?.trim()) throw new AppError('invalid', 'Enter your name.', { name: ['Enter your name.'] });
+      weakPassword(input.password ?? '', inv.email);
+      userId = generateIdFromEntropySize(10);
+      await tx.insert(users).values({ id: userId, email: inv.email, name: input.name.trim(), passwordHash: await hashPassword(input.password!) });
+      createdUser = true;
+    }
+    await tx.insert(memberships).values({ organizationId: inv.organizationId, userId, role: inv.role }).onConflictDoNothing();
+    await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
+    return { userId, organizationId: inv.organizationId };
+  });
+  const session = createdUser ? await lucia.createSession(result.userId, {}) : undefined;
+  return { ...result, session };
+}
+
+async function ownerCount(organizationId: string) {
+  const [r] = await db.select({ n: count() }).from(memberships).where(and(eq(memberships.organizationId, organizationId), eq(memberships.role, 'owner')));
+  return r.n;
+}
+
+export async function changeMemberRole(input: { organizationId: string; userId: string; role: Role }) {
+  await db.transaction(async (tx) => {
+    const [m] = await tx.select().from(memberships).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId))).for('update');
+    if (!m) throw new AppError('not_found', 'No such member.');
+    if (m.role === 'owner' && input.role !== 'owner' && (await ownerCount(input.organizationId)) <= 1) {
+      throw new AppError('conflict', 'An organization needs at least one owner. Make someone else owner first.');
+    }
+    await tx.update(memberships).set({ role: input.role }).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId)));
+  });
+}
+
+/** Removing a member also ends every session the person has, at once. */
+export async function removeMember(input: { organizationId: string; userId: string }) {
+  await db.transaction(async (tx) => {
+    const [m] = await tx.select().from(memberships).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId))).for('update');
+    if (!m) throw new AppError('not_found', 'No such member.');
+    if (m.role === 'owner' && (await ownerCount(input.organizationId)) <= 1) throw new AppError('conflict', 'The last owner cannot be removed.');
+    await tx.delete(memberships).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId)));
+  });
+  await lucia.invalidateUserSessions(input.userId);
+}
+
+export async function pendingInvitations(organizationId: string) {
+  return db.select().from(invitations).where(and(eq(invitations.organizationId, organizationId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, sql`now()`)));
+}

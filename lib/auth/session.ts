@@ -1,0 +1,48 @@
+import 'server-only';
+import { cache } from 'react';
+import { cookies, headers } from 'next/headers';
+import { redirect } from 'next/navigation';
+import type { Session, User } from 'lucia';
+import { lucia } from './lucia';
+
+/** The request's session, validated once per request; refreshes or clears the cookie when it can. */
+export const validateRequest = cache(async (): Promise<{ user: User; session: Session } | { user: null; session: null }> => {
+  const jar = await cookies();
+  const sessionId = jar.get(lucia.sessionCookieName)?.value ?? null;
+  if (!sessionId) return { user: null, session: null };
+  const result = await lucia.validateSession(sessionId);
+  // Server components cannot set cookies; actions and route handlers can.
+  try {
+    if (result.session?.fresh) {
+      const c = lucia.createSessionCookie(result.session.id);
+      jar.set(c.name, c.value, c.attributes);
+    }
+    if (!result.session) {
+      const c = lucia.createBlankSessionCookie();
+      jar.set(c.name, c.value, c.attributes);
+    }
+  } catch { /* rendering a server component */ }
+  return result;
+});
+
+export async function requireUser(): Promise<{ user: User; session: Session }> {
+  const r = await validateRequest();
+  if (!r.user) redirect('/sign-in');
+  return r;
+}
+
+export async function setSessionCookie(sessionId: string) {
+  const c = lucia.createSessionCookie(sessionId);
+  (await cookies()).set(c.name, c.value, c.attributes);
+}
+
+export async function clearSessionCookie() {
+  const c = lucia.createBlankSessionCookie();
+  (await cookies()).set(c.name, c.value, c.attributes);
+}
+
+/** Client IP as seen by the server (first X-Forwarded-For hop when behind a proxy on loopback). */
+export async function clientIp(): Promise<string> {
+  const h = await headers();
+  return h.get('x-forwarded-for')?.split(',')[0].trim() || h.get('x-real-ip') || '127.0.0.1';
+}

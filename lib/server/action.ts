@@ -1,0 +1,51 @@
+import 'server-only';
+import type { SubmissionResult } from '@conform-to/react';
+import { parseWithZod } from '@conform-to/zod/v4';
+import type { z } from 'zod';
+import type { User } from 'lucia';
+import { validateRequest } from '@/lib/auth/session';
+import { getProjectAccess } from '@/db/queries/projects';
+import type { Action } from '@/lib/auth/permissions';
+import { AppError, isAppError } from '@/lib/errors';
+
+type Ctx<T> = { user: User; input: T };
+type ProjectCtx<T> = Ctx<T> & Awaited<ReturnType<typeof getProjectAccess>>;
+
+function toReply(submission: { reply: (o?: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
+  if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields });
+  console.error('[action] unexpected error', e);
+  return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved; try again.'] });
+}
+
+/**
+ * The one wrapper for form server actions: session → zod parse (conform) → role check → handler.
+ * Returns conform's submission result, with field errors where the handler names fields.
+ * `projectIdField` names the form field carrying the project; access and role are checked on it.
+ */
+export function formAction<S extends z.ZodType, R>(opts: {
+  schema: S;
+  permission?: Action;
+  projectIdField?: string;
+  handler: (ctx: ProjectCtx<z.infer<S>> | Ctx<z.infer<S>>) => Promise<R>;
+}) {
+  return async (_prev: unknown, formData: FormData): Promise<SubmissionResult<string[]> & { data?: R }> => {
+    const submission = parseWithZod(formData, { schema: opts.schema });
+    const { user } = await validateRequest();
+    if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
+    if (submission.status !== 'success') return submission.reply();
+    try {
+      let ctx: Ctx<z.infer<S>> | ProjectCtx<z.infer<S>> = { user, input: submission.value };
+      if (opts.projectIdField) {
+        const projectId = String(formData.get(opts.projectIdField) ?? '');
+        ctx = { ...ctx, ...(await getProjectAccess({ userId: user.id, projectId, action: opts.permission })) };
+      } else if (opts.permission) {
+        throw new AppError('forbidden'); // permission without a scope cannot be decided
+      }
+      const data = await opts.handler(ctx);
+      return { ...submission.reply({ resetForm: true }), data };
+    } catch (e) {
+      if (e && typeof e === 'object' && 'digest' in e && String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT')) throw e;
+      return toReply(submission, e);
+    }
+  };
+}

@@ -1,0 +1,68 @@
+# Shared set-up for npm start, npm test and npm run dev. Sourced, not run.
+set -euo pipefail
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+export NEXT_TELEMETRY_DISABLED=1
+log() { printf '\033[1m[lagwise]\033[0m %s\n' "$*" >&2; }
+
+# npm ci when node_modules is missing or older than the lock file.
+ensure_deps() {
+  local stamp=node_modules/.lagwise-lock-hash want
+  want="$(sha1sum package-lock.json | cut -c1-40)"
+  if [ ! -f "$stamp" ] || [ "$(cat "$stamp")" != "$want" ]; then
+    log "installing dependencies (npm ci)"
+    npm ci --no-audit --no-fund --loglevel=error
+    echo "$want" > "$stamp"
+  fi
+}
+
+# Local PostgreSQL unless DATABASE_URL points elsewhere.
+ensure_db() {
+  if [ -n "${DATABASE_URL:-}" ]; then
+    log "using DATABASE_URL from the environment"
+  else
+    bash db/pg.sh start
+    export DATABASE_URL="$(bash db/pg.sh url "${1:-lagwise}")"
+  fi
+}
+
+port_in_use() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+http_ok() { node -e "fetch(process.argv[1]).then(r=>process.exit(r.ok?0:1),()=>process.exit(1))" "$1"; }
+
+# Local SMTP sink (unless SMTP_URL is set). Reuses a sink already listening on the port.
+start_mail_sink() {
+  if [ -n "${SMTP_URL:-}" ]; then log "sending mail through SMTP_URL"; return; fi
+  export MAIL_SINK_SMTP_PORT="${MAIL_SINK_SMTP_PORT:-2525}" MAIL_SINK_HTTP_PORT="${MAIL_SINK_HTTP_PORT:-2526}"
+  export MAIL_SINK_FILE="${MAIL_SINK_FILE:-.data/mail/messages.jsonl}"
+  if port_in_use "$MAIL_SINK_SMTP_PORT"; then
+    if http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health"; then log "mail sink already running"; return; fi
+    log "port $MAIL_SINK_SMTP_PORT is taken by another program; set MAIL_SINK_SMTP_PORT"; exit 1
+  fi
+  mkdir -p .data/mail
+  nohup node_modules/.bin/tsx lib/mail/sink-server.ts >> .data/mail/sink.log 2>&1 &
+  echo $! > ".data/mail/sink-$MAIL_SINK_SMTP_PORT.pid"
+  for _ in $(seq 1 50); do http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health" && break; sleep 0.2; done
+  http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health" || { log "mail sink did not start; see .data/mail/sink.log"; exit 1; }
+  export DEV_MAILBOX=1
+  log "mail sink on 127.0.0.1:$MAIL_SINK_SMTP_PORT (mailbox page /dev/mailbox)"
+}
+
+stop_mail_sink() {
+  local f=".data/mail/sink-${MAIL_SINK_SMTP_PORT:-2525}.pid"
+  [ -f "$f" ] && kill "$(cat "$f")" 2>/dev/null || true
+  rm -f "$f"
+}
+
+migrate() { node_modules/.bin/tsx db/migrate.ts; }
+
+print_logins() {
+  cat >&2 <<'EOT'
+
+  Demo sign-ins (organization Korvane Polymers, project BP-STM-24):
+    owner       owner@korvane.example              kiln-owner-4471
+    engineer    engineer@korvane.example           kiln-engineer-4471
+    reviewer    reviewer@korvane.example           kiln-reviewer-4471
+    contractor  contractor@hollis-thermal.example  kiln-contractor-4471
+  A second organization (Tallgate Energy): owner@tallgate.example / kiln-tallgate-4471
+EOT
+}

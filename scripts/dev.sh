@@ -1,0 +1,11 @@
+#!/usr/bin/env bash
+# npm run dev: the same services, with next dev.
+source "$(dirname "$0")/common.sh"
+export PORT="${PORT:-3000}"
+ensure_deps
+ensure_db lagwise
+migrate
+node_modules/.bin/tsx seed/index.ts --if-empty
+start_mail_sink
+print_logins
+exec node_modules/.bin/next dev -H 127.0.0.1 -p "$PORT"

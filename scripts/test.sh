@@ -1,0 +1,44 @@
+#!/usr/bin/env bash
+# npm test: set up like npm start against a fresh test database, then every suite.
+source "$(dirname "$0")/common.sh"
+ensure_deps
+if [ -z "${DATABASE_URL:-}" ]; then
+  bash db/pg.sh start
+  bash db/pg.sh reset-test
+  export DATABASE_URL="$(bash db/pg.sh url lagwise_test)"
+fi
+migrate
+
+# Test services on their own ports so a running `npm start` is not disturbed.
+export MAIL_SINK_SMTP_PORT="${TEST_MAIL_SMTP_PORT:-2535}" MAIL_SINK_HTTP_PORT="${TEST_MAIL_HTTP_PORT:-2536}"
+export MAIL_SINK_FILE=".data/mail/test-messages.jsonl"
+rm -f "$MAIL_SINK_FILE"
+unset SMTP_URL
+start_mail_sink
+trap stop_mail_sink EXIT
+export PORT="${TEST_PORT:-3100}"
+export APP_URL="http://127.0.0.1:$PORT"
+
+status=0
+log "unit, reference and integration tests (vitest)"
+node_modules/.bin/vitest run || status=1
+
+if [ ! -x /usr/bin/chromium ]; then
+  if [ "$(id -u)" = 0 ]; then
+    log "installing Debian's chromium for end-to-end tests"
+    export DEBIAN_FRONTEND=noninteractive
+    apt-get update -qq >/dev/null && apt-get install -y -qq chromium >/dev/null
+  else
+    log "chromium is missing: install Debian's chromium package"; exit 1
+  fi
+fi
+
+log "seeding the demo scenario into the test database"
+node_modules/.bin/tsx seed/index.ts
+log "building for end-to-end tests"
+node_modules/.bin/next build >/tmp/lagwise-test-build.log 2>&1 || { cat /tmp/lagwise-test-build.log; exit 1; }
+log "end-to-end tests (Playwright, Debian chromium)"
+LAGWISE_INSECURE_COOKIES=1 node_modules/.bin/playwright test || status=1
+
+if [ "$status" = 0 ]; then log "all suites passed"; else log "some tests failed"; fi
+exit "$status"

@@ -1,5 +1,5 @@
 'use client';
-import { useActionState } from 'react';
+import { startTransition, useActionState } from 'react';
 import { getFormProps, getInputProps, useForm, type SubmissionResult } from '@conform-to/react';
 import { parseWithZod } from '@conform-to/zod/v4';
 import { formSchemas, type FormSchemaName } from '@/lib/forms/schemas';
@@ -35,9 +35,21 @@ export function SimpleForm({ action, schema, fields, hidden = {}, submitLabel, s
     shouldValidate: 'onBlur',
     shouldRevalidate: 'onInput',
   });
+  const formProps = getFormProps(form);
   const meta = fieldMeta as unknown as Record<string, Parameters<typeof getInputProps>[0]>;
   return (
-    <form {...getFormProps(form)} action={formAction} className={className ?? 'space-y-4'}>
+    <form
+      {...formProps}
+      className={className ?? 'space-y-4'}
+      // Dispatch by hand: React resets a form after a form action, which would drop typed values on an error.
+      onSubmit={(e) => {
+        formProps.onSubmit(e);
+        if (e.defaultPrevented) return;
+        e.preventDefault();
+        const fd = new FormData(e.currentTarget);
+        startTransition(() => formAction(fd));
+      }}
+    >
       {Object.entries(hidden).map(([k, v]) => <input key={k} type="hidden" name={k} value={v} />)}
       {form.errors?.length ? <div role="alert" className="rounded border border-alarm-500 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{form.errors.join(' ')}</div> : null}
       {lastResult?.status === 'success' && successMessage ? <div role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm text-mineral-800">{successMessage}</div> : null}

@@ -39,7 +39,7 @@ export async function forgotPasswordAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.forgotPassword });
   if (submission.status !== 'success') return submission.reply();
   try { await auth.requestPasswordReset(submission.value); } catch (e) { return failed(submission, e); }
-  return submission.reply({ resetForm: true });
+  return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
 export async function resetPasswordAction(_prev: unknown, formData: FormData) {

@@ -42,7 +42,8 @@ export function formAction<S extends z.ZodType, R>(opts: {
         throw new AppError('forbidden'); // permission without a scope cannot be decided
       }
       const data = await opts.handler(ctx);
-      return { ...submission.reply({ resetForm: true }), data };
+      // conform's reset reply carries no status; the form's success message needs one.
+      return { ...submission.reply({ resetForm: true }), status: 'success' as const, data };
     } catch (e) {
       if (e && typeof e === 'object' && 'digest' in e && String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT')) throw e;
       return toReply(submission, e);

@@ -1,0 +1,47 @@
+import { KELVIN, R_AIR, STANDARD_PRESSURE } from './constants';
+
+/**
+ * Dry air at 101.325 kPa, properties at a film temperature.
+ * - Dynamic viscosity: Sutherland's law in the U.S. Standard Atmosphere 1976 form,
+ *   μ = β·T^1.5 / (T + S), β = 1.458e-6 kg/(m·s·K^½), S = 110.4 K.
+ * - Thermal conductivity: U.S. Standard Atmosphere 1976, eq. (53):
+ *   k = 2.64638e-3·T^1.5 / (T + 245.4·10^(−12/T)) W/(m·K).
+ * - Density: ideal gas, ρ = p / (R·T).
+ * - Specific heat: table of dry air at 1 atm (Incropera et al., Fundamentals of Heat and Mass
+ *   Transfer, Table A.4 — values recalled from memory), linear interpolation.
+ * Valid: about 200 K to 1000 K (the standard-atmosphere formulas are fitted over the lower part;
+ * above ~400 K they remain within a few per cent of tabulated data).
+ */
+export interface AirProperties {
+  /** Thermal conductivity, W/(m·K). */ k: number;
+  /** Kinematic viscosity, m²/s. */ nu: number;
+  /** Prandtl number. */ pr: number;
+  /** Volumetric expansion coefficient, 1/K (ideal gas: 1/T). */ beta: number;
+}
+
+// Dry air cp, J/(kg·K), at 200…1000 K every 50 K (Incropera Table A.4, recalled from memory).
+const CP_T0 = 200, CP_DT = 50;
+const CP = [1007, 1006, 1007, 1009, 1014, 1021, 1030, 1040, 1051, 1063, 1075, 1087, 1099, 1110, 1121, 1131, 1141];
+
+function cpAir(T: number): number {
+  const x = (T - CP_T0) / CP_DT;
+  if (x <= 0) return CP[0];
+  if (x >= CP.length - 1) return CP[CP.length - 1];
+  const i = Math.floor(x);
+  return CP[i] + (CP[i + 1] - CP[i]) * (x - i);
+}
+
+/** Air properties at temperature T in kelvin. */
+export function airPropertiesAt(T: number, pressurePa = STANDARD_PRESSURE): AirProperties {
+  const t15 = T * Math.sqrt(T);
+  const mu = (1.458e-6 * t15) / (T + 110.4);
+  const k = (2.64638e-3 * t15) / (T + 245.4 * Math.pow(10, -12 / T));
+  const rho = pressurePa / (R_AIR * T);
+  const cp = cpAir(T);
+  return { k, nu: mu / rho, pr: (mu * cp) / k, beta: 1 / T };
+}
+
+/** Air properties at the film temperature of a surface and the air, both in °C. */
+export function filmAirProperties(surfaceC: number, airC: number): AirProperties {
+  return airPropertiesAt((surfaceC + airC) / 2 + KELVIN);
+}

@@ -1,0 +1,61 @@
+/**
+ * Economic thickness arithmetic. Annualised cost = CRF·installed cost + levelised annual energy cost,
+ * the textbook life-cycle method (e.g. ISO 12241 economics; VDI 2055-1; the McMillan principle).
+ */
+
+/** Capital recovery factor i(1+i)^n / ((1+i)^n − 1); 1/n at zero interest. */
+export function capitalRecoveryFactor(rate: number, years: number): number {
+  if (rate === 0) return 1 / years;
+  const f = Math.pow(1 + rate, years);
+  return (rate * f) / (f - 1);
+}
+
+/**
+ * Levelising factor for an energy price escalating at e per year over n years discounted at i:
+ * LF = CRF(i, n) · Σₖ₌₁ⁿ (1+e)^(k−1) / (1+i)^k. LF = 1 when e = 0.
+ */
+export function levelisingFactor(rate: number, escalation: number, years: number): number {
+  let pv = 0;
+  for (let k = 1; k <= years; k++) pv += Math.pow(1 + escalation, k - 1) / Math.pow(1 + rate, k);
+  return capitalRecoveryFactor(rate, years) * pv;
+}
+
+export interface Economics {
+  /** Price of the energy that makes up the loss (fuel or refrigeration), per kWh of fuel/electricity. */
+  energyPricePerKWh: number;
+  /** Heat-generation efficiency (boiler), or COP for refrigeration; heat lost ÷ this = energy bought. */
+  efficiency: number;
+  hoursPerYear: number;
+  discountRate: number;
+  lifeYears: number;
+  escalationRate: number;
+  /** kg CO₂ per kWh of energy bought. */
+  co2KgPerKWh: number;
+}
+
+export interface PriceModel {
+  /** Installed material price per m³ by material id, with a fallback. */
+  materialPerM3: Record<string, number>;
+  defaultMaterialPerM3: number;
+  /** Waste allowance on material, fraction. */
+  wasteFraction: number;
+  labourPerMPerLayer: number;
+  /** For flat surfaces: labour per m² per layer. */
+  labourPerM2PerLayer: number;
+  jacketPerM2: number;
+  /** Fittings and supports as a fraction added to the straight-run cost. */
+  fittingsAllowanceFraction: number;
+}
+
+/** Natural gas: IPCC 2006 Guidelines Vol. 2 Table 2.2, 56 100 kg CO₂/TJ on net calorific value = 0.20196 kg/kWh. */
+export const CO2_NATURAL_GAS_KG_PER_KWH = (56100 / 1e12) * 3.6e6;
+
+export const DEFAULT_ECONOMICS: Economics = {
+  energyPricePerKWh: 0.045, efficiency: 0.85, hoursPerYear: 8000, discountRate: 0.08, lifeYears: 15, escalationRate: 0.02,
+  co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH,
+};
+
+export const DEFAULT_PRICES: PriceModel = {
+  materialPerM3: { 'mineral-wool-pipe': 450, 'mineral-wool-blanket': 300, 'calcium-silicate': 900, 'cellular-glass': 1400, 'polyisocyanurate': 700, 'elastomeric-foam': 1500, 'aerogel-blanket': 9000, perlite: 800 },
+  defaultMaterialPerM3: 600, wasteFraction: 0.1, labourPerMPerLayer: 18, labourPerM2PerLayer: 22, jacketPerM2: 35, fittingsAllowanceFraction: 0.15,
+};

@@ -1,0 +1,17 @@
+/** The Lagwise heat-transfer engine: pure functions, SI units, no framework imports. */
+export * from './air';
+export * from './case';
+export * from './conductivity';
+export * from './constants';
+export * from './correlations';
+export * from './economics';
+export * from './materials';
+export * from './pipes';
+export * from './psychro';
+export * from './recommend';
+export * from './solve';
+export * from './steam';
+export * from './surface';
+export * from './thickness';
+export * from './units';
+export const CALCULATION_VERSION = '2026.12-1';

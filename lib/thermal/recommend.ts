@@ -1,0 +1,314 @@
+import { compileConductivity, type Conductivity } from './conductivity';
+import { capitalRecoveryFactor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
+import type { InsulationMaterial, Jacket } from './materials';
+import { condensationThresholdC } from './psychro';
+import { solveSteady, type SolidLayer, type SteadyResult } from './solve';
+import { condensateKgPerHour, saturatedSteamAtPressure } from './steam';
+import { isPipe, type Geometry } from './surface';
+import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
+import { pipeByOutsideDiameter } from './pipes';
+
+export interface ConditionSet { airC: number; surroundingsC?: number; windMs: number; relativeHumidityPct?: number }
+
+export type Purpose = 'heatConservation' | 'personnelProtection' | 'condensationControl' | 'processControl' | 'freezeProtection';
+export type CriterionId = 'personnel' | 'condensation' | 'heatLossLimit' | 'processDrop' | 'freeze' | 'economic';
+
+export interface LineCase {
+  geometry: Geometry;
+  pipeOuterDiameterMm?: number;
+  heightM?: number;
+  characteristicLengthM?: number;
+  /** Pipe length (pipes) or area (flat), for totals. */
+  lengthM?: number;
+  areaM2?: number;
+  normalTempC: number;
+  /** For personnel protection; defaults to the normal temperature. */
+  maxTempC?: number;
+  steamPressureMPaAbs?: number;
+  massFlowKgPerS?: number;
+  fluidCpJPerKgK?: number;
+  purposes: Purpose[];
+  /** Surface within reach of people; personnel protection applies only then. */
+  accessible?: boolean;
+}
+
+export interface Criteria {
+  conditions: { heatLoss: ConditionSet; personnel: ConditionSet; condensation: ConditionSet; freeze: ConditionSet };
+  touchLimitMetalC: number;
+  touchLimitNonMetalC: number;
+  dewPointMarginK: number;
+  heatLossLimitWPerM?: number;
+  heatLossLimitWPerM2?: number;
+  maxProcessDropK?: number;
+  freeze?: { initialWaterTempC: number; requiredHours: number };
+  economics?: Economics;
+  prices?: PriceModel;
+}
+
+export interface MaterialSystem { outer: InsulationMaterial; inner?: InsulationMaterial; jacket: Jacket; series?: Partial<SeriesOptions> }
+
+export interface CandidateResult {
+  totalMm: number;
+  layers: { materialId: string; thicknessMm: number }[];
+  heatLoss: { heatFlow: number; surfaceC: number; interfacesC: number[] };
+  personnel?: { surfaceC: number; interfacesC: number[] };
+  condensation?: { surfaceC: number };
+  annualCost?: number;
+  installedCost?: number;
+  energyCostPerYear?: number;
+  serviceLimitOk: boolean;
+}
+
+export interface CriterionOutcome {
+  id: CriterionId;
+  /** Smallest total thickness (mm) meeting it; 0 = bare is enough; null = no candidate meets it. */
+  requiredMm: number | null;
+  message: string;
+}
+
+export interface Recommendation {
+  recommendedMm: number | null;
+  layers: { materialId: string; thicknessMm: number }[];
+  governing: CriterionId | null;
+  outcomes: CriterionOutcome[];
+  candidates: CandidateResult[];
+  /** The solved design at the recommendation, under the heat-loss conditions. */
+  design?: SteadyResult;
+  annual?: { energyMWh: number; cost: number; co2Tonnes: number };
+  condensateKgPerHour?: number;
+  warnings: string[];
+}
+
+const compiled = new WeakMap<InsulationMaterial, Conductivity>();
+function cond(m: InsulationMaterial): Conductivity {
+  let c = compiled.get(m);
+  if (!c) { c = compileConductivity(m.conductivity); compiled.set(m, c); }
+  return c;
+}
+
+function layersOf(c: Candidate): SolidLayer[] {
+  return c.layers.map((l) => ({ thicknessM: l.thicknessMm / 1000, conductivity: cond(l.material), name: l.material.name, minServiceC: l.material.minServiceC, maxServiceC: l.material.maxServiceC }));
+}
+
+/** Typical wall for the heat capacity of a stagnant line: ASME B36.10M Schedule 40 up to NPS 12, 9.53 mm (STD) above. */
+const SCH40_MM: Record<string, number> = { '1/2': 2.77, '3/4': 2.87, '1': 3.38, '1-1/4': 3.56, '1-1/2': 3.68, '2': 3.91, '2-1/2': 5.16, '3': 5.49, '3-1/2': 5.74, '4': 6.02, '5': 6.55, '6': 7.11, '8': 8.18, '10': 9.27, '12': 10.31 };
+export function typicalWallMm(odMm: number): number {
+  const p = pipeByOutsideDiameter(odMm);
+  if (p && SCH40_MM[p.nps]) return SCH40_MM[p.nps];
+  return odMm > 323.9 ? 9.53 : Math.max(2.0, odMm * 0.05);
+}
+
+// 4-point Gauss–Legendre nodes and weights on [−1, 1].
+const GL_X = [-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526];
+const GL_W = [0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538];
+
+/**
+ * Time for stagnant water in a pipe to cool from T0 to 0 °C, hours: lumped heat capacity of water
+ * and steel, C·dT/dt = −Q'(T), so t = ∫₀^T0 C / Q'(T) dT, with Q'(T) re-solved at each water
+ * temperature (4-point Gauss–Legendre in T). With a constant resistance this reduces to the
+ * ISO 12241 exponential form t = C·R'·ln((T0 − Ta)/(0 − Ta)). Latent heat of freezing is not counted
+ * (conservative: the time to the start of freezing). Returns Infinity when the air is not below 0 °C.
+ */
+export function freezeTimeHours(o: { odMm: number; wallMm?: number; initialC: number; heatFlowAt: (waterC: number) => number; airC: number }): number {
+  if (o.airC >= 0) return Infinity;
+  if (o.initialC <= 0) return 0;
+  const wall = o.wallMm ?? typicalWallMm(o.odMm);
+  const ro = o.odMm / 2000, ri = ro - wall / 1000;
+  const C = 1000 * 4186 * Math.PI * ri * ri + 7850 * 490 * Math.PI * (ro * ro - ri * ri); // J/(m·K): water 4.186 kJ/kg·K, steel 0.49 kJ/kg·K
+  const half = o.initialC / 2;
+  let integral = 0;
+  for (let i = 0; i < 4; i++) {
+    const T = half + half * GL_X[i];
+    integral += GL_W[i] * (C / o.heatFlowAt(T));
+  }
+  return (integral * half) / 3600;
+}
+
+/** Outlet temperature of a flowing line: T_out = T_a + (T_in − T_a)·exp(−U'·L / (ṁ·c_p)) (ISO 12241 exponential form). */
+export function outletTempC(o: { inletC: number; airC: number; uPerLengthWPerMK: number; lengthM: number; massFlowKgPerS: number; cpJPerKgK: number }): number {
+  return o.airC + (o.inletC - o.airC) * Math.exp((-o.uPerLengthWPerMK * o.lengthM) / (o.massFlowKgPerS * o.cpJPerKgK));
+}
+
+function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
+  const pipe = isPipe(line.geometry);
+  let r = (line.pipeOuterDiameterMm ?? 0) / 2000, cost = 0;
+  for (const l of cand.layers) {
+    const t = l.thicknessMm / 1000;
+    const vol = pipe ? Math.PI * ((r + t) * (r + t) - r * r) : t;
+    cost += vol * (prices.materialPerM3[l.material.id] ?? prices.defaultMaterialPerM3) * (1 + prices.wasteFraction);
+    cost += pipe ? prices.labourPerMPerLayer : prices.labourPerM2PerLayer;
+    r += t;
+  }
+  if (cand.layers.length) cost += prices.jacketPerM2 * (pipe ? Math.PI * jacketOuterM : 1);
+  return cost * (1 + prices.fittingsAllowanceFraction);
+}
+
+/**
+ * Recommendation for one line: evaluates the candidates of its material system under each
+ * criterion's own conditions and returns the smallest that meets every hard criterion the line
+ * needs and is at least the economic optimum (when heat conservation is asked for), naming the
+ * governing criterion. A criterion no candidate can meet is said so explicitly.
+ */
+export function recommendLine(line: LineCase, system: MaterialSystem, crit: Criteria): Recommendation {
+  const pipe = isPipe(line.geometry);
+  const warnings: string[] = [];
+  const base = {
+    geometry: line.geometry,
+    pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
+    heightM: line.heightM ?? 1,
+    characteristicLengthM: line.characteristicLengthM ?? 1,
+  };
+  const emittance = system.jacket.emittance;
+  const amb = (c: ConditionSet, eps = emittance) => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance: eps });
+  const maxC = line.maxTempC ?? line.normalTempC;
+  const cold = line.normalTempC < crit.conditions.heatLoss.airC;
+  const cands = buildCandidates({ outer: system.outer, inner: system.inner, hotFaceC: Math.max(maxC, line.normalTempC), coldFaceC: Math.min(maxC, line.normalTempC), series: system.series });
+  const all: (Candidate | null)[] = [null, ...cands]; // index 0 = bare
+  const layersCache = all.map((c) => (c ? layersOf(c) : []));
+  const bareEps = 0.8; // bare oxidised steel
+
+  const solveAt = (i: number, processC: number, c: ConditionSet, hint?: number) =>
+    solveSteady({ ...base, processC, ambient: amb(c, i === 0 ? bareEps : emittance), layers: layersCache[i] }, hint);
+
+  const wants = (p: Purpose) => line.purposes.includes(p);
+  const econ = crit.economics ?? DEFAULT_ECONOMICS;
+  const prices = crit.prices ?? DEFAULT_PRICES;
+
+  // Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share them.
+  const hl: SteadyResult[] = [];
+  let hint: number | undefined;
+  for (let i = 0; i < all.length; i++) {
+    const r = solveAt(i, line.normalTempC, crit.conditions.heatLoss, i > 1 ? hint : undefined);
+    hint = r.convectiveWPerM2K + r.radiativeWPerM2K;
+    hl.push(r);
+  }
+  const results: CandidateResult[] = all.map((c, i) => ({
+    totalMm: c?.totalMm ?? 0,
+    layers: c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [],
+    heatLoss: { heatFlow: hl[i].heatFlow, surfaceC: hl[i].surfaceC, interfacesC: hl[i].interfacesC },
+    serviceLimitOk: !hl[i].warnings.some((w) => w.includes('service temperature')),
+  }));
+
+  const outcomes: CriterionOutcome[] = [];
+  const scan = (test: (i: number) => boolean): number | null => { for (let i = 0; i < all.length; i++) if (test(i)) return i; return null; };
+  const mm = (i: number | null) => (i === null ? null : results[i].totalMm);
+
+  // Personnel protection: hottest air, still air, the actual jacket emittance.
+  if (wants('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
+    const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+    let h: number | undefined;
+    const idx = scan((i) => {
+      const r = solveAt(i, maxC, crit.conditions.personnel, h);
+      h = r.convectiveWPerM2K + r.radiativeWPerM2K;
+      results[i].personnel = { surfaceC: r.surfaceC, interfacesC: r.interfacesC };
+      if (r.warnings.some((w) => w.includes('service temperature'))) results[i].serviceLimitOk = false;
+      return r.surfaceC <= limit;
+    });
+    outcomes.push({ id: 'personnel', requiredMm: mm(idx), message: idx === null
+      ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
+      : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).` });
+  }
+
+  // Condensation control: surface at or above the dew (frost) point plus margin.
+  if (wants('condensationControl') && cold) {
+    const c = crit.conditions.condensation;
+    const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
+    const need = th.valueC + crit.dewPointMarginK;
+    let h: number | undefined;
+    const idx = scan((i) => {
+      const r = solveAt(i, line.normalTempC, c, h);
+      h = r.convectiveWPerM2K + r.radiativeWPerM2K;
+      results[i].condensation = { surfaceC: r.surfaceC };
+      return r.surfaceC >= need;
+    });
+    outcomes.push({ id: 'condensation', requiredMm: mm(idx), message: idx === null
+      ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
+      : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.` });
+  }
+
+  // Heat-loss limit.
+  const limit = pipe ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
+  if (limit !== undefined && (wants('heatConservation') || wants('processControl'))) {
+    const idx = scan((i) => Math.abs(hl[i].heatFlow) <= limit);
+    outcomes.push({ id: 'heatLossLimit', requiredMm: mm(idx), message: idx === null
+      ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
+      : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
+  }
+
+  // Process temperature change along a flowing line.
+  if (wants('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
+    const cp = line.fluidCpJPerKgK ?? 4186;
+    const drop = (i: number) => {
+      const u = hl[i].overall.perLengthWPerMK ?? 0;
+      const out = outletTempC({ inletC: line.normalTempC, airC: crit.conditions.heatLoss.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
+      return Math.abs(line.normalTempC - out);
+    };
+    const idx = scan((i) => drop(i) <= crit.maxProcessDropK!);
+    outcomes.push({ id: 'processDrop', requiredMm: mm(idx), message: idx === null
+      ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K.`
+      : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K).` });
+  }
+
+  // Freeze protection of a stagnant water line.
+  if (wants('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
+    const f = crit.freeze, fc = crit.conditions.freeze;
+    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveAt(i, T, fc).heatFlow });
+    const idx = scan((i) => i > 0 && hours(i) >= f.requiredHours);
+    outcomes.push({ id: 'freeze', requiredMm: mm(idx), message: idx === null
+      ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
+      : `Stagnant water takes ≥ ${f.requiredHours} h to cool from ${f.initialWaterTempC} °C to 0 °C at ${fc.airC} °C air (${hours(idx).toFixed(1)} h).` });
+  }
+
+  // Economic thickness: annualised cost over the whole series (cost curve).
+  let econIdx: number | null = null;
+  if (wants('heatConservation')) {
+    const crf = capitalRecoveryFactor(econ.discountRate, econ.lifeYears);
+    const lf = levelisingFactor(econ.discountRate, econ.escalationRate, econ.lifeYears);
+    let best = Infinity;
+    for (let i = 0; i < all.length; i++) {
+      const inst = all[i] ? installedCost(line, all[i]!, hl[i].outerDiameterM ?? 0, prices) : 0;
+      const energy = (Math.abs(hl[i].heatFlow) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
+      const annual = crf * inst + lf * energy;
+      Object.assign(results[i], { installedCost: inst, energyCostPerYear: energy, annualCost: annual });
+      if (results[i].serviceLimitOk && annual < best) { best = annual; econIdx = i; }
+    }
+    outcomes.push({ id: 'economic', requiredMm: mm(econIdx), message: `Lowest annualised cost (${(capitalRecoveryFactor(econ.discountRate, econ.lifeYears) * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr).` });
+  }
+
+  // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
+  let governing: CriterionId | null = null, need = 0, unmet = false;
+  for (const o of outcomes) {
+    if (o.requiredMm === null) { unmet = true; warnings.push(o.message); continue; }
+    if (o.requiredMm > need || (governing === null && o.requiredMm === need && need > 0)) { need = o.requiredMm; governing = o.id; }
+  }
+  let recIdx = results.findIndex((r, i) => r.totalMm >= need && (i === 0 || r.serviceLimitOk));
+  if (recIdx < 0) { recIdx = -1; warnings.push('No candidate keeps every layer within its service temperature; choose another material system.'); }
+  if (!cold && maxC > system.outer.maxServiceC && !system.inner) warnings.push(`${system.outer.name} is rated to ${system.outer.maxServiceC} °C; the line runs at ${maxC} °C. Add a higher-temperature inner layer.`);
+  if (cold && line.normalTempC < system.outer.minServiceC) warnings.push(`${system.outer.name} is rated down to ${system.outer.minServiceC} °C only.`);
+  if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
+
+  const rec = recIdx >= 0 ? results[recIdx] : null;
+  const design = recIdx >= 0 ? hl[recIdx] : undefined;
+  if (design) warnings.push(...design.warnings.filter((w) => !warnings.includes(w)));
+  const extent = pipe ? line.lengthM ?? 1 : line.areaM2 ?? 1;
+  const annual = design ? (() => {
+    const heatMWh = (Math.abs(design.heatFlow) * extent * econ.hoursPerYear) / 1e6;
+    const boughtMWh = heatMWh / econ.efficiency;
+    return { energyMWh: heatMWh, cost: boughtMWh * 1000 * econ.energyPricePerKWh, co2Tonnes: (boughtMWh * 1000 * econ.co2KgPerKWh) / 1000 };
+  })() : undefined;
+  let condensate: number | undefined;
+  if (design && line.steamPressureMPaAbs) {
+    condensate = condensateKgPerHour(design.heatFlow * extent, saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg);
+  }
+  return {
+    recommendedMm: unmet && rec === null ? null : rec?.totalMm ?? null,
+    layers: rec?.layers ?? [],
+    governing,
+    outcomes,
+    candidates: results,
+    design,
+    annual,
+    condensateKgPerHour: condensate,
+    warnings,
+  };
+}

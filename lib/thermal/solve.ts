@@ -1,0 +1,216 @@
+import type { Conductivity } from './conductivity';
+import { brentRoot } from './roots';
+import {
+  convectionDetail, isPipe, radiativeFlux, surfaceFlux, surfaceWarnings,
+  type Ambient, type Geometry, type OuterShape,
+} from './surface';
+
+/** One solid layer, inside to outside. */
+export interface SolidLayer {
+  thicknessM: number;
+  conductivity: Conductivity;
+  name?: string;
+  minServiceC?: number;
+  maxServiceC?: number;
+}
+
+export interface SteadyCase {
+  geometry: Geometry;
+  /** Pipe outside diameter (bare steel), m — pipes only. */
+  pipeOuterDiameterM: number;
+  heightM: number;
+  characteristicLengthM: number;
+  processC: number;
+  ambient: Ambient;
+  /** Insulation layers, innermost first; empty for a bare surface. */
+  layers: SolidLayer[];
+  /** Optional inside film coefficient, W/(m²·K); omitted = inner surface at the process temperature. */
+  innerFilmWPerM2K?: number;
+  /** Optional pipe or vessel wall inside the given outside diameter. */
+  wall?: { thicknessM: number; conductivity: Conductivity };
+}
+
+export interface OverallCoefficient {
+  /** W/(m·K) per metre of pipe (pipes only). */
+  perLengthWPerMK?: number;
+  /** Referred to the outermost surface: U_o = Q / (A_o·(T_process − T_air)). */
+  outerSurface: { valueWPerM2K: number; diameterM?: number };
+  /** Referred to the innermost (process-side) surface: U_i = Q / (A_i·ΔT). Not interchangeable with U_o. */
+  innerSurface: { valueWPerM2K: number; diameterM?: number };
+}
+
+export interface SteadyResult {
+  /** W/m for pipes, W/m² for flat surfaces; positive from the process to the surroundings. */
+  heatFlow: number;
+  surfaceC: number;
+  /** Temperatures between insulation layers, inner to outer (layers − 1 values). */
+  interfacesC: number[];
+  /** Every boundary from the process side to the outside surface (for the profile). */
+  profileC: { radiusOrDepthM: number; tempC: number }[];
+  convectiveWPerM2K: number;
+  /** Radiative flux ÷ (Ts − T_air). */
+  radiativeWPerM2K: number;
+  outerDiameterM?: number;
+  overall: OverallCoefficient;
+  warnings: string[];
+  iterations: number;
+}
+
+interface Element { film: boolean; factor: number; cond?: Conductivity; r1: number; r2: number }
+
+/** Builds the resistance chain: inner film, wall, layers — each with its geometric factor. */
+function buildChain(c: SteadyCase) {
+  const pipe = isPipe(c.geometry);
+  const els: Element[] = [];
+  const wallT = c.wall?.thicknessM ?? 0;
+  let r = pipe ? c.pipeOuterDiameterM / 2 - wallT : 0; // for walls r is the depth from the process face
+  const rInner = r;
+  if (c.innerFilmWPerM2K) {
+    els.push({ film: true, factor: pipe ? 1 / (c.innerFilmWPerM2K * 2 * Math.PI * r) : 1 / c.innerFilmWPerM2K, r1: r, r2: r });
+  }
+  const solids = c.wall ? [{ thicknessM: wallT, conductivity: c.wall.conductivity }, ...c.layers] : c.layers;
+  for (const l of solids) {
+    const r2 = r + l.thicknessM;
+    els.push({ film: false, factor: pipe ? Math.log(r2 / r) / (2 * Math.PI) : l.thicknessM, cond: l.conductivity, r1: r, r2 });
+    r = r2;
+  }
+  return { els, rInner, rOuter: r, pipe };
+}
+
+/** Temperature after each element for a heat flow Q; NaN when a conductivity model cannot carry it. */
+function march(els: Element[], Tp: number, Q: number, out?: number[]): number {
+  let T = Tp;
+  for (let i = 0; i < els.length; i++) {
+    const e = els[i];
+    T = e.film ? T - Q * e.factor : e.cond!.solveOut(T, Q * e.factor);
+    if (out) out[i] = T;
+    if (T !== T) return NaN;
+  }
+  return T;
+}
+
+/** dTs/dQ along the chain: from ∫k dT = Q·f per element, k(T_in)·dT_in − k(T_out)·dT_out = f·dQ. */
+function marchSlope(els: Element[], Tp: number, Q: number): { Ts: number; dTsdQ: number } {
+  let T = Tp, d = 0;
+  for (let i = 0; i < els.length; i++) {
+    const e = els[i];
+    if (e.film) { T -= Q * e.factor; d -= e.factor; continue; }
+    const kin = e.cond!.k(T);
+    const Tout = e.cond!.solveOut(T, Q * e.factor);
+    if (Tout !== Tout) return { Ts: NaN, dTsdQ: NaN };
+    d = (kin * d - e.factor) / e.cond!.k(Tout);
+    T = Tout;
+  }
+  return { Ts: T, dTsdQ: d };
+}
+
+/**
+ * Root of g(Q) = A·q_out(Ts(Q)) − Q on the bracket [0, Qb]: Newton steps with an approximate
+ * surface-flux slope (h·1.25 + 4εσT³ — the ¼-power law of laminar natural convection), kept inside
+ * a shrinking bracket and replaced by bisection whenever they would leave it; Brent's method
+ * takes over in the rare case this has not converged, so the answer always exists.
+ */
+function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, shape: OuterShape, amb: Ambient, guess: number) {
+  const tol = Math.abs(Qb) * 1e-10;
+  let lo = 0, hi = Qb; // g(lo) has the sign of Qb, g(hi) the opposite (or zero)
+  let Q = guess > Math.min(lo, hi) && guess < Math.max(lo, hi) ? guess : 0.5 * Qb;
+  const sgn = Qb > 0 ? 1 : -1;
+  let prevTs = NaN, prevFlux = NaN;
+  for (let it = 1; it <= 40; it++) {
+    const { Ts, dTsdQ } = marchSlope(els, Tp, Q);
+    if (Ts !== Ts) { hi = Q; Q = 0.5 * (lo + hi); continue; }
+    const flux = surfaceFlux(shape, Ts, amb);
+    const g = area * flux - Q;
+    if (Math.abs(g) <= tol) return { Q, iterations: it };
+    if (g * sgn > 0) lo = Q; else hi = Q;
+    let dflux: number;
+    if (amb.fixedCoefficientWPerM2K !== undefined) dflux = amb.fixedCoefficientWPerM2K;
+    else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts))) dflux = (flux - prevFlux) / (Ts - prevTs); // secant on the surface law
+    else {
+      const dT = Ts - amb.airC;
+      const t = Ts + 273.15;
+      const hc = dT !== 0 ? (flux - radiativeFlux(Ts, amb)) / dT : 0;
+      dflux = 1.25 * hc + 4 * amb.emittance * 5.670374419e-8 * t * t * t;
+    }
+    prevTs = Ts; prevFlux = flux;
+    const dg = area * dflux * dTsdQ - 1; // negative
+    let next = Q - g / dg;
+    const a = Math.min(lo, hi), b = Math.max(lo, hi);
+    if (!(next > a && next < b)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - Q) <= tol) return { Q: next, iterations: it };
+    Q = next;
+  }
+  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * surfaceFlux(shape, t, amb) - q : -Qb; };
+  const r = brentRoot(g, 0, Qb, Qb, g(Qb), tol);
+  return { Q: r.x, iterations: 40 + r.iterations };
+}
+
+/**
+ * Steady heat flow through concentric cylindrical (or flat) layers with temperature-dependent
+ * conductivity, to an outside surface losing heat by convection and radiation.
+ * Method: ASTM C680 / ISO 12241 — each layer's flow is S·∫k dT (Kirchhoff transform, exact for the
+ * given k(T)); the heat flow Q is found with Brent's method on the bracket [0, Q_bare-at-T_process],
+ * where the residual (outside loss at the marched surface temperature − Q) is monotone. One Q passes
+ * every layer by construction, so the energy balance closes at every interface.
+ */
+export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
+  const { els, rInner, rOuter, pipe } = buildChain(c);
+  const shape: OuterShape = { geometry: c.geometry, diameterM: 2 * rOuter, heightM: c.heightM, characteristicLengthM: c.characteristicLengthM };
+  const area = pipe ? 2 * Math.PI * rOuter : 1; // outside area per metre (pipes) or per m²
+  const Tp = c.processC;
+  const Qb = area * surfaceFlux(shape, Tp, c.ambient);
+  let Q = Qb, Ts = Tp, iterations = 0;
+  if (els.length > 0 && Qb !== 0) {
+    // First guess: series resistances, k at the mean of process and air, and the surface coefficient
+    // either hinted by the caller (e.g. the previous thickness) or evaluated 15 % of the way up.
+    const Tm = 0.5 * (Tp + c.ambient.airC);
+    let h0 = hintCoefficientWPerM2K ?? 0;
+    if (!(h0 > 0)) {
+      const Ts0 = c.ambient.airC + 0.15 * (Tp - c.ambient.airC);
+      h0 = surfaceFlux(shape, Ts0, c.ambient) / (Ts0 - c.ambient.airC);
+      if (!(h0 > 0)) h0 = 5;
+    }
+    let R = 1 / (h0 * area);
+    for (const e of els) R += e.film ? e.factor : e.factor / e.cond!.k(Tm);
+    const r = solveHeatFlow(els, Tp, Qb, area, shape, c.ambient, (Tp - c.ambient.airC) / R);
+    Q = r.Q; iterations = r.iterations;
+  } else if (Qb === 0) { Q = 0; }
+  const temps = new Array<number>(els.length);
+  Ts = els.length ? march(els, Tp, Q, temps) : Tp;
+
+  const warnings: string[] = [];
+  const detail = c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient) : undefined;
+  if (detail) warnings.push(...surfaceWarnings(detail));
+  const dTs = Ts - c.ambient.airC;
+  const hConv = detail ? detail.h : c.ambient.fixedCoefficientWPerM2K!;
+  const hRad = detail && dTs !== 0 ? radiativeFlux(Ts, c.ambient) / dTs : 0;
+
+  // Profile and interfaces (insulation layers only; the wall and film come first in the chain).
+  const first = els.length - c.layers.length;
+  const profileC = [{ radiusOrDepthM: rInner, tempC: Tp }];
+  els.forEach((e, i) => profileC.push({ radiusOrDepthM: e.r2, tempC: temps[i] }));
+  const interfacesC = c.layers.slice(0, -1).map((_, i) => temps[first + i]);
+  c.layers.forEach((l, i) => {
+    const hotFace = first + i - 1 >= 0 ? temps[first + i - 1] : Tp;
+    const coldFace = temps[first + i];
+    const hi = Math.max(hotFace, coldFace), lo = Math.min(hotFace, coldFace);
+    const label = l.name ?? `layer ${i + 1}`;
+    if (l.maxServiceC !== undefined && hi > l.maxServiceC + 1e-9) warnings.push(`${label}: ${hi.toFixed(1)} °C exceeds its maximum service temperature of ${l.maxServiceC} °C`);
+    if (l.minServiceC !== undefined && lo < l.minServiceC - 1e-9) warnings.push(`${label}: ${lo.toFixed(1)} °C is below its minimum service temperature of ${l.minServiceC} °C`);
+  });
+
+  const dT = Tp - c.ambient.airC;
+  const u = dT === 0 ? 0 : Q / dT;
+  const overall: OverallCoefficient = pipe
+    ? {
+        perLengthWPerMK: u,
+        outerSurface: { valueWPerM2K: u / (2 * Math.PI * rOuter), diameterM: 2 * rOuter },
+        innerSurface: { valueWPerM2K: u / (2 * Math.PI * rInner), diameterM: 2 * rInner },
+      }
+    : { outerSurface: { valueWPerM2K: u }, innerSurface: { valueWPerM2K: u } };
+
+  return {
+    heatFlow: Q, surfaceC: Ts, interfacesC, profileC, convectiveWPerM2K: hConv, radiativeWPerM2K: hRad,
+    outerDiameterM: pipe ? 2 * rOuter : undefined, overall, warnings, iterations,
+  };
+}

@@ -19,11 +19,16 @@ export function dewPointC(airC: number, relativeHumidityPct: number): number {
   return invert(WATER, g);
 }
 
-/** Frost point over ice, °C (meaningful when it is below 0 °C). */
+/**
+ * Frost point over ice, °C (meaningful when it is below 0 °C). Relative humidity is taken against
+ * saturation over ice when the air itself is at or below 0 °C and over water above it — the
+ * ASHRAE Handbook—Fundamentals convention (as psychrolib implements it).
+ */
 export function frostPointC(airC: number, relativeHumidityPct: number): number {
-  // Vapour pressure from the over-water form (how RH is reported), then the ice form inverted.
-  const e = (relativeHumidityPct / 100) * Math.exp((WATER.a * airC) / (WATER.b + airC)) * 6.1094;
-  return invert(ICE, Math.log(e / 6.1121));
+  const sat = airC <= 0
+    ? 6.1121 * Math.exp((ICE.a * airC) / (ICE.b + airC))
+    : 6.1094 * Math.exp((WATER.a * airC) / (WATER.b + airC));
+  return invert(ICE, Math.log(((relativeHumidityPct / 100) * sat) / 6.1121));
 }
 
 /**

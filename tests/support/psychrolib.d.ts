@@ -1,0 +1,4 @@
+declare module 'psychrolib' {
+  const psychrolib: { SI: number; IP: number; SetUnitSystem(u: number): void; GetTDewPointFromRelHum(t: number, rh: number): number };
+  export default psychrolib;
+}

@@ -1,4 +1,5 @@
-import { KELVIN, R_AIR, STANDARD_PRESSURE } from './constants';
+// Constants repeated here (not imported) because this is the innermost loop of every solve.
+const KELVIN = 273.15, R_AIR = 287.05287, STANDARD_PRESSURE = 101325;
 
 /**
  * Dry air at 101.325 kPa, properties at a film temperature.
@@ -35,7 +36,7 @@ function cpAir(T: number): number {
 export function airPropertiesAt(T: number, pressurePa = STANDARD_PRESSURE): AirProperties {
   const t15 = T * Math.sqrt(T);
   const mu = (1.458e-6 * t15) / (T + 110.4);
-  const k = (2.64638e-3 * t15) / (T + 245.4 * Math.pow(10, -12 / T));
+  const k = (2.64638e-3 * t15) / (T + 245.4 * Math.exp(-27.631021115928547 / T)); // 10^(−12/T)
   const rho = pressurePa / (R_AIR * T);
   const cp = cpAir(T);
   return { k, nu: mu / rho, pr: (mu * cp) / k, beta: 1 / T };
@@ -44,4 +45,19 @@ export function airPropertiesAt(T: number, pressurePa = STANDARD_PRESSURE): AirP
 /** Air properties at the film temperature of a surface and the air, both in °C. */
 export function filmAirProperties(surfaceC: number, airC: number): AirProperties {
   return airPropertiesAt((surfaceC + airC) / 2 + KELVIN);
+}
+
+/**
+ * Allocation-free form of `airPropertiesAt` for the solver's inner loop: returns k and leaves
+ * ν, Pr and β in `AIR_SCRATCH`.
+ */
+export const AIR_SCRATCH = { nu: 0, pr: 0, beta: 0 };
+export function airConductivityAt(T: number): number {
+  const t15 = T * Math.sqrt(T);
+  const mu = (1.458e-6 * t15) / (T + 110.4);
+  const k = (2.64638e-3 * t15) / (T + 245.4 * Math.exp(-27.631021115928547 / T));
+  AIR_SCRATCH.nu = mu / (STANDARD_PRESSURE / (R_AIR * T));
+  AIR_SCRATCH.pr = (mu * cpAir(T)) / k;
+  AIR_SCRATCH.beta = 1 / T;
+  return k;
 }

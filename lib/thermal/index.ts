@@ -15,3 +15,4 @@ export * from './surface';
 export * from './thickness';
 export * from './units';
 export const CALCULATION_VERSION = '2026.12-1';
+export * from './defaults';

@@ -2,9 +2,9 @@ import { compileConductivity, type Conductivity } from './conductivity';
 import { capitalRecoveryFactor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
 import { condensationThresholdC } from './psychro';
-import { solveSteady, type SolidLayer, type SteadyResult } from './solve';
+import { prepareChain, solveChain, solveSteady, type PreparedChain, type SolveHint, type SolidLayer, type SteadyResult } from './solve';
 import { condensateKgPerHour, saturatedSteamAtPressure } from './steam';
-import { isPipe, type Geometry } from './surface';
+import { isPipe, type Ambient, type Geometry } from './surface';
 import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
 import { pipeByOutsideDiameter } from './pipes';
 
@@ -68,6 +68,8 @@ export interface CriterionOutcome {
 
 export interface Recommendation {
   recommendedMm: number | null;
+  /** Criteria that no candidate meets (the recommendation meets the others). */
+  unmet: CriterionId[];
   layers: { materialId: string; thicknessMm: number }[];
   governing: CriterionId | null;
   outcomes: CriterionOutcome[];
@@ -79,11 +81,29 @@ export interface Recommendation {
   warnings: string[];
 }
 
+const NO_INTERFACES: number[] = [];
 const compiled = new WeakMap<InsulationMaterial, Conductivity>();
 function cond(m: InsulationMaterial): Conductivity {
   let c = compiled.get(m);
   if (!c) { c = compileConductivity(m.conductivity); compiled.set(m, c); }
   return c;
+}
+
+// Candidates depend only on the material system and whether an inner layer is needed: cached.
+const candidateCache = new WeakMap<MaterialSystem, Map<string, { all: (Candidate | null)[]; layersCache: SolidLayer[][] }>>();
+function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: number) {
+  const needInner = !!system.inner && (hotFaceC > system.outer.maxServiceC || coldFaceC < system.outer.minServiceC);
+  let m = candidateCache.get(system);
+  if (!m) { m = new Map(); candidateCache.set(system, m); }
+  const key = needInner ? 'inner' : 'single';
+  let v = m.get(key);
+  if (!v) {
+    const cands = buildCandidates({ outer: system.outer, inner: system.inner, hotFaceC, coldFaceC, series: system.series });
+    const all: (Candidate | null)[] = [null, ...cands]; // index 0 = bare
+    v = { all, layersCache: all.map((c) => (c ? layersOf(c) : [])) };
+    m.set(key, v);
+  }
+  return v;
 }
 
 function layersOf(c: Candidate): SolidLayer[] {
@@ -152,6 +172,7 @@ function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, pr
 export function recommendLine(line: LineCase, system: MaterialSystem, crit: Criteria): Recommendation {
   const pipe = isPipe(line.geometry);
   const warnings: string[] = [];
+  const bareEps = 0.8; // bare oxidised steel
   const base = {
     geometry: line.geometry,
     pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
@@ -159,34 +180,58 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     characteristicLengthM: line.characteristicLengthM ?? 1,
   };
   const emittance = system.jacket.emittance;
-  const amb = (c: ConditionSet, eps = emittance) => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance: eps });
+  const ambCache = new Map<ConditionSet, [Ambient, Ambient]>();
+  const amb = (c: ConditionSet, eps = emittance): Ambient => {
+    let pair = ambCache.get(c);
+    if (!pair) {
+      const mk = (e: number) => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance: e });
+      pair = [mk(emittance), mk(bareEps)];
+      ambCache.set(c, pair);
+    }
+    return eps === emittance ? pair[0] : pair[1];
+  };
   const maxC = line.maxTempC ?? line.normalTempC;
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
-  const cands = buildCandidates({ outer: system.outer, inner: system.inner, hotFaceC: Math.max(maxC, line.normalTempC), coldFaceC: Math.min(maxC, line.normalTempC), series: system.series });
-  const all: (Candidate | null)[] = [null, ...cands]; // index 0 = bare
-  const layersCache = all.map((c) => (c ? layersOf(c) : []));
-  const bareEps = 0.8; // bare oxidised steel
+  const { all, layersCache } = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
+  // Built field by field: an object spread here costs more than the whole chain (measured).
+  const chains: PreparedChain[] = layersCache.map((layers) => prepareChain({ geometry: base.geometry, pipeOuterDiameterM: base.pipeOuterDiameterM, heightM: base.heightM, characteristicLengthM: base.characteristicLengthM, layers }));
 
-  const solveAt = (i: number, processC: number, c: ConditionSet, hint?: number) =>
-    solveSteady({ ...base, processC, ambient: amb(c, i === 0 ? bareEps : emittance), layers: layersCache[i] }, hint);
+  interface Solved { Q: number; Ts: number; h: SolveHint; limitOk: boolean; interfacesC: number[] }
+  /** Lean solve of candidate i: heat flow, surface temperature, combined surface coefficient, service limits. */
+  const solveAt = (i: number, processC: number, c: ConditionSet, hint?: SolveHint): Solved => {
+    const a = amb(c, i === 0 ? bareEps : emittance);
+    const chain = chains[i];
+    const r = solveChain(chain, processC, a, hint);
+    const layers = layersCache[i];
+    let limitOk = true;
+    const t = chain.temps, first = t.length - layers.length;
+    for (let j = 0; j < layers.length; j++) {
+      const a = first + j - 1 >= 0 ? t[first + j - 1] : processC, b = t[first + j];
+      const hi = a > b ? a : b, lo = a > b ? b : a;
+      const L = layers[j];
+      if ((L.maxServiceC !== undefined && hi > L.maxServiceC) || (L.minServiceC !== undefined && lo < L.minServiceC)) limitOk = false;
+    }
+    const interfacesC = layers.length > 1 ? t.slice(first, t.length - 1) : NO_INTERFACES;
+    return { Q: r.Q, Ts: r.Ts, h: r.hint, limitOk, interfacesC };
+  };
 
   const wants = (p: Purpose) => line.purposes.includes(p);
   const econ = crit.economics ?? DEFAULT_ECONOMICS;
   const prices = crit.prices ?? DEFAULT_PRICES;
 
   // Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share them.
-  const hl: SteadyResult[] = [];
-  let hint: number | undefined;
+  const hl: Solved[] = [];
+  let hint: SolveHint | undefined;
   for (let i = 0; i < all.length; i++) {
     const r = solveAt(i, line.normalTempC, crit.conditions.heatLoss, i > 1 ? hint : undefined);
-    hint = r.convectiveWPerM2K + r.radiativeWPerM2K;
+    hint = r.h;
     hl.push(r);
   }
   const results: CandidateResult[] = all.map((c, i) => ({
     totalMm: c?.totalMm ?? 0,
     layers: c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [],
-    heatLoss: { heatFlow: hl[i].heatFlow, surfaceC: hl[i].surfaceC, interfacesC: hl[i].interfacesC },
-    serviceLimitOk: !hl[i].warnings.some((w) => w.includes('service temperature')),
+    heatLoss: { heatFlow: hl[i].Q, surfaceC: hl[i].Ts, interfacesC: hl[i].interfacesC },
+    serviceLimitOk: hl[i].limitOk,
   }));
 
   const outcomes: CriterionOutcome[] = [];
@@ -196,13 +241,13 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Personnel protection: hottest air, still air, the actual jacket emittance.
   if (wants('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
     const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
-    let h: number | undefined;
+    let h: SolveHint | undefined;
     const idx = scan((i) => {
       const r = solveAt(i, maxC, crit.conditions.personnel, h);
-      h = r.convectiveWPerM2K + r.radiativeWPerM2K;
-      results[i].personnel = { surfaceC: r.surfaceC, interfacesC: r.interfacesC };
-      if (r.warnings.some((w) => w.includes('service temperature'))) results[i].serviceLimitOk = false;
-      return r.surfaceC <= limit;
+      h = r.h;
+      results[i].personnel = { surfaceC: r.Ts, interfacesC: r.interfacesC };
+      if (!r.limitOk) results[i].serviceLimitOk = false;
+      return r.Ts <= limit;
     });
     outcomes.push({ id: 'personnel', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
@@ -214,12 +259,12 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const c = crit.conditions.condensation;
     const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
     const need = th.valueC + crit.dewPointMarginK;
-    let h: number | undefined;
+    let h: SolveHint | undefined;
     const idx = scan((i) => {
       const r = solveAt(i, line.normalTempC, c, h);
-      h = r.convectiveWPerM2K + r.radiativeWPerM2K;
-      results[i].condensation = { surfaceC: r.surfaceC };
-      return r.surfaceC >= need;
+      h = r.h;
+      results[i].condensation = { surfaceC: r.Ts };
+      return r.Ts >= need;
     });
     outcomes.push({ id: 'condensation', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
@@ -229,7 +274,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Heat-loss limit.
   const limit = pipe ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
   if (limit !== undefined && (wants('heatConservation') || wants('processControl'))) {
-    const idx = scan((i) => Math.abs(hl[i].heatFlow) <= limit);
+    const idx = scan((i) => Math.abs(hl[i].Q) <= limit);
     outcomes.push({ id: 'heatLossLimit', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
       : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
@@ -239,7 +284,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (wants('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
     const cp = line.fluidCpJPerKgK ?? 4186;
     const drop = (i: number) => {
-      const u = hl[i].overall.perLengthWPerMK ?? 0;
+      const u = hl[i].Q / (line.normalTempC - crit.conditions.heatLoss.airC || 1);
       const out = outletTempC({ inletC: line.normalTempC, airC: crit.conditions.heatLoss.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
       return Math.abs(line.normalTempC - out);
     };
@@ -252,7 +297,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Freeze protection of a stagnant water line.
   if (wants('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
     const f = crit.freeze, fc = crit.conditions.freeze;
-    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveAt(i, T, fc).heatFlow });
+    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveAt(i, T, fc, hl[i].h).Q });
     const idx = scan((i) => i > 0 && hours(i) >= f.requiredHours);
     outcomes.push({ id: 'freeze', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
@@ -266,8 +311,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const lf = levelisingFactor(econ.discountRate, econ.escalationRate, econ.lifeYears);
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
-      const inst = all[i] ? installedCost(line, all[i]!, hl[i].outerDiameterM ?? 0, prices) : 0;
-      const energy = (Math.abs(hl[i].heatFlow) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
+      const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
+      const energy = (Math.abs(hl[i].Q) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
       const annual = crf * inst + lf * energy;
       Object.assign(results[i], { installedCost: inst, energyCostPerYear: energy, annualCost: annual });
       if (results[i].serviceLimitOk && annual < best) { best = annual; econIdx = i; }
@@ -276,9 +321,9 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   }
 
   // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
-  let governing: CriterionId | null = null, need = 0, unmet = false;
+  let governing: CriterionId | null = null, need = 0;
   for (const o of outcomes) {
-    if (o.requiredMm === null) { unmet = true; warnings.push(o.message); continue; }
+    if (o.requiredMm === null) { warnings.push(o.message); continue; }
     if (o.requiredMm > need || (governing === null && o.requiredMm === need && need > 0)) { need = o.requiredMm; governing = o.id; }
   }
   let recIdx = results.findIndex((r, i) => r.totalMm >= need && (i === 0 || r.serviceLimitOk));
@@ -288,7 +333,9 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
 
   const rec = recIdx >= 0 ? results[recIdx] : null;
-  const design = recIdx >= 0 ? hl[recIdx] : undefined;
+  const design = recIdx >= 0
+    ? solveSteady({ ...base, processC: line.normalTempC, ambient: amb(crit.conditions.heatLoss, recIdx === 0 ? bareEps : emittance), layers: layersCache[recIdx] }, hl[recIdx].h.h)
+    : undefined;
   if (design) warnings.push(...design.warnings.filter((w) => !warnings.includes(w)));
   const extent = pipe ? line.lengthM ?? 1 : line.areaM2 ?? 1;
   const annual = design ? (() => {
@@ -301,7 +348,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     condensate = condensateKgPerHour(design.heatFlow * extent, saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg);
   }
   return {
-    recommendedMm: unmet && rec === null ? null : rec?.totalMm ?? null,
+    recommendedMm: rec?.totalMm ?? null,
+    unmet: outcomes.filter((o) => o.requiredMm === null).map((o) => o.id),
     layers: rec?.layers ?? [],
     governing,
     outcomes,

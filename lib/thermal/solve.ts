@@ -56,9 +56,14 @@ export interface SteadyResult {
   iterations: number;
 }
 
-interface Element { film: boolean; factor: number; cond?: Conductivity; r1: number; r2: number }
+export interface Element { film: boolean; factor: number; cond: Conductivity | undefined; r1: number; r2: number }
 
 /** Builds the resistance chain: inner film, wall, layers — each with its geometric factor. */
+// One constructor so every element has the same hidden class (monomorphic access in the loops).
+function el(film: boolean, factor: number, cond: Conductivity | undefined, r1: number, r2: number): Element {
+  return { film, factor, cond, r1, r2 };
+}
+
 function buildChain(c: SteadyCase) {
   const pipe = isPipe(c.geometry);
   const els: Element[] = [];
@@ -66,19 +71,19 @@ function buildChain(c: SteadyCase) {
   let r = pipe ? c.pipeOuterDiameterM / 2 - wallT : 0; // for walls r is the depth from the process face
   const rInner = r;
   if (c.innerFilmWPerM2K) {
-    els.push({ film: true, factor: pipe ? 1 / (c.innerFilmWPerM2K * 2 * Math.PI * r) : 1 / c.innerFilmWPerM2K, r1: r, r2: r });
+    els.push(el(true, pipe ? 1 / (c.innerFilmWPerM2K * 2 * Math.PI * r) : 1 / c.innerFilmWPerM2K, undefined, r, r));
   }
   const solids = c.wall ? [{ thicknessM: wallT, conductivity: c.wall.conductivity }, ...c.layers] : c.layers;
   for (const l of solids) {
     const r2 = r + l.thicknessM;
-    els.push({ film: false, factor: pipe ? Math.log(r2 / r) / (2 * Math.PI) : l.thicknessM, cond: l.conductivity, r1: r, r2 });
+    els.push(el(false, pipe ? Math.log(r2 / r) / (2 * Math.PI) : l.thicknessM, l.conductivity, r, r2));
     r = r2;
   }
   return { els, rInner, rOuter: r, pipe };
 }
 
 /** Temperature after each element for a heat flow Q; NaN when a conductivity model cannot carry it. */
-function march(els: Element[], Tp: number, Q: number, out?: number[]): number {
+function march(els: Element[], Tp: number, Q: number, out?: { [i: number]: number }): number {
   let T = Tp;
   for (let i = 0; i < els.length; i++) {
     const e = els[i];
@@ -90,18 +95,20 @@ function march(els: Element[], Tp: number, Q: number, out?: number[]): number {
 }
 
 /** dTs/dQ along the chain: from ∫k dT = Q·f per element, k(T_in)·dT_in − k(T_out)·dT_out = f·dQ. */
-function marchSlope(els: Element[], Tp: number, Q: number): { Ts: number; dTsdQ: number } {
+const SLOPE = { dTsdQ: 0 };
+function marchSlope(els: Element[], Tp: number, Q: number): number {
   let T = Tp, d = 0;
   for (let i = 0; i < els.length; i++) {
     const e = els[i];
     if (e.film) { T -= Q * e.factor; d -= e.factor; continue; }
     const kin = e.cond!.k(T);
     const Tout = e.cond!.solveOut(T, Q * e.factor);
-    if (Tout !== Tout) return { Ts: NaN, dTsdQ: NaN };
+    if (Tout !== Tout) return NaN;
     d = (kin * d - e.factor) / e.cond!.k(Tout);
     T = Tout;
   }
-  return { Ts: T, dTsdQ: d };
+  SLOPE.dTsdQ = d;
+  return T;
 }
 
 /**
@@ -111,14 +118,15 @@ function marchSlope(els: Element[], Tp: number, Q: number): { Ts: number; dTsdQ:
  * takes over in the rare case this has not converged, so the answer always exists.
  */
 function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, shape: OuterShape, amb: Ambient, guess: number) {
-  const tol = Math.abs(Qb) * 1e-10;
+  const tol = Math.abs(Qb) * 1e-8;
   let lo = 0, hi = Qb; // g(lo) has the sign of Qb, g(hi) the opposite (or zero)
   let Q = guess > Math.min(lo, hi) && guess < Math.max(lo, hi) ? guess : 0.5 * Qb;
   const sgn = Qb > 0 ? 1 : -1;
   let prevTs = NaN, prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
-    const { Ts, dTsdQ } = marchSlope(els, Tp, Q);
+    const Ts = marchSlope(els, Tp, Q);
     if (Ts !== Ts) { hi = Q; Q = 0.5 * (lo + hi); continue; }
+    const dTsdQ = SLOPE.dTsdQ;
     const flux = surfaceFlux(shape, Ts, amb);
     const g = area * flux - Q;
     if (Math.abs(g) <= tol) return { Q, iterations: it };
@@ -130,7 +138,7 @@ function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, sha
       const dT = Ts - amb.airC;
       const t = Ts + 273.15;
       const hc = dT !== 0 ? (flux - radiativeFlux(Ts, amb)) / dT : 0;
-      dflux = 1.25 * hc + 4 * amb.emittance * 5.670374419e-8 * t * t * t;
+      dflux = 1.25 * hc + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
     }
     prevTs = Ts; prevFlux = flux;
     const dg = area * dflux * dTsdQ - 1; // negative
@@ -145,38 +153,96 @@ function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, sha
   return { Q: r.x, iterations: 40 + r.iterations };
 }
 
+/** A case's resistance chain and outside shape, prepared once and solved under many conditions. */
+export interface PreparedChain {
+  els: Element[];
+  /** The same chain with neighbouring layers of one material merged (their ∫k dT composes), for iterating. */
+  fast: Element[];
+  rInner: number;
+  rOuter: number;
+  pipe: boolean;
+  shape: OuterShape;
+  /** Outside area per metre (pipes) or per m² (flat). */
+  area: number;
+  /** Boundary temperatures after each element for the last solve. */
+  temps: number[];
+}
+
+export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): PreparedChain {
+  const { els, rInner, rOuter, pipe } = buildChain(c as SteadyCase);
+  const shape: OuterShape = { geometry: c.geometry, diameterM: 2 * rOuter, heightM: c.heightM, characteristicLengthM: c.characteristicLengthM };
+  const fast: Element[] = [];
+  for (const e of els) {
+    const last = fast[fast.length - 1];
+    if (last && !e.film && !last.film && last.cond === e.cond) {
+      fast[fast.length - 1] = el(false, pipe ? Math.log(e.r2 / last.r1) / (2 * Math.PI) : last.factor + e.factor, e.cond, last.r1, e.r2);
+    } else fast.push(e);
+  }
+  return { els, fast, rInner, rOuter, pipe, shape, area: pipe ? 2 * Math.PI * rOuter : 1, temps: new Array<number>(els.length).fill(0) };
+}
+
+/**
+ * The numerical core: heat flow Q and surface temperature for a prepared chain. Leaves the boundary
+ * temperatures in `chain.temps`. No allocation beyond the solver's closure, for bulk use.
+ */
+/**
+ * What a neighbouring solve learned, to start the next one close: the combined surface coefficient
+ * and the ratio of the true conduction resistance to its k-at-mean-temperature estimate.
+ */
+export interface SolveHint { h: number; resistanceRatio: number }
+
+export function solveChain(chain: PreparedChain, processC: number, amb: Ambient, hint?: number | SolveHint): { Q: number; Ts: number; iterations: number; hint: SolveHint } {
+  const hintCoefficientWPerM2K = typeof hint === 'number' ? hint : hint?.h;
+  const ratio = typeof hint === 'object' && hint.resistanceRatio > 0 ? hint.resistanceRatio : 1;
+  const { els, fast, area, shape } = chain;
+  const Tp = processC;
+  const Qb = area * surfaceFlux(shape, Tp, amb);
+  let Q = Qb, iterations = 0;
+  if (els.length > 0 && Qb !== 0) {
+    // First guess: series resistances, k at the mean of process and air, and the surface coefficient
+    // either hinted by the caller (e.g. the previous thickness) or evaluated 15 % of the way up.
+    const Tm = 0.5 * (Tp + amb.airC);
+    let h0 = hintCoefficientWPerM2K ?? 0;
+    if (!(h0 > 0)) {
+      const Ts0 = amb.airC + 0.15 * (Tp - amb.airC);
+      h0 = surfaceFlux(shape, Ts0, amb) / (Ts0 - amb.airC);
+      if (!(h0 > 0)) h0 = 5;
+    }
+    let Rc = 0;
+    for (const e of fast) Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm);
+    const r = solveHeatFlow(fast, Tp, Qb, area, shape, amb, (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)));
+    Q = r.Q; iterations = r.iterations;
+    const Ts = march(els, Tp, Q, chain.temps);
+    const dTs = Ts - amb.airC;
+    return { Q, Ts, iterations, hint: { h: dTs !== 0 ? Q / area / dTs : h0, resistanceRatio: Q !== 0 ? (Tp - Ts) / Q / Rc : 1 } };
+  } else if (Qb === 0) Q = 0;
+  const Ts = els.length ? march(els, Tp, Q, chain.temps) : Tp;
+  const dTs = Ts - amb.airC;
+  return { Q, Ts, iterations, hint: { h: dTs !== 0 ? Q / area / dTs : 5, resistanceRatio: 1 } };
+}
+
+/** The highest / lowest temperature each insulation layer sees in the last solve of the chain. */
+export function layerFaceTemps(chain: PreparedChain, processC: number, layerCount: number, i: number): [number, number] {
+  const first = chain.els.length - layerCount;
+  const hot = first + i - 1 >= 0 ? chain.temps[first + i - 1] : processC;
+  const cold = chain.temps[first + i];
+  return hot > cold ? [hot, cold] : [cold, hot];
+}
+
 /**
  * Steady heat flow through concentric cylindrical (or flat) layers with temperature-dependent
  * conductivity, to an outside surface losing heat by convection and radiation.
  * Method: ASTM C680 / ISO 12241 — each layer's flow is S·∫k dT (Kirchhoff transform, exact for the
- * given k(T)); the heat flow Q is found with Brent's method on the bracket [0, Q_bare-at-T_process],
+ * given k(T)); the heat flow Q is found by a bracketed Newton iteration on [0, Q_bare-at-T_process],
  * where the residual (outside loss at the marched surface temperature − Q) is monotone. One Q passes
  * every layer by construction, so the energy balance closes at every interface.
  */
 export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
-  const { els, rInner, rOuter, pipe } = buildChain(c);
-  const shape: OuterShape = { geometry: c.geometry, diameterM: 2 * rOuter, heightM: c.heightM, characteristicLengthM: c.characteristicLengthM };
-  const area = pipe ? 2 * Math.PI * rOuter : 1; // outside area per metre (pipes) or per m²
+  const chain = prepareChain(c);
+  const { els, rInner, rOuter, pipe, shape } = chain;
   const Tp = c.processC;
-  const Qb = area * surfaceFlux(shape, Tp, c.ambient);
-  let Q = Qb, Ts = Tp, iterations = 0;
-  if (els.length > 0 && Qb !== 0) {
-    // First guess: series resistances, k at the mean of process and air, and the surface coefficient
-    // either hinted by the caller (e.g. the previous thickness) or evaluated 15 % of the way up.
-    const Tm = 0.5 * (Tp + c.ambient.airC);
-    let h0 = hintCoefficientWPerM2K ?? 0;
-    if (!(h0 > 0)) {
-      const Ts0 = c.ambient.airC + 0.15 * (Tp - c.ambient.airC);
-      h0 = surfaceFlux(shape, Ts0, c.ambient) / (Ts0 - c.ambient.airC);
-      if (!(h0 > 0)) h0 = 5;
-    }
-    let R = 1 / (h0 * area);
-    for (const e of els) R += e.film ? e.factor : e.factor / e.cond!.k(Tm);
-    const r = solveHeatFlow(els, Tp, Qb, area, shape, c.ambient, (Tp - c.ambient.airC) / R);
-    Q = r.Q; iterations = r.iterations;
-  } else if (Qb === 0) { Q = 0; }
-  const temps = new Array<number>(els.length);
-  Ts = els.length ? march(els, Tp, Q, temps) : Tp;
+  const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K);
+  const temps = Array.from(chain.temps);
 
   const warnings: string[] = [];
   const detail = c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient) : undefined;
@@ -191,9 +257,7 @@ export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): Ste
   els.forEach((e, i) => profileC.push({ radiusOrDepthM: e.r2, tempC: temps[i] }));
   const interfacesC = c.layers.slice(0, -1).map((_, i) => temps[first + i]);
   c.layers.forEach((l, i) => {
-    const hotFace = first + i - 1 >= 0 ? temps[first + i - 1] : Tp;
-    const coldFace = temps[first + i];
-    const hi = Math.max(hotFace, coldFace), lo = Math.min(hotFace, coldFace);
+    const [hi, lo] = layerFaceTemps(chain, Tp, c.layers.length, i);
     const label = l.name ?? `layer ${i + 1}`;
     if (l.maxServiceC !== undefined && hi > l.maxServiceC + 1e-9) warnings.push(`${label}: ${hi.toFixed(1)} °C exceeds its maximum service temperature of ${l.maxServiceC} °C`);
     if (l.minServiceC !== undefined && lo < l.minServiceC - 1e-9) warnings.push(`${label}: ${lo.toFixed(1)} °C is below its minimum service temperature of ${l.minServiceC} °C`);

@@ -1,7 +1,10 @@
-import { filmAirProperties } from './air';
-import { GRAVITY, KELVIN, STEFAN_BOLTZMANN } from './constants';
+import { AIR_SCRATCH, airConductivityAt, filmAirProperties } from './air';
+// Constants repeated here (not imported) because these run in the innermost loop.
+const GRAVITY = 9.80665, KELVIN = 273.15, STEFAN_BOLTZMANN = 5.670374419e-8;
 import {
-  checkRange, FORCED_CONVECTION, NATURAL_CONVECTION, type ForcedName, type NaturalName,
+  checkRange, FORCED_CONVECTION, NATURAL_CONVECTION, nusseltCrossflowCylinderChurchillBernstein, nusseltFlatPlateAverage,
+  nusseltHorizontalCylinderChurchillChu, nusseltHorizontalPlateAssistedLloydMoran, nusseltHorizontalPlateOpposedMcAdams,
+  nusseltVerticalPlateChurchillChu, type ForcedName, type NaturalName,
 } from './correlations';
 
 export type Geometry = 'horizontal-pipe' | 'vertical-pipe' | 'vertical-wall' | 'horizontal-wall-up' | 'horizontal-wall-down';
@@ -68,9 +71,29 @@ export function convectionDetail(shape: OuterShape, TsC: number, amb: Ambient): 
   return { h, natural: c.natural, ra, hNatural, forced: c.forced, re, hForced };
 }
 
-/** Hot-path form of `convectionDetail`: the coefficient only. */
+/** Hot-path form of `convectionDetail`: the coefficient only, with no allocation. */
 export function convectiveCoefficient(shape: OuterShape, TsC: number, amb: Ambient): number {
-  return convectionDetail(shape, TsC, amb).h;
+  const dT = TsC - amb.airC;
+  if (dT === 0 && !(amb.windMs > 0)) return 0;
+  const T = 0.5 * (TsC + amb.airC) + KELVIN;
+  const k = airConductivityAt(T);
+  const air = AIR_SCRATCH;
+  const g = shape.geometry;
+  const hot = dT > 0;
+  const Ln = g === 'horizontal-pipe' ? shape.diameterM : g === 'vertical-pipe' || g === 'vertical-wall' ? shape.heightM : shape.characteristicLengthM;
+  const ra = (GRAVITY * air.beta * Math.abs(dT) * Ln * Ln * Ln * air.pr) / (air.nu * air.nu);
+  let nuN: number;
+  if (ra <= 0) nuN = 0;
+  else if (g === 'horizontal-pipe') nuN = nusseltHorizontalCylinderChurchillChu(ra, air.pr);
+  else if (g === 'vertical-pipe' || g === 'vertical-wall') nuN = nusseltVerticalPlateChurchillChu(ra, air.pr);
+  else nuN = (g === 'horizontal-wall-up') === hot ? nusseltHorizontalPlateAssistedLloydMoran(ra) : nusseltHorizontalPlateOpposedMcAdams(ra);
+  const hN = (nuN * k) / Ln;
+  if (!(amb.windMs > 0)) return hN;
+  const Lf = g === 'horizontal-pipe' || g === 'vertical-pipe' ? shape.diameterM : Ln;
+  const re = (amb.windMs * Lf) / air.nu;
+  const nuF = Lf === shape.diameterM && (g === 'horizontal-pipe' || g === 'vertical-pipe') ? nusseltCrossflowCylinderChurchillBernstein(re, air.pr) : nusseltFlatPlateAverage(re, air.pr);
+  const hF = (nuF * k) / Lf;
+  return Math.cbrt(hF * hF * hF + hN * hN * hN);
 }
 
 /** Radiative flux εσ(Ts⁴ − Tsur⁴), W/m². */

@@ -118,7 +118,7 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
  * takes over in the rare case this has not converged, so the answer always exists.
  */
 function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, shape: OuterShape, amb: Ambient, guess: number) {
-  const tol = Math.abs(Qb) * 1e-8;
+  const tol = Math.abs(Qb) * 1e-9;
   let lo = 0, hi = Qb; // g(lo) has the sign of Qb, g(hi) the opposite (or zero)
   let Q = guess > Math.min(lo, hi) && guess < Math.max(lo, hi) ? guess : 0.5 * Qb;
   const sgn = Qb > 0 ? 1 : -1;

@@ -1,0 +1,5 @@
+export * from './fields';
+export * from './mapping';
+export * from './parse';
+export * from './validate';
+export * from './diff';

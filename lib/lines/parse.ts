@@ -1,0 +1,109 @@
+import ExcelJS from 'exceljs';
+import { Readable } from 'node:stream';
+
+export type CellValue = string | number | boolean | null;
+
+export interface ParsedSheet {
+  name: string;
+  hidden: boolean;
+  /** Spreadsheet row number of the header row (1-based). */
+  headerRow: number;
+  headers: string[];
+  /** Data rows after the header, with their spreadsheet row numbers. */
+  rows: { row: number; cells: CellValue[] }[];
+  /** Cells whose value came from a formula's cached result, and merged cells: "B7". */
+  formulaCells: string[];
+  mergedCells: string[];
+}
+
+export interface ParsedFile { kind: 'xlsx' | 'csv'; sheets: ParsedSheet[] }
+
+export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
+export const MAX_ROWS = 50_000;
+
+export class ParseError extends Error {}
+
+export function columnLetter(index: number): string {
+  let s = '', n = index + 1;
+  while (n > 0) { const m = (n - 1) % 26; s = String.fromCharCode(65 + m) + s; n = Math.floor((n - 1) / 26); }
+  return s;
+}
+
+function plain(v: unknown): { value: CellValue; formula: boolean } {
+  if (v === null || v === undefined) return { value: null, formula: false };
+  if (typeof v === 'string') return { value: v.trim() === '' ? null : v.trim(), formula: false };
+  if (typeof v === 'number' || typeof v === 'boolean') return { value: v, formula: false };
+  if (v instanceof Date) return { value: v.toISOString().slice(0, 10), formula: false };
+  if (typeof v === 'object') {
+    const o = v as Record<string, unknown>;
+    if ('formula' in o || 'sharedFormula' in o) {
+      const r = plain(o.result);
+      return { value: r.value, formula: true };
+    }
+    if ('richText' in o && Array.isArray(o.richText)) return plain((o.richText as { text: string }[]).map((t) => t.text).join(''));
+    if ('text' in o) return plain(o.text);
+    if ('error' in o) return { value: null, formula: false };
+  }
+  return { value: String(v), formula: false };
+}
+
+function fromWorksheet(ws: ExcelJS.Worksheet): ParsedSheet {
+  const grid: { row: number; cells: CellValue[] }[] = [];
+  const formulaCells: string[] = [];
+  const mergedCells: string[] = [];
+  ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
+    const cells: CellValue[] = [];
+    row.eachCell({ includeEmpty: true }, (cell, col) => {
+      const p = plain(cell.value);
+      cells[col - 1] = p.value;
+      if (p.formula) formulaCells.push(`${columnLetter(col - 1)}${rowNumber}`);
+      if (cell.isMerged && cell.master !== cell) mergedCells.push(`${columnLetter(col - 1)}${rowNumber}`);
+    });
+    for (let i = 0; i < cells.length; i++) if (cells[i] === undefined) cells[i] = null;
+    if (cells.some((c) => c !== null)) grid.push({ row: rowNumber, cells });
+  });
+  const header = grid.shift();
+  return {
+    name: ws.name,
+    hidden: ws.state === 'hidden' || ws.state === 'veryHidden',
+    headerRow: header?.row ?? 1,
+    headers: (header?.cells ?? []).map((c) => (c === null ? '' : String(c))),
+    rows: grid,
+    formulaCells,
+    mergedCells,
+  };
+}
+
+/** Reads an uploaded .xlsx or .csv into sheets of plain cell values; throws ParseError with a user message. */
+export async function parseUpload(fileName: string, bytes: Buffer): Promise<ParsedFile> {
+  if (bytes.length === 0) throw new ParseError('The file is empty.');
+  if (bytes.length > MAX_UPLOAD_BYTES) throw new ParseError(`The file is ${(bytes.length / 1048576).toFixed(1)} MB; the limit is 20 MB. Split the line list or remove unused sheets.`);
+  const lower = fileName.toLowerCase();
+  const isZip = bytes[0] === 0x50 && bytes[1] === 0x4b;
+  const isOle = bytes[0] === 0xd0 && bytes[1] === 0xcf && bytes[2] === 0x11 && bytes[3] === 0xe0;
+  let sheets: ParsedSheet[];
+  if (lower.endsWith('.xlsx') || lower.endsWith('.xlsm')) {
+    if (isOle) throw new ParseError('This workbook is password-protected (encrypted) or in the old .xls format. Remove the password, or save it as .xlsx, and upload again.');
+    if (!isZip) throw new ParseError('This file is not a valid .xlsx workbook (it may be corrupt or renamed). Open it in a spreadsheet program and save it as .xlsx.');
+    const wb = new ExcelJS.Workbook();
+    try { await wb.xlsx.load(bytes as unknown as ArrayBuffer); }
+    catch { throw new ParseError('This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.'); }
+    sheets = wb.worksheets.map(fromWorksheet);
+  } else if (lower.endsWith('.csv')) {
+    let text: string;
+    try { text = new TextDecoder('utf-8', { fatal: true }).decode(bytes); }
+    catch { throw new ParseError('This CSV file is not UTF-8 text. Save it as "CSV UTF-8" and upload again.'); }
+    if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+    const wb = new ExcelJS.Workbook();
+    try { await wb.csv.read(Readable.from([text]), { sheetName: 'CSV' } as never); }
+    catch { throw new ParseError('This CSV file could not be read: check the separators and quotes.'); }
+    sheets = wb.worksheets.map(fromWorksheet);
+  } else if (lower.endsWith('.xls')) {
+    throw new ParseError('Old .xls workbooks are not read. Save the file as .xlsx (or CSV UTF-8) and upload again.');
+  } else {
+    throw new ParseError('Upload the line list as an .xlsx workbook or a .csv file.');
+  }
+  if (sheets.length === 0 || sheets.every((s) => s.headers.length === 0)) throw new ParseError('The file has no sheet with data.');
+  for (const s of sheets) if (s.rows.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.rows.length} rows; the limit is ${MAX_ROWS}.`);
+  return { kind: lower.endsWith('.csv') ? 'csv' : 'xlsx', sheets };
+}

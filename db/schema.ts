@@ -1,6 +1,6 @@
 import { relations, sql } from 'drizzle-orm';
 import {
-  index, integer, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
+  boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core';
 
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
@@ -71,6 +71,130 @@ export const signInFailures = pgTable('sign_in_failures', {
   at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index('sign_in_failures_email_idx').on(t.email, t.at), index('sign_in_failures_ip_idx').on(t.ip, t.at)]);
 
+export const geometryEnum = pgEnum('line_geometry', ['horizontal-pipe', 'vertical-pipe', 'vessel', 'flat']);
+
+/** The project's design basis; every saved change bumps the revision, which marks results stale. */
+export const designBases = pgTable('design_bases', {
+  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  revision: integer('revision').notNull().default(1),
+  basis: jsonb('basis').notNull(),
+  updatedBy: text('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Column mapping remembered per project for the next revision. */
+export const columnMappings = pgTable('column_mappings', {
+  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  headers: jsonb('headers').notNull(),
+  mapping: jsonb('mapping').notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** An uploaded file, parsed, waiting for mapping and import. */
+export const importDrafts = pgTable('import_drafts', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  createdBy: text('created_by').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  fileName: text('file_name').notNull(),
+  parsed: jsonb('parsed').notNull(),
+  importedRevision: integer('imported_revision'),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const lineListRevisions = pgTable('line_list_revisions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  number: integer('number').notNull(),
+  fileName: text('file_name').notNull(),
+  sheetName: text('sheet_name').notNull(),
+  lineCount: integer('line_count').notNull(),
+  diff: jsonb('diff').notNull(),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [uniqueIndex('line_list_revisions_number_key').on(t.projectId, t.number)]);
+
+export const lines = pgTable('lines', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  tag: text('tag').notNull(),
+  service: text('service').notNull().default(''),
+  area: text('area').notNull().default(''),
+  geometry: geometryEnum('geometry').notNull(),
+  nps: text('nps'),
+  outsideDiameterMm: doublePrecision('outside_diameter_mm'),
+  lengthM: doublePrecision('length_m'),
+  surfaceAreaM2: doublePrecision('surface_area_m2'),
+  heightM: doublePrecision('height_m'),
+  normalTempC: doublePrecision('normal_temp_c').notNull(),
+  maxTempC: doublePrecision('max_temp_c'),
+  steamPressureBarG: doublePrecision('steam_pressure_bar_g'),
+  flowKgPerS: doublePrecision('flow_kg_per_s'),
+  fluidCpKJPerKgK: doublePrecision('fluid_cp_kj_per_kg_k'),
+  elbows: integer('elbows').notNull().default(0),
+  tees: integer('tees').notNull().default(0),
+  valves: integer('valves').notNull().default(0),
+  flanges: integer('flanges').notNull().default(0),
+  purposes: text('purposes').array().notNull(),
+  outdoor: boolean('outdoor').notNull().default(true),
+  accessible: boolean('accessible').notNull().default(true),
+  accessHeightM: doublePrecision('access_height_m'),
+  jacketId: text('jacket_id'),
+  notes: text('notes').notNull().default(''),
+  /** Bumped when a thermal input changes. */
+  inputVersion: integer('input_version').notNull().default(1),
+  revision: integer('revision').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag), index('lines_project_area_idx').on(t.projectId, t.area)]);
+
+/** The engine's answer for a line, with what it was computed from (for stale marking). */
+export const lineResults = pgTable('line_results', {
+  lineId: uuid('line_id').primaryKey().references(() => lines.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  calcVersion: text('calc_version').notNull(),
+  basisRevision: integer('basis_revision').notNull(),
+  inputVersion: integer('input_version').notNull(),
+  inputHash: text('input_hash').notNull(),
+  recommendedMm: doublePrecision('recommended_mm'),
+  governing: text('governing'),
+  layers: jsonb('layers').notNull(),
+  systemLabel: text('system_label').notNull(),
+  jacketId: text('jacket_id').notNull(),
+  outcomes: jsonb('outcomes').notNull(),
+  candidates: jsonb('candidates').notNull(),
+  unmet: text('unmet').array().notNull(),
+  warnings: jsonb('warnings').notNull(),
+  design: jsonb('design'),
+  heatFlowPerUnit: doublePrecision('heat_flow_per_unit'),
+  totalHeatW: doublePrecision('total_heat_w'),
+  bareHeatW: doublePrecision('bare_heat_w').notNull(),
+  surfaceTempC: doublePrecision('surface_temp_c'),
+  personnelSurfaceC: doublePrecision('personnel_surface_c'),
+  annualMWh: doublePrecision('annual_mwh'),
+  annualCost: doublePrecision('annual_cost'),
+  co2Tonnes: doublePrecision('co2_tonnes'),
+  condensateKgPerH: doublePrecision('condensate_kg_per_h'),
+  solvedAt: timestamp('solved_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index('line_results_project_idx').on(t.projectId)]);
+
+export const designSourceEnum = pgEnum('design_source', ['recommended', 'manual']);
+
+/** The chosen design per line; `version` guards against two people saving over each other. */
+export const lineDesigns = pgTable('line_designs', {
+  lineId: uuid('line_id').primaryKey().references(() => lines.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  thicknessMm: doublePrecision('thickness_mm').notNull(),
+  layers: jsonb('layers').notNull(),
+  source: designSourceEnum('source').notNull(),
+  reason: text('reason'),
+  /** A manual pick below a hard criterion: allowed with a reason, and stays flagged. */
+  belowCriterion: text('below_criterion'),
+  needsRedecision: boolean('needs_redecision').notNull().default(false),
+  redecisionReason: text('redecision_reason'),
+  decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
+  decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
+  version: integer('version').notNull().default(1),
+}, (t) => [index('line_designs_project_idx').on(t.projectId)]);
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships), projects: many(projects),
@@ -89,3 +213,6 @@ export type Membership = typeof memberships.$inferSelect;
 export type Project = typeof projects.$inferSelect;
 export type NewProject = typeof projects.$inferInsert;
 export type Invitation = typeof invitations.$inferSelect;
+export type Line = typeof lines.$inferSelect;
+export type LineResult = typeof lineResults.$inferSelect;
+export type LineDesign = typeof lineDesigns.$inferSelect;

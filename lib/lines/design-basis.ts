@@ -1,0 +1,96 @@
+import { z } from 'zod';
+import { CO2_NATURAL_GAS_KG_PER_KWH, DEFAULT_PRICES } from '@/lib/thermal/economics';
+import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
+
+/**
+ * The project's design basis: the conditions each criterion is checked under, the limits, the
+ * insulation specification by service-temperature band, and the economics. Every default is a
+ * starting point labelled with where it comes from; the project overrides it.
+ */
+const num = (what: string) => z.coerce.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a number` });
+const cond = z.object({ airC: num('Air temperature').min(-60).max(60), windMs: num('Wind').min(0).max(40) });
+const condRh = cond.extend({ relativeHumidityPct: num('Relative humidity').gt(0).max(100) });
+const materialId = z.enum(MATERIALS.map((m) => m.id) as [string, ...string[]], { error: 'Choose a material from the library' });
+const jacketId = z.enum(JACKETS.map((j) => j.id) as [string, ...string[]], { error: 'Choose a jacket from the library' });
+
+export const systemBandSchema = z.object({
+  /** Lines whose normal temperature is in [fromC, toC) use this system. */
+  fromC: num('From').min(-273).max(1200),
+  toC: num('To').min(-273).max(1200),
+  outerId: materialId,
+  innerId: materialId.optional().or(z.literal('').transform(() => undefined)),
+  jacketId,
+});
+
+export const designBasisSchema = z.object({
+  unitSystem: z.enum(['SI', 'US']),
+  conditions: z.object({
+    heatLoss: z.object({ outdoor: cond, indoor: cond }),
+    personnel: z.object({ outdoor: cond, indoor: cond }),
+    condensation: z.object({ outdoor: condRh, indoor: condRh }),
+    freeze: cond,
+  }),
+  touchLimitMetalC: num('Touch limit (metal jacket)').min(30).max(120),
+  touchLimitNonMetalC: num('Touch limit (non-metal jacket)').min(30).max(120),
+  dewPointMarginK: num('Dew-point margin').min(0).max(10),
+  heatLossLimitWPerM: num('Heat-loss limit').positive().optional().or(z.literal('').transform(() => undefined)),
+  maxProcessDropK: num('Allowed temperature change').positive().max(200),
+  freeze: z.object({ initialWaterTempC: num('Starting water temperature').min(0.5).max(90), requiredHours: num('Required hours').positive().max(1000) }),
+  systems: z.array(systemBandSchema).min(1, { error: 'Give at least one material system' }),
+  economics: z.object({
+    energyPricePerKWh: num('Energy price').min(0).max(10),
+    efficiency: num('Heat-generation efficiency').gt(0).max(10),
+    hoursPerYear: num('Operating hours').min(0).max(8784),
+    discountRate: num('Discount rate').min(0).max(1),
+    lifeYears: num('Life').int().min(1).max(60),
+    escalationRate: num('Price escalation').min(-0.5).max(1),
+    co2KgPerKWh: num('CO₂ factor').min(0).max(2),
+  }),
+  prices: z.object({
+    defaultMaterialPerM3: num('Material price').min(0),
+    wasteFraction: num('Waste allowance').min(0).max(1),
+    labourPerMPerLayer: num('Labour per metre per layer').min(0),
+    labourPerM2PerLayer: num('Labour per m² per layer').min(0),
+    jacketPerM2: num('Jacket price').min(0),
+    fittingsAllowanceFraction: num('Fittings allowance').min(0).max(5),
+    materialPerM3: z.record(z.string(), z.number().min(0)),
+  }),
+}).superRefine((b, ctx) => {
+  b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
+});
+export type DesignBasis = z.output<typeof designBasisSchema>;
+
+/** Defaults for a new project; sources named in DEFAULT_BASIS_NOTES. */
+export const DEFAULT_DESIGN_BASIS: DesignBasis = {
+  unitSystem: 'SI',
+  conditions: {
+    heatLoss: { outdoor: { airC: 10, windMs: 3 }, indoor: { airC: 20, windMs: 0 } },
+    personnel: { outdoor: { airC: 35, windMs: 0 }, indoor: { airC: 35, windMs: 0 } },
+    condensation: { outdoor: { airC: 30, windMs: 0.5, relativeHumidityPct: 80 }, indoor: { airC: 25, windMs: 0, relativeHumidityPct: 70 } },
+    freeze: { airC: -15, windMs: 5 },
+  },
+  touchLimitMetalC: 60,
+  touchLimitNonMetalC: 65,
+  dewPointMarginK: 2,
+  maxProcessDropK: 5,
+  freeze: { initialWaterTempC: 10, requiredHours: 8 },
+  systems: [
+    { fromC: -200, toC: 0, outerId: 'polyisocyanurate', innerId: 'cellular-glass', jacketId: 'aluminium-oxidised' },
+    { fromC: 0, toC: 20, outerId: 'elastomeric-foam', jacketId: 'pvc' },
+    { fromC: 20, toC: 600, outerId: 'mineral-wool-pipe', jacketId: 'aluminium-oxidised' },
+    { fromC: 600, toC: 1000, outerId: 'mineral-wool-pipe', innerId: 'calcium-silicate', jacketId: 'stainless-steel' },
+  ],
+  economics: { energyPricePerKWh: 0.045, efficiency: 0.85, hoursPerYear: 8000, discountRate: 0.08, lifeYears: 15, escalationRate: 0.02, co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH },
+  prices: { ...DEFAULT_PRICES },
+};
+
+export const DEFAULT_BASIS_NOTES: Record<string, string> = {
+  touchLimitMetalC: '60 °C for metal jackets: industry convention (common practice), consistent with ASTM C1055 guidance for 5 s industrial contact; not a value the standard mandates.',
+  touchLimitNonMetalC: 'Non-metal finishes conduct less heat into skin, so a higher surface temperature gives the same contact temperature (ASTM C1055, ISO 13732-1); 65 °C is a starting point to confirm.',
+  dewPointMarginK: '2 K above the dew point: common practice margin for condensation control.',
+  personnel: 'Hottest expected air, still air: the worst case for a touch check.',
+  condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
+  co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
+  economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
+  systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification.',
+};

@@ -1,0 +1,86 @@
+import { createHash } from 'node:crypto';
+import {
+  CALCULATION_VERSION, barGaugeToMPaAbs, jacketById, materialById, recommendLine,
+  type Criteria, type LineCase, type MaterialSystem, type Recommendation,
+} from '@/lib/thermal';
+import type { DesignBasis } from './design-basis';
+import type { LineInput } from './validate';
+
+/** The material system the design basis gives a line (by its normal temperature), with any jacket override. */
+export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalTempC' | 'jacketId'>, cache = new Map<string, MaterialSystem>()): MaterialSystem {
+  const band = basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ?? basis.systems[basis.systems.length - 1];
+  const jacket = (line.jacketId && jacketById(line.jacketId)) ? line.jacketId : band.jacketId;
+  const key = `${band.outerId}|${band.innerId ?? ''}|${jacket}`;
+  let s = cache.get(key);
+  if (!s) {
+    s = { outer: materialById(band.outerId)!, inner: band.innerId ? materialById(band.innerId) : undefined, jacket: jacketById(jacket)! };
+    cache.set(key, s);
+  }
+  return s;
+}
+
+export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
+  const side = outdoor ? 'outdoor' : 'indoor';
+  return {
+    conditions: {
+      heatLoss: basis.conditions.heatLoss[side],
+      personnel: basis.conditions.personnel[side],
+      condensation: basis.conditions.condensation[side],
+      freeze: outdoor ? basis.conditions.freeze : { airC: Math.max(basis.conditions.freeze.airC, 5), windMs: 0 },
+    },
+    touchLimitMetalC: basis.touchLimitMetalC,
+    touchLimitNonMetalC: basis.touchLimitNonMetalC,
+    dewPointMarginK: basis.dewPointMarginK,
+    heatLossLimitWPerM: basis.heatLossLimitWPerM,
+    maxProcessDropK: basis.maxProcessDropK,
+    freeze: basis.freeze,
+    economics: basis.economics,
+    prices: { ...basis.prices },
+  };
+}
+
+/** Line list geometry → engine geometry. A vessel is its shell: a vertical cylinder of D = A/(π·H). */
+export function lineCaseFor(l: LineInput): LineCase {
+  const base = {
+    normalTempC: l.normalTempC, maxTempC: l.maxTempC ?? undefined, purposes: l.purposes, accessible: l.accessible,
+    steamPressureMPaAbs: l.steamPressureBarG !== null && l.steamPressureBarG !== undefined && l.steamPressureBarG >= 0 ? barGaugeToMPaAbs(l.steamPressureBarG) : undefined,
+    massFlowKgPerS: l.flowKgPerS ?? undefined, fluidCpJPerKgK: l.fluidCpKJPerKgK ? l.fluidCpKJPerKgK * 1000 : undefined,
+  };
+  if (l.geometry === 'vessel') {
+    const H = l.heightM ?? 1;
+    const D = ((l.surfaceAreaM2 ?? 1) / (Math.PI * H)) * 1000;
+    return { ...base, geometry: 'vertical-pipe', pipeOuterDiameterMm: D, heightM: H, lengthM: H };
+  }
+  if (l.geometry === 'flat') return { ...base, geometry: 'vertical-wall', heightM: l.heightM ?? 2, areaM2: l.surfaceAreaM2 ?? 1 };
+  return { ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1 };
+}
+
+/** Hash of everything the answer depends on: calculation version, design basis and the line's inputs. */
+export function inputHash(basis: DesignBasis, l: LineInput): string {
+  const relevant = [CALCULATION_VERSION, l.geometry, l.outsideDiameterMm, l.lengthM, l.surfaceAreaM2, l.heightM, l.normalTempC, l.maxTempC, l.steamPressureBarG, l.flowKgPerS, l.fluidCpKJPerKgK, [...l.purposes].sort(), l.outdoor, l.accessible, l.jacketId];
+  return createHash('sha1').update(JSON.stringify(basis)).update(JSON.stringify(relevant)).digest('hex').slice(0, 20);
+}
+
+export interface SolvedLine {
+  recommendation: Recommendation;
+  system: MaterialSystem;
+  /** Heat flow of the whole line (W) at the recommendation; per metre × length or per m² × area. */
+  totalHeatW: number | null;
+  bareHeatW: number;
+  perUnit: 'W/m' | 'W/m²';
+}
+
+export function solveLine(basis: DesignBasis, l: LineInput, systems?: Map<string, MaterialSystem>): SolvedLine {
+  const system = systemForLine(basis, l, systems);
+  const c = lineCaseFor(l);
+  const r = recommendLine(c, system, criteriaFor(basis, l.outdoor));
+  const extent = c.geometry === 'vertical-wall' ? c.areaM2 ?? 1 : c.lengthM ?? 1;
+  const chosen = r.candidates.find((x) => x.totalMm === r.recommendedMm);
+  return {
+    recommendation: r,
+    system,
+    totalHeatW: chosen ? chosen.heatLoss.heatFlow * extent : null,
+    bareHeatW: r.candidates[0].heatLoss.heatFlow * extent,
+    perUnit: c.geometry === 'vertical-wall' ? 'W/m²' : 'W/m',
+  };
+}

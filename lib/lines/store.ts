@@ -1,0 +1,291 @@
+/**
+ * Line-list persistence, free of Next.js (server actions, the seed, tests and benchmarks call it).
+ * Every import is one transaction: all rows or none, the previous revision intact on any error.
+ */
+import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { db } from '@/db/client';
+import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
+import { AppError } from '@/lib/errors';
+import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
+import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis } from './design-basis';
+import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from './diff';
+import { suggestMapping, type ColumnMapping } from './mapping';
+import { parseUpload, ParseError, type ParsedFile } from './parse';
+import { inputHash, solveLine } from './solve-line';
+import { validateSheet, type LineInput, type RowIssue } from './validate';
+
+// ---------- design basis ----------
+
+export async function getDesignBasis({ projectId }: { projectId: string }): Promise<{ basis: DesignBasis; revision: number }> {
+  const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
+  if (row) return { basis: designBasisSchema.parse(row.basis), revision: row.revision };
+  await db.insert(designBases).values({ projectId, basis: DEFAULT_DESIGN_BASIS }).onConflictDoNothing();
+  return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
+}
+
+export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
+  await getDesignBasis({ projectId });
+  const [row] = await db.update(designBases).set({ basis, revision: sql`${designBases.revision} + 1`, updatedBy: userId, updatedAt: new Date() })
+    .where(eq(designBases.projectId, projectId)).returning();
+  return { revision: row.revision };
+}
+
+// ---------- upload, mapping, preview, import ----------
+
+export interface DraftSummary {
+  draftId: string;
+  fileName: string;
+  sheets: { name: string; hidden: boolean; headers: string[]; rowCount: number; suggested: ColumnMapping }[];
+  /** The sheet to start on: the first visible one with data. */
+  defaultSheet: string;
+}
+
+export async function createDraft({ projectId, userId, fileName, bytes }: { projectId: string; userId: string; fileName: string; bytes: Buffer }): Promise<DraftSummary> {
+  let parsed: ParsedFile;
+  try { parsed = await parseUpload(fileName, bytes); }
+  catch (e) { if (e instanceof ParseError) throw new AppError('invalid', e.message, { file: [e.message] }); throw e; }
+  const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
+  const mem = remembered ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping } : undefined;
+  const [draft] = await db.insert(importDrafts).values({ projectId, createdBy: userId, fileName, parsed }).returning({ id: importDrafts.id });
+  const sheets = parsed.sheets.map((s) => ({ name: s.name, hidden: s.hidden, headers: s.headers, rowCount: s.rows.length, suggested: suggestMapping(s.headers, mem) }));
+  const visible = sheets.find((s) => !s.hidden && s.rowCount > 0) ?? sheets[0];
+  return { draftId: draft.id, fileName, sheets, defaultSheet: visible.name };
+}
+
+async function loadDraft(projectId: string, draftId: string) {
+  if (!/^[0-9a-f-]{36}$/i.test(draftId)) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
+  const [d] = await db.select().from(importDrafts).where(and(eq(importDrafts.id, draftId), eq(importDrafts.projectId, projectId)));
+  if (!d) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
+  return d;
+}
+
+function sheetOf(parsed: ParsedFile, sheetName: string) {
+  const s = parsed.sheets.find((x) => x.name === sheetName);
+  if (!s) throw new AppError('invalid', `The workbook has no sheet "${sheetName}".`, { sheet: ['Choose one of the workbook\'s sheets.'] });
+  return s;
+}
+
+function inputOf(l: Line): LineInput {
+  return {
+    tag: l.tag, service: l.service, area: l.area, geometry: l.geometry, nps: l.nps, outsideDiameterMm: l.outsideDiameterMm, lengthM: l.lengthM,
+    surfaceAreaM2: l.surfaceAreaM2, heightM: l.heightM, normalTempC: l.normalTempC, maxTempC: l.maxTempC, steamPressureBarG: l.steamPressureBarG,
+    flowKgPerS: l.flowKgPerS, fluidCpKJPerKgK: l.fluidCpKJPerKgK, elbows: l.elbows, tees: l.tees, valves: l.valves, flanges: l.flanges,
+    purposes: l.purposes as LineInput['purposes'], outdoor: l.outdoor, accessible: l.accessible, accessHeightM: l.accessHeightM, jacketId: l.jacketId, notes: l.notes,
+  };
+}
+
+export interface Preview { issues: RowIssue[]; errorCount: number; warningCount: number; lineCount: number; diff: LineListDiff; previousRevision: number }
+
+export async function previewDraft({ projectId, draftId, sheetName, mapping }: { projectId: string; draftId: string; sheetName: string; mapping: ColumnMapping }): Promise<Preview> {
+  const d = await loadDraft(projectId, draftId);
+  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName), mapping);
+  const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
+  const [rev] = await db.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+  return { issues: v.issues, errorCount: v.errorCount, warningCount: v.warningCount, lineCount: v.lines.length, diff: diffLineLists(current.map(inputOf), v.lines), previousRevision: Number(rev.n) };
+}
+
+const CHUNK = 1000;
+
+/**
+ * Imports the draft as the next revision, in one transaction: lines updated by tag, added, removed;
+ * a pick or decision survives unless a thermal input of its line changed, in which case the line
+ * is marked for re-decision with the reason.
+ */
+export async function commitDraft({ projectId, draftId, sheetName, mapping, userId }: { projectId: string; draftId: string; sheetName: string; mapping: ColumnMapping; userId: string }) {
+  const d = await loadDraft(projectId, draftId);
+  if (d.importedRevision) throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
+  const sheet = sheetOf(d.parsed as ParsedFile, sheetName);
+  const v = validateSheet(sheet, mapping);
+  if (v.errorCount > 0) {
+    const first = v.issues.filter((i) => i.severity === 'error').slice(0, 5).map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);
+    throw new AppError('invalid', `Nothing was imported: ${v.errorCount} problem${v.errorCount === 1 ? '' : 's'} to fix first (${first.join('; ')}${v.errorCount > 5 ? '; …' : ''}).`);
+  }
+  return db.transaction(async (tx) => {
+    // Serialise imports of one project.
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${projectId}))`);
+    const current = await tx.select().from(lines).where(eq(lines.projectId, projectId));
+    const byTag = new Map(current.map((l) => [l.tag.toUpperCase(), l]));
+    const [rev] = await tx.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+    const number = Number(rev.n) + 1;
+    const diff = diffLineLists(current.map(inputOf), v.lines);
+
+    const rows = v.lines.map((l) => {
+      const old = byTag.get(l.tag.toUpperCase());
+      const thermal = old ? fieldChanges(inputOf(old), l).filter((c) => THERMAL_FIELDS.includes(c.field)) : [];
+      const { sourceRow: _row, ...input } = l;
+      void _row;
+      return { ...input, projectId, revision: number, inputVersion: old ? old.inputVersion + (thermal.length ? 1 : 0) : 1, _thermal: thermal, _old: old };
+    });
+    for (let i = 0; i < rows.length; i += CHUNK) {
+      const chunk = rows.slice(i, i + CHUNK).map(({ _thermal, _old, ...r }) => { void _thermal; void _old; return r; });
+      await tx.insert(lines).values(chunk).onConflictDoUpdate({
+        target: [lines.projectId, lines.tag],
+        set: Object.fromEntries(['service', 'area', 'geometry', 'nps', 'outside_diameter_mm', 'length_m', 'surface_area_m2', 'height_m', 'normal_temp_c', 'max_temp_c',
+          'steam_pressure_bar_g', 'flow_kg_per_s', 'fluid_cp_kj_per_kg_k', 'elbows', 'tees', 'valves', 'flanges', 'purposes', 'outdoor', 'accessible', 'access_height_m',
+          'jacket_id', 'notes', 'input_version', 'revision'].map((c) => [camel(c), sql.raw(`excluded.${c}`)])),
+      });
+    }
+    const removedIds = current.filter((l) => diff.removed.some((t) => t.toUpperCase() === l.tag.toUpperCase())).map((l) => l.id);
+    for (let i = 0; i < removedIds.length; i += CHUNK) await tx.delete(lines).where(inArray(lines.id, removedIds.slice(i, i + CHUNK)));
+    // Decisions on lines whose thermal inputs changed must be taken again.
+    const changedIds = rows.filter((r) => r._old && r._thermal.length).map((r) => ({ id: r._old!.id, why: r._thermal.map((c) => c.field).join(', ') }));
+    for (const c of changedIds) {
+      await tx.update(lineDesigns).set({ needsRedecision: true, redecisionReason: `Revision ${number} changed ${c.why}` }).where(eq(lineDesigns.lineId, c.id));
+    }
+    await tx.insert(lineListRevisions).values({ projectId, number, fileName: d.fileName, sheetName, lineCount: v.lines.length, diff, createdBy: userId });
+    await tx.insert(columnMappings).values({ projectId, headers: sheet.headers, mapping }).onConflictDoUpdate({ target: columnMappings.projectId, set: { headers: sheet.headers, mapping, updatedAt: new Date() } });
+    await tx.update(importDrafts).set({ importedRevision: number }).where(eq(importDrafts.id, draftId));
+    return { revision: number, diff, lineCount: v.lines.length, warningCount: v.warningCount };
+  });
+}
+
+function camel(snake: string) { return snake.replace(/_([a-z0-9])/g, (_, c) => c.toUpperCase()); }
+
+// ---------- solve ----------
+
+/** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
+export async function solveProject({ projectId, all = false }: { projectId: string; all?: boolean }) {
+  const { basis, revision } = await getDesignBasis({ projectId });
+  const staleCond = all ? sql`true` : sql`(${lineResults.lineId} is null or ${lineResults.basisRevision} <> ${revision} or ${lineResults.inputVersion} <> ${lines.inputVersion} or ${lineResults.calcVersion} <> ${CALCULATION_VERSION})`;
+  const todo = await db.select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .where(and(eq(lines.projectId, projectId), staleCond));
+  const systems = new Map<string, MaterialSystem>();
+  const t0 = Date.now();
+  const results = todo.map(({ line }) => {
+    const input = inputOf(line);
+    const s = solveLine(basis, input, systems);
+    const r = s.recommendation;
+    const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
+    return {
+      lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basis, input),
+      recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: `${s.system.inner ? `${s.system.inner.name} + ` : ''}${s.system.outer.name}`, jacketId: s.system.jacket.id,
+      outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
+      // Compact cost curve and candidate table: [mm, layers, heat flow, surface °C (heat-loss), surface °C (personnel), annual cost, limits ok]
+      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 3), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk]),
+      design: r.design ? { profileC: r.design.profileC, overall: r.design.overall, convective: r.design.convectiveWPerM2K, radiative: r.design.radiativeWPerM2K } : null,
+      heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null, totalHeatW: s.totalHeatW, bareHeatW: s.bareHeatW, surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
+      personnelSurfaceC: chosen?.personnel?.surfaceC ?? null, annualMWh: r.annual?.energyMWh ?? null, annualCost: r.annual?.cost ?? null, co2Tonnes: r.annual?.co2Tonnes ?? null,
+      condensateKgPerH: r.condensateKgPerHour ?? null, solvedAt: new Date(),
+    };
+  });
+  const solveMs = Date.now() - t0;
+  await db.transaction(async (tx) => {
+    for (let i = 0; i < results.length; i += 500) {
+      await tx.insert(lineResults).values(results.slice(i, i + 500)).onConflictDoUpdate({
+        target: lineResults.lineId,
+        set: Object.fromEntries(Object.keys(results[0]).filter((k) => k !== 'lineId').map((k) => [k, sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`)])),
+      });
+    }
+  });
+  return { solved: results.length, solveMs, basisRevision: revision };
+}
+
+const RESULT_COLUMNS = getTableColumns(lineResults);
+const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+
+// ---------- reading ----------
+
+export type LineSort = 'tag' | 'area' | 'normalTempC' | 'outsideDiameterMm' | 'recommendedMm' | 'heatFlowPerUnit' | 'surfaceTempC' | 'governing';
+export interface LineQuery { projectId: string; page: number; size: number; sort: LineSort; dir: 'asc' | 'desc'; q?: string; area?: string; status?: 'stale' | 'flagged' | 'overridden' | 'undecided' | 'redecide' }
+
+export async function listLines(o: LineQuery) {
+  const { revision } = await getDesignBasis({ projectId: o.projectId });
+  const stale = sql<boolean>`(${lineResults.lineId} is null or ${lineResults.basisRevision} <> ${revision} or ${lineResults.inputVersion} <> ${lines.inputVersion} or ${lineResults.calcVersion} <> ${CALCULATION_VERSION})`;
+  const where: SQL[] = [eq(lines.projectId, o.projectId)];
+  if (o.q) where.push(or(ilike(lines.tag, `%${o.q}%`), ilike(lines.service, `%${o.q}%`))!);
+  if (o.area) where.push(eq(lines.area, o.area));
+  if (o.status === 'stale') where.push(stale);
+  if (o.status === 'flagged') where.push(sql`(${lineDesigns.belowCriterion} is not null or cardinality(${lineResults.unmet}) > 0)`);
+  if (o.status === 'overridden') where.push(eq(lineDesigns.source, 'manual'));
+  if (o.status === 'undecided') where.push(sql`${lineDesigns.lineId} is null`);
+  if (o.status === 'redecide') where.push(eq(lineDesigns.needsRedecision, true));
+  const sortCol = {
+    tag: lines.tag, area: lines.area, normalTempC: lines.normalTempC, outsideDiameterMm: lines.outsideDiameterMm,
+    recommendedMm: lineResults.recommendedMm, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC, governing: lineResults.governing,
+  }[o.sort];
+  const base = db.select({
+    id: lines.id, tag: lines.tag, service: lines.service, area: lines.area, geometry: lines.geometry, nps: lines.nps, outsideDiameterMm: lines.outsideDiameterMm,
+    lengthM: lines.lengthM, surfaceAreaM2: lines.surfaceAreaM2, normalTempC: lines.normalTempC, maxTempC: lines.maxTempC, purposes: lines.purposes, outdoor: lines.outdoor, accessible: lines.accessible,
+    recommendedMm: lineResults.recommendedMm, governing: lineResults.governing, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC,
+    personnelSurfaceC: lineResults.personnelSurfaceC, unmet: lineResults.unmet, candidates: lineResults.candidates,
+    chosenMm: lineDesigns.thicknessMm, source: lineDesigns.source, belowCriterion: lineDesigns.belowCriterion, needsRedecision: lineDesigns.needsRedecision, designVersion: lineDesigns.version,
+    stale,
+  }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where));
+  const [rows, [{ total }]] = await Promise.all([
+    base.orderBy(o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`, asc(lines.tag)).limit(o.size).offset(o.page * o.size),
+    db.select({ total: count() }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where)),
+  ]);
+  return { rows, total, page: o.page, size: o.size };
+}
+
+export async function listAreas({ projectId }: { projectId: string }) {
+  const r = await db.selectDistinct({ area: lines.area }).from(lines).where(eq(lines.projectId, projectId)).orderBy(asc(lines.area));
+  return r.map((x) => x.area);
+}
+
+export async function getLine({ projectId, lineId }: { projectId: string; lineId: string }) {
+  if (!/^[0-9a-f-]{36}$/i.test(lineId)) throw new AppError('not_found');
+  const [row] = await db.select({ line: lines, result: lineResults, design: lineDesigns }).from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));
+  if (!row) throw new AppError('not_found');
+  const { revision } = await getDesignBasis({ projectId });
+  const stale = !row.result || row.result.basisRevision !== revision || row.result.inputVersion !== row.line.inputVersion || row.result.calcVersion !== CALCULATION_VERSION;
+  return { ...row, stale };
+}
+
+export async function listRevisions({ projectId }: { projectId: string }) {
+  return db.select().from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId)).orderBy(desc(lineListRevisions.number));
+}
+
+// ---------- design picks ----------
+
+type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean];
+const HARD = new Set(['personnel', 'condensation', 'heatLossLimit', 'processDrop', 'freeze']);
+
+/**
+ * Saves the chosen thickness for a line. `expectedVersion` is the design version the user saw
+ * (0 when there was none); a different stored version means someone else saved first.
+ */
+export async function pickDesign(o: { projectId: string; lineId: string; userId: string; thicknessMm: number; reason?: string; expectedVersion: number }) {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select({ line: lines, result: lineResults }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .where(and(eq(lines.id, o.lineId), eq(lines.projectId, o.projectId))).for('update', { of: lines });
+    if (!row) throw new AppError('not_found');
+    if (!row.result) throw new AppError('conflict', 'Solve the line before choosing its thickness.');
+    const cand = (row.result.candidates as CandidateRow[]).find((c) => c[0] === o.thicknessMm);
+    if (!cand) throw new AppError('invalid', `${o.thicknessMm} mm is not a candidate of this line's material system.`, { thicknessMm: ['Choose one of the candidate thicknesses.'] });
+    const below = (row.result.outcomes as { id: string; requiredMm: number | null }[]).filter((x) => HARD.has(x.id) && x.requiredMm !== null && o.thicknessMm < x.requiredMm!).map((x) => x.id);
+    const manual = o.thicknessMm !== row.result.recommendedMm;
+    if (below.length && !o.reason?.trim()) throw new AppError('invalid', `This thickness is below what ${below.join(' and ')} requires; give a reason to keep it.`, { reason: ['A reason is required for a pick below a hard criterion.'] });
+    if (manual && !o.reason?.trim()) throw new AppError('invalid', 'Give a reason for choosing another thickness than the recommendation.', { reason: ['A reason is required for a manual pick.'] });
+    const [existing] = await tx.select().from(lineDesigns).where(eq(lineDesigns.lineId, o.lineId)).for('update');
+    if ((existing?.version ?? 0) !== o.expectedVersion) throw new AppError('conflict', 'Someone else changed this line\'s design while you were looking at it. Reload to see their choice, then decide again.');
+    const values = {
+      lineId: o.lineId, projectId: o.projectId, thicknessMm: o.thicknessMm, layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
+      source: manual ? 'manual' as const : 'recommended' as const, reason: o.reason?.trim() || null, belowCriterion: below.length ? below.join(',') : null,
+      needsRedecision: false, redecisionReason: null, decidedBy: o.userId, decidedAt: new Date(), version: (existing?.version ?? 0) + 1,
+    };
+    if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
+    else await tx.insert(lineDesigns).values(values);
+    return { version: values.version, source: values.source, belowCriterion: values.belowCriterion };
+  });
+}
+
+/** Accepts the recommendation for every current (not stale) solved line matching the filter. */
+export async function acceptRecommendations(o: { projectId: string; userId: string; q?: string; area?: string }) {
+  const { revision } = await getDesignBasis({ projectId: o.projectId });
+  const where: SQL[] = [eq(lines.projectId, o.projectId), sql`${lineResults.recommendedMm} is not null`, eq(lineResults.basisRevision, revision), sql`${lineResults.inputVersion} = ${lines.inputVersion}`];
+  if (o.q) where.push(or(ilike(lines.tag, `%${o.q}%`), ilike(lines.service, `%${o.q}%`))!);
+  if (o.area) where.push(eq(lines.area, o.area));
+  return db.transaction(async (tx) => {
+    const r = await tx.execute(sql`
+      insert into line_designs (line_id, project_id, thickness_mm, layers, source, decided_by, decided_at, version)
+      select lines.id, lines.project_id, line_results.recommended_mm, line_results.layers, 'recommended', ${o.userId}, now(), 1
+      from lines join line_results on line_results.line_id = lines.id
+      where ${and(...where)}
+      on conflict (line_id) do update set thickness_mm = excluded.thickness_mm, layers = excluded.layers, source = 'recommended', reason = null,
+        below_criterion = null, needs_redecision = false, redecision_reason = null, decided_by = excluded.decided_by, decided_at = now(), version = line_designs.version + 1`);
+    return { accepted: r.rowCount ?? 0 };
+  });
+}

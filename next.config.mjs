@@ -4,5 +4,7 @@ const nextConfig = {
   serverExternalPackages: ['@node-rs/argon2', 'pg', 'exceljs', 'nodemailer'],
   poweredByHeader: false,
   typedRoutes: false,
+  // Line-list uploads go through a server action: 20 MB of file plus form overhead.
+  experimental: { serverActions: { bodySizeLimit: '21mb' } },
 };
 export default nextConfig;

@@ -10,6 +10,9 @@ import * as schema from '../db/schema';
 import { env } from '../lib/env';
 import { hashPassword } from '../lib/auth/password';
 import { DEMO_ORG, DEMO_PROJECT, DEMO_USERS, OTHER_ORG } from './demo-data';
+import { demoLineRows, lineListWorkbook } from './line-list';
+import * as lineStore from '../lib/lines/store';
+import { getPool } from '../db/client';
 
 const { users, organizations, memberships, projects } = schema;
 
@@ -46,9 +49,38 @@ async function main() {
       await ensureProject(other.id, OTHER_ORG.project);
     });
     console.error('[seed] demo organization, project and users in place');
+    await seedLineList(db);
   } finally {
     await pool.end();
+    await getPool().end();
   }
+}
+
+/** The demo line list goes in through the same import path a user takes, then is solved and partly decided. */
+async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
+  const [project] = await db.select().from(projects).where(eq(projects.code, DEMO_PROJECT.code));
+  const [{ n }] = await db.select({ n: count() }).from(schema.lines).where(eq(schema.lines.projectId, project.id));
+  if (n > 0) { console.error('[seed] demo line list already imported'); return; }
+  const [engineer] = await db.select().from(users).where(eq(users.email, DEMO_USERS[1].email));
+  const bytes = await lineListWorkbook(demoLineRows(220), { withInstructions: true });
+  const draft = await lineStore.createDraft({ projectId: project.id, userId: engineer.id, fileName: 'brack-point-line-list.xlsx', bytes });
+  const sheet = draft.sheets.find((s) => s.name === draft.defaultSheet)!;
+  const r = await lineStore.commitDraft({ projectId: project.id, draftId: draft.draftId, sheetName: sheet.name, mapping: sheet.suggested, userId: engineer.id });
+  const solved = await lineStore.solveProject({ projectId: project.id });
+  // Most lines decided; the Tank farm area left open for the demo engineer.
+  const areas = await lineStore.listAreas({ projectId: project.id });
+  for (const area of areas.filter((a) => !a.startsWith('U45'))) await lineStore.acceptRecommendations({ projectId: project.id, userId: engineer.id, area });
+  // A few manual picks with their reasons, one of them below the personnel-protection requirement.
+  const page = await lineStore.listLines({ projectId: project.id, page: 0, size: 500, sort: 'tag', dir: 'asc' });
+  const picks = page.rows.filter((l) => l.recommendedMm && l.recommendedMm >= 50 && l.designVersion).slice(0, 3);
+  const reasons = ['Match the adjacent header, already lagged at this thickness', 'Congested rack: outside diameter limited by clearance to the cable tray', 'Spec minimum for this service class'];
+  for (const [i, l] of picks.entries()) {
+    const cands = (l.candidates as [number][]).map((c) => c[0]);
+    const idx = cands.indexOf(l.recommendedMm!);
+    const mm = i === 1 ? cands[Math.max(1, idx - 2)] : cands[Math.min(cands.length - 1, idx + 1)];
+    await lineStore.pickDesign({ projectId: project.id, lineId: l.id, userId: engineer.id, thicknessMm: mm, reason: reasons[i], expectedVersion: l.designVersion! });
+  }
+  console.error(`[seed] demo line list: revision ${r.revision}, ${r.lineCount} lines, ${solved.solved} solved, ${picks.length} manual picks`);
 }
 
 main().catch((e) => { console.error('[seed] failed:', e); process.exit(1); });

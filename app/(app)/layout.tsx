@@ -5,6 +5,7 @@ import { LogoMark } from '@/components/logo';
 import { ProjectSwitcher } from '@/components/project-switcher';
 import { signOutAction } from '../(auth)/actions';
 import { CurrentProject } from './current-project';
+import { Providers } from '@/components/providers';
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const { user } = await requireUser();
@@ -21,7 +22,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           <form action={signOutAction}><button className="rounded border border-ink-600 px-2 py-0.5 text-ink-100 hover:bg-ink-800">Sign out</button></form>
         </div>
       </header>
-      {children}
+      <Providers>{children}</Providers>
     </div>
   );
 }

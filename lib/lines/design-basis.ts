@@ -22,7 +22,7 @@ export const systemBandSchema = z.object({
   jacketId,
 });
 
-export const designBasisSchema = z.object({
+export const designBasisObject = z.object({
   unitSystem: z.enum(['SI', 'US']),
   conditions: z.object({
     heatLoss: z.object({ outdoor: cond, indoor: cond }),
@@ -55,9 +55,12 @@ export const designBasisSchema = z.object({
     fittingsAllowanceFraction: num('Fittings allowance').min(0).max(5),
     materialPerM3: z.record(z.string(), z.number().min(0)),
   }),
-}).superRefine((b, ctx) => {
-  b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
 });
+
+export function checkBands(b: { systems: { fromC: number; toC: number }[] }, ctx: z.RefinementCtx) {
+  b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
+}
+export const designBasisSchema = designBasisObject.superRefine(checkBands);
 export type DesignBasis = z.output<typeof designBasisSchema>;
 
 /** Defaults for a new project; sources named in DEFAULT_BASIS_NOTES. */

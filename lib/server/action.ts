@@ -50,3 +50,30 @@ export function formAction<S extends z.ZodType, R>(opts: {
     }
   };
 }
+
+export type ActionResult<R> = { ok: true; data: R } | { ok: false; error: string; fields?: Record<string, string[]> };
+
+/**
+ * The wrapper for JSON-style server actions on a project (not forms): session → project access and
+ * role → zod parse → handler. Errors come back as a message (and field messages), never thrown.
+ */
+export function projectAction<S extends z.ZodType, R>(permission: Action, schema: S, handler: (ctx: ProjectCtx<z.infer<S>>) => Promise<R>) {
+  return async (projectId: string, input: unknown): Promise<ActionResult<R>> => {
+    try {
+      const { user } = await validateRequest();
+      if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
+      const access = await getProjectAccess({ userId: user.id, projectId, action: permission });
+      const parsed = schema.safeParse(input);
+      if (!parsed.success) {
+        const fields: Record<string, string[]> = {};
+        for (const i of parsed.error.issues) (fields[i.path.join('.') || 'input'] ??= []).push(i.message);
+        throw new AppError('invalid', Object.entries(fields).map(([k, v]) => `${k}: ${v[0]}`).join('; '), fields);
+      }
+      return { ok: true, data: await handler({ user, input: parsed.data, ...access }) };
+    } catch (e) {
+      if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
+      console.error('[action] unexpected error', e);
+      return { ok: false, error: 'Something went wrong on our side. Nothing was saved; try again.' };
+    }
+  };
+}

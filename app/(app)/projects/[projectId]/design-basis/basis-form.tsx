@@ -1,0 +1,102 @@
+'use client';
+import { startTransition, useActionState } from 'react';
+import type { DesignBasis } from '@/lib/lines/design-basis';
+import { saveDesignBasisAction } from './actions';
+
+interface Option { id: string; name: string }
+
+function get(o: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((a, k) => (a && typeof a === 'object' ? (a as Record<string, unknown>)[k.replace(/\[(\d+)\]/, '.$1')] : undefined), o);
+}
+
+export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes }: { projectId: string; basis: DesignBasis; materials: Option[]; jackets: Option[]; canEdit: boolean; notes: Record<string, string> }) {
+  const [result, action, pending] = useActionState(saveDesignBasisAction, undefined);
+  const errors = (result?.error ?? {}) as Record<string, string[] | null>;
+  const Num = ({ name, label, step = 'any', hint }: { name: string; label: string; step?: string; hint?: string }) => {
+    const id = `db-${name.replace(/[^a-z0-9]/gi, '-')}`;
+    const err = errors[name];
+    const value = get(basis, name.replace(/\[(\d+)\]/g, '.$1'));
+    return (
+      <div>
+        <label htmlFor={id} className="label">{label}</label>
+        <input id={id} name={name} type="number" step={step} defaultValue={value === undefined || value === null ? '' : String(value)} disabled={!canEdit} className="input" aria-invalid={err ? true : undefined} />
+        {err ? <p className="field-error">{err.join(' ')}</p> : hint ? <p className="mt-1 text-xs text-ink-500">{hint}</p> : null}
+      </div>
+    );
+  };
+  const condition = (key: 'heatLoss' | 'personnel' | 'condensation', title: string, rh: boolean) => (
+    <fieldset className="panel p-3">
+      <legend className="px-1 text-sm font-semibold">{title}</legend>
+      {(['outdoor', 'indoor'] as const).map((side) => (
+        <div key={side} className="mb-2 grid grid-cols-3 gap-2">
+          <Num name={`conditions.${key}.${side}.airC`} label={`${side} air °C`} />
+          <Num name={`conditions.${key}.${side}.windMs`} label={`${side} wind m/s`} />
+          {rh ? <Num name={`conditions.${key}.${side}.relativeHumidityPct`} label={`${side} RH %`} /> : null}
+        </div>
+      ))}
+      {notes[key] ? <p className="text-xs text-ink-500">{notes[key]}</p> : null}
+    </fieldset>
+  );
+  return (
+    <form
+      className="space-y-5"
+      onSubmit={(e) => { e.preventDefault(); const fd = new FormData(e.currentTarget); startTransition(() => action(fd)); }}
+    >
+      <input type="hidden" name="projectId" value={projectId} />
+      <input type="hidden" name="unitSystem" value={basis.unitSystem} />
+      {result?.status === 'success' ? <p role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm">Saved as design-basis revision {(result as { revision?: number }).revision}. Lines solved under the earlier revision are now marked stale.</p> : null}
+      {result?.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">{result.error[''].join(' ')}</p> : null}
+      {result?.status === 'error' && !result.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">Some values are not valid; see the fields marked below. Nothing was saved.</p> : null}
+      <div className="grid gap-4 lg:grid-cols-3">
+        {condition('heatLoss', 'Heat loss (average conditions)', false)}
+        {condition('personnel', 'Personnel protection (hottest, still air)', false)}
+        {condition('condensation', 'Condensation control (design humidity)', true)}
+      </div>
+      <div className="grid gap-4 md:grid-cols-4">
+        <Num name="touchLimitMetalC" label="Touch limit, metal jacket °C" hint={notes.touchLimitMetalC} />
+        <Num name="touchLimitNonMetalC" label="Touch limit, non-metal °C" hint={notes.touchLimitNonMetalC} />
+        <Num name="dewPointMarginK" label="Dew-point margin K" hint={notes.dewPointMarginK} />
+        <Num name="heatLossLimitWPerM" label="Heat-loss limit W/m (optional)" />
+        <Num name="maxProcessDropK" label="Allowed process temperature change K" />
+        <Num name="freeze.initialWaterTempC" label="Freeze: starting water °C" />
+        <Num name="freeze.requiredHours" label="Freeze: required hours" />
+        <Num name="conditions.freeze.airC" label="Freeze: air °C" />
+        <Num name="conditions.freeze.windMs" label="Freeze: wind m/s" />
+      </div>
+      <fieldset className="panel p-3">
+        <legend className="px-1 text-sm font-semibold">Insulation specification by normal temperature</legend>
+        <table className="table-dense">
+          <thead><tr><th>From °C</th><th>To °C</th><th>Main material</th><th>Inner layer (high temperature)</th><th>Jacket</th></tr></thead>
+          <tbody>
+            {basis.systems.map((s, i) => (
+              <tr key={i}>
+                <td><input aria-label={`Band ${i + 1} from`} name={`systems[${i}].fromC`} type="number" defaultValue={s.fromC} disabled={!canEdit} className="input w-24" /></td>
+                <td><input aria-label={`Band ${i + 1} to`} name={`systems[${i}].toC`} type="number" defaultValue={s.toC} disabled={!canEdit} className="input w-24" />{errors[`systems[${i}].toC`] ? <p className="field-error">{errors[`systems[${i}].toC`]!.join(' ')}</p> : null}</td>
+                <td><select aria-label={`Band ${i + 1} material`} name={`systems[${i}].outerId`} defaultValue={s.outerId} disabled={!canEdit} className="input">{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select></td>
+                <td><select aria-label={`Band ${i + 1} inner layer`} name={`systems[${i}].innerId`} defaultValue={s.innerId ?? ''} disabled={!canEdit} className="input"><option value="">none</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select></td>
+                <td><select aria-label={`Band ${i + 1} jacket`} name={`systems[${i}].jacketId`} defaultValue={s.jacketId} disabled={!canEdit} className="input">{jackets.map((j) => <option key={j.id} value={j.id}>{j.name}</option>)}</select></td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <p className="mt-1 text-xs text-ink-500">{notes.systems}</p>
+      </fieldset>
+      <div className="grid gap-4 md:grid-cols-4">
+        <Num name="economics.energyPricePerKWh" label="Energy price per kWh" hint={notes.economics} />
+        <Num name="economics.efficiency" label="Heat-generation efficiency" />
+        <Num name="economics.hoursPerYear" label="Operating hours per year" />
+        <Num name="economics.discountRate" label="Discount rate (fraction)" />
+        <Num name="economics.lifeYears" label="Life, years" step="1" />
+        <Num name="economics.escalationRate" label="Energy price escalation (fraction)" />
+        <Num name="economics.co2KgPerKWh" label="CO₂ kg per kWh" hint={notes.co2KgPerKWh} />
+        <Num name="prices.defaultMaterialPerM3" label="Material price per m³ (default)" />
+        <Num name="prices.wasteFraction" label="Waste allowance (fraction)" />
+        <Num name="prices.labourPerMPerLayer" label="Labour per metre per layer" />
+        <Num name="prices.labourPerM2PerLayer" label="Labour per m² per layer" />
+        <Num name="prices.jacketPerM2" label="Jacket price per m²" />
+        <Num name="prices.fittingsAllowanceFraction" label="Fittings allowance (fraction)" />
+      </div>
+      {canEdit ? <button className="btn-primary" disabled={pending}>{pending ? 'Saving…' : 'Save design basis'}</button> : <p className="text-sm text-ink-500">Only owners and engineers change the design basis.</p>}
+    </form>
+  );
+}

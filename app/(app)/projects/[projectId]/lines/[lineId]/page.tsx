@@ -1,0 +1,106 @@
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { loadProject } from '@/lib/server/page';
+import { Denied } from '@/components/denied';
+import { ResultCautions } from '@/components/cautions';
+import { getLine } from '@/lib/lines/store';
+import { isAppError } from '@/lib/errors';
+import { GEOMETRY_LABEL, PURPOSE_LABEL, type Purpose } from '@/lib/lines/fields';
+import { jacketById, materialById } from '@/lib/thermal/materials';
+import { CostChart } from './cost-chart';
+
+export const metadata = { title: 'Line' };
+
+type Cand = [number, [string, number][], number, number, number | null, number | null, boolean];
+const f = (v: number | null | undefined, d = 1) => (v === null || v === undefined ? '—' : v.toFixed(d));
+
+export default async function LinePage({ params }: { params: Promise<{ projectId: string; lineId: string }> }) {
+  const { projectId, lineId } = await params;
+  const { project, allowed } = await loadProject(projectId, 'lines.read');
+  if (!allowed) return <Denied what="The line list" />;
+  let row;
+  try { row = await getLine({ projectId: project.id, lineId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
+  const { line, result, design, stale } = row;
+  const cands = (result?.candidates ?? []) as Cand[];
+  const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
+  const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
+  const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
+  const unit = line.geometry === 'flat' ? 'W/m²' : 'W/m';
+  return (
+    <>
+      <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/lines`}>← Line list</Link></p>
+      <h1 className="mb-1 font-mono">{line.tag}</h1>
+      <p className="mb-4 text-sm text-ink-600">{line.service} · {line.area} · {GEOMETRY_LABEL[line.geometry]} {line.nps ? `NPS ${line.nps}` : ''} {line.outsideDiameterMm ? `(${f(line.outsideDiameterMm)} mm OD)` : ''}</p>
+      <div className="mb-4"><ResultCautions /></div>
+      {stale ? <p role="status" className="caution mb-4">These results are stale: the line or the design basis changed since they were computed. Solve the stale lines on the line list.</p> : null}
+      <div className="grid gap-4 lg:grid-cols-3">
+        <section className="panel p-4">
+          <h2 className="mb-2">Inputs</h2>
+          <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
+            <dt className="text-ink-500">Normal / max temperature</dt><dd>{f(line.normalTempC)} / {f(line.maxTempC)} °C</dd>
+            <dt className="text-ink-500">{line.geometry === 'vessel' || line.geometry === 'flat' ? 'Area / height' : 'Length'}</dt><dd>{line.geometry === 'vessel' || line.geometry === 'flat' ? `${f(line.surfaceAreaM2)} m² / ${f(line.heightM)} m` : `${f(line.lengthM)} m`}</dd>
+            <dt className="text-ink-500">Steam pressure</dt><dd>{line.steamPressureBarG !== null ? `${f(line.steamPressureBarG)} bar(g)` : '—'}</dd>
+            <dt className="text-ink-500">Purposes</dt><dd>{(line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', ')}</dd>
+            <dt className="text-ink-500">Location / access</dt><dd>{line.outdoor ? 'Outdoor' : 'Indoor'} · {line.accessible ? 'accessible' : 'not accessible'}{line.accessHeightM !== null ? ` (${f(line.accessHeightM)} m)` : ''}</dd>
+            <dt className="text-ink-500">Fittings</dt><dd>{line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges</dd>
+            <dt className="text-ink-500">System</dt><dd>{result ? `${result.systemLabel}, ${jacketById(result.jacketId)?.name ?? result.jacketId}` : '—'}</dd>
+          </dl>
+        </section>
+        <section className="panel p-4">
+          <h2 className="mb-2">Recommendation</h2>
+          {result ? (
+            <>
+              <p className="text-2xl font-semibold" data-testid="recommended">{result.recommendedMm === null ? 'none' : result.recommendedMm === 0 ? 'bare' : `${result.recommendedMm} mm`}</p>
+              <p className="mb-2 text-sm text-ink-600">{(result.layers as { materialId: string; thicknessMm: number }[]).map((l) => `${l.thicknessMm} mm ${materialById(l.materialId)?.name ?? l.materialId}`).join(' + ') || 'no insulation'}</p>
+              <ul className="space-y-1 text-sm">
+                {econ.map((o) => <li key={o.id}><strong>{o.id === result.governing ? '▶ ' : ''}{o.id}</strong>: {o.requiredMm === null ? 'not met' : `${o.requiredMm} mm`} — {o.message}</li>)}
+              </ul>
+              {(result.warnings as string[]).length ? <ul className="mt-2 space-y-1 text-xs text-alarm-700">{(result.warnings as string[]).map((w, i) => <li key={i}>{w}</li>)}</ul> : null}
+            </>
+          ) : <p className="text-sm text-ink-500">Not solved yet.</p>}
+        </section>
+        <section className="panel p-4">
+          <h2 className="mb-2">Chosen design</h2>
+          {design ? (
+            <div className="space-y-1 text-sm">
+              <p className="text-xl font-semibold">{design.thicknessMm === 0 ? 'bare' : `${design.thicknessMm} mm`} <span className="text-sm font-normal text-ink-600">({design.source === 'manual' ? 'manual pick' : 'recommendation accepted'})</span></p>
+              {design.reason ? <p>Reason: {design.reason}</p> : null}
+              {design.belowCriterion ? <p className="text-alarm-700">Below {design.belowCriterion} — flagged for review.</p> : null}
+              {design.needsRedecision ? <p className="text-ochre-700">Needs re-decision: {design.redecisionReason}</p> : null}
+              <p className="text-xs text-ink-500">Decided {design.decidedAt.toISOString().slice(0, 16).replace('T', ' ')}</p>
+            </div>
+          ) : <p className="text-sm text-ink-500">No thickness chosen yet.</p>}
+        </section>
+      </div>
+      {result ? (
+        <div className="mt-4 grid gap-4 lg:grid-cols-2">
+          <section className="panel p-4">
+            <h2 className="mb-2">Cost curve</h2>
+            <CostChart points={cands.map((c) => ({ mm: c[0], heatFlow: c[2], annualCost: c[5] }))} optimumMm={optimum} chosenMm={design?.thicknessMm ?? null} unit={unit} />
+          </section>
+          <section className="panel p-4">
+            <h2 className="mb-2">At the recommendation (heat-loss conditions)</h2>
+            <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
+              <dt className="text-ink-500">Heat loss</dt><dd>{f(result.heatFlowPerUnit)} {unit} · {f((result.totalHeatW ?? 0) / 1000, 2)} kW for the line (bare {f(result.bareHeatW / 1000, 2)} kW)</dd>
+              <dt className="text-ink-500">Surface temperature</dt><dd>{f(result.surfaceTempC)} °C (personnel check {f(result.personnelSurfaceC)} °C)</dd>
+              <dt className="text-ink-500">Annual energy / cost / CO₂</dt><dd>{f(result.annualMWh)} MWh · {f(result.annualCost, 0)} · {f(result.co2Tonnes, 2)} t</dd>
+              {result.condensateKgPerH !== null ? <><dt className="text-ink-500">Condensate</dt><dd>{f(result.condensateKgPerH, 2)} kg/h</dd></> : null}
+              {d ? <>
+                <dt className="text-ink-500">Surface coefficients</dt><dd>convection {f(d.convective, 2)}, radiation {f(d.radiative, 2)} W/(m²·K)</dd>
+                {d.overall.perLengthWPerMK !== undefined ? <><dt className="text-ink-500">U per metre</dt><dd>{f(d.overall.perLengthWPerMK, 4)} W/(m·K)</dd></> : null}
+                <dt className="text-ink-500">U referred to the outer surface</dt><dd>{f(d.overall.outerSurface.valueWPerM2K, 4)} W/(m²·K){d.overall.outerSurface.diameterM ? ` on D = ${f(d.overall.outerSurface.diameterM * 1000, 1)} mm` : ''}</dd>
+                <dt className="text-ink-500">U referred to the inner surface</dt><dd>{f(d.overall.innerSurface.valueWPerM2K, 4)} W/(m²·K){d.overall.innerSurface.diameterM ? ` on D = ${f(d.overall.innerSurface.diameterM * 1000, 1)} mm` : ''}</dd>
+              </> : null}
+            </dl>
+            {d ? (
+              <table className="table-dense mt-3" aria-label="Temperature profile">
+                <thead><tr><th>{line.geometry === 'flat' ? 'Depth' : 'Radius'}, mm</th><th>Temperature, °C</th></tr></thead>
+                <tbody>{d.profileC.map((p, i) => <tr key={i}><td className="num">{f(p.radiusOrDepthM * 1000)}</td><td className="num">{f(p.tempC)}</td></tr>)}</tbody>
+              </table>
+            ) : null}
+          </section>
+        </div>
+      ) : null}
+    </>
+  );
+}

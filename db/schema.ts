@@ -195,6 +195,61 @@ export const lineDesigns = pgTable('line_designs', {
   version: integer('version').notNull().default(1),
 }, (t) => [index('line_designs_project_idx').on(t.projectId)]);
 
+export const roundStatusEnum = pgEnum('review_round_status', ['open', 'signed-off']);
+export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned']);
+
+/** A set of flagged lines an engineer asks the safety reviewer to decide on. */
+export const reviewRounds = pgTable('review_rounds', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  number: integer('number').notNull(),
+  status: roundStatusEnum('status').notNull().default('open'),
+  note: text('note').notNull().default(''),
+  requestedBy: text('requested_by').notNull().references(() => users.id),
+  requestedAt: timestamp('requested_at', { withTimezone: true }).notNull().defaultNow(),
+  calcVersion: text('calc_version').notNull(),
+  basisRevision: integer('basis_revision').notNull(),
+  signedOffBy: text('signed_off_by').references(() => users.id),
+  signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
+  /** Flagged values and dispositions as signed, kept as they were. */
+  snapshot: jsonb('snapshot'),
+}, (t) => [uniqueIndex('review_rounds_number_key').on(t.projectId, t.number)]);
+
+export const reviewItems = pgTable('review_items', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  roundId: uuid('round_id').notNull().references(() => reviewRounds.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** Lines can leave the list in a later revision; the item keeps its tag. */
+  lineId: uuid('line_id').references(() => lines.id, { onDelete: 'set null' }),
+  tag: text('tag').notNull(),
+  area: text('area').notNull(),
+  flags: jsonb('flags').notNull(),
+  lineInputVersion: integer('line_input_version').notNull(),
+  designVersion: integer('design_version').notNull(),
+  disposition: dispositionEnum('disposition'),
+  requiredMm: doublePrecision('required_mm'),
+  comment: text('comment'),
+  decidedBy: text('decided_by').references(() => users.id),
+  decidedAt: timestamp('decided_at', { withTimezone: true }),
+}, (t) => [index('review_items_round_idx').on(t.roundId), index('review_items_line_idx').on(t.lineId)]);
+
+/**
+ * Append-only record of dispositions, sign-offs and design picks. A trigger (migration 0002)
+ * refuses UPDATE and DELETE, so the record holds whatever the application does.
+ */
+export const auditLog = pgTable('audit_log', {
+  id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+  projectId: uuid('project_id').notNull(),
+  lineId: uuid('line_id'),
+  tag: text('tag'),
+  actorId: text('actor_id'),
+  actorName: text('actor_name').notNull(),
+  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  action: text('action').notNull(),
+  before: jsonb('before'),
+  after: jsonb('after'),
+}, (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)]);
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships), projects: many(projects),

@@ -12,9 +12,13 @@ import { hashPassword } from '../lib/auth/password';
 import { DEMO_ORG, DEMO_PROJECT, DEMO_USERS, OTHER_ORG } from './demo-data';
 import { demoLineRows, lineListWorkbook } from './line-list';
 import * as lineStore from '../lib/lines/store';
+import * as reviewStore from '../lib/review/store';
 import { getPool } from '../db/client';
 
 const { users, organizations, memberships, projects } = schema;
+
+// The seed's own actions (review requests, sign-offs) would e-mail demo addresses: build, do not send.
+process.env.MAIL_DISABLED = '1';
 
 async function main() {
   const pool = new Pool({ connectionString: env.databaseUrl(), max: 2 });
@@ -81,6 +85,25 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
     await lineStore.pickDesign({ projectId: project.id, lineId: l.id, userId: engineer.id, thicknessMm: mm, reason: reasons[i], expectedVersion: l.designVersion! });
   }
   console.error(`[seed] demo line list: revision ${r.revision}, ${r.lineCount} lines, ${solved.solved} solved, ${picks.length} manual picks`);
+  await seedReview(db, project.id, engineer.id);
+}
+
+/** One review round signed off (tank farm) and one in progress (the rest), for the reviewer's first sign-in. */
+async function seedReview(db: ReturnType<typeof drizzle<typeof schema>>, projectId: string, engineerId: string) {
+  const [reviewer] = await db.select().from(users).where(eq(users.email, DEMO_USERS[2].email));
+  const first = await reviewStore.requestReview({ projectId, userId: engineerId, area: 'U45 Tank farm', note: 'Tank farm before the walkdown' });
+  const r1 = await reviewStore.getRound({ projectId, roundId: first.round.id });
+  const comments: Record<string, string> = { guard: 'Mesh guard on the platform side', 'warning-sign': 'Hot-surface signs at both ladders', 'not-accessible': 'Above the pipe rack, no platform' };
+  for (const [i, item] of r1.items.entries()) {
+    const d = (['not-accessible', 'guard', 'warning-sign'] as const)[i % 3];
+    await reviewStore.dispose({ projectId, roundId: first.round.id, itemIds: [item.id], disposition: item.flags.some((f) => f.type === 'hot-surface') ? d : 'not-accessible', comment: comments[d], userId: reviewer.id });
+  }
+  await reviewStore.signOff({ projectId, roundId: first.round.id, userId: reviewer.id });
+  const second = await reviewStore.requestReview({ projectId, userId: engineerId, note: 'Whole site after the revision 1 picks' });
+  const r2 = await reviewStore.getRound({ projectId, roundId: second.round.id });
+  const some = r2.items.slice(0, Math.ceil(r2.items.length / 3));
+  if (some.length) await reviewStore.dispose({ projectId, roundId: second.round.id, itemIds: some.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs and barrier tape until the guards arrive', userId: reviewer.id });
+  console.error(`[seed] review: round ${first.round.number} signed off (${r1.items.length} lines), round ${second.round.number} open (${some.length} of ${r2.items.length} decided)`);
 }
 
 main().catch((e) => { console.error('[seed] failed:', e); process.exit(1); });

@@ -7,6 +7,7 @@ import { db } from '@/db/client';
 import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
+import { actorName, writeAudit } from '@/lib/audit';
 import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis } from './design-basis';
 import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from './diff';
 import { suggestMapping, type ColumnMapping } from './mapping';
@@ -268,6 +269,11 @@ export async function pickDesign(o: { projectId: string; lineId: string; userId:
     };
     if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
     else await tx.insert(lineDesigns).values(values);
+    await writeAudit(tx, [{
+      projectId: o.projectId, lineId: o.lineId, tag: row.line.tag, actorId: o.userId, actorName: await actorName(o.userId), action: 'design pick',
+      before: existing ? { thicknessMm: existing.thicknessMm, source: existing.source, reason: existing.reason } : null,
+      after: { thicknessMm: values.thicknessMm, source: values.source, reason: values.reason, belowCriterion: values.belowCriterion },
+    }]);
     return { version: values.version, source: values.source, belowCriterion: values.belowCriterion };
   });
 }
@@ -285,7 +291,13 @@ export async function acceptRecommendations(o: { projectId: string; userId: stri
       from lines join line_results on line_results.line_id = lines.id
       where ${and(...where)}
       on conflict (line_id) do update set thickness_mm = excluded.thickness_mm, layers = excluded.layers, source = 'recommended', reason = null,
-        below_criterion = null, needs_redecision = false, redecision_reason = null, decided_by = excluded.decided_by, decided_at = now(), version = line_designs.version + 1`);
+        below_criterion = null, needs_redecision = false, redecision_reason = null, decided_by = excluded.decided_by, decided_at = now(), version = line_designs.version + 1
+      returning line_id, thickness_mm`);
+    const name = await actorName(o.userId);
+    const tags = new Map((await tx.select({ id: lines.id, tag: lines.tag }).from(lines).where(eq(lines.projectId, o.projectId))).map((x) => [x.id, x.tag]));
+    await writeAudit(tx, (r.rows as { line_id: string; thickness_mm: number }[]).map((x) => ({
+      projectId: o.projectId, lineId: x.line_id, tag: tags.get(x.line_id) ?? null, actorId: o.userId, actorName: name, action: 'recommendation accepted', after: { thicknessMm: x.thickness_mm, source: 'recommended' },
+    })));
     return { accepted: r.rowCount ?? 0 };
   });
 }

@@ -3,7 +3,8 @@ import { env } from '@/lib/env';
 
 let transport: Transporter | undefined;
 function getTransport(): Transporter {
-  transport ??= nodemailer.createTransport(env.smtpUrl());
+  // MAIL_DISABLED=1 (used by the demo seed) builds messages but sends none.
+  transport ??= process.env.MAIL_DISABLED === '1' ? nodemailer.createTransport({ jsonTransport: true }) : nodemailer.createTransport(env.smtpUrl());
   return transport;
 }
 

@@ -8,6 +8,7 @@ import { isAppError } from '@/lib/errors';
 import { GEOMETRY_LABEL, PURPOSE_LABEL, type Purpose } from '@/lib/lines/fields';
 import { jacketById, materialById } from '@/lib/thermal/materials';
 import { CostChart } from './cost-chart';
+import { auditForLine } from '@/lib/review/store';
 
 export const metadata = { title: 'Line' };
 
@@ -21,6 +22,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   let row;
   try { row = await getLine({ projectId: project.id, lineId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
   const { line, result, design, stale } = row;
+  const audit = await auditForLine({ projectId: project.id, lineId: line.id });
   const cands = (result?.candidates ?? []) as Cand[];
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
@@ -101,6 +103,18 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
           </section>
         </div>
       ) : null}
+      <section className="panel mt-4 p-4">
+        <h2 className="mb-2">Record</h2>
+        {audit.length === 0 ? <p className="text-sm text-ink-500">No decisions recorded yet.</p> : (
+          <table className="table-dense" aria-label="Audit trail">
+            <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>Before</th><th>After</th></tr></thead>
+            <tbody>{audit.map((a) => (
+              <tr key={a.id}><td>{a.at.toISOString().slice(0, 16).replace('T', ' ')}</td><td>{a.actorName}</td><td>{a.action}</td>
+                <td className="font-mono text-xs">{a.before ? JSON.stringify(a.before) : '—'}</td><td className="font-mono text-xs">{a.after ? JSON.stringify(a.after) : '—'}</td></tr>
+            ))}</tbody>
+          </table>
+        )}
+      </section>
     </>
   );
 }

@@ -1,0 +1,33 @@
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { loadProject } from '@/lib/server/page';
+import { can } from '@/lib/auth/permissions';
+import { Denied } from '@/components/denied';
+import { getRound } from '@/lib/review/store';
+import { FLAG_LABEL } from '@/lib/review/flags';
+import { isAppError } from '@/lib/errors';
+import { ReviewQueue } from './queue';
+
+export const metadata = { title: 'Review round' };
+
+export default async function RoundPage({ params }: { params: Promise<{ projectId: string; roundId: string }> }) {
+  const { projectId, roundId } = await params;
+  const { project, role, allowed } = await loadProject(projectId, 'review.read');
+  if (!allowed) return <Denied what="The safety review" />;
+  let data;
+  try { data = await getRound({ projectId: project.id, roundId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
+  const { round, items, stale } = data;
+  return (
+    <>
+      <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/review`}>← Safety review</Link></p>
+      <div className="mb-3 flex items-baseline justify-between">
+        <h1>Review round {round.number}</h1>
+        <span className="text-sm">{round.status === 'open' ? 'Open' : `Signed off ${round.signedOffAt?.toISOString().slice(0, 16).replace('T', ' ')}`} · <Link href={`/projects/${project.id}/review/${round.id}/report`}>Printable report</Link></span>
+      </div>
+      {round.note ? <p className="mb-3 text-sm">Note from the engineer: {round.note}</p> : null}
+      {stale && round.status === 'open' ? <p role="status" className="caution mb-3">The calculation or the design basis changed since this round was requested; it cannot be signed off. Solve the lines and request a new round.</p> : null}
+      <ReviewQueue projectId={project.id} roundId={round.id} flagLabels={FLAG_LABEL} canDispose={can(role, 'review.dispose')} open={round.status === 'open'}
+        items={items.map((i) => ({ id: i.id, tag: i.tag, area: i.area, flags: i.flags, status: i.status, reopenReason: i.reopenReason, disposition: i.disposition, comment: i.comment, requiredMm: i.requiredMm, deciderName: i.deciderName }))} />
+    </>
+  );
+}

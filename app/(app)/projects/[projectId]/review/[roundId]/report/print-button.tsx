@@ -1,0 +1,4 @@
+'use client';
+export function PrintButton() {
+  return <button className="btn-quiet" onClick={() => window.print()}>Print or save as PDF</button>;
+}

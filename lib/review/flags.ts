@@ -1,0 +1,77 @@
+import { compileConductivity, condensationThresholdC, jacketById, materialById, solveSteady, type Conductivity } from '@/lib/thermal';
+import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
+import type { DesignBasis } from '@/lib/lines/design-basis';
+import type { LineInput } from '@/lib/lines/validate';
+
+export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked';
+export const FLAG_LABEL: Record<FlagType, string> = {
+  'hot-surface': 'Surface over the touch limit',
+  sweating: 'Surface under the dew point + margin',
+  'interface-limit': 'Layer over its service temperature',
+  'below-criterion': 'Pick below a hard criterion',
+  blocked: 'Missing data blocks a decision',
+};
+
+export interface Flag { type: FlagType; message: string; valueC?: number; limitC?: number; conditions?: string }
+
+export interface FlagInput {
+  line: LineInput;
+  /** The chosen design (null: nothing chosen, the line is assessed as built bare). */
+  design: { layers: { materialId: string; thicknessMm: number }[]; belowCriterion: string | null } | null;
+  /** Jacket the design uses (from the solved system); bare lines are bare steel. */
+  jacketId: string | null;
+  solved: boolean;
+  stale: boolean;
+  unmet: string[];
+}
+
+const conds = new Map<string, Conductivity>();
+const k = (id: string) => { let c = conds.get(id); if (!c) { c = compileConductivity(materialById(id)!.conductivity); conds.set(id, c); } return c; };
+
+/**
+ * The flags of one line under the design basis, each with the numbers behind it. Personnel
+ * protection uses the hottest air in still air; a surface exactly at the limit passes. Bare metal
+ * and metal jackets use the metal limit, other finishes the non-metal limit (contact-burn
+ * thresholds depend on material and contact time: ASTM C1055, ISO 13732-1).
+ */
+export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
+  const flags: Flag[] = [];
+  const l = f.line;
+  if (!f.solved || f.stale) flags.push({ type: 'blocked', message: f.solved ? 'Results are stale: solve the line again before deciding.' : 'The line has not been solved.' });
+  if (f.unmet.length) flags.push({ type: 'blocked', message: `No standard thickness meets ${f.unmet.join(', ')}.` });
+  if (f.design?.belowCriterion) flags.push({ type: 'below-criterion', message: `The chosen thickness is below what ${f.design.belowCriterion} requires.` });
+
+  const c = lineCaseFor(l);
+  const crit = criteriaFor(basis, l.outdoor);
+  const layers = (f.design?.layers ?? []).map((x) => {
+    const m = materialById(x.materialId)!;
+    return { thicknessM: x.thicknessMm / 1000, conductivity: k(x.materialId), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
+  });
+  const jacket = layers.length ? jacketById(f.jacketId ?? '') : undefined;
+  const emittance = jacket?.emittance ?? 0.8;
+  const metal = jacket ? jacket.metal : true;
+  const base = { geometry: c.geometry, pipeOuterDiameterM: (c.pipeOuterDiameterMm ?? 0) / 1000, heightM: c.heightM ?? 1, characteristicLengthM: 1, layers };
+  const hotC = l.maxTempC ?? l.normalTempC;
+
+  const pc = crit.conditions.personnel;
+  if (l.accessible && hotC > pc.airC) {
+    const r = solveSteady({ ...base, processC: hotC, ambient: { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance } });
+    const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
+    if (r.surfaceC > limit) {
+      flags.push({ type: 'hot-surface', valueC: r.surfaceC, limitC: limit, conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`, message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.` });
+    }
+    if (r.warnings.some((w) => w.includes('service temperature'))) {
+      flags.push({ type: 'interface-limit', message: r.warnings.filter((w) => w.includes('service temperature')).join('; ') });
+    }
+  }
+  const cc = crit.conditions.condensation;
+  if (l.normalTempC < cc.airC && (l.purposes.includes('condensationControl') || l.normalTempC < 10)) {
+    const r = solveSteady({ ...base, processC: l.normalTempC, ambient: { airC: cc.airC, surroundingsC: cc.surroundingsC ?? cc.airC, windMs: cc.windMs, emittance } });
+    const th = condensationThresholdC(cc.airC, cc.relativeHumidityPct ?? 80);
+    const need = th.valueC + basis.dewPointMarginK;
+    if (r.surfaceC < need) {
+      flags.push({ type: 'sweating', valueC: r.surfaceC, limitC: need, conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`, message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).` });
+    }
+  }
+  return flags;
+}

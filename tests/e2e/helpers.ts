@@ -18,3 +18,29 @@ export async function openDemoProject(page: Page) {
   await expect(page.getByRole('heading', { level: 1, name: 'Brack Point steam network upgrade' })).toBeVisible();
   return page.url().split('/projects/')[1];
 }
+
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { TEMPLATE_HEADERS, lineListWorkbook } from '../../seed/line-list';
+
+export const lineRow = (tag: string, nps: string, temp: number, purpose: string, extra: Record<string, string | number> = {}): (string | number | null)[] =>
+  TEMPLATE_HEADERS.map((h) => ({ 'Line tag': tag, Service: 'E2E service', Area: 'E2E', Geometry: 'Horizontal pipe', NPS: nps, 'Length (m)': 40, 'Normal temp (°C)': temp, 'Max temp (°C)': temp + 10, Purpose: purpose, Location: 'Outdoor', Accessible: 'yes', ...extra } as Record<string, string | number>)[h] ?? null);
+
+/** As a signed-in engineer on /projects: a new project with the given lines imported and solved. Returns its id. */
+export async function createProjectWithLines(page: Page, name: string, rows: (string | number | null)[][]) {
+  await page.getByLabel('Code').fill(`E2E-${Date.now().toString().slice(-7)}`);
+  await page.getByLabel('Name').fill(name);
+  await page.getByRole('button', { name: 'Create project' }).click();
+  await expect(page.getByRole('heading', { level: 1, name })).toBeVisible();
+  const id = page.url().split('/projects/')[1];
+  await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
+  const file = join(mkdtempSync(join(tmpdir(), 'lagwise-e2e-')), 'lines.xlsx');
+  writeFileSync(file, await lineListWorkbook(rows));
+  await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
+  await page.getByRole('button', { name: 'Read file' }).click();
+  await page.getByRole('button', { name: 'Check the rows' }).click();
+  await page.getByRole('button', { name: `Import ${rows.length} lines` }).click();
+  await expect(page.getByText(new RegExp(`imported: ${rows.length} lines`))).toBeVisible();
+  return id;
+}

@@ -54,7 +54,7 @@ export function ReviewQueue({ projectId, roundId, items, flagLabels, canDispose,
         <div><label className="label" htmlFor="q-status">Status</label><select id="q-status" className="input" value={status} onChange={(e) => setStatus(e.target.value)}><option value="">Any</option><option value="open">Open</option><option value="decided">Decided</option><option value="reopened">Re-opened</option></select></div>
       </div>
       {canDispose && open ? (
-        <div className="panel mb-3 flex flex-wrap items-end gap-3 p-3" aria-label="Disposition">
+        <div className="panel mb-3 flex flex-wrap items-end gap-3 p-3" aria-label="Decide on lines">
           <div><label className="label" htmlFor="d-disp">Disposition</label><select id="d-disp" className="input" value={disposition} onChange={(e) => setDisposition(e.target.value)}><option value="">Choose…</option>{DISPOSITIONS.map(([k, v]) => <option key={k} value={k}>{v}</option>)}</select></div>
           <div className="min-w-[18rem] flex-1"><label className="label" htmlFor="d-comment">Comment (required to accept or return)</label><input id="d-comment" className="input" value={comment} onChange={(e) => setComment(e.target.value)} /></div>
           <button className="btn-primary" disabled={pending || !disposition || selected.size === 0} onClick={() => apply([...selected])}>Apply to {selected.size} selected</button>

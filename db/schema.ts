@@ -250,6 +250,30 @@ export const auditLog = pgTable('audit_log', {
   after: jsonb('after'),
 }, (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)]);
 
+/** Issued revisions of the bill of quantities, each with the quantities as issued. */
+export const boqIssues = pgTable('boq_issues', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  number: integer('number').notNull(),
+  issuedBy: text('issued_by').notNull().references(() => users.id),
+  issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+  basisRevision: integer('basis_revision').notNull(),
+  lineListRevision: integer('line_list_revision'),
+  quantities: jsonb('quantities').notNull(),
+  counted: integer('counted').notNull(),
+  pending: integer('pending').notNull(),
+}, (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)]);
+
+/** The plant's heat-loss budget and its allocation by area. */
+export const budgets = pgTable('budgets', {
+  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  totalKW: doublePrecision('total_kw').notNull(),
+  totalMWhPerYear: doublePrecision('total_mwh_per_year').notNull(),
+  allocations: jsonb('allocations').notNull(),
+  updatedBy: text('updated_by').references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships), projects: many(projects),

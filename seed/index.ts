@@ -13,6 +13,8 @@ import { DEMO_ORG, DEMO_PROJECT, DEMO_USERS, OTHER_ORG } from './demo-data';
 import { demoLineRows, lineListWorkbook } from './line-list';
 import * as lineStore from '../lib/lines/store';
 import * as reviewStore from '../lib/review/store';
+import * as boqStore from '../lib/boq/store';
+import * as budgetStore from '../lib/budget/store';
 import { getPool } from '../db/client';
 
 const { users, organizations, memberships, projects } = schema;
@@ -86,6 +88,7 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
   }
   console.error(`[seed] demo line list: revision ${r.revision}, ${r.lineCount} lines, ${solved.solved} solved, ${picks.length} manual picks`);
   await seedReview(db, project.id, engineer.id);
+  await seedBudgetAndBill(db, project.id, engineer.id);
 }
 
 /** One review round signed off (tank farm) and one in progress (the rest), for the reviewer's first sign-in. */
@@ -104,6 +107,17 @@ async function seedReview(db: ReturnType<typeof drizzle<typeof schema>>, project
   const some = r2.items.slice(0, Math.ceil(r2.items.length / 3));
   if (some.length) await reviewStore.dispose({ projectId, roundId: second.round.id, itemIds: some.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs and barrier tape until the guards arrive', userId: reviewer.id });
   console.error(`[seed] review: round ${first.round.number} signed off (${r1.items.length} lines), round ${second.round.number} open (${some.length} of ${r2.items.length} decided)`);
+}
+
+/** A budget with the polymerisation area over its allocation, and the first issue of the bill. */
+async function seedBudgetAndBill(db: ReturnType<typeof drizzle<typeof schema>>, projectId: string, engineerId: string) {
+  const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0].email));
+  const d = await budgetStore.dashboard({ projectId });
+  const allocations = d.areas.map((a) => ({ area: a.area, kW: Math.round(a.designedKW * (a.area.startsWith('U30') ? 0.8 : 1.25) * 10) / 10 }));
+  const totalKW = Math.round(allocations.reduce((s, a) => s + a.kW, 0) * 1.05);
+  await budgetStore.saveBudget({ projectId, userId: owner.id, budget: { totalKW, totalMWhPerYear: Math.round((totalKW * 8000) / 1000), allocations } });
+  const issue = await boqStore.issueBill({ projectId, userId: engineerId });
+  console.error(`[seed] budget ${totalKW} kW over ${allocations.length} areas; bill issue ${issue.number} (${issue.counted} counted, ${issue.pending} pending)`);
 }
 
 main().catch((e) => { console.error('[seed] failed:', e); process.exit(1); });

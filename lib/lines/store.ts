@@ -162,7 +162,7 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
       recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: `${s.system.inner ? `${s.system.inner.name} + ` : ''}${s.system.outer.name}`, jacketId: s.system.jacket.id,
       outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
       // Compact cost curve and candidate table: [mm, layers, heat flow, surface °C (heat-loss), surface °C (personnel), annual cost, limits ok]
-      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 3), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk]),
+      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 6), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk]),
       design: r.design ? { profileC: r.design.profileC, overall: r.design.overall, convective: r.design.convectiveWPerM2K, radiative: r.design.radiativeWPerM2K } : null,
       heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null, totalHeatW: s.totalHeatW, bareHeatW: s.bareHeatW, surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
       personnelSurfaceC: chosen?.personnel?.surfaceC ?? null, annualMWh: r.annual?.energyMWh ?? null, annualCost: r.annual?.cost ?? null, co2Tonnes: r.annual?.co2Tonnes ?? null,

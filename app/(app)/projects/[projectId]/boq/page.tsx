@@ -1,18 +1,62 @@
 import { loadProject } from '@/lib/server/page';
-import { EmptyState } from '@/components/empty-state';
+import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
+import { getIssue, listIssues, previewBill } from '@/lib/boq/store';
+import { IssueButton } from './issue-button';
 
 export const metadata = { title: 'Bill of quantities' };
+const n = (v: number, d = 1) => v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
 
-export default async function Page({ params }: { params: Promise<{ projectId: string }> }) {
+export default async function BoqPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
-  const { allowed } = await loadProject(projectId, 'boq.read');
+  const { project, role, allowed } = await loadProject(projectId, 'boq.read');
+  if (!allowed) return <><h1 className="mb-4">Bill of quantities</h1><Denied what="The bill of quantities" /></>;
+  const issues = await listIssues({ projectId: project.id });
+  const canIssue = can(role, 'boq.issue');
+  const preview = canIssue ? await previewBill({ projectId: project.id }) : null;
+  const latest = issues[0] ? await getIssue({ projectId: project.id, number: issues[0].number }) : null;
   return (
     <>
-      <h1 className="mb-4">Bill of quantities</h1>
-      {allowed ? (
-        <EmptyState title="No bill issued yet" next="issued revisions as spreadsheets, with the change from the previous issue.">The contractor's bill lists lengths, areas and volumes per material, size and thickness. Nothing has been issued for this project yet.</EmptyState>
-      ) : <Denied what="Bill of quantities" />}
+      <h1 className="mb-3">Bill of quantities</h1>
+      {canIssue && preview ? (
+        <section className="panel mb-6 flex flex-wrap items-center justify-between gap-4 p-4" aria-label="Next issue">
+          <p className="text-sm">Not yet issued: <strong>{preview.counted}</strong> lines decided and cleared, <strong>{preview.pending}</strong> pending (undecided, needing re-decision or awaiting safety sign-off — listed, not counted).</p>
+          <IssueButton projectId={project.id} next={(issues[0]?.number ?? 0) + 1} />
+        </section>
+      ) : null}
+      <h2 className="mb-2">Issued revisions</h2>
+      {issues.length === 0 ? <p className="mb-6 text-sm text-ink-500">Nothing issued yet. {canIssue ? 'Issue the first revision when the decided lines are ready.' : 'The engineer issues the bill when the design is ready.'}</p> : (
+        <table className="table-dense panel mb-6" aria-label="Issued revisions">
+          <thead><tr><th>Issue</th><th>Issued (UTC)</th><th>Counted</th><th>Pending</th><th>Design basis</th><th>Workbook</th></tr></thead>
+          <tbody>{issues.map((i) => (
+            <tr key={i.id}><td className="num">{i.number}</td><td>{i.issuedAt.toISOString().slice(0, 16).replace('T', ' ')}</td><td className="num">{i.counted}</td><td className="num">{i.pending}</td><td className="num">rev. {i.basisRevision}</td>
+              <td><a href={`/api/v1/projects/${project.id}/boq/${i.number}`} download>Download issue {i.number} (.xlsx)</a></td></tr>
+          ))}</tbody>
+        </table>
+      )}
+      {latest ? (
+        <section aria-label="Latest issue summary">
+          <h2 className="mb-2">Issue {latest.issue.number}: summary</h2>
+          <table className="table-dense panel mb-4" aria-label="Material summary">
+            <thead><tr><th>Material</th><th>Layer</th><th>Size</th><th>Thickness mm</th><th className="text-right">Length m</th><th className="text-right">Volume m³</th></tr></thead>
+            <tbody>{latest.quantities.materials.map((m, i) => (
+              <tr key={i}><td>{m.material}</td><td className="num">{m.layer}</td><td>{m.size}</td><td className="num">{m.thicknessMm}</td><td className="num">{n(m.lengthM)}</td><td className="num">{n(m.volumeM3, 3)}</td></tr>
+            ))}</tbody>
+          </table>
+          <div className="grid gap-4 md:grid-cols-2">
+            <table className="table-dense panel" aria-label="Jacketing">
+              <thead><tr><th>Jacket</th><th>OD over insulation</th><th className="text-right">Area m²</th></tr></thead>
+              <tbody>{latest.quantities.jackets.map((j, i) => <tr key={i}><td>{j.jacket}</td><td>{j.outsideDiameterMm === null ? 'flat / vessel' : `${j.outsideDiameterMm} mm`}</td><td className="num">{n(j.areaM2)}</td></tr>)}</tbody>
+            </table>
+            <div className="panel p-3">
+              <h3 className="mb-1 text-sm font-semibold">Change from issue {latest.issue.number - 1 || '—'}</h3>
+              {latest.issue.number === 1 ? <p className="text-sm text-ink-500">First issue.</p> : latest.delta.length === 0 ? <p className="text-sm">No change in quantities.</p> : (
+                <ul className="max-h-64 overflow-auto text-sm" aria-label="Quantity changes">{latest.delta.map((d, i) => <li key={i}>{d.key} — {d.quantity}: {n(d.before, 2)} → {n(d.after, 2)} ({d.change > 0 ? '+' : ''}{n(d.change, 2)})</li>)}</ul>
+              )}
+            </div>
+          </div>
+        </section>
+      ) : null}
     </>
   );
 }

@@ -1,0 +1,58 @@
+import ExcelJS from 'exceljs';
+import type { BillQuantities, QuantityDelta } from './quantities';
+
+/**
+ * Text that a spreadsheet could read as a formula (= + - @, and tab/CR that some programs strip)
+ * is written with a leading apostrophe, as OWASP advises against formula injection.
+ */
+export function safeText(v: string): string {
+  return /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
+}
+
+function sheet(wb: ExcelJS.Workbook, name: string, headers: string[], rows: (string | number | null)[][], widths?: number[]) {
+  const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
+  ws.addRow(headers);
+  ws.getRow(1).font = { bold: true };
+  for (const r of rows) ws.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v)));
+  ws.autoFilter = { from: { row: 1, column: 1 }, to: { row: 1, column: headers.length } };
+  headers.forEach((h, i) => { ws.getColumn(i + 1).width = widths?.[i] ?? Math.max(12, h.length + 2); });
+  return ws;
+}
+
+export interface BillMeta { projectCode: string; projectName: string; site: string; organization: string; issueNumber: number; issuedAt: Date; issuedBy: string; basisRevision: number; lineListRevision: number | null }
+
+/** The contractor's workbook: numbers as numbers, units in the headers, frozen headers and filters. */
+export async function billWorkbook(q: BillQuantities, meta: BillMeta, delta: QuantityDelta[]): Promise<Buffer> {
+  const wb = new ExcelJS.Workbook();
+  wb.creator = 'Lagwise';
+  wb.created = meta.issuedAt;
+  sheet(wb, 'Summary', ['Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)'],
+    q.materials.map((r) => [r.material, r.productForm, r.layer, r.size, r.thicknessMm, r.lengthM, r.areaM2, r.volumeM3]), [32, 14, 8, 16, 14, 22, 20, 14]);
+  sheet(wb, 'Fittings', ['Size', 'Insulation thickness (mm)', 'Elbows (count)', 'Tees (count)', 'Valves (count)', 'Flange pairs (count)', 'Equivalent length (m)'],
+    q.fittings.map((r) => [r.size, r.thicknessMm, r.elbows, r.tees, r.valves, r.flanges, r.equivalentLengthM]));
+  sheet(wb, 'Jacketing', ['Jacket', 'Outside diameter over insulation (mm)', 'Area incl. overlap (m²)'],
+    q.jackets.map((r) => [r.jacket, r.outsideDiameterMm, r.areaM2]), [28, 34, 22]);
+  sheet(wb, 'Vessels and flat', ['Surface', 'Material', 'Layer', 'Thickness (mm)', 'Area incl. waste (m²)', 'Volume (m³)'],
+    q.surfaces.map((r) => [r.kind, r.material, r.layer, r.thicknessMm, r.areaM2, r.volumeM3]), [12, 32, 8, 14, 20, 14]);
+  sheet(wb, 'Line schedule', ['Tag', 'Area', 'Size', 'Length (m)', 'Area (m²)', 'Layers', 'Total thickness (mm)', 'Jacket', 'Bill status', 'Review status'],
+    q.schedule.map((r) => [r.tag, r.area, r.size, r.lengthM, r.areaM2, r.layers, r.totalMm, r.jacket, r.status, r.reviewStatus]), [20, 20, 14, 11, 11, 48, 18, 22, 40, 22]);
+  sheet(wb, 'Change from previous', ['Sheet', 'Item', 'Quantity', 'Previous issue', 'This issue', 'Change'],
+    delta.map((d) => [d.sheet, d.key, d.quantity, d.before, d.after, d.change]), [12, 60, 12, 16, 14, 12]);
+  const f = q.factors;
+  const notes = wb.addWorksheet('Notes');
+  [
+    ['Project', `${meta.projectCode} — ${meta.projectName}`], ['Site', meta.site], ['Organization', meta.organization],
+    ['Bill issue', meta.issueNumber], ['Issued', meta.issuedAt.toISOString().slice(0, 16).replace('T', ' ') + ' UTC'], ['Issued by', meta.issuedBy],
+    ['Design-basis revision', meta.basisRevision], ['Line-list revision', meta.lineListRevision ?? '—'],
+    ['Lines counted', q.counted], ['Lines pending (not counted)', q.pending],
+    ['Waste allowance', f.wasteFraction], ['Jacket overlap allowance', f.jacketOverlapFraction],
+    ['Equivalent length per elbow (m)', f.equivalentLengthM.elbow], ['Equivalent length per tee (m)', f.equivalentLengthM.tee],
+    ['Equivalent length per valve (m)', f.equivalentLengthM.valve], ['Equivalent length per flange pair (m)', f.equivalentLengthM.flangePair],
+    ['Basis of factors', 'Allowances and fitting equivalents are common-practice estimates set for the project; confirm them against the installation specification.'],
+    ['Caution', 'Thicknesses come from engineering estimates by published methods with typical material data (verify with the manufacturer). Personnel-protection and condensation decisions follow local codes and a qualified person.'],
+    ['Pending lines', 'Lines not yet decided, needing re-decision, or awaiting safety sign-off are listed in the line schedule as pending and are not in the quantities.'],
+  ].forEach((r) => notes.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v))));
+  notes.getColumn(1).width = 36; notes.getColumn(2).width = 110;
+  notes.getColumn(1).font = { bold: true };
+  return Buffer.from(await wb.xlsx.writeBuffer());
+}

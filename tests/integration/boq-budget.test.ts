@@ -1,0 +1,123 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import ExcelJS from 'exceljs';
+import { eq } from 'drizzle-orm';
+import { db, getPool } from '@/db/client';
+import { lineResults, projects } from '@/db/schema';
+import * as auth from '@/lib/auth/service';
+import * as lineStore from '@/lib/lines/store';
+import * as boq from '@/lib/boq/store';
+import * as budget from '@/lib/budget/store';
+import { isAppError } from '@/lib/errors';
+import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
+
+const row = (tag: string, o: Record<string, string | number | null> = {}) =>
+  TEMPLATE_HEADERS.map((h) => (h in o ? o[h] : ({ 'Line tag': tag, Area: 'North', Geometry: 'Horizontal pipe', NPS: '4', 'Length (m)': 100, 'Normal temp (°C)': 150, 'Max temp (°C)': 160, Purpose: 'H', Location: 'Outdoor', Accessible: 'no', Elbows: 2 } as Record<string, string | number>)[h] ?? null));
+
+let projectId = '', userId = '';
+async function importRows(rows: (string | number | null)[][]) {
+  const d = await lineStore.createDraft({ projectId, userId, fileName: 'b.xlsx', bytes: await lineListWorkbook(rows) });
+  const s = d.sheets[0];
+  await lineStore.commitDraft({ projectId, draftId: d.draftId, sheetName: s.name, mapping: s.suggested, userId });
+  await lineStore.solveProject({ projectId });
+}
+async function readBook(n: number) {
+  const { buf } = await boq.issueWorkbook({ projectId, number: n });
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(buf as unknown as ArrayBuffer);
+  return wb;
+}
+async function expectAppError(p: Promise<unknown>, code: string, message: RegExp) {
+  try { await p; } catch (e) { expect(isAppError(e) && e.code).toBe(code); expect((e as Error).message).toMatch(message); return; }
+  throw new Error('expected an error');
+}
+
+beforeAll(async () => {
+  const o = await auth.signUp({ name: 'Bill Owner', email: `boq.${randomUUID().slice(0, 8)}@example.com`, password: 'annular-volume-check', organizationName: 'BOQ Org' });
+  userId = o.userId;
+  const [p] = await db.insert(projects).values({ organizationId: o.organizationId, code: 'BQ-1', name: 'Bill test' }).returning();
+  projectId = p.id;
+  await importRows([row('N-1'), row('N-2', { Area: 'South', NPS: '2', 'Length (m)': 50 }), row('=CMD|calc', { Service: '@SUM(A1)', 'Length (m)': 20 })]);
+});
+afterAll(async () => { await getPool().end(); });
+
+describe('bill of quantities on PostgreSQL', () => {
+  it('refuses to issue with no decided line', async () => {
+    await expectAppError(boq.issueBill({ projectId, userId }), 'invalid', /nothing to issue/);
+  });
+
+  it('issues two revisions; both workbooks read back with the right cells and the delta', async () => {
+    await lineStore.acceptRecommendations({ projectId, userId, area: 'North' });
+    const first = await boq.issueBill({ projectId, userId });
+    expect(first).toMatchObject({ number: 1, counted: 2, pending: 1 });
+    const wb1 = await readBook(1);
+    expect(wb1.worksheets.map((w) => w.name)).toEqual(['Summary', 'Fittings', 'Jacketing', 'Vessels and flat', 'Line schedule', 'Change from previous', 'Notes']);
+    const sum1 = wb1.getWorksheet('Summary')!;
+    expect(sum1.getRow(1).values).toEqual([undefined, 'Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)']);
+    expect(sum1.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
+    expect(sum1.autoFilter).toBeTruthy();
+    const lengths1 = sum1.getColumn(6).values.slice(2) as number[];
+    // North lines only: 100 m + 2 elbows × 0.6 m and 20 m + 2 × 0.6 m, with 5 % waste (common-practice factors).
+    expect(lengths1.reduce((a, b) => a + b, 0)).toBeCloseTo((101.2 + 21.2) * 1.05, 2);
+    expect(typeof lengths1[0]).toBe('number');
+    const sched = wb1.getWorksheet('Line schedule')!;
+    const tags = (sched.getColumn(1).values.slice(2) as string[]);
+    expect(tags).toContain("'=CMD|calc"); // written as text, never as a formula
+    const injected = sched.getRow(tags.indexOf("'=CMD|calc") + 2).getCell(1);
+    expect(injected.type).toBe(ExcelJS.ValueType.String);
+    expect(sched.getRow(tags.indexOf('N-2') + 2).getCell(9).value).toBe('pending: no thickness chosen');
+    const notes = wb1.getWorksheet('Notes')!;
+    expect(notes.getCell('B4').value).toBe(1);
+    expect(String(notes.getCell('A17').value)).toBe('Basis of factors');
+
+    await lineStore.acceptRecommendations({ projectId, userId, area: 'South' });
+    const second = await boq.issueBill({ projectId, userId });
+    expect(second).toMatchObject({ number: 2, counted: 3, pending: 0 });
+    const wb2 = await readBook(2);
+    const lengths2 = wb2.getWorksheet('Summary')!.getColumn(6).values.slice(2) as number[];
+    expect(lengths2.reduce((a, b) => a + b, 0)).toBeCloseTo((101.2 + 21.2 + 51.2) * 1.05, 2);
+    const delta = wb2.getWorksheet('Change from previous')!;
+    const rows = delta.getSheetValues().slice(2).filter(Boolean) as unknown[][];
+    const nps2 = rows.find((r) => String(r[2]).includes('NPS 2') && r[3] === 'length m')!;
+    expect(nps2[4]).toBe(0);
+    expect(nps2[5]).toBeCloseTo(51.2 * 1.05, 2);
+    const { delta: d } = await boq.getIssue({ projectId, number: 2 });
+    expect(d.some((x) => x.sheet === 'jackets' && x.change > 0)).toBe(true);
+    // The first issue is unchanged by the second.
+    expect((await readBook(1)).getWorksheet('Summary')!.getColumn(6).values.slice(2)).toEqual(lengths1);
+    await expectAppError(boq.getIssue({ projectId, number: 3 }), 'not_found', /only issued revisions/);
+  });
+});
+
+describe('heat-loss budget', () => {
+  it('totals equal the sum of the saved line results', async () => {
+    const d = await budget.dashboard({ projectId, whatIf: { policy: 'recommended' } });
+    const results = await db.select().from(lineResults).where(eq(lineResults.projectId, projectId));
+    const sumKW = results.reduce((s, r) => s + (r.totalHeatW ?? 0), 0) / 1000;
+    expect(d.designed.kW).toBeCloseTo(sumKW, 6);
+    expect(d.bare.kW).toBeCloseTo(results.reduce((s, r) => s + r.bareHeatW, 0) / 1000, 6);
+    expect(d.savings.kW).toBeCloseTo(d.bare.kW - d.designed.kW, 9);
+    expect(d.designed.mwhPerYear).toBeCloseTo((d.designed.kW * d.hours) / 1000, 9);
+    expect(d.areas.map((a) => a.area)).toEqual(['North', 'South']);
+    expect(d.top[0].designedKW).toBeGreaterThanOrEqual(d.top[d.top.length - 1].designedKW);
+  });
+  it('flags an area over its allocation, and the what-if policy changes the totals without saving', async () => {
+    const base = await budget.dashboard({ projectId });
+    const north = base.areas.find((a) => a.area === 'North')!;
+    await budget.saveBudget({ projectId, userId, budget: { totalKW: 100, totalMWhPerYear: 900, allocations: [{ area: 'North', kW: north.designedKW * 0.5 }, { area: 'South', kW: 10 }] } });
+    const d = await budget.dashboard({ projectId });
+    expect(d.areas.find((a) => a.area === 'North')!.over).toBe(true);
+    expect(d.warnings[0]).toMatch(/^North: .* kW designed against .* kW allocated/);
+    const thicker = await budget.dashboard({ projectId, whatIf: { policy: 'economic-plus-one' } });
+    expect(thicker.designed.kW).toBeLessThan(d.designed.kW);
+    const pricier = await budget.dashboard({ projectId, whatIf: { energyPricePerKWh: d.price * 2 } });
+    expect(pricier.designed.costPerYear).toBeCloseTo(d.designed.costPerYear * 2, 6);
+    expect((await budget.getBudget({ projectId }))!.totalKW).toBe(100);
+  });
+  it('refuses non-numeric and negative entries by field', async () => {
+    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 'lots', totalMWhPerYear: 10, allocations: [] } }), 'invalid', /Total budget must be a number/);
+    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 50, totalMWhPerYear: 10, allocations: [{ area: 'North', kW: -5 }] } }), 'invalid', /Allocation cannot be negative/);
+    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 5, totalMWhPerYear: 10, allocations: [{ area: 'North', kW: 4 }, { area: 'South', kW: 4 }] } }), 'invalid', /more than the 5 kW budget/);
+    expect((await budget.getBudget({ projectId }))!.totalKW).toBe(100);
+  });
+});

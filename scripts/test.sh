@@ -21,7 +21,9 @@ export APP_URL="http://127.0.0.1:$PORT"
 
 status=0
 log "unit, reference and integration tests (vitest)"
-node_modules/.bin/vitest run || status=1
+rm -f .data/reports/*.json
+mkdir -p .data/reports
+node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile=.data/reports/vitest.json || status=1
 
 if [ ! -x /usr/bin/chromium ]; then
   if [ "$(id -u)" = 0 ]; then
@@ -38,7 +40,8 @@ node_modules/.bin/tsx seed/index.ts
 log "building for end-to-end tests"
 node_modules/.bin/next build >/tmp/lagwise-test-build.log 2>&1 || { cat /tmp/lagwise-test-build.log; exit 1; }
 log "end-to-end tests (Playwright, Debian chromium)"
-LAGWISE_INSECURE_COOKIES=1 node_modules/.bin/playwright test || status=1
+LAGWISE_INSECURE_COOKIES=1 PLAYWRIGHT_JSON_OUTPUT_NAME=.data/reports/playwright.json node_modules/.bin/playwright test --reporter=list,json || status=1
 
+node scripts/summary.mjs .data/reports/vitest.json .data/reports/playwright.json || true
 if [ "$status" = 0 ]; then log "all suites passed"; else log "some tests failed"; fi
 exit "$status"

@@ -30,7 +30,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ project
         <ul className="mb-3 flex flex-wrap gap-3 text-sm">
           {(Object.keys(FLAG_LABEL) as FlagType[]).map((t) => <li key={t} className="badge bg-ink-100 text-ink-800">{FLAG_LABEL[t]}: {counts[t] ?? 0}</li>)}
         </ul>
-        {can(role, 'review.request') ? (open ? <p className="text-sm">Round {open.round.number} is open. <Link href={`/projects/${project.id}/review/${open.round.id}`}>Open it</Link>.</p> : <RequestReviewForm projectId={project.id} areas={areas} />) : null}
+        {can(role, 'review.request') ? <RequestReviewForm projectId={project.id} areas={areas} openRound={open ? { id: open.round.id, number: open.round.number } : null} />
+          : open ? <p className="text-sm">Round {open.round.number} is open. <Link href={`/projects/${project.id}/review/${open.round.id}`}>Open it</Link>.</p> : null}
       </section>
       <h2 className="mb-2">Rounds</h2>
       {rounds.length === 0 ? <p className="text-sm text-ink-500">No review requested yet.</p> : (

@@ -1,12 +1,16 @@
 'use client';
+import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { requestReviewAction } from './actions';
 
-export function RequestReviewForm({ projectId, areas }: { projectId: string; areas: string[] }) {
+export function RequestReviewForm({ projectId, areas, openRound }: { projectId: string; areas: string[]; openRound: { id: string; number: number } | null }) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
+  // The message lives outside the form so it survives the refresh that swaps the form for the open round.
+  const message = msg ? <p role={msg.ok ? 'status' : 'alert'} className={`w-full text-sm ${msg.ok ? 'text-mineral-800' : 'text-alarm-700'}`}>{msg.text}</p> : null;
+  if (openRound) return <div className="space-y-2">{message}<p className="text-sm">Round {openRound.number} is open. <Link href={`/projects/${projectId}/review/${openRound.id}`}>Open it</Link>.</p></div>;
   return (
     <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => {
       e.preventDefault();
@@ -22,7 +26,7 @@ export function RequestReviewForm({ projectId, areas }: { projectId: string; are
         <select id="rq-area" name="area" className="input"><option value="">All areas</option>{areas.map((a) => <option key={a}>{a}</option>)}</select></div>
       <div className="min-w-[20rem] flex-1"><label htmlFor="rq-note" className="label">Note to the reviewer</label><input id="rq-note" name="note" className="input" /></div>
       <button className="btn-primary" disabled={pending}>Request a review of the flagged lines</button>
-      {msg ? <p role={msg.ok ? 'status' : 'alert'} className={`w-full text-sm ${msg.ok ? 'text-mineral-800' : 'text-alarm-700'}`}>{msg.text}</p> : null}
+      {message}
     </form>
   );
 }

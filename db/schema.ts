@@ -274,6 +274,48 @@ export const budgets = pgTable('budgets', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
+/** Company sign-in (OpenID Connect) of an organization; the client secret is stored encrypted. */
+export const ssoConfigs = pgTable('sso_configs', {
+  organizationId: uuid('organization_id').primaryKey().references(() => organizations.id, { onDelete: 'cascade' }),
+  issuer: text('issuer').notNull(),
+  clientId: text('client_id').notNull(),
+  clientSecretEnc: text('client_secret_enc').notNull(),
+  /** Role given to people who arrive this way; null = they wait for an owner's approval. */
+  newMemberRole: roleEnum('new_member_role'),
+  passwordsAllowed: boolean('passwords_allowed').notNull().default(true),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** One e-mail domain belongs to at most one organization's company sign-in. */
+export const ssoDomains = pgTable('sso_domains', {
+  domain: text('domain').primaryKey(),
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+});
+
+export const userIdentities = pgTable('user_identities', {
+  issuer: text('issuer').notNull(),
+  subject: text('subject').notNull(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [primaryKey({ columns: [t.issuer, t.subject] })]);
+
+/** People who signed in with the company account and wait for an owner to give them a role. */
+export const membershipRequests = pgTable('membership_requests', {
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [primaryKey({ columns: [t.organizationId, t.userId] })]);
+
+/** A company identity waiting to be linked to an existing password account (after one password sign-in). */
+export const pendingLinks = pgTable('pending_links', {
+  tokenHash: text('token_hash').primaryKey(),
+  issuer: text('issuer').notNull(),
+  subject: text('subject').notNull(),
+  email: text('email').notNull(),
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+});
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships), projects: many(projects),

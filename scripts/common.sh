@@ -55,6 +55,38 @@ stop_mail_sink() {
 
 migrate() { node_modules/.bin/tsx db/migrate.ts; }
 
+# Key for secrets at rest (company sign-in client secrets): from the environment, or a local one kept in .data/.
+ensure_secret_key() {
+  if [ -z "${LAGWISE_SECRET_KEY:-}" ]; then
+    mkdir -p .data
+    [ -s .data/secret-key ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('base64url'))" > .data/secret-key
+    chmod 600 .data/secret-key
+    export LAGWISE_SECRET_KEY="$(cat .data/secret-key)"
+  fi
+}
+
+# Local OpenID Connect provider for company sign-in in development and tests (never in production use).
+start_dev_idp() {
+  if [ "${OIDC_DEV_DISABLED:-}" = 1 ]; then return; fi
+  export OIDC_DEV_PORT="${OIDC_DEV_PORT:-4010}"
+  export OIDC_DEV_ISSUER="http://127.0.0.1:$OIDC_DEV_PORT"
+  export OIDC_DEV_APP_PORTS="${OIDC_DEV_APP_PORTS:-${PORT:-3000}}"
+  if http_ok "$OIDC_DEV_ISSUER/.well-known/openid-configuration"; then log "local identity provider already running"; return; fi
+  if port_in_use "$OIDC_DEV_PORT"; then log "port $OIDC_DEV_PORT is taken by another program; set OIDC_DEV_PORT"; exit 1; fi
+  mkdir -p .data
+  nohup node lib/auth/dev-idp.mjs >> ".data/idp-$OIDC_DEV_PORT.log" 2>&1 &
+  echo $! > ".data/idp-$OIDC_DEV_PORT.pid"
+  for _ in $(seq 1 50); do http_ok "$OIDC_DEV_ISSUER/.well-known/openid-configuration" && break; sleep 0.2; done
+  http_ok "$OIDC_DEV_ISSUER/.well-known/openid-configuration" || { log "identity provider did not start; see .data/idp-$OIDC_DEV_PORT.log"; exit 1; }
+  log "local identity provider at $OIDC_DEV_ISSUER (company sign-in for korvane.example)"
+}
+
+stop_dev_idp() {
+  local f=".data/idp-${OIDC_DEV_PORT:-4010}.pid"
+  [ -f "$f" ] && kill "$(cat "$f")" 2>/dev/null || true
+  rm -f "$f"
+}
+
 print_logins() {
   cat >&2 <<'EOT'
 
@@ -64,5 +96,7 @@ print_logins() {
     reviewer    reviewer@korvane.example           kiln-reviewer-4471
     contractor  contractor@hollis-thermal.example  kiln-contractor-4471
   A second organization (Tallgate Energy): owner@tallgate.example / kiln-tallgate-4471
+  Company sign-in (local identity provider): engineer@korvane.example / korvane-sso-engineer,
+    newcomer@korvane.example / korvane-sso-newcomer (arrives as a member waiting for approval)
 EOT
 }

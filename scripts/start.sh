@@ -4,7 +4,9 @@ source "$(dirname "$0")/common.sh"
 export PORT="${PORT:-3000}"
 ensure_deps
 ensure_db lagwise
+ensure_secret_key
 migrate
+start_dev_idp
 node_modules/.bin/tsx seed/index.ts --if-empty
 start_mail_sink
 log "building (next build)"

@@ -15,9 +15,12 @@ export MAIL_SINK_FILE=".data/mail/test-messages.jsonl"
 rm -f "$MAIL_SINK_FILE"
 unset SMTP_URL
 start_mail_sink
-trap stop_mail_sink EXIT
 export PORT="${TEST_PORT:-3100}"
 export APP_URL="http://127.0.0.1:$PORT"
+ensure_secret_key
+export OIDC_DEV_PORT="${TEST_OIDC_PORT:-4020}" OIDC_DEV_APP_PORTS="$PORT"
+start_dev_idp
+trap 'stop_mail_sink; stop_dev_idp' EXIT
 
 status=0
 log "unit, reference and integration tests (vitest)"

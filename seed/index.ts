@@ -15,6 +15,7 @@ import * as lineStore from '../lib/lines/store';
 import * as reviewStore from '../lib/review/store';
 import * as boqStore from '../lib/boq/store';
 import * as budgetStore from '../lib/budget/store';
+import { saveSsoConfig } from '../lib/auth/sso';
 import { getPool } from '../db/client';
 
 const { users, organizations, memberships, projects } = schema;
@@ -55,6 +56,7 @@ async function main() {
       await ensureProject(other.id, OTHER_ORG.project);
     });
     console.error('[seed] demo organization, project and users in place');
+    await seedCompanySignIn(db);
     await seedLineList(db);
   } finally {
     await pool.end();
@@ -118,6 +120,18 @@ async function seedBudgetAndBill(db: ReturnType<typeof drizzle<typeof schema>>, 
   await budgetStore.saveBudget({ projectId, userId: owner.id, budget: { totalKW, totalMWhPerYear: Math.round((totalKW * 8000) / 1000), allocations } });
   const issue = await boqStore.issueBill({ projectId, userId: engineerId });
   console.error(`[seed] budget ${totalKW} kW over ${allocations.length} areas; bill issue ${issue.number} (${issue.counted} counted, ${issue.pending} pending)`);
+}
+
+/** Company sign-in for the demo organization against the local identity provider the scripts start. */
+async function seedCompanySignIn(db: ReturnType<typeof drizzle<typeof schema>>) {
+  const issuer = process.env.OIDC_DEV_ISSUER;
+  if (!issuer || !process.env.LAGWISE_SECRET_KEY) { console.error('[seed] no local identity provider: company sign-in not configured'); return; }
+  const [org] = await db.select().from(organizations).where(eq(organizations.name, DEMO_ORG.name));
+  await saveSsoConfig({
+    organizationId: org.id, issuer, clientId: process.env.OIDC_DEV_CLIENT_ID ?? 'lagwise-local', clientSecret: process.env.OIDC_DEV_CLIENT_SECRET ?? 'local-development-client-secret',
+    domains: 'korvane.example', newMemberRole: '', passwordsAllowed: true,
+  });
+  console.error(`[seed] company sign-in for korvane.example via ${issuer}`);
 }
 
 main().catch((e) => { console.error('[seed] failed:', e); process.exit(1); });

@@ -6,6 +6,10 @@ import { formSchemas } from '@/lib/forms/schemas';
 import * as auth from '@/lib/auth/service';
 import { clearSessionCookie, clientIp, setSessionCookie, validateRequest } from '@/lib/auth/session';
 import { isAppError } from '@/lib/errors';
+import { cookies } from 'next/headers';
+import * as sso from '@/lib/auth/sso';
+import { LINK_COOKIE, SSO_COOKIE } from '@/lib/auth/cookie-names';
+import { env } from '@/lib/env';
 
 // Account actions run before there is a session, so they do not use the role wrapper;
 // each still parses on the server and answers with conform field errors.
@@ -19,10 +23,29 @@ export async function signInAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.signIn });
   if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
   try {
-    const { session } = await auth.signIn({ ...submission.value, ip: await clientIp() });
+    const { session, userId } = await auth.signIn({ ...submission.value, ip: await clientIp() });
     await setSessionCookie(session.id);
+    // A company identity waiting for this password sign-in is linked now (and only now).
+    const jar = await cookies();
+    const link = jar.get(LINK_COOKIE)?.value;
+    if (link) { await sso.linkPendingIdentity({ userId, linkToken: link }); jar.delete(LINK_COOKIE); }
   } catch (e) { return failed(submission, e); }
   redirect('/projects');
+}
+
+
+export async function companySignInAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.companySignIn });
+  if (submission.status !== 'success') return submission.reply();
+  let url: string;
+  try {
+    const start = await sso.beginSso({ email: submission.value.email });
+    (await cookies()).set(SSO_COOKIE, JSON.stringify({ state: start.state, codeVerifier: start.codeVerifier, nonce: start.nonce, organizationId: start.organizationId }), {
+      httpOnly: true, sameSite: 'lax', secure: env.isProduction(), path: '/auth/company', maxAge: 600,
+    });
+    url = start.url;
+  } catch (e) { return failed(submission, e); }
+  redirect(url);
 }
 
 export async function signUpAction(_prev: unknown, formData: FormData) {

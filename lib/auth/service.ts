@@ -13,6 +13,7 @@ import { lucia } from './lucia';
 import { hashPassword, passwordWeakness, verifyPassword } from './password';
 import { hashToken, newToken } from './tokens';
 import { ROLE_LABEL } from './permissions';
+import { passwordAllowedFor } from './sso';
 
 export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
 export const RESET_TTL_MINUTES = 60;
@@ -74,6 +75,7 @@ export async function signIn(input: { email: string; password: string; ip: strin
     throw new AppError('invalid', GENERIC_SIGN_IN_ERROR);
   }
   await db.delete(signInFailures).where(eq(signInFailures.email, email));
+  if (!(await passwordAllowedFor(user.id))) throw new AppError('forbidden', 'Your organization signs in with the company account. Use "Sign in with your company account".');
   const session = await lucia.createSession(user.id, {});
   return { userId: user.id, session };
 }

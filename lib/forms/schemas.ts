@@ -11,6 +11,7 @@ const role = z.enum(['owner', 'engineer', 'reviewer', 'contractor'], { error: 'C
 
 export const formSchemas = {
   signIn: z.object({ email, password: z.string({ error: 'Enter your password.' }).min(1) }),
+  companySignIn: z.object({ email }),
   signUp: z.object({
     name, email, password: newPassword,
     organizationName: z.string({ error: 'Name your organization.' }).trim().min(2, { error: 'Name your organization.' }).max(120),

@@ -5,11 +5,11 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await page.goto('/sign-up');
   await page.getByLabel('Your name').fill('Piet Tester');
   await page.getByLabel('Work e-mail').fill(email);
-  await page.getByLabel('Password').fill('short');
+  await page.getByLabel('Password', { exact: true }).fill('short');
   await page.getByLabel('Organization').fill('Tester Chemicals');
   await page.getByRole('button', { name: 'Create account' }).click();
   await expect(page.getByText('Use at least 12 characters.')).toBeVisible();
-  await page.getByLabel('Password').fill('granite-elbow-jacket');
+  await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
   await page.getByRole('button', { name: 'Create account' }).click();
   await expect(page).toHaveURL(/\/projects$/);
   await expect(page.getByText('Tester Chemicals · Owner')).toBeVisible();
@@ -17,7 +17,7 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await expect(page).toHaveURL(/\/sign-in$/);
 
   await page.goto('/forgot-password');
-  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
   await page.getByRole('button', { name: 'Send reset link' }).click();
   await expect(page.getByRole('status')).toContainText('reset link is on its way');
 
@@ -28,20 +28,20 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await page.getByLabel('New password').fill('marble-flange-lagging');
   await page.getByRole('button', { name: 'Save password' }).click();
   await expect(page).toHaveURL(/\/sign-in\?reset=1$/);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill('marble-flange-lagging');
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
+  await page.getByLabel('Password', { exact: true }).fill('marble-flange-lagging');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page).toHaveURL(/\/projects$/);
 });
 
 test('the owner invites an engineer who joins through the e-mailed link', async ({ page, browser }) => {
   await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill('owner@korvane.example');
-  await page.getByLabel('Password').fill('kiln-owner-4471');
+  await page.getByLabel('E-mail', { exact: true }).fill('owner@korvane.example');
+  await page.getByLabel('Password', { exact: true }).fill('kiln-owner-4471');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.getByRole('link', { name: 'Members' }).first().click();
   const invitee = `new.engineer.${Date.now()}@example.com`;
-  await page.getByLabel('E-mail').fill(invitee);
+  await page.getByLabel('E-mail', { exact: true }).fill(invitee);
   await page.getByLabel('Role', { exact: true }).selectOption('engineer');
   await page.getByRole('button', { name: 'Send invitation' }).click();
   await expect(page.getByRole('status')).toHaveText('Invitation sent.');
@@ -54,7 +54,7 @@ test('the owner invites an engineer who joins through the e-mailed link', async 
   await p.goto(href!);
   await expect(p.getByText(`Invitation for ${invitee} as Engineer.`)).toBeVisible();
   await p.getByLabel('Your name').fill('Nia Newcomer');
-  await p.getByLabel('Password').fill('cobalt-riser-clamp');
+  await p.getByLabel('Password', { exact: true }).fill('cobalt-riser-clamp');
   await p.getByRole('button', { name: 'Create account and join' }).click();
   await expect(p).toHaveURL(/\/projects$/);
   await expect(p.getByText('Korvane Polymers · Engineer')).toBeVisible();

@@ -74,9 +74,9 @@ test('a tampered session cookie is treated as signed out', async ({ page, contex
 
 test('wrong password shows the generic message and keeps the e-mail typed', async ({ page }) => {
   await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill('engineer@korvane.example');
-  await page.getByLabel('Password').fill('definitely-wrong-1');
+  await page.getByLabel('E-mail', { exact: true }).fill('engineer@korvane.example');
+  await page.getByLabel('Password', { exact: true }).fill('definitely-wrong-1');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page.getByRole('alert').filter({ hasText: /./ })).toHaveText('E-mail or password is not right.');
-  await expect(page.getByLabel('E-mail')).toHaveValue('engineer@korvane.example');
+  await expect(page.getByLabel('E-mail', { exact: true })).toHaveValue('engineer@korvane.example');
 });

@@ -6,6 +6,9 @@ import { can, ROLE_LABEL, ROLES } from '@/lib/auth/permissions';
 import { SimpleForm } from '@/components/simple-form';
 import { Denied } from '@/components/denied';
 import { changeRoleAction, inviteAction, removeMemberAction } from './actions';
+import { listMembershipRequests } from '@/lib/auth/sso';
+import { approveRequestAction } from '../company-sign-in/actions';
+import Link from 'next/link';
 import { MemberRowActions } from './member-row-actions';
 
 export const metadata = { title: 'Members' };
@@ -18,10 +21,24 @@ export default async function MembersPage({ params }: { params: Promise<{ orgId:
   if (!role) notFound();
   if (!can(role, 'members.read')) return <main className="p-6"><Denied what="The member list" /></main>;
   const manage = can(role, 'members.manage');
-  const [members, invites] = await Promise.all([listMembers({ organizationId: orgId }), manage ? pendingInvitations(orgId) : []]);
+  const [members, invites, requests] = await Promise.all([listMembers({ organizationId: orgId }), manage ? pendingInvitations(orgId) : [], manage ? listMembershipRequests({ organizationId: orgId }) : []]);
   return (
     <main className="mx-auto max-w-5xl px-6 py-8">
-      <h1 className="mb-4">Members</h1>
+      <div className="mb-4 flex items-baseline justify-between"><h1>Members</h1>{can(role, 'org.settings') ? <Link href={`/orgs/${orgId}/company-sign-in`}>Company sign-in settings</Link> : null}</div>
+      {requests.length ? (
+        <section className="panel mb-6 p-4" aria-label="Waiting for a role">
+          <h2 className="mb-2">Waiting for a role ({requests.length})</h2>
+          <ul className="space-y-2 text-sm">{requests.map((r) => (
+            <li key={r.userId} className="flex flex-wrap items-center gap-2">
+              <span>{r.name} · {r.email}</span>
+              <form action={approveRequestAction} className="flex items-center gap-1">
+                <input type="hidden" name="organizationId" value={orgId} /><input type="hidden" name="userId" value={r.userId} />
+                <select name="role" aria-label={`Role for ${r.name}`} className="input w-40 py-1" defaultValue="engineer">{ROLES.map((x) => <option key={x} value={x}>{ROLE_LABEL[x]}</option>)}</select>
+                <button className="btn-quiet py-1">Approve</button>
+              </form>
+            </li>))}</ul>
+        </section>
+      ) : null}
       <table className="table-dense panel">
         <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{manage ? <th>Change</th> : null}</tr></thead>
         <tbody>

@@ -1,0 +1,40 @@
+import { cookies } from 'next/headers';
+import { NextResponse, type NextRequest } from 'next/server';
+import { completeSso } from '@/lib/auth/sso';
+import { lucia } from '@/lib/auth/lucia';
+import { isAppError } from '@/lib/errors';
+import { env } from '@/lib/env';
+import { LINK_COOKIE, SSO_COOKIE, SSO_MESSAGE_COOKIE } from '@/lib/auth/cookie-names';
+
+export const dynamic = 'force-dynamic';
+
+/**
+ * Where the company's identity provider sends the browser back. No session yet, so this handler
+ * checks the state and PKCE verifier it left in a cookie instead; every outcome ends on a page
+ * that says what happened.
+ */
+export async function GET(req: NextRequest) {
+  const jar = await cookies();
+  const raw = jar.get(SSO_COOKIE)?.value;
+  jar.delete({ name: SSO_COOKIE, path: '/auth/company' });
+  let expected = null;
+  try { expected = raw ? JSON.parse(raw) : null; } catch { expected = null; }
+  const to = (path: string) => NextResponse.redirect(new URL(path, env.appUrl()), 303);
+  const say = (message: string) => { jar.set(SSO_MESSAGE_COOKIE, message, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 60 }); return to('/sign-in?company=1'); };
+  if (req.nextUrl.searchParams.get('error')) return say(`The company sign-in was cancelled or refused (${req.nextUrl.searchParams.get('error')}).`);
+  try {
+    const out = await completeSso({ code: req.nextUrl.searchParams.get('code'), state: req.nextUrl.searchParams.get('state'), expected });
+    if (out.kind === 'pending') return say(`Signed in with your company account. An owner of ${out.organizationName} still has to give you a role; you will be able to open projects after that.`);
+    if (out.kind === 'link-required') {
+      jar.set(LINK_COOKIE, out.linkToken, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 900, secure: env.isProduction() });
+      return say(`${out.email} already has a Lagwise password. Sign in with it once to link your company account; after that the company sign-in is enough.`);
+    }
+    const c = lucia.createSessionCookie(out.session.id);
+    jar.set(c.name, c.value, c.attributes);
+    return to('/projects');
+  } catch (e) {
+    if (isAppError(e)) return say(e.message);
+    console.error('[sso] callback failed', (e as Error).message);
+    return say('The company sign-in could not be completed. Try again, or sign in with your password.');
+  }
+}

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { compileConductivity } from './conductivity';
 import { dewPointC } from './psychro';
 import { solveSteady } from './solve';
+import { solveVessel } from './vessel';
 import { GEOMETRIES, isPipe } from './surface';
 import { materialById } from './materials';
 
@@ -32,7 +33,7 @@ const layerSchema = z.object({
 
 export const calcCaseSchema = z.object({
   id: z.union([z.string(), z.number()]).optional(),
-  geometry: z.enum(GEOMETRIES as [string, ...string[]], { error: `geometry must be one of ${GEOMETRIES.join(', ')}` }),
+  geometry: z.enum([...GEOMETRIES, 'vessel'] as unknown as [string, ...string[]], { error: `geometry must be one of ${[...GEOMETRIES, 'vessel'].join(', ')}` }),
   pipeOuterDiameterMm: positive('pipeOuterDiameterMm').max(10000).optional(),
   heightM: positive('heightM').max(500).optional(),
   characteristicLengthM: positive('characteristicLengthM').max(500).optional(),
@@ -46,8 +47,8 @@ export const calcCaseSchema = z.object({
   innerFilmCoefficientWPerM2K: positive('innerFilmCoefficientWPerM2K').optional(),
   layers: z.array(layerSchema, { error: 'layers must be an array (empty for a bare surface)' }).max(4, { error: 'at most 4 layers' }),
 }).superRefine((c, ctx) => {
-  if (isPipe(c.geometry as never) && c.pipeOuterDiameterMm === undefined) ctx.addIssue({ code: 'custom', path: ['pipeOuterDiameterMm'], message: 'pipeOuterDiameterMm is required for pipes' });
-  if ((c.geometry === 'vertical-pipe' || c.geometry === 'vertical-wall') && c.heightM === undefined) ctx.addIssue({ code: 'custom', path: ['heightM'], message: `heightM is required for ${c.geometry}` });
+  if ((isPipe(c.geometry as never) || c.geometry === 'vessel') && c.pipeOuterDiameterMm === undefined) ctx.addIssue({ code: 'custom', path: ['pipeOuterDiameterMm'], message: `pipeOuterDiameterMm is required for ${c.geometry === 'vessel' ? 'a vessel (its diameter)' : 'pipes'}` });
+  if ((c.geometry === 'vertical-pipe' || c.geometry === 'vertical-wall' || c.geometry === 'vessel') && c.heightM === undefined) ctx.addIssue({ code: 'custom', path: ['heightM'], message: `heightM is required for ${c.geometry}` });
   c.layers.forEach((l, i) => {
     if (l.conductivity?.type === 'linear') {
       for (const T of [c.processTempC, c.ambientTempC, c.surroundingsTempC ?? c.ambientTempC]) {
@@ -65,6 +66,8 @@ export interface CalcResult {
   id?: string | number;
   heatLossWPerM?: number;
   heatFluxWPerM2?: number;
+  /** Vessels: total heat flow of shell and heads, W. */
+  heatLossW?: number;
   surfaceTempC: number;
   interfaceTempsC: number[];
   convectiveCoefficientWPerM2K: number;
@@ -98,6 +101,17 @@ export function runCase(input: unknown): CalcOutput {
         maxServiceC: l.maxServiceC ?? m?.maxServiceC,
       };
     });
+    const ambient = { airC: c.ambientTempC, surroundingsC: c.surroundingsTempC ?? c.ambientTempC, windMs: c.windSpeedMs, emittance: c.surfaceEmittance, fixedCoefficientWPerM2K: c.surfaceCoefficientWPerM2K };
+    if (c.geometry === 'vessel') {
+      const v = solveVessel({ diameterM: c.pipeOuterDiameterMm! / 1000, shellHeightM: c.heightM!, processC: c.processTempC, ambient, layers });
+      return {
+        id, heatLossW: v.totalW, heatFluxWPerM2: v.meanFluxWPerM2, surfaceTempC: v.worstSurfaceC, interfaceTempsC: v.shell.interfacesC,
+        convectiveCoefficientWPerM2K: v.shell.convectiveWPerM2K, radiativeCoefficientWPerM2K: v.shell.radiativeWPerM2K,
+        ...(c.relativeHumidityPct !== undefined ? { dewPointC: dewPointC(c.ambientTempC, c.relativeHumidityPct) } : {}),
+        overallCoefficient: v.shell.overall, warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])],
+        parts: { shellWPerM: v.shell.heatFlow, topWPerM2: v.top.heatFlow, bottomWPerM2: v.bottom.heatFlow, areasM2: v.areasM2 },
+      } as CalcResult;
+    }
     const r = solveSteady({
       geometry: c.geometry as never,
       pipeOuterDiameterM: (c.pipeOuterDiameterMm ?? 0) / 1000,

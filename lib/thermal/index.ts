@@ -16,3 +16,4 @@ export * from './thickness';
 export * from './units';
 export const CALCULATION_VERSION = '2026.12-1';
 export * from './defaults';
+export * from './vessel';

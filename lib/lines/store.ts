@@ -25,8 +25,11 @@ export async function getDesignBasis({ projectId }: { projectId: string }): Prom
 }
 
 export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
-  await getDesignBasis({ projectId });
-  const [row] = await db.update(designBases).set({ basis, revision: sql`${designBases.revision} + 1`, updatedBy: userId, updatedAt: new Date() })
+  const current = await getDesignBasis({ projectId });
+  // The display unit system changes no result: saving only that keeps the revision (nothing goes stale).
+  const strip = (b: DesignBasis) => JSON.stringify({ ...b, unitSystem: undefined });
+  const bump = strip(current.basis) !== strip(basis);
+  const [row] = await db.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
     .where(eq(designBases.projectId, projectId)).returning();
   return { revision: row.revision };
 }

@@ -110,6 +110,10 @@ describe('line-list import on PostgreSQL', () => {
     expect(revision).toBe(2);
     expect((await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total).toBe(3);
     expect((await store.solveProject({ projectId })).solved).toBe(3);
+    // Display units alone change no result: the revision stays and nothing goes stale.
+    const again = await store.saveDesignBasis({ projectId, userId, basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55, unitSystem: 'US' } });
+    expect(again.revision).toBe(2);
+    expect((await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total).toBe(0);
   });
 
   it('picks: a reason for a manual pick, flagged below a hard criterion, and the second of two concurrent saves refused', async () => {

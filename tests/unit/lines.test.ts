@@ -97,3 +97,16 @@ describe('revision diff', () => {
     expect(d.changed).toEqual([{ tag: 'a', changes: [{ field: 'normalTempC', from: 150, to: 160 }] }]);
   });
 });
+
+describe('display in the project unit system', () => {
+  it('shows US customary from SI values (conversions as in lib/thermal/units)', async () => {
+    const { display } = await import('@/lib/lines/display');
+    const us = display('US'), si = display('SI');
+    expect(us.temp(100)).toBe('212');
+    expect(us.thickness(50.8)).toBe('2.0');
+    expect(us.linearLoss(100)).toBe('104.0'); // 1 W/m = 1.04007 Btu/(h·ft)
+    expect(us.units).toMatchObject({ temp: '°F', thickness: 'in' });
+    expect(si.temp(100)).toBe('100.0');
+    expect(si.thickness(0)).toBe('bare');
+  });
+});

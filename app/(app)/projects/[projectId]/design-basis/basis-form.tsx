@@ -43,10 +43,17 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
       onSubmit={(e) => { e.preventDefault(); const fd = new FormData(e.currentTarget); startTransition(() => action(fd)); }}
     >
       <input type="hidden" name="projectId" value={projectId} />
-      <input type="hidden" name="unitSystem" value={basis.unitSystem} />
+
       {result?.status === 'success' ? <p role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm">Saved as design-basis revision {(result as { revision?: number }).revision}. Lines solved under the earlier revision are now marked stale.</p> : null}
       {result?.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">{result.error[''].join(' ')}</p> : null}
       {result?.status === 'error' && !result.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">Some values are not valid; see the fields marked below. Nothing was saved.</p> : null}
+      <div className="max-w-xs">
+        <label htmlFor="db-unitSystem" className="label">Units for display</label>
+        <select id="db-unitSystem" name="unitSystem" defaultValue={basis.unitSystem} disabled={!canEdit} className="input">
+          <option value="SI">SI (°C, mm, m, W/m)</option><option value="US">US customary (°F, in, ft, Btu/h·ft)</option>
+        </select>
+        <p className="mt-1 text-xs text-ink-500">Line-list columns choose their own units at import. The values on this form stay SI.</p>
+      </div>
       <div className="grid gap-4 lg:grid-cols-3">
         {condition('heatLoss', 'Heat loss (average conditions)', false)}
         {condition('personnel', 'Personnel protection (hottest, still air)', false)}

@@ -4,6 +4,7 @@ import { useMemo, useState, useTransition } from 'react';
 import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { acceptRecommendationsAction, pickThicknessAction, solveLinesAction } from './actions';
+import { display, type UnitSystem } from '@/lib/lines/display';
 
 interface Candidate { mm: number; heatFlow: number; surfaceC: number; personnelC: number | null; ok: boolean }
 interface Row {
@@ -18,7 +19,8 @@ const GOV: Record<string, string> = { personnel: 'Personnel', condensation: 'Con
 const f1 = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(1));
 const ch = createColumnHelper<Row>();
 
-export function LineTable({ projectId, areas, canPick, canSolve }: { projectId: string; areas: string[]; canPick: boolean; canSolve: boolean }) {
+export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'SI' }: { projectId: string; areas: string[]; canPick: boolean; canSolve: boolean; unitSystem?: UnitSystem }) {
+  const u = display(unitSystem);
   const qc = useQueryClient();
   const [page, setPage] = useState(0);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'tag', desc: false }]);
@@ -45,15 +47,15 @@ export function LineTable({ projectId, areas, canPick, canSolve }: { projectId: 
     ch.accessor('tag', { header: 'Tag', cell: (c) => <Link href={`/projects/${projectId}/lines/${c.row.original.id}`} className="font-mono">{c.getValue()}</Link> }),
     ch.accessor('service', { header: 'Service', enableSorting: false }),
     ch.accessor('area', { header: 'Area' }),
-    ch.accessor('outsideDiameterMm', { header: 'Size', cell: (c) => c.row.original.nps ? `NPS ${c.row.original.nps}` : c.row.original.geometry === 'vessel' ? 'Vessel' : c.row.original.geometry === 'flat' ? 'Flat' : `${f1(c.getValue())} mm` }),
-    ch.accessor('normalTempC', { header: 'T °C', cell: (c) => <span className="num block">{f1(c.getValue())}</span> }),
-    ch.accessor('recommendedMm', { header: 'Rec. mm', cell: (c) => <span className="num block">{c.getValue() ?? '—'}</span> }),
+    ch.accessor('outsideDiameterMm', { header: 'Size', cell: (c) => c.row.original.nps ? `NPS ${c.row.original.nps}` : c.row.original.geometry === 'vessel' ? 'Vessel' : c.row.original.geometry === 'flat' ? 'Flat' : u.diameter(c.getValue()) }),
+    ch.accessor('normalTempC', { header: `T ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
+    ch.accessor('recommendedMm', { header: `Rec. ${u.units.thickness}`, cell: (c) => <span className="num block">{c.getValue() === null ? '—' : u.thickness(c.getValue())}</span> }),
     ch.accessor('governing', { header: 'Governs', cell: (c) => (c.getValue() ? GOV[c.getValue()!] ?? c.getValue() : '—') }),
-    ch.accessor('surfaceTempC', { header: 'Surface °C', cell: (c) => <span className="num block">{f1(c.getValue())}</span> }),
-    ch.accessor('heatFlowPerUnit', { header: 'Loss W/m·W/m²', cell: (c) => <span className="num block">{f1(c.getValue())}</span> }),
+    ch.accessor('surfaceTempC', { header: `Surface ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
+    ch.accessor('heatFlowPerUnit', { header: `Loss ${u.units.linearLoss}·${u.units.arealLoss}`, cell: (c) => <span className="num block">{c.row.original.geometry === 'flat' ? u.arealLoss(c.getValue()) : u.linearLoss(c.getValue())}</span> }),
     ch.display({ id: 'status', header: 'Status', cell: (c) => <Badges row={c.row.original} /> }),
-    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} /> }),
-  ], [projectId, canPick]); // eslint-disable-line react-hooks/exhaustive-deps
+    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} unitSystem={unitSystem} /> }),
+  ], [projectId, canPick, unitSystem]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const data = query.data?.rows ?? [];
   const table = useReactTable({
@@ -136,12 +138,13 @@ function Badges({ row }: { row: Row }) {
   );
 }
 
-function PickCell({ row, projectId, canPick, onSaved }: { row: Row; projectId: string; canPick: boolean; onSaved: () => void }) {
+function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; projectId: string; canPick: boolean; onSaved: () => void; unitSystem: UnitSystem }) {
+  const u = display(unitSystem);
   const [value, setValue] = useState<string>(row.chosenMm !== null ? String(row.chosenMm) : '');
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
-  if (!canPick) return <span className="num block">{row.chosenMm ?? '—'}</span>;
+  if (!canPick) return <span className="num block">{row.chosenMm === null ? '—' : `${u.thickness(row.chosenMm)} ${u.units.thickness}`}</span>;
   if (!row.candidates.length) return <span className="text-xs text-ink-500">solve first</span>;
   const picked = value === '' ? null : Number(value);
   const needsReason = picked !== null && picked !== row.recommendedMm;
@@ -161,7 +164,7 @@ function PickCell({ row, projectId, canPick, onSaved }: { row: Row; projectId: s
           <option value="">—</option>
           {row.candidates.map((c) => (
             <option key={c.mm} value={c.mm} disabled={!c.ok}>
-              {c.mm === 0 ? 'bare' : `${c.mm} mm`}{c.mm === row.recommendedMm ? ' ★' : ''} · {c.surfaceC.toFixed(0)} °C · {c.heatFlow.toFixed(0)} W{!c.ok ? ' · over limit' : ''}
+              {c.mm === 0 ? 'bare' : `${u.thickness(c.mm)} ${u.units.thickness}`}{c.mm === row.recommendedMm ? ' ★' : ''} · {u.temp(c.surfaceC)} {u.units.temp} · {row.geometry === 'flat' ? u.arealLoss(c.heatFlow) : u.linearLoss(c.heatFlow)}{!c.ok ? ' · over limit' : ''}
             </option>
           ))}
         </select>

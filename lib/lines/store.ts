@@ -27,7 +27,9 @@ export async function getDesignBasis({ projectId }: { projectId: string }): Prom
 export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
   const current = await getDesignBasis({ projectId });
   // The display unit system changes no result: saving only that keeps the revision (nothing goes stale).
-  const strip = (b: DesignBasis) => JSON.stringify({ ...b, unitSystem: undefined });
+  // jsonb does not keep key order, so compare with sorted keys.
+  const canon = (v: unknown): unknown => (Array.isArray(v) ? v.map(canon) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canon((v as Record<string, unknown>)[k])])) : v);
+  const strip = (b: DesignBasis) => JSON.stringify(canon({ ...b, unitSystem: undefined }));
   const bump = strip(current.basis) !== strip(basis);
   const [row] = await db.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
     .where(eq(designBases.projectId, projectId)).returning();

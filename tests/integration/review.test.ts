@@ -111,7 +111,8 @@ describe('review round on PostgreSQL', () => {
   it('a stale round cannot be signed off', async () => {
     await lineStore.solveProject({ projectId });
     const r = await review.requestReview({ projectId, userId: engineerId });
-    await lineStore.saveDesignBasis({ projectId, userId: engineerId, basis: (await lineStore.getDesignBasis({ projectId })).basis });
+    const current = (await lineStore.getDesignBasis({ projectId })).basis;
+    await lineStore.saveDesignBasis({ projectId, userId: engineerId, basis: { ...current, dewPointMarginK: current.dewPointMarginK + 1 } });
     const { items } = await review.getRound({ projectId, roundId: r.round.id });
     await review.dispose({ projectId, roundId: r.round.id, itemIds: items.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs', userId: reviewerId });
     await expectAppError(review.signOff({ projectId, roundId: r.round.id, userId: reviewerId }), 'conflict', /design basis changed/);

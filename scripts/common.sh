@@ -55,6 +55,15 @@ stop_mail_sink() {
 
 migrate() { node_modules/.bin/tsx db/migrate.ts; }
 
+# A fresh test database (recreated each time) unless DATABASE_URL points elsewhere; used by npm test and the benchmarks.
+use_fresh_test_db() {
+  if [ -z "${DATABASE_URL:-}" ]; then
+    bash db/pg.sh start
+    bash db/pg.sh reset-test
+    export DATABASE_URL="$(bash db/pg.sh url lagwise_test)"
+  fi
+}
+
 # Key for secrets at rest (company sign-in client secrets): from the environment, or a local one kept in .data/.
 ensure_secret_key() {
   if [ -z "${LAGWISE_SECRET_KEY:-}" ]; then

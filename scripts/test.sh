@@ -2,11 +2,7 @@
 # npm test: set up like npm start against a fresh test database, then every suite.
 source "$(dirname "$0")/common.sh"
 ensure_deps
-if [ -z "${DATABASE_URL:-}" ]; then
-  bash db/pg.sh start
-  bash db/pg.sh reset-test
-  export DATABASE_URL="$(bash db/pg.sh url lagwise_test)"
-fi
+use_fresh_test_db
 migrate
 
 # Test services on their own ports so a running `npm start` is not disturbed.

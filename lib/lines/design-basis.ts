@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { CO2_NATURAL_GAS_KG_PER_KWH, DEFAULT_PRICES } from '@/lib/thermal/economics';
+import { DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/thermal/economics';
+import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 
 /**
@@ -63,27 +64,30 @@ export function checkBands(b: { systems: { fromC: number; toC: number }[] }, ctx
 export const designBasisSchema = designBasisObject.superRefine(checkBands);
 export type DesignBasis = z.output<typeof designBasisSchema>;
 
+const C = DEFAULT_CRITERIA.conditions;
+
 /** Defaults for a new project; sources named in DEFAULT_BASIS_NOTES. */
 export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   unitSystem: 'SI',
   conditions: {
-    heatLoss: { outdoor: { airC: 10, windMs: 3 }, indoor: { airC: 20, windMs: 0 } },
-    personnel: { outdoor: { airC: 35, windMs: 0 }, indoor: { airC: 35, windMs: 0 } },
-    condensation: { outdoor: { airC: 30, windMs: 0.5, relativeHumidityPct: 80 }, indoor: { airC: 25, windMs: 0, relativeHumidityPct: 70 } },
-    freeze: { airC: -15, windMs: 5 },
+    // Outdoor conditions and the limits are the engine's defaults; indoor ones are set here.
+    heatLoss: { outdoor: { airC: C.heatLoss.airC, windMs: C.heatLoss.windMs }, indoor: { airC: 20, windMs: 0 } },
+    personnel: { outdoor: { airC: C.personnel.airC, windMs: C.personnel.windMs }, indoor: { airC: 35, windMs: 0 } },
+    condensation: { outdoor: { airC: C.condensation.airC, windMs: C.condensation.windMs, relativeHumidityPct: C.condensation.relativeHumidityPct! }, indoor: { airC: 25, windMs: 0, relativeHumidityPct: 70 } },
+    freeze: { airC: C.freeze.airC, windMs: C.freeze.windMs },
   },
-  touchLimitMetalC: 60,
-  touchLimitNonMetalC: 65,
-  dewPointMarginK: 2,
-  maxProcessDropK: 5,
-  freeze: { initialWaterTempC: 10, requiredHours: 8 },
+  touchLimitMetalC: DEFAULT_CRITERIA.touchLimitMetalC,
+  touchLimitNonMetalC: DEFAULT_CRITERIA.touchLimitNonMetalC,
+  dewPointMarginK: DEFAULT_CRITERIA.dewPointMarginK,
+  maxProcessDropK: DEFAULT_CRITERIA.maxProcessDropK!,
+  freeze: { ...DEFAULT_CRITERIA.freeze! },
   systems: [
     { fromC: -200, toC: 0, outerId: 'polyisocyanurate', innerId: 'cellular-glass', jacketId: 'aluminium-oxidised' },
     { fromC: 0, toC: 20, outerId: 'elastomeric-foam', jacketId: 'pvc' },
     { fromC: 20, toC: 600, outerId: 'mineral-wool-pipe', jacketId: 'aluminium-oxidised' },
     { fromC: 600, toC: 1000, outerId: 'mineral-wool-pipe', innerId: 'calcium-silicate', jacketId: 'stainless-steel' },
   ],
-  economics: { energyPricePerKWh: 0.045, efficiency: 0.85, hoursPerYear: 8000, discountRate: 0.08, lifeYears: 15, escalationRate: 0.02, co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH },
+  economics: { ...DEFAULT_ECONOMICS },
   prices: { ...DEFAULT_PRICES },
 };
 

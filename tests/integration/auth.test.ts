@@ -6,19 +6,12 @@ import { memberships, sessions, signInFailures } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import { lucia } from '@/lib/auth/lucia';
 import { isAppError } from '@/lib/errors';
+import { expectAppError } from '../support/errors';
 import { linkIn, waitForMail } from '../support/mail';
 
 const uniq = () => randomUUID().slice(0, 8);
 const PASSWORD = 'tarnished-copper-valve';
 
-async function expectAppError(p: Promise<unknown>, code: string, message?: RegExp) {
-  try { await p; } catch (e) {
-    expect(isAppError(e)).toBe(true);
-    if (isAppError(e)) { expect(e.code).toBe(code); if (message) expect(e.message).toMatch(message); }
-    return;
-  }
-  throw new Error('expected an error');
-}
 
 afterAll(async () => { await getPool().end(); });
 

@@ -8,7 +8,7 @@ import * as auth from '@/lib/auth/service';
 import * as lineStore from '@/lib/lines/store';
 import * as boq from '@/lib/boq/store';
 import * as budget from '@/lib/budget/store';
-import { isAppError } from '@/lib/errors';
+import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
 
 const row = (tag: string, o: Record<string, string | number | null> = {}) =>
@@ -26,10 +26,6 @@ async function readBook(n: number) {
   const wb = new ExcelJS.Workbook();
   await wb.xlsx.load(buf as unknown as ArrayBuffer);
   return wb;
-}
-async function expectAppError(p: Promise<unknown>, code: string, message: RegExp) {
-  try { await p; } catch (e) { expect(isAppError(e) && e.code).toBe(code); expect((e as Error).message).toMatch(message); return; }
-  throw new Error('expected an error');
 }
 
 beforeAll(async () => {

@@ -7,7 +7,7 @@ import { lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
 import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
-import { isAppError } from '@/lib/errors';
+import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
 
 type Row = (string | number | null)[];
@@ -22,10 +22,6 @@ async function importRows(rows: Row[], fileName = 'list.xlsx') {
   return { draft, sheet: s, commit: () => store.commitDraft({ projectId, draftId: draft.draftId, sheetName: s.name, mapping: s.suggested, userId }) };
 }
 
-async function expectAppError(p: Promise<unknown>, code: string, message: RegExp) {
-  try { await p; } catch (e) { expect(isAppError(e) && e.code).toBe(code); expect((e as Error).message).toMatch(message); return; }
-  throw new Error('expected an error');
-}
 
 beforeAll(async () => {
   const owner = await auth.signUp({ name: 'Line Tester', email: `lines.${randomUUID().slice(0, 8)}@example.com`, password: 'copper-riser-gasket', organizationName: 'Line Test Org' });

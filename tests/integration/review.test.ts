@@ -6,7 +6,7 @@ import { auditLog, memberships, projects, reviewRounds } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as lineStore from '@/lib/lines/store';
 import * as review from '@/lib/review/store';
-import { isAppError } from '@/lib/errors';
+import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
 import { waitForMail } from '../support/mail';
 
@@ -16,10 +16,6 @@ const row = (tag: string, o: Record<string, string | number | null> = {}) =>
 let projectId = '', engineerId = '', reviewerId = '', reviewerEmail = '', engineerEmail = '';
 const uniq = () => randomUUID().slice(0, 8);
 
-async function expectAppError(p: Promise<unknown>, code: string, message: RegExp) {
-  try { await p; } catch (e) { expect(isAppError(e) && e.code).toBe(code); expect((e as Error).message).toMatch(message); return; }
-  throw new Error('expected an error');
-}
 
 beforeAll(async () => {
   engineerEmail = `eng.${uniq()}@example.com`;

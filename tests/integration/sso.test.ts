@@ -9,7 +9,7 @@ import * as sso from '@/lib/auth/sso';
 import { lucia } from '@/lib/auth/lucia';
 import { openSecret } from '@/lib/auth/secret-box';
 import { hashPassword } from '@/lib/auth/password';
-import { isAppError } from '@/lib/errors';
+import { expectAppError } from '../support/errors';
 import { loginAtIdp } from '../support/idp';
 
 // The local identity provider the test script starts (lib/auth/dev-idp.mjs) and its demo accounts.
@@ -17,10 +17,6 @@ const ISSUER = process.env.OIDC_DEV_ISSUER ?? 'http://127.0.0.1:4020';
 const CLIENT_ID = 'lagwise-local', CLIENT_SECRET = 'local-development-client-secret';
 let orgId = '';
 
-async function expectAppError(p: Promise<unknown>, code: string, message: RegExp) {
-  try { await p; } catch (e) { expect(isAppError(e) && e.code).toBe(code); expect((e as Error).message).toMatch(message); return; }
-  throw new Error('expected an error');
-}
 
 /** The whole browser round trip: begin, log in at the provider, come back with code and state. */
 async function roundTrip(email: string, password: string) {

@@ -48,16 +48,37 @@ export function filmAirProperties(surfaceC: number, airC: number): AirProperties
 }
 
 /**
- * Allocation-free form of `airPropertiesAt` for the solver's inner loop: returns k and leaves
- * ν, Pr and β in `AIR_SCRATCH`.
+ * Film properties for the solver's inner loop: the formulas above evaluated once on a 0.5 K grid
+ * from 150 K to 1300 K (with the Prandtl factors of the correlations) and interpolated linearly —
+ * within 2e-6 of the formulas (tested; largest at the kinks of the cp table), at a fraction of their
+ * cost. `filmAt` fills `FILM`.
  */
-export const AIR_SCRATCH = { nu: 0, pr: 0, beta: 0 };
-export function airConductivityAt(T: number): number {
-  const t15 = T * Math.sqrt(T);
-  const mu = (1.458e-6 * t15) / (T + 110.4);
-  const k = (2.64638e-3 * t15) / (T + 245.4 * Math.exp(-27.631021115928547 / T));
-  AIR_SCRATCH.nu = mu / (STANDARD_PRESSURE / (R_AIR * T));
-  AIR_SCRATCH.pr = (mu * cpAir(T)) / k;
-  AIR_SCRATCH.beta = 1 / T;
-  return k;
+const G0 = 150, GDT = 0.5, GN = Math.round((1300 - G0) / GDT) + 1;
+const GK = new Float64Array(GN), GNU = new Float64Array(GN), GPR = new Float64Array(GN), GCYL = new Float64Array(GN), GPLATE = new Float64Array(GN), GCB = new Float64Array(GN);
+function exactFilm(T: number, out: { k: number; nu: number; pr: number; fCyl: number; fPlate: number; fCb: number }) {
+  const a = airPropertiesAt(T);
+  out.k = a.k; out.nu = a.nu; out.pr = a.pr;
+  out.fCyl = Math.pow(1 + Math.pow(0.559 / a.pr, 9 / 16), 8 / 27);
+  out.fPlate = Math.pow(1 + Math.pow(0.492 / a.pr, 9 / 16), 8 / 27);
+  out.fCb = Math.cbrt(a.pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / a.pr, 2 / 3)));
+}
+export const FILM = { k: 0, nu: 0, pr: 0, fCyl: 0, fPlate: 0, fCb: 0, beta: 0 };
+for (let i = 0; i < GN; i++) {
+  exactFilm(G0 + i * GDT, FILM);
+  GK[i] = FILM.k; GNU[i] = FILM.nu; GPR[i] = FILM.pr; GCYL[i] = FILM.fCyl; GPLATE[i] = FILM.fPlate; GCB[i] = FILM.fCb;
+}
+
+/** Film properties at T (K) into FILM; outside the grid the formulas are evaluated directly. */
+export function filmAt(T: number): typeof FILM {
+  FILM.beta = 1 / T;
+  const x = (T - G0) / GDT;
+  if (!(x >= 0 && x < GN - 1)) { exactFilm(T, FILM); return FILM; }
+  const i = x | 0, f = x - i;
+  FILM.k = GK[i] + (GK[i + 1] - GK[i]) * f;
+  FILM.nu = GNU[i] + (GNU[i + 1] - GNU[i]) * f;
+  FILM.pr = GPR[i] + (GPR[i + 1] - GPR[i]) * f;
+  FILM.fCyl = GCYL[i] + (GCYL[i + 1] - GCYL[i]) * f;
+  FILM.fPlate = GPLATE[i] + (GPLATE[i + 1] - GPLATE[i]) * f;
+  FILM.fCb = GCB[i] + (GCB[i + 1] - GCB[i]) * f;
+  return FILM;
 }

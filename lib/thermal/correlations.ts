@@ -14,12 +14,14 @@ export interface ValidityRange { variable: 'Ra' | 'Re' | 'RePr'; min: number; ma
  * Valid: 1e-5 ≤ Ra ≤ 1e12, all Pr.
  * Check: Ra = 1.867e6, Pr = 0.7241 → Nu = 17.40 (Çengel & Ghajar, Heat and Mass Transfer, 5th ed., Ex. 9-1).
  */
-// The Prandtl-number factors change little between calls (air near one film temperature), so the
-// last one is remembered; this halves the cost of the hot loop.
-let ccCylPr = NaN, ccCylF = NaN;
 export function nusseltHorizontalCylinderChurchillChu(ra: number, pr: number): number {
-  if (pr !== ccCylPr) { ccCylPr = pr; ccCylF = Math.pow(1 + Math.pow(0.559 / pr, 9 / 16), 8 / 27); }
-  const s = 0.6 + (0.387 * Math.sqrt(Math.cbrt(ra))) / ccCylF;
+  return nusseltHorizontalCylinderChurchillChuWithFactor(ra, prFactorHorizontalCylinderChurchillChu(pr));
+}
+/** The Prandtl part of the horizontal-cylinder equation, [1 + (0.559/Pr)^(9/16)]^(8/27). */
+export const prFactorHorizontalCylinderChurchillChu = (pr: number) => Math.pow(1 + Math.pow(0.559 / pr, 9 / 16), 8 / 27);
+/** The same equation with its Prandtl factor given (the solver tabulates it against film temperature). */
+export function nusseltHorizontalCylinderChurchillChuWithFactor(ra: number, prFactor: number): number {
+  const s = 0.6 + (0.387 * Math.sqrt(Math.cbrt(ra))) / prFactor;
   return s * s;
 }
 nusseltHorizontalCylinderChurchillChu.range = { variable: 'Ra', min: 1e-5, max: 1e12 } as ValidityRange;
@@ -33,10 +35,13 @@ nusseltHorizontalCylinderChurchillChu.range = { variable: 'Ra', min: 1e-5, max: 
  * Valid: 1e-1 ≤ Ra ≤ 1e12, all Pr.
  * Check: Ra = 1e9, Pr = 0.71 → Nu = 122.86 (eq. 4 worked by hand).
  */
-let ccPlatePr = NaN, ccPlateF = NaN;
 export function nusseltVerticalPlateChurchillChu(ra: number, pr: number): number {
-  if (pr !== ccPlatePr) { ccPlatePr = pr; ccPlateF = Math.pow(1 + Math.pow(0.492 / pr, 9 / 16), 8 / 27); }
-  const s = 0.825 + (0.387 * Math.sqrt(Math.cbrt(ra))) / ccPlateF;
+  return nusseltVerticalPlateChurchillChuWithFactor(ra, prFactorVerticalPlateChurchillChu(pr));
+}
+/** [1 + (0.492/Pr)^(9/16)]^(8/27). */
+export const prFactorVerticalPlateChurchillChu = (pr: number) => Math.pow(1 + Math.pow(0.492 / pr, 9 / 16), 8 / 27);
+export function nusseltVerticalPlateChurchillChuWithFactor(ra: number, prFactor: number): number {
+  const s = 0.825 + (0.387 * Math.sqrt(Math.cbrt(ra))) / prFactor;
   return s * s;
 }
 nusseltVerticalPlateChurchillChu.range = { variable: 'Ra', min: 1e-1, max: 1e12 } as ValidityRange;
@@ -78,10 +83,13 @@ nusseltHorizontalPlateOpposedMcAdams.range = { variable: 'Ra', min: 1e5, max: 1e
  * Valid: Re·Pr ≥ 0.2.
  * Check: Re = 6071, Pr = 0.7 → Nu = 40.637 (ChEDL `ht`, Nu_cylinder_Churchill_Bernstein).
  */
-let cbPr = NaN, cbF = NaN;
 export function nusseltCrossflowCylinderChurchillBernstein(re: number, pr: number): number {
-  if (pr !== cbPr) { cbPr = pr; cbF = Math.cbrt(pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / pr, 2 / 3))); }
-  const a = 0.62 * Math.sqrt(re) * cbF;
+  return nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, prFactorChurchillBernstein(pr));
+}
+/** Pr^⅓ / [1 + (0.4/Pr)^⅔]^¼. */
+export const prFactorChurchillBernstein = (pr: number) => Math.cbrt(pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / pr, 2 / 3)));
+export function nusseltCrossflowCylinderChurchillBernsteinWithFactor(re: number, prFactor: number): number {
+  const a = 0.62 * Math.sqrt(re) * prFactor;
   return 0.3 + a * Math.pow(1 + Math.pow(re / 282000, 5 / 8), 4 / 5);
 }
 nusseltCrossflowCylinderChurchillBernstein.range = { variable: 'RePr', min: 0.2, max: Infinity } as ValidityRange;

@@ -90,7 +90,7 @@ function cond(m: InsulationMaterial): Conductivity {
 }
 
 // Candidates depend only on the material system and whether an inner layer is needed: cached.
-const candidateCache = new WeakMap<MaterialSystem, Map<string, { all: (Candidate | null)[]; layersCache: SolidLayer[][] }>>();
+const candidateCache = new WeakMap<MaterialSystem, Map<string, { all: (Candidate | null)[]; layersCache: SolidLayer[][]; layersOut: { materialId: string; thicknessMm: number }[][] }>>();
 function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: number) {
   const needInner = !!system.inner && (hotFaceC > system.outer.maxServiceC || coldFaceC < system.outer.minServiceC);
   let m = candidateCache.get(system);
@@ -100,7 +100,7 @@ function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: numb
   if (!v) {
     const cands = buildCandidates({ outer: system.outer, inner: system.inner, hotFaceC, coldFaceC, series: system.series });
     const all: (Candidate | null)[] = [null, ...cands]; // index 0 = bare
-    v = { all, layersCache: all.map((c) => (c ? layersOf(c) : [])) };
+    v = { all, layersCache: all.map((c) => (c ? layersOf(c) : [])), layersOut: all.map((c) => (c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [])) };
     m.set(key, v);
   }
   return v;
@@ -192,7 +192,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   };
   const maxC = line.maxTempC ?? line.normalTempC;
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
-  const { all, layersCache } = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
+  const { all, layersCache, layersOut } = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
   // Built field by field: an object spread here costs more than the whole chain (measured).
   const chains: PreparedChain[] = layersCache.map((layers) => prepareChain({ geometry: base.geometry, pipeOuterDiameterM: base.pipeOuterDiameterM, heightM: base.heightM, characteristicLengthM: base.characteristicLengthM, layers }));
 
@@ -229,7 +229,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   }
   const results: CandidateResult[] = all.map((c, i) => ({
     totalMm: c?.totalMm ?? 0,
-    layers: c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [],
+    layers: layersOut[i], // shared, read-only
     heatLoss: { heatFlow: hl[i].Q, surfaceC: hl[i].Ts, interfacesC: hl[i].interfacesC },
     serviceLimitOk: hl[i].limitOk,
   }));
@@ -314,7 +314,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
       const energy = (Math.abs(hl[i].Q) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
       const annual = crf * inst + lf * energy;
-      Object.assign(results[i], { installedCost: inst, energyCostPerYear: energy, annualCost: annual });
+      const ri = results[i];
+      ri.installedCost = inst; ri.energyCostPerYear = energy; ri.annualCost = annual;
       if (results[i].serviceLimitOk && annual < best) { best = annual; econIdx = i; }
     }
     outcomes.push({ id: 'economic', requiredMm: mm(econIdx), message: `Lowest annualised cost (${(capitalRecoveryFactor(econ.discountRate, econ.lifeYears) * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr).` });

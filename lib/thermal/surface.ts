@@ -1,10 +1,10 @@
-import { AIR_SCRATCH, airConductivityAt, filmAirProperties } from './air';
+import { filmAt } from './air';
 // Constants repeated here (not imported) because these run in the innermost loop.
 const GRAVITY = 9.80665, KELVIN = 273.15, STEFAN_BOLTZMANN = 5.670374419e-8;
 import {
-  checkRange, FORCED_CONVECTION, NATURAL_CONVECTION, nusseltCrossflowCylinderChurchillBernstein, nusseltFlatPlateAverage,
-  nusseltHorizontalCylinderChurchillChu, nusseltHorizontalPlateAssistedLloydMoran, nusseltHorizontalPlateOpposedMcAdams,
-  nusseltVerticalPlateChurchillChu, type ForcedName, type NaturalName,
+  checkRange, nusseltCrossflowCylinderChurchillBernsteinWithFactor, nusseltFlatPlateAverage,
+  nusseltHorizontalCylinderChurchillChuWithFactor, nusseltHorizontalPlateAssistedLloydMoran, nusseltHorizontalPlateOpposedMcAdams,
+  nusseltVerticalPlateChurchillChuWithFactor, type ForcedName, type NaturalName,
 } from './correlations';
 
 export type Geometry = 'horizontal-pipe' | 'vertical-pipe' | 'vertical-wall' | 'horizontal-wall-up' | 'horizontal-wall-down';
@@ -35,19 +35,23 @@ export interface Ambient {
 
 interface Choice { natural: NaturalName; naturalLength: number; forced: ForcedName; forcedLength: number }
 
+const CHOICE: Choice = { natural: 'horizontal-cylinder-churchill-chu', naturalLength: 0, forced: 'crossflow-cylinder-churchill-bernstein', forcedLength: 0 };
+/** Correlations and length scales for the shape (filled into one scratch object: this runs in the inner loop). */
 function choose(shape: OuterShape, hotter: boolean): Choice {
+  const c = CHOICE;
   switch (shape.geometry) {
     case 'horizontal-pipe':
-      return { natural: 'horizontal-cylinder-churchill-chu', naturalLength: shape.diameterM, forced: 'crossflow-cylinder-churchill-bernstein', forcedLength: shape.diameterM };
+      c.natural = 'horizontal-cylinder-churchill-chu'; c.naturalLength = shape.diameterM; c.forced = 'crossflow-cylinder-churchill-bernstein'; c.forcedLength = shape.diameterM; break;
     case 'vertical-pipe':
-      return { natural: 'vertical-plate-churchill-chu', naturalLength: shape.heightM, forced: 'crossflow-cylinder-churchill-bernstein', forcedLength: shape.diameterM };
+      c.natural = 'vertical-plate-churchill-chu'; c.naturalLength = shape.heightM; c.forced = 'crossflow-cylinder-churchill-bernstein'; c.forcedLength = shape.diameterM; break;
     case 'vertical-wall':
-      return { natural: 'vertical-plate-churchill-chu', naturalLength: shape.heightM, forced: 'flat-plate-average', forcedLength: shape.heightM };
+      c.natural = 'vertical-plate-churchill-chu'; c.naturalLength = shape.heightM; c.forced = 'flat-plate-average'; c.forcedLength = shape.heightM; break;
     case 'horizontal-wall-up':
-      return { natural: hotter ? 'horizontal-plate-assisted-lloyd-moran' : 'horizontal-plate-opposed-mcadams', naturalLength: shape.characteristicLengthM, forced: 'flat-plate-average', forcedLength: shape.characteristicLengthM };
+      c.natural = hotter ? 'horizontal-plate-assisted-lloyd-moran' : 'horizontal-plate-opposed-mcadams'; c.naturalLength = shape.characteristicLengthM; c.forced = 'flat-plate-average'; c.forcedLength = shape.characteristicLengthM; break;
     case 'horizontal-wall-down':
-      return { natural: hotter ? 'horizontal-plate-opposed-mcadams' : 'horizontal-plate-assisted-lloyd-moran', naturalLength: shape.characteristicLengthM, forced: 'flat-plate-average', forcedLength: shape.characteristicLengthM };
+      c.natural = hotter ? 'horizontal-plate-opposed-mcadams' : 'horizontal-plate-assisted-lloyd-moran'; c.naturalLength = shape.characteristicLengthM; c.forced = 'flat-plate-average'; c.forcedLength = shape.characteristicLengthM; break;
   }
+  return c;
 }
 
 export interface ConvectionDetail { h: number; natural: NaturalName; ra: number; hNatural: number; forced?: ForcedName; re?: number; hForced?: number }
@@ -58,42 +62,51 @@ export interface ConvectionDetail { h: number; natural: NaturalName; ra: number;
  * air properties at the film temperature.
  */
 export function convectionDetail(shape: OuterShape, TsC: number, amb: Ambient): ConvectionDetail {
-  const dT = TsC - amb.airC;
-  const c = choose(shape, dT > 0);
-  const air = filmAirProperties(TsC, amb.airC);
-  const L = c.naturalLength;
-  const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
-  const hNatural = ra > 0 ? (NATURAL_CONVECTION[c.natural](ra, air.pr) * air.k) / L : 0;
-  if (!(amb.windMs > 0)) return { h: hNatural, natural: c.natural, ra, hNatural };
-  const re = (amb.windMs * c.forcedLength) / air.nu;
-  const hForced = (FORCED_CONVECTION[c.forced](re, air.pr) * air.k) / c.forcedLength;
-  const h = Math.cbrt(hForced * hForced * hForced + hNatural * hNatural * hNatural);
-  return { h, natural: c.natural, ra, hNatural, forced: c.forced, re, hForced };
+  convection(shape, TsC, amb, DETAIL);
+  const d: ConvectionDetail = { h: DETAIL.h, natural: DETAIL.natural, ra: DETAIL.ra, hNatural: DETAIL.hNatural };
+  if (DETAIL.forced) { d.forced = DETAIL.forced; d.re = DETAIL.re; d.hForced = DETAIL.hForced; }
+  return d;
 }
 
 /** Hot-path form of `convectionDetail`: the coefficient only, with no allocation. */
 export function convectiveCoefficient(shape: OuterShape, TsC: number, amb: Ambient): number {
+  return convection(shape, TsC, amb, null);
+}
+
+const DETAIL: ConvectionDetail = { h: 0, natural: 'horizontal-cylinder-churchill-chu', ra: 0, hNatural: 0 };
+
+/**
+ * The one implementation behind both forms: film properties from the tabulated formulas (`filmAt`),
+ * the registry correlations through their Prandtl-factor forms. Fills `detail` when given.
+ */
+function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: ConvectionDetail | null): number {
   const dT = TsC - amb.airC;
-  if (dT === 0 && !(amb.windMs > 0)) return 0;
-  const T = 0.5 * (TsC + amb.airC) + KELVIN;
-  const k = airConductivityAt(T);
-  const air = AIR_SCRATCH;
-  const g = shape.geometry;
-  const hot = dT > 0;
-  const Ln = g === 'horizontal-pipe' ? shape.diameterM : g === 'vertical-pipe' || g === 'vertical-wall' ? shape.heightM : shape.characteristicLengthM;
-  const ra = (GRAVITY * air.beta * Math.abs(dT) * Ln * Ln * Ln * air.pr) / (air.nu * air.nu);
-  let nuN: number;
-  if (ra <= 0) nuN = 0;
-  else if (g === 'horizontal-pipe') nuN = nusseltHorizontalCylinderChurchillChu(ra, air.pr);
-  else if (g === 'vertical-pipe' || g === 'vertical-wall') nuN = nusseltVerticalPlateChurchillChu(ra, air.pr);
-  else nuN = (g === 'horizontal-wall-up') === hot ? nusseltHorizontalPlateAssistedLloydMoran(ra) : nusseltHorizontalPlateOpposedMcAdams(ra);
-  const hN = (nuN * k) / Ln;
-  if (!(amb.windMs > 0)) return hN;
-  const Lf = g === 'horizontal-pipe' || g === 'vertical-pipe' ? shape.diameterM : Ln;
-  const re = (amb.windMs * Lf) / air.nu;
-  const nuF = Lf === shape.diameterM && (g === 'horizontal-pipe' || g === 'vertical-pipe') ? nusseltCrossflowCylinderChurchillBernstein(re, air.pr) : nusseltFlatPlateAverage(re, air.pr);
-  const hF = (nuF * k) / Lf;
-  return Math.cbrt(hF * hF * hF + hN * hN * hN);
+  const c = choose(shape, dT > 0);
+  const air = filmAt(0.5 * (TsC + amb.airC) + KELVIN);
+  const L = c.naturalLength;
+  const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
+  let nuN = 0;
+  if (ra > 0) {
+    switch (c.natural) {
+      case 'horizontal-cylinder-churchill-chu': nuN = nusseltHorizontalCylinderChurchillChuWithFactor(ra, air.fCyl); break;
+      case 'vertical-plate-churchill-chu': nuN = nusseltVerticalPlateChurchillChuWithFactor(ra, air.fPlate); break;
+      case 'horizontal-plate-assisted-lloyd-moran': nuN = nusseltHorizontalPlateAssistedLloydMoran(ra); break;
+      case 'horizontal-plate-opposed-mcadams': nuN = nusseltHorizontalPlateOpposedMcAdams(ra); break;
+    }
+  }
+  const hN = (nuN * air.k) / L;
+  let h = hN, re = 0, hF = 0;
+  if (amb.windMs > 0) {
+    re = (amb.windMs * c.forcedLength) / air.nu;
+    const nuF = c.forced === 'crossflow-cylinder-churchill-bernstein' ? nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, air.fCb) : nusseltFlatPlateAverage(re, air.pr);
+    hF = (nuF * air.k) / c.forcedLength;
+    h = Math.cbrt(hF * hF * hF + hN * hN * hN);
+  }
+  if (detail) {
+    detail.h = h; detail.natural = c.natural; detail.ra = ra; detail.hNatural = hN;
+    detail.forced = amb.windMs > 0 ? c.forced : undefined; detail.re = amb.windMs > 0 ? re : undefined; detail.hForced = amb.windMs > 0 ? hF : undefined;
+  }
+  return h;
 }
 
 /** Radiative flux εσ(Ts⁴ − Tsur⁴), W/m². */

@@ -44,6 +44,18 @@ export async function getProjectAccess({ userId, projectId, action }: { userId: 
   return row;
 }
 
+/**
+ * The user's role in an organization, for organization pages and actions. Not a member: not found
+ * (like foreign projects); a member whose role may not do `action`: forbidden.
+ */
+export async function getOrganizationAccess({ userId, organizationId, action }: { userId: string; organizationId: string; action?: Action }) {
+  if (!/^[0-9a-f-]{36}$/i.test(organizationId)) throw new AppError('not_found');
+  const role = await getMembershipRole({ userId, organizationId });
+  if (!role) throw new AppError('not_found');
+  if (action && !can(role, action)) throw new AppError('forbidden');
+  return { role };
+}
+
 export async function createProject({ organizationId, code, name, site }: { organizationId: string; code: string; name: string; site: string }) {
   const [p] = await db.insert(projects).values({ organizationId, code, name, site }).returning().catch((e) => {
     if (String(e?.cause?.code ?? e?.code) === '23505') throw new AppError('conflict', 'A project with this code exists.', { code: ['This code is already used in the organization.'] });

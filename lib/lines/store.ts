@@ -71,7 +71,8 @@ function sheetOf(parsed: ParsedFile, sheetName: string) {
   return s;
 }
 
-function inputOf(l: Line): LineInput {
+/** A stored line as the engine's and the diff's input. */
+export function inputOf(l: Line): LineInput {
   return {
     tag: l.tag, service: l.service, area: l.area, geometry: l.geometry, nps: l.nps, outsideDiameterMm: l.outsideDiameterMm, lengthM: l.lengthM,
     surfaceAreaM2: l.surfaceAreaM2, heightM: l.heightM, normalTempC: l.normalTempC, maxTempC: l.maxTempC, steamPressureBarG: l.steamPressureBarG,

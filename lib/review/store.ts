@@ -11,8 +11,7 @@ import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { composeMail, sendMail } from '@/lib/mail';
 import { CALCULATION_VERSION } from '@/lib/thermal';
-import { getDesignBasis } from '@/lib/lines/store';
-import type { LineInput } from '@/lib/lines/validate';
+import { getDesignBasis, inputOf } from '@/lib/lines/store';
 import { FLAG_LABEL, flagsForLine, type Flag, type FlagType } from './flags';
 
 export type Disposition = 'insulate' | 'guard' | 'warning-sign' | 'not-accessible' | 'returned';
@@ -38,7 +37,7 @@ export async function currentFlags({ projectId, area }: { projectId: string; are
   for (const { line, result, design } of rows) {
     const stale = !result || result.basisRevision !== revision || result.inputVersion !== line.inputVersion || result.calcVersion !== CALCULATION_VERSION;
     const flags = flagsForLine(basis, {
-      line: line as unknown as LineInput,
+      line: inputOf(line),
       design: design ? { layers: design.layers as { materialId: string; thicknessMm: number }[], belowCriterion: design.belowCriterion } : null,
       jacketId: result?.jacketId ?? null, solved: !!result, stale, unmet: result?.unmet ?? [],
     });

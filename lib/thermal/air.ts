@@ -42,10 +42,6 @@ export function airPropertiesAt(T: number, pressurePa = STANDARD_PRESSURE): AirP
   return { k, nu: mu / rho, pr: (mu * cp) / k, beta: 1 / T };
 }
 
-/** Air properties at the film temperature of a surface and the air, both in °C. */
-export function filmAirProperties(surfaceC: number, airC: number): AirProperties {
-  return airPropertiesAt((surfaceC + airC) / 2 + KELVIN);
-}
 
 /**
  * Film properties for the solver's inner loop: the formulas above evaluated once on a 0.5 K grid

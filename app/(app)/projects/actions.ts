@@ -2,16 +2,12 @@
 import { redirect } from 'next/navigation';
 import { formSchemas } from '@/lib/forms/schemas';
 import { formAction } from '@/lib/server/action';
-import { createProject, getMembershipRole } from '@/db/queries/projects';
-import { can } from '@/lib/auth/permissions';
-import { AppError } from '@/lib/errors';
+import { createProject, getOrganizationAccess } from '@/db/queries/projects';
 
 const create = formAction({
   schema: formSchemas.createProject,
   handler: async ({ user, input }) => {
-    const role = await getMembershipRole({ userId: user.id, organizationId: input.organizationId });
-    if (!role) throw new AppError('not_found');
-    if (!can(role, 'project.create')) throw new AppError('forbidden');
+    await getOrganizationAccess({ userId: user.id, organizationId: input.organizationId, action: 'project.create' });
     return createProject(input);
   },
 });

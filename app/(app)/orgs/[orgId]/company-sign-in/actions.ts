@@ -3,24 +3,19 @@ import { revalidatePath } from 'next/cache';
 import { parseWithZod } from '@conform-to/zod/v4';
 import type { SubmissionResult } from '@conform-to/react';
 import { validateRequest } from '@/lib/auth/session';
-import { getMembershipRole } from '@/db/queries/projects';
-import { can } from '@/lib/auth/permissions';
-import { isAppError } from '@/lib/errors';
+import { getOrganizationAccess } from '@/db/queries/projects';
+import { AppError, isAppError } from '@/lib/errors';
 import { saveSsoConfig, ssoConfigSchema, approveMembershipRequest } from '@/lib/auth/sso';
 import { z } from 'zod';
 
-async function assertOwner(userId: string, organizationId: string) {
-  const role = await getMembershipRole({ userId, organizationId });
-  return role && can(role, 'org.settings');
-}
 
 export async function saveCompanySignInAction(_prev: unknown, formData: FormData): Promise<SubmissionResult<string[]>> {
   const submission = parseWithZod(formData, { schema: ssoConfigSchema });
   const { user } = await validateRequest();
   if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'], hideFields: ['clientSecret'] });
   if (submission.status !== 'success') return submission.reply({ hideFields: ['clientSecret'] });
-  if (!(await assertOwner(user.id, submission.value.organizationId))) return submission.reply({ formErrors: ['Only an owner of the organization changes its sign-in settings.'], hideFields: ['clientSecret'] });
   try {
+    await getOrganizationAccess({ userId: user.id, organizationId: submission.value.organizationId, action: 'org.settings' });
     await saveSsoConfig({ ...submission.value, newMemberRole: submission.value.newMemberRole ?? '', domains: submission.value.domains.join(' ') });
     revalidatePath(`/orgs/${submission.value.organizationId}/company-sign-in`);
     return { ...submission.reply({ hideFields: ['clientSecret'] }), status: 'success' };
@@ -34,7 +29,8 @@ export async function saveCompanySignInAction(_prev: unknown, formData: FormData
 export async function approveRequestAction(formData: FormData) {
   const input = z.object({ organizationId: z.uuid(), userId: z.string().min(1), role: z.enum(['owner', 'engineer', 'reviewer', 'contractor']) }).parse(Object.fromEntries(formData));
   const { user } = await validateRequest();
-  if (!user || !(await assertOwner(user.id, input.organizationId))) throw new Error('forbidden');
+  if (!user) throw new AppError('unauthenticated');
+  await getOrganizationAccess({ userId: user.id, organizationId: input.organizationId, action: 'members.manage' });
   await approveMembershipRequest(input);
   revalidatePath(`/orgs/${input.organizationId}/members`);
 }

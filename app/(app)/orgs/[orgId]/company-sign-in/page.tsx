@@ -1,7 +1,4 @@
-import { notFound } from 'next/navigation';
-import { requireUser } from '@/lib/auth/session';
-import { getMembershipRole } from '@/db/queries/projects';
-import { can } from '@/lib/auth/permissions';
+import { loadOrganization } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { callbackUrl, getSsoConfig } from '@/lib/auth/sso';
 import { CompanySignInForm } from './settings-form';
@@ -10,11 +7,8 @@ export const metadata = { title: 'Company sign-in' };
 
 export default async function CompanySignInPage({ params }: { params: Promise<{ orgId: string }> }) {
   const { orgId } = await params;
-  const { user } = await requireUser();
-  if (!/^[0-9a-f-]{36}$/i.test(orgId)) notFound();
-  const role = await getMembershipRole({ userId: user.id, organizationId: orgId });
-  if (!role) notFound();
-  if (!can(role, 'org.settings')) return <main className="p-6"><Denied what="Company sign-in settings" /></main>;
+  const { allowed } = await loadOrganization(orgId, 'org.settings');
+  if (!allowed) return <main className="p-6"><Denied what="Company sign-in settings" /></main>;
   return (
     <main className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-2">Company sign-in</h1>

@@ -2,17 +2,11 @@
 import { revalidatePath } from 'next/cache';
 import { formSchemas } from '@/lib/forms/schemas';
 import { formAction } from '@/lib/server/action';
-import { getMembershipRole } from '@/db/queries/projects';
-import { can } from '@/lib/auth/permissions';
-import { AppError } from '@/lib/errors';
+import { getOrganizationAccess } from '@/db/queries/projects';
 import * as auth from '@/lib/auth/service';
 
 /** Members are organization-scoped: the role is checked on the organization named in the form. */
-async function assertOwner(userId: string, organizationId: string) {
-  const role = await getMembershipRole({ userId, organizationId });
-  if (!role) throw new AppError('not_found');
-  if (!can(role, 'members.manage')) throw new AppError('forbidden');
-}
+const assertOwner = (userId: string, organizationId: string) => getOrganizationAccess({ userId, organizationId, action: 'members.manage' });
 
 export const inviteAction = formAction({
   schema: formSchemas.invite,

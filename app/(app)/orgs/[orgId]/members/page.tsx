@@ -1,6 +1,5 @@
-import { notFound } from 'next/navigation';
-import { requireUser } from '@/lib/auth/session';
-import { getMembershipRole, listMembers } from '@/db/queries/projects';
+import { loadOrganization } from '@/lib/server/page';
+import { listMembers } from '@/db/queries/projects';
 import { pendingInvitations } from '@/lib/auth/service';
 import { can, ROLE_LABEL, ROLES } from '@/lib/auth/permissions';
 import { SimpleForm } from '@/components/simple-form';
@@ -15,11 +14,8 @@ export const metadata = { title: 'Members' };
 
 export default async function MembersPage({ params }: { params: Promise<{ orgId: string }> }) {
   const { orgId } = await params;
-  const { user } = await requireUser();
-  if (!/^[0-9a-f-]{36}$/i.test(orgId)) notFound();
-  const role = await getMembershipRole({ userId: user.id, organizationId: orgId });
-  if (!role) notFound();
-  if (!can(role, 'members.read')) return <main className="p-6"><Denied what="The member list" /></main>;
+  const { user, role, allowed } = await loadOrganization(orgId, 'members.read');
+  if (!allowed) return <main className="p-6"><Denied what="The member list" /></main>;
   const manage = can(role, 'members.manage');
   const [members, invites, requests] = await Promise.all([listMembers({ organizationId: orgId }), manage ? pendingInvitations(orgId) : [], manage ? listMembershipRequests({ organizationId: orgId }) : []]);
   return (

@@ -1,10 +1,8 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { loadProject } from '@/lib/server/page';
+import { loadProject, orNotFound } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
 import { getLine } from '@/lib/lines/store';
-import { isAppError } from '@/lib/errors';
 import { GEOMETRY_LABEL, PURPOSE_LABEL, type Purpose } from '@/lib/lines/fields';
 import { jacketById, materialById } from '@/lib/thermal/materials';
 import { CostChart } from './cost-chart';
@@ -19,8 +17,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const { projectId, lineId } = await params;
   const { project, allowed } = await loadProject(projectId, 'lines.read');
   if (!allowed) return <Denied what="The line list" />;
-  let row;
-  try { row = await getLine({ projectId: project.id, lineId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
+  const row = await orNotFound(getLine({ projectId: project.id, lineId }));
   const { line, result, design, stale } = row;
   const audit = await auditForLine({ projectId: project.id, lineId: line.id });
   const cands = (result?.candidates ?? []) as Cand[];

@@ -1,11 +1,9 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { loadProject } from '@/lib/server/page';
+import { loadProject, orNotFound } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { getRound } from '@/lib/review/store';
 import { FLAG_LABEL } from '@/lib/review/flags';
-import { isAppError } from '@/lib/errors';
 import { ReviewQueue } from './queue';
 
 export const metadata = { title: 'Review round' };
@@ -14,8 +12,7 @@ export default async function RoundPage({ params }: { params: Promise<{ projectI
   const { projectId, roundId } = await params;
   const { project, role, allowed } = await loadProject(projectId, 'review.read');
   if (!allowed) return <Denied what="The safety review" />;
-  let data;
-  try { data = await getRound({ projectId: project.id, roundId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
+  const data = await orNotFound(getRound({ projectId: project.id, roundId }));
   const { round, items, stale } = data;
   return (
     <>

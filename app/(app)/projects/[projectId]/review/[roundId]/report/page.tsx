@@ -1,10 +1,8 @@
-import { notFound } from 'next/navigation';
-import { loadProject } from '@/lib/server/page';
+import { loadProject, orNotFound } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { getRound } from '@/lib/review/store';
 import { DISPOSITION_LABEL, type Disposition } from '@/lib/review/store';
 import { FLAG_LABEL, type Flag } from '@/lib/review/flags';
-import { isAppError } from '@/lib/errors';
 import { PrintButton } from './print-button';
 
 export const metadata = { title: 'Review report' };
@@ -13,8 +11,7 @@ export default async function ReportPage({ params }: { params: Promise<{ project
   const { projectId, roundId } = await params;
   const { project, organizationName, allowed } = await loadProject(projectId, 'review.read');
   if (!allowed) return <Denied what="The safety review" />;
-  let data;
-  try { data = await getRound({ projectId: project.id, roundId }); } catch (e) { if (isAppError(e) && e.code === 'not_found') notFound(); throw e; }
+  const data = await orNotFound(getRound({ projectId: project.id, roundId }));
   const { round, items } = data;
   const snap = round.snapshot as { signedBy: string; items: { tag: string; area: string; flags: Flag[]; disposition: Disposition; comment: string | null; requiredMm: number | null; decidedBy: string | null }[] } | null;
   // A signed-off round prints exactly what was signed; an open one prints the current state.

@@ -2,7 +2,7 @@ import { compileConductivity, type Conductivity } from './conductivity';
 import { capitalRecoveryFactor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
 import { condensationThresholdC } from './psychro';
-import { prepareChain, solveChain, solveSteady, type PreparedChain, type SolveHint, type SolidLayer, type SteadyResult } from './solve';
+import { prepareChain, solveChain, solvePrepared, type PreparedChain, type SolidLayer, type SteadyResult } from './solve';
 import { condensateKgPerHour, saturatedSteamAtPressure } from './steam';
 import { isPipe, type Ambient, type Geometry } from './surface';
 import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
@@ -89,9 +89,16 @@ function cond(m: InsulationMaterial): Conductivity {
   return c;
 }
 
-// Candidates depend only on the material system and whether an inner layer is needed: cached.
-const candidateCache = new WeakMap<MaterialSystem, Map<string, { all: (Candidate | null)[]; layersCache: SolidLayer[][]; layersOut: { materialId: string; thicknessMm: number }[][] }>>();
-function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: number) {
+// Candidates depend only on the material system and whether an inner layer is needed: cached, and
+// with them the prepared resistance chains per outside shape (lines of one size share them).
+interface CandidateSet {
+  all: (Candidate | null)[];
+  layersCache: SolidLayer[][];
+  layersOut: { materialId: string; thicknessMm: number }[][];
+  chains: Map<string, PreparedChain[]>;
+}
+const candidateCache = new WeakMap<MaterialSystem, Map<string, CandidateSet>>();
+function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: number): CandidateSet {
   const needInner = !!system.inner && (hotFaceC > system.outer.maxServiceC || coldFaceC < system.outer.minServiceC);
   let m = candidateCache.get(system);
   if (!m) { m = new Map(); candidateCache.set(system, m); }
@@ -100,11 +107,59 @@ function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: numb
   if (!v) {
     const cands = buildCandidates({ outer: system.outer, inner: system.inner, hotFaceC, coldFaceC, series: system.series });
     const all: (Candidate | null)[] = [null, ...cands]; // index 0 = bare
-    v = { all, layersCache: all.map((c) => (c ? layersOf(c) : [])), layersOut: all.map((c) => (c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [])) };
+    v = {
+      all,
+      layersCache: all.map((c) => (c ? layersOf(c) : [])),
+      layersOut: all.map((c) => (c ? c.layers.map((l) => ({ materialId: l.material.id, thicknessMm: l.thicknessMm })) : [])),
+      chains: new Map(),
+    };
     m.set(key, v);
   }
   return v;
 }
+
+const MAX_SIZES_PER_SET = 256;
+/**
+ * The prepared chains of every candidate for one geometry and pipe size. The height and the
+ * horizontal-surface length only enter the outside correlations, so they are set on the cached
+ * chains' shapes for the line being solved (solving is synchronous; nothing else holds them).
+ */
+function chainsFor(set: CandidateSet, geometry: Geometry, odM: number, heightM: number, lengthM: number): PreparedChain[] {
+  const key = isPipe(geometry) ? `${geometry}|${odM}` : geometry;
+  let chains = set.chains.get(key);
+  if (!chains) {
+    if (set.chains.size >= MAX_SIZES_PER_SET) set.chains.clear();
+    chains = set.layersCache.map((layers) => prepareChain({ geometry, pipeOuterDiameterM: odM, heightM, characteristicLengthM: lengthM, layers }));
+    set.chains.set(key, chains);
+  } else if (chains[0].shape.heightM !== heightM || chains[0].shape.characteristicLengthM !== lengthM) {
+    for (let i = 0; i < chains.length; i++) { chains[i].shape.heightM = heightM; chains[i].shape.characteristicLengthM = lengthM; }
+  }
+  return chains;
+}
+
+/** One candidate solved: heat flow, surface temperature, what the next solve starts from, service limits (shared scratch). */
+const SOLVED = { Q: 0, Ts: 0, h: 0, ratio: 1, limitOk: true };
+function solveCandidate(chain: PreparedChain, layers: SolidLayer[], processC: number, a: Ambient, hintH: number, hintRatio: number): typeof SOLVED {
+  const r = solveChain(chain, processC, a, hintH, hintRatio);
+  let limitOk = true;
+  const t = chain.temps, first = t.length - layers.length;
+  for (let j = 0; j < layers.length; j++) {
+    const x = first + j - 1 >= 0 ? t[first + j - 1] : processC, y = t[first + j];
+    const hi = x > y ? x : y, lo = x > y ? y : x;
+    const L = layers[j];
+    if ((L.maxServiceC !== undefined && hi > L.maxServiceC) || (L.minServiceC !== undefined && lo < L.minServiceC)) limitOk = false;
+  }
+  SOLVED.Q = r.Q; SOLVED.Ts = r.Ts; SOLVED.h = r.h; SOLVED.ratio = r.resistanceRatio; SOLVED.limitOk = limitOk;
+  return SOLVED;
+}
+/** Interface temperatures of the last solve of the chain (between insulation layers). */
+function interfacesOf(chain: PreparedChain, layerCount: number): number[] {
+  if (layerCount < 2) return NO_INTERFACES;
+  const t = chain.temps;
+  return t.slice(t.length - layerCount, t.length - 1);
+}
+
+const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance });
 
 function layersOf(c: Candidate): SolidLayer[] {
   return c.layers.map((l) => ({ thicknessM: l.thicknessMm / 1000, conductivity: cond(l.material), name: l.material.name, minServiceC: l.material.minServiceC, maxServiceC: l.material.maxServiceC }));
@@ -180,59 +235,34 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     characteristicLengthM: line.characteristicLengthM ?? 1,
   };
   const emittance = system.jacket.emittance;
-  const ambCache = new Map<ConditionSet, [Ambient, Ambient]>();
-  const amb = (c: ConditionSet, eps = emittance): Ambient => {
-    let pair = ambCache.get(c);
-    if (!pair) {
-      const mk = (e: number) => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance: e });
-      pair = [mk(emittance), mk(bareEps)];
-      ambCache.set(c, pair);
-    }
-    return eps === emittance ? pair[0] : pair[1];
-  };
   const maxC = line.maxTempC ?? line.normalTempC;
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
-  const { all, layersCache, layersOut } = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
-  // Built field by field: an object spread here costs more than the whole chain (measured).
-  const chains: PreparedChain[] = layersCache.map((layers) => prepareChain({ geometry: base.geometry, pipeOuterDiameterM: base.pipeOuterDiameterM, heightM: base.heightM, characteristicLengthM: base.characteristicLengthM, layers }));
-
-  interface Solved { Q: number; Ts: number; h: SolveHint; limitOk: boolean; interfacesC: number[] }
-  /** Lean solve of candidate i: heat flow, surface temperature, combined surface coefficient, service limits. */
-  const solveAt = (i: number, processC: number, c: ConditionSet, hint?: SolveHint): Solved => {
-    const a = amb(c, i === 0 ? bareEps : emittance);
-    const chain = chains[i];
-    const r = solveChain(chain, processC, a, hint);
-    const layers = layersCache[i];
-    let limitOk = true;
-    const t = chain.temps, first = t.length - layers.length;
-    for (let j = 0; j < layers.length; j++) {
-      const a = first + j - 1 >= 0 ? t[first + j - 1] : processC, b = t[first + j];
-      const hi = a > b ? a : b, lo = a > b ? b : a;
-      const L = layers[j];
-      if ((L.maxServiceC !== undefined && hi > L.maxServiceC) || (L.minServiceC !== undefined && lo < L.minServiceC)) limitOk = false;
-    }
-    const interfacesC = layers.length > 1 ? t.slice(first, t.length - 1) : NO_INTERFACES;
-    return { Q: r.Q, Ts: r.Ts, h: r.hint, limitOk, interfacesC };
-  };
+  const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
+  const { all, layersCache, layersOut } = set;
+  const n = all.length;
+  const chains = chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
 
   const wants = (p: Purpose) => line.purposes.includes(p);
   const econ = crit.economics ?? DEFAULT_ECONOMICS;
   const prices = crit.prices ?? DEFAULT_PRICES;
 
   // Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share them.
-  const hl: Solved[] = [];
-  let hint: SolveHint | undefined;
-  for (let i = 0; i < all.length; i++) {
-    const r = solveAt(i, line.normalTempC, crit.conditions.heatLoss, i > 1 ? hint : undefined);
-    hint = r.h;
-    hl.push(r);
+  // Each solve starts from its thinner neighbour's surface coefficient and resistance ratio.
+  const hlAmb = ambientOf(crit.conditions.heatLoss, emittance), hlBare = ambientOf(crit.conditions.heatLoss, bareEps);
+  const hlQ = new Array<number>(n), hlH = new Array<number>(n);
+  const results: CandidateResult[] = new Array(n);
+  let hintH = 0, hintR = 1;
+  for (let i = 0; i < n; i++) {
+    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, i > 1 ? hintH : 0, i > 1 ? hintR : 1);
+    hintH = r.h; hintR = r.ratio;
+    hlQ[i] = r.Q; hlH[i] = r.h;
+    results[i] = {
+      totalMm: all[i]?.totalMm ?? 0,
+      layers: layersOut[i], // shared, read-only
+      heatLoss: { heatFlow: r.Q, surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) },
+      serviceLimitOk: r.limitOk,
+    };
   }
-  const results: CandidateResult[] = all.map((c, i) => ({
-    totalMm: c?.totalMm ?? 0,
-    layers: layersOut[i], // shared, read-only
-    heatLoss: { heatFlow: hl[i].Q, surfaceC: hl[i].Ts, interfacesC: hl[i].interfacesC },
-    serviceLimitOk: hl[i].limitOk,
-  }));
 
   const outcomes: CriterionOutcome[] = [];
   const scan = (test: (i: number) => boolean): number | null => { for (let i = 0; i < all.length; i++) if (test(i)) return i; return null; };
@@ -241,14 +271,15 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Personnel protection: hottest air, still air, the actual jacket emittance.
   if (wants('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
     const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
-    let h: SolveHint | undefined;
-    const idx = scan((i) => {
-      const r = solveAt(i, maxC, crit.conditions.personnel, h);
-      h = r.h;
-      results[i].personnel = { surfaceC: r.Ts, interfacesC: r.interfacesC };
+    const a = ambientOf(crit.conditions.personnel, emittance), bare = ambientOf(crit.conditions.personnel, bareEps);
+    let h = 0, ratio = 1, idx: number | null = null;
+    for (let i = 0; i < n; i++) {
+      const r = solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, h, ratio);
+      h = r.h; ratio = r.ratio;
+      results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (!r.limitOk) results[i].serviceLimitOk = false;
-      return r.Ts <= limit;
-    });
+      if (r.Ts <= limit) { idx = i; break; }
+    }
     outcomes.push({ id: 'personnel', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
       : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).` });
@@ -259,13 +290,14 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const c = crit.conditions.condensation;
     const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
     const need = th.valueC + crit.dewPointMarginK;
-    let h: SolveHint | undefined;
-    const idx = scan((i) => {
-      const r = solveAt(i, line.normalTempC, c, h);
-      h = r.h;
+    const a = ambientOf(c, emittance), bare = ambientOf(c, bareEps);
+    let h = 0, ratio = 1, idx: number | null = null;
+    for (let i = 0; i < n; i++) {
+      const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, h, ratio);
+      h = r.h; ratio = r.ratio;
       results[i].condensation = { surfaceC: r.Ts };
-      return r.Ts >= need;
-    });
+      if (r.Ts >= need) { idx = i; break; }
+    }
     outcomes.push({ id: 'condensation', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
       : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.` });
@@ -274,7 +306,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Heat-loss limit.
   const limit = pipe ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
   if (limit !== undefined && (wants('heatConservation') || wants('processControl'))) {
-    const idx = scan((i) => Math.abs(hl[i].Q) <= limit);
+    const idx = scan((i) => Math.abs(hlQ[i]) <= limit);
     outcomes.push({ id: 'heatLossLimit', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
       : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
@@ -284,7 +316,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (wants('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
     const cp = line.fluidCpJPerKgK ?? 4186;
     const drop = (i: number) => {
-      const u = hl[i].Q / (line.normalTempC - crit.conditions.heatLoss.airC || 1);
+      const u = hlQ[i] / (line.normalTempC - crit.conditions.heatLoss.airC || 1);
       const out = outletTempC({ inletC: line.normalTempC, airC: crit.conditions.heatLoss.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
       return Math.abs(line.normalTempC - out);
     };
@@ -297,7 +329,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // Freeze protection of a stagnant water line.
   if (wants('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
     const f = crit.freeze, fc = crit.conditions.freeze;
-    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveAt(i, T, fc, hl[i].h).Q });
+    const a = ambientOf(fc, emittance);
+    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveCandidate(chains[i], layersCache[i], T, a, hlH[i], 1).Q });
     const idx = scan((i) => i > 0 && hours(i) >= f.requiredHours);
     outcomes.push({ id: 'freeze', requiredMm: mm(idx), message: idx === null
       ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
@@ -312,7 +345,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
       const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
-      const energy = (Math.abs(hl[i].Q) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
+      const energy = (Math.abs(hlQ[i]) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
       const annual = crf * inst + lf * energy;
       const ri = results[i];
       ri.installedCost = inst; ri.energyCostPerYear = energy; ri.annualCost = annual;
@@ -335,7 +368,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
 
   const rec = recIdx >= 0 ? results[recIdx] : null;
   const design = recIdx >= 0
-    ? solveSteady({ ...base, processC: line.normalTempC, ambient: amb(crit.conditions.heatLoss, recIdx === 0 ? bareEps : emittance), layers: layersCache[recIdx] }, hl[recIdx].h.h)
+    ? solvePrepared(chains[recIdx], { ...base, processC: line.normalTempC, ambient: recIdx === 0 ? hlBare : hlAmb, layers: layersCache[recIdx] }, hlH[recIdx])
     : undefined;
   if (design) warnings.push(...design.warnings.filter((w) => !warnings.includes(w)));
   const extent = pipe ? line.lengthM ?? 1 : line.areaM2 ?? 1;

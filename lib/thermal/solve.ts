@@ -112,16 +112,22 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
 }
 
 /**
- * Root of g(Q) = A·q_out(Ts(Q)) − Q on the bracket [0, Qb]: Newton steps with an approximate
- * surface-flux slope (h·1.25 + 4εσT³ — the ¼-power law of laminar natural convection), kept inside
- * a shrinking bracket and replaced by bisection whenever they would leave it; Brent's method
- * takes over in the rare case this has not converged, so the answer always exists.
+ * Root of g(Q) = A·q_out(Ts(Q)) − Q, which has the sign of the heat flow at Q = 0 and the opposite
+ * sign at the bare-surface flow Q_b = A·q_out(T_process) (the surface law is monotone in Ts and Ts
+ * falls with Q). Newton steps with the exact conduction slope dTs/dQ and a surface-flux slope that
+ * starts from h·1.25 + 4εσT³ (the ¼-power law of laminar natural convection) and then follows the
+ * secant, kept inside a shrinking bracket [0, Q_b] and replaced by bisection whenever they would
+ * leave it; Brent's method takes over in the rare case this has not converged, so the answer always
+ * exists. Q_b is evaluated only when a step needs the far end of the bracket (one surface evaluation
+ * saved per solve); the tolerance is relative to the heat flow itself.
  */
-function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, shape: OuterShape, amb: Ambient, guess: number) {
-  const tol = Math.abs(Qb) * 1e-9;
-  let lo = 0, hi = Qb; // g(lo) has the sign of Qb, g(hi) the opposite (or zero)
-  let Q = guess > Math.min(lo, hi) && guess < Math.max(lo, hi) ? guess : 0.5 * Qb;
-  const sgn = Qb > 0 ? 1 : -1;
+const HEAT = { Q: 0, iterations: 0 };
+function solveHeatFlow(els: Element[], Tp: number, sgn: number, area: number, shape: OuterShape, amb: Ambient, guess: number): typeof HEAT {
+  let lo = 0, hi = sgn * Infinity; // g(lo) has the sign sgn, g(hi) the opposite (or zero)
+  let Qb = NaN; // evaluated on demand (no closure: this is the hot path)
+  let Q = guess;
+  if (!(guess * sgn > 0 && Number.isFinite(guess))) { Qb = area * surfaceFlux(shape, Tp, amb); hi = Qb; Q = 0.5 * Qb; }
+  const tol = Math.abs(Q) * 1e-8;
   let prevTs = NaN, prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
     const Ts = marchSlope(els, Tp, Q);
@@ -129,7 +135,7 @@ function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, sha
     const dTsdQ = SLOPE.dTsdQ;
     const flux = surfaceFlux(shape, Ts, amb);
     const g = area * flux - Q;
-    if (Math.abs(g) <= tol) return { Q, iterations: it };
+    if (Math.abs(g) <= tol) { HEAT.Q = Q; HEAT.iterations = it; return HEAT; }
     if (g * sgn > 0) lo = Q; else hi = Q;
     let dflux: number;
     if (amb.fixedCoefficientWPerM2K !== undefined) dflux = amb.fixedCoefficientWPerM2K;
@@ -143,14 +149,18 @@ function solveHeatFlow(els: Element[], Tp: number, Qb: number, area: number, sha
     prevTs = Ts; prevFlux = flux;
     const dg = area * dflux * dTsdQ - 1; // negative
     let next = Q - g / dg;
-    const a = Math.min(lo, hi), b = Math.max(lo, hi);
-    if (!(next > a && next < b)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - Q) <= tol) return { Q: next, iterations: it };
+    if (!((next - lo) * sgn > 0 && (hi - next) * sgn > 0)) {
+      if (Qb !== Qb) { Qb = area * surfaceFlux(shape, Tp, amb); if ((hi - Qb) * sgn > 0) hi = Qb; }
+      next = 0.5 * (lo + hi);
+    }
+    if (Math.abs(next - Q) <= tol) { HEAT.Q = next; HEAT.iterations = it; return HEAT; }
     Q = next;
   }
-  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * surfaceFlux(shape, t, amb) - q : -Qb; };
-  const r = brentRoot(g, 0, Qb, Qb, g(Qb), tol);
-  return { Q: r.x, iterations: 40 + r.iterations };
+  const b = Qb === Qb ? Qb : area * surfaceFlux(shape, Tp, amb);
+  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * surfaceFlux(shape, t, amb) - q : -b; };
+  const r = brentRoot(g, 0, b, b, g(b), Math.abs(b) * 1e-10);
+  HEAT.Q = r.x; HEAT.iterations = 40 + r.iterations;
+  return HEAT;
 }
 
 /** A case's resistance chain and outside shape, prepared once and solved under many conditions. */
@@ -182,43 +192,52 @@ export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): Prepa
 }
 
 /**
- * The numerical core: heat flow Q and surface temperature for a prepared chain. Leaves the boundary
- * temperatures in `chain.temps`. No allocation beyond the solver's closure, for bulk use.
+ * What a solve returns, and what a neighbouring solve can start from: the combined surface
+ * coefficient h and the ratio of the true conduction resistance to its k-at-mean-temperature
+ * estimate.
  */
-/**
- * What a neighbouring solve learned, to start the next one close: the combined surface coefficient
- * and the ratio of the true conduction resistance to its k-at-mean-temperature estimate.
- */
-export interface SolveHint { h: number; resistanceRatio: number }
+export interface ChainSolution { Q: number; Ts: number; iterations: number; h: number; resistanceRatio: number }
+const SOLUTION: ChainSolution = { Q: 0, Ts: 0, iterations: 0, h: 0, resistanceRatio: 1 };
 
-export function solveChain(chain: PreparedChain, processC: number, amb: Ambient, hint?: number | SolveHint): { Q: number; Ts: number; iterations: number; hint: SolveHint } {
-  const hintCoefficientWPerM2K = typeof hint === 'number' ? hint : hint?.h;
-  const ratio = typeof hint === 'object' && hint.resistanceRatio > 0 ? hint.resistanceRatio : 1;
-  const { els, fast, area, shape } = chain;
+/**
+ * The numerical core: heat flow Q and surface temperature for a prepared chain. Leaves the boundary
+ * temperatures in `chain.temps`. For bulk use it allocates nothing: the returned object is shared
+ * and valid until the next call (copy what you keep). `hintH` / `hintRatio` come from a neighbouring
+ * solve (e.g. the previous thickness); 0 and 1 mean none.
+ */
+export function solveChain(chain: PreparedChain, processC: number, amb: Ambient, hintH = 0, hintRatio = 1): ChainSolution {
+  const ratio = hintRatio > 0 ? hintRatio : 1;
+  const els = chain.els, fast = chain.fast, area = chain.area, shape = chain.shape;
   const Tp = processC;
-  const Qb = area * surfaceFlux(shape, Tp, amb);
-  let Q = Qb, iterations = 0;
-  if (els.length > 0 && Qb !== 0) {
+  const out = SOLUTION;
+  // The sign of the heat flow is the sign of the outside loss at the process temperature; it is
+  // plain when the process is hotter (or colder) than both the air and the surroundings.
+  const dA = Tp - amb.airC, dR = Tp - amb.surroundingsC;
+  let sgn = amb.fixedCoefficientWPerM2K !== undefined || amb.emittance === 0 ? Math.sign(dA)
+    : dA > 0 && dR >= 0 ? 1 : dA < 0 && dR <= 0 ? -1 : Math.sign(surfaceFlux(shape, Tp, amb));
+  if (dA === 0 && (dR === 0 || amb.emittance === 0 || amb.fixedCoefficientWPerM2K !== undefined)) sgn = 0;
+  let Q = 0, iterations = 0, Rc = 0, h0 = 5;
+  if (els.length === 0) Q = sgn === 0 ? 0 : area * surfaceFlux(shape, Tp, amb);
+  else if (sgn !== 0) {
     // First guess: series resistances, k at the mean of process and air, and the surface coefficient
-    // either hinted by the caller (e.g. the previous thickness) or evaluated 15 % of the way up.
+    // either hinted by the caller or evaluated 15 % of the way up.
     const Tm = 0.5 * (Tp + amb.airC);
-    let h0 = hintCoefficientWPerM2K ?? 0;
+    h0 = hintH;
     if (!(h0 > 0)) {
       const Ts0 = amb.airC + 0.15 * (Tp - amb.airC);
-      h0 = surfaceFlux(shape, Ts0, amb) / (Ts0 - amb.airC);
+      h0 = Ts0 !== amb.airC ? surfaceFlux(shape, Ts0, amb) / (Ts0 - amb.airC) : 0;
       if (!(h0 > 0)) h0 = 5;
     }
-    let Rc = 0;
-    for (const e of fast) Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm);
-    const r = solveHeatFlow(fast, Tp, Qb, area, shape, amb, (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)));
+    for (let i = 0; i < fast.length; i++) { const e = fast[i]; Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm); }
+    const r = solveHeatFlow(fast, Tp, sgn, area, shape, amb, (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)));
     Q = r.Q; iterations = r.iterations;
-    const Ts = march(els, Tp, Q, chain.temps);
-    const dTs = Ts - amb.airC;
-    return { Q, Ts, iterations, hint: { h: dTs !== 0 ? Q / area / dTs : h0, resistanceRatio: Q !== 0 ? (Tp - Ts) / Q / Rc : 1 } };
-  } else if (Qb === 0) Q = 0;
+  }
   const Ts = els.length ? march(els, Tp, Q, chain.temps) : Tp;
   const dTs = Ts - amb.airC;
-  return { Q, Ts, iterations, hint: { h: dTs !== 0 ? Q / area / dTs : 5, resistanceRatio: 1 } };
+  out.Q = Q; out.Ts = Ts; out.iterations = iterations;
+  out.h = dTs !== 0 && Q !== 0 ? Q / area / dTs : h0;
+  out.resistanceRatio = Q !== 0 && Rc > 0 ? (Tp - Ts) / Q / Rc : 1;
+  return out;
 }
 
 /** The highest / lowest temperature each insulation layer sees in the last solve of the chain. */
@@ -238,10 +257,14 @@ export function layerFaceTemps(chain: PreparedChain, processC: number, layerCoun
  * every layer by construction, so the energy balance closes at every interface.
  */
 export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
-  const chain = prepareChain(c);
+  return solvePrepared(prepareChain(c), c, hintCoefficientWPerM2K);
+}
+
+/** `solveSteady` on a chain already prepared from the same case (geometry, sizes and layers). */
+export function solvePrepared(chain: PreparedChain, c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
   const { els, rInner, rOuter, pipe, shape } = chain;
   const Tp = c.processC;
-  const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K);
+  const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K ?? 0);
   const temps = Array.from(chain.temps);
 
   const warnings: string[] = [];

@@ -251,10 +251,18 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const hlAmb = ambientOf(crit.conditions.heatLoss, emittance), hlBare = ambientOf(crit.conditions.heatLoss, bareEps);
   const hlQ = new Array<number>(n), hlH = new Array<number>(n);
   const results: CandidateResult[] = new Array(n);
-  let hintH = 0, hintR = 1;
+  // From the third candidate on the hint is extrapolated linearly in thickness from the two before.
+  let h1 = 0, r1 = 1, h2 = 0, r2 = 1;
   for (let i = 0; i < n; i++) {
-    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, i > 1 ? hintH : 0, i > 1 ? hintR : 1);
-    hintH = r.h; hintR = r.ratio;
+    let hintH = 0, hintR = 1;
+    if (i === 2) { hintH = h1; hintR = r1; }
+    else if (i > 2) {
+      const t0 = all[i - 2]!.totalMm, t1 = all[i - 1]!.totalMm, f = (all[i]!.totalMm - t1) / (t1 - t0);
+      hintH = h1 + (h1 - h2) * f; hintR = r1 + (r1 - r2) * f;
+      if (!(hintH > 0 && hintR > 0)) { hintH = h1; hintR = r1; }
+    }
+    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hintH, hintR);
+    h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
     hlQ[i] = r.Q; hlH[i] = r.h;
     results[i] = {
       totalMm: all[i]?.totalMm ?? 0,

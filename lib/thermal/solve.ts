@@ -1,7 +1,7 @@
 import type { Conductivity } from './conductivity';
 import { brentRoot } from './roots';
 import {
-  convectionDetail, isPipe, radiativeFlux, surfaceFlux, surfaceWarnings,
+  CONVECTIVE_SLOPE, convectionDetail, isPipe, radiativeFlux, surfaceFlux, surfaceWarnings,
   type Ambient, type Geometry, type OuterShape,
 } from './surface';
 
@@ -115,7 +115,7 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
  * Root of g(Q) = A·q_out(Ts(Q)) − Q, which has the sign of the heat flow at Q = 0 and the opposite
  * sign at the bare-surface flow Q_b = A·q_out(T_process) (the surface law is monotone in Ts and Ts
  * falls with Q). Newton steps with the exact conduction slope dTs/dQ and a surface-flux slope that
- * starts from h·1.25 + 4εσT³ (the ¼-power law of laminar natural convection) and then follows the
+ * starts from the correlations' own slope estimate (CONVECTIVE_SLOPE) + 4εσT³ and then follows the
  * secant, kept inside a shrinking bracket [0, Q_b] and replaced by bisection whenever they would
  * leave it; Brent's method takes over in the rare case this has not converged, so the answer always
  * exists. Q_b is evaluated only when a step needs the far end of the bracket (one surface evaluation
@@ -127,7 +127,7 @@ function solveHeatFlow(els: Element[], Tp: number, sgn: number, area: number, sh
   let Qb = NaN; // evaluated on demand (no closure: this is the hot path)
   let Q = guess;
   if (!(guess * sgn > 0 && Number.isFinite(guess))) { Qb = area * surfaceFlux(shape, Tp, amb); hi = Qb; Q = 0.5 * Qb; }
-  const tol = Math.abs(Q) * 1e-8;
+  const tol = Math.abs(Q) * 1e-7;
   let prevTs = NaN, prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
     const Ts = marchSlope(els, Tp, Q);
@@ -141,10 +141,8 @@ function solveHeatFlow(els: Element[], Tp: number, sgn: number, area: number, sh
     if (amb.fixedCoefficientWPerM2K !== undefined) dflux = amb.fixedCoefficientWPerM2K;
     else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts))) dflux = (flux - prevFlux) / (Ts - prevTs); // secant on the surface law
     else {
-      const dT = Ts - amb.airC;
       const t = Ts + 273.15;
-      const hc = dT !== 0 ? (flux - radiativeFlux(Ts, amb)) / dT : 0;
-      dflux = 1.25 * hc + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
+      dflux = CONVECTIVE_SLOPE.value + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
     }
     prevTs = Ts; prevFlux = flux;
     const dg = area * dflux * dTsdQ - 1; // negative

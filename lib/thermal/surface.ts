@@ -85,29 +85,41 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
   const air = filmAt(0.5 * (TsC + amb.airC) + KELVIN);
   const L = c.naturalLength;
   const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
-  let nuN = 0;
+  let nuN = 0, m = 0; // m = d ln Nu / d ln Ra of the natural correlation
   if (ra > 0) {
     switch (c.natural) {
-      case 'horizontal-cylinder-churchill-chu': nuN = nusseltHorizontalCylinderChurchillChuWithFactor(ra, air.fCyl); break;
-      case 'vertical-plate-churchill-chu': nuN = nusseltVerticalPlateChurchillChuWithFactor(ra, air.fPlate); break;
-      case 'horizontal-plate-assisted-lloyd-moran': nuN = nusseltHorizontalPlateAssistedLloydMoran(ra); break;
-      case 'horizontal-plate-opposed-mcadams': nuN = nusseltHorizontalPlateOpposedMcAdams(ra); break;
+      case 'horizontal-cylinder-churchill-chu': nuN = nusseltHorizontalCylinderChurchillChuWithFactor(ra, air.fCyl); m = (1 - 0.6 / Math.sqrt(nuN)) / 3; break;
+      case 'vertical-plate-churchill-chu': nuN = nusseltVerticalPlateChurchillChuWithFactor(ra, air.fPlate); m = (1 - 0.825 / Math.sqrt(nuN)) / 3; break;
+      case 'horizontal-plate-assisted-lloyd-moran': nuN = nusseltHorizontalPlateAssistedLloydMoran(ra); m = ra <= 1e7 ? 0.25 : 1 / 3; break;
+      case 'horizontal-plate-opposed-mcadams': nuN = nusseltHorizontalPlateOpposedMcAdams(ra); m = 0.25; break;
     }
   }
   const hN = (nuN * air.k) / L;
   let h = hN, re = 0, hF = 0;
+  // Slope estimate of the convective flux h·ΔT with respect to Ts at fixed air properties: the
+  // natural term grows as ΔT^m, the forced term not at all, combined by the cube rule.
+  let dq = hN * (1 + m);
   if (amb.windMs > 0) {
     re = (amb.windMs * c.forcedLength) / air.nu;
     const nuF = c.forced === 'crossflow-cylinder-churchill-bernstein' ? nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, air.fCb) : nusseltFlatPlateAverage(re, air.pr);
     hF = (nuF * air.k) / c.forcedLength;
-    h = Math.cbrt(hF * hF * hF + hN * hN * hN);
+    const hN3 = hN * hN * hN;
+    h = Math.cbrt(hF * hF * hF + hN3);
+    dq = h + (hN3 / (h * h)) * m;
   }
+  CONVECTIVE_SLOPE.value = dq;
   if (detail) {
     detail.h = h; detail.natural = c.natural; detail.ra = ra; detail.hNatural = hN;
     detail.forced = amb.windMs > 0 ? c.forced : undefined; detail.re = amb.windMs > 0 ? re : undefined; detail.hForced = amb.windMs > 0 ? hF : undefined;
   }
   return h;
 }
+
+/**
+ * d(h·ΔT)/dTs estimated by the last convection evaluation (air properties held at their film
+ * values) — a first derivative for the solver's Newton step, which then follows the secant.
+ */
+export const CONVECTIVE_SLOPE = { value: 0 };
 
 /** Radiative flux εσ(Ts⁴ − Tsur⁴), W/m². */
 export function radiativeFlux(TsC: number, amb: Ambient): number {

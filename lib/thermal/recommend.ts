@@ -159,6 +159,31 @@ function interfacesOf(chain: PreparedChain, layerCount: number): number[] {
   return t.slice(t.length - layerCount, t.length - 1);
 }
 
+/**
+ * Start values for candidate i of a sweep from the two solved before it: surface coefficient and
+ * resistance ratio extrapolated linearly in total thickness (the previous values when that would
+ * not be positive). Fills the shared HINT.
+ */
+const HINT = { h: 0, ratio: 1 };
+function sweepHint(all: (Candidate | null)[], i: number, h1: number, r1: number, h2: number, r2: number): typeof HINT {
+  HINT.h = 0; HINT.ratio = 1;
+  if (i === 2) { HINT.h = h1; HINT.ratio = r1; }
+  else if (i > 2) {
+    const t0 = all[i - 2]!.totalMm, t1 = all[i - 1]!.totalMm, f = (all[i]!.totalMm - t1) / (t1 - t0);
+    HINT.h = h1 + (h1 - h2) * f; HINT.ratio = r1 + (r1 - r2) * f;
+    if (!(HINT.h > 0 && HINT.ratio > 0)) { HINT.h = h1; HINT.ratio = r1; }
+  }
+  return HINT;
+}
+
+// Capital recovery and levelising factors per economics object (the same for every line of a project).
+const annuityCache = new WeakMap<Economics, { crf: number; lf: number }>();
+function annuityFactors(econ: Economics): { crf: number; lf: number } {
+  let v = annuityCache.get(econ);
+  if (!v) { v = { crf: capitalRecoveryFactor(econ.discountRate, econ.lifeYears), lf: levelisingFactor(econ.discountRate, econ.escalationRate, econ.lifeYears) }; annuityCache.set(econ, v); }
+  return v;
+}
+
 const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance });
 
 function layersOf(c: Candidate): SolidLayer[] {
@@ -242,7 +267,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const n = all.length;
   const chains = chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
 
-  const wants = (p: Purpose) => line.purposes.includes(p);
+  const purposes = line.purposes;
   const econ = crit.economics ?? DEFAULT_ECONOMICS;
   const prices = crit.prices ?? DEFAULT_PRICES;
 
@@ -254,102 +279,101 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // From the third candidate on the hint is extrapolated linearly in thickness from the two before.
   let h1 = 0, r1 = 1, h2 = 0, r2 = 1;
   for (let i = 0; i < n; i++) {
-    let hintH = 0, hintR = 1;
-    if (i === 2) { hintH = h1; hintR = r1; }
-    else if (i > 2) {
-      const t0 = all[i - 2]!.totalMm, t1 = all[i - 1]!.totalMm, f = (all[i]!.totalMm - t1) / (t1 - t0);
-      hintH = h1 + (h1 - h2) * f; hintR = r1 + (r1 - r2) * f;
-      if (!(hintH > 0 && hintR > 0)) { hintH = h1; hintR = r1; }
-    }
-    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hintH, hintR);
+    const hint = sweepHint(all, i, h1, r1, h2, r2);
+    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hint.h, hint.ratio);
     h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
     hlQ[i] = r.Q; hlH[i] = r.h;
+    // Every field present from the start: one object shape for all candidates (the optional ones stay
+    // undefined unless a criterion fills them, and JSON leaves them out).
     results[i] = {
       totalMm: all[i]?.totalMm ?? 0,
       layers: layersOut[i], // shared, read-only
       heatLoss: { heatFlow: r.Q, surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) },
+      personnel: undefined, condensation: undefined, annualCost: undefined, installedCost: undefined, energyCostPerYear: undefined,
       serviceLimitOk: r.limitOk,
     };
   }
 
   const outcomes: CriterionOutcome[] = [];
-  const scan = (test: (i: number) => boolean): number | null => { for (let i = 0; i < all.length; i++) if (test(i)) return i; return null; };
-  const mm = (i: number | null) => (i === null ? null : results[i].totalMm);
 
   // Personnel protection: hottest air, still air, the actual jacket emittance.
-  if (wants('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
+  if (purposes.includes('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
     const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
     const a = ambientOf(crit.conditions.personnel, emittance), bare = ambientOf(crit.conditions.personnel, bareEps);
-    let h = 0, ratio = 1, idx: number | null = null;
+    let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const r = solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, h, ratio);
-      h = r.h; ratio = r.ratio;
+      const hint = sweepHint(all, i, h1, r1, h2, r2);
+      const r = solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, hint.h, hint.ratio);
+      h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (!r.limitOk) results[i].serviceLimitOk = false;
       if (r.Ts <= limit) { idx = i; break; }
     }
-    outcomes.push({ id: 'personnel', requiredMm: mm(idx), message: idx === null
+    outcomes.push({ id: 'personnel', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
       : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).` });
   }
 
   // Condensation control: surface at or above the dew (frost) point plus margin.
-  if (wants('condensationControl') && cold) {
+  if (purposes.includes('condensationControl') && cold) {
     const c = crit.conditions.condensation;
     const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
     const need = th.valueC + crit.dewPointMarginK;
     const a = ambientOf(c, emittance), bare = ambientOf(c, bareEps);
-    let h = 0, ratio = 1, idx: number | null = null;
+    let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, h, ratio);
-      h = r.h; ratio = r.ratio;
+      const hint = sweepHint(all, i, h1, r1, h2, r2);
+      const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, hint.h, hint.ratio);
+      h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
       results[i].condensation = { surfaceC: r.Ts };
       if (r.Ts >= need) { idx = i; break; }
     }
-    outcomes.push({ id: 'condensation', requiredMm: mm(idx), message: idx === null
+    outcomes.push({ id: 'condensation', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
       : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.` });
   }
 
   // Heat-loss limit.
   const limit = pipe ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
-  if (limit !== undefined && (wants('heatConservation') || wants('processControl'))) {
-    const idx = scan((i) => Math.abs(hlQ[i]) <= limit);
-    outcomes.push({ id: 'heatLossLimit', requiredMm: mm(idx), message: idx === null
+  if (limit !== undefined && (purposes.includes('heatConservation') || purposes.includes('processControl'))) {
+    let idx: number | null = null;
+    for (let i = 0; i < n; i++) if (Math.abs(hlQ[i]) <= limit) { idx = i; break; }
+    outcomes.push({ id: 'heatLossLimit', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
       : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
   }
 
   // Process temperature change along a flowing line.
-  if (wants('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
+  if (purposes.includes('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
     const cp = line.fluidCpJPerKgK ?? 4186;
     const drop = (i: number) => {
       const u = hlQ[i] / (line.normalTempC - crit.conditions.heatLoss.airC || 1);
       const out = outletTempC({ inletC: line.normalTempC, airC: crit.conditions.heatLoss.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
       return Math.abs(line.normalTempC - out);
     };
-    const idx = scan((i) => drop(i) <= crit.maxProcessDropK!);
-    outcomes.push({ id: 'processDrop', requiredMm: mm(idx), message: idx === null
+    let idx: number | null = null;
+    for (let i = 0; i < n; i++) if (drop(i) <= crit.maxProcessDropK) { idx = i; break; }
+    outcomes.push({ id: 'processDrop', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K.`
       : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K).` });
   }
 
   // Freeze protection of a stagnant water line.
-  if (wants('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
+  if (purposes.includes('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
     const f = crit.freeze, fc = crit.conditions.freeze;
     const a = ambientOf(fc, emittance);
     const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveCandidate(chains[i], layersCache[i], T, a, hlH[i], 1).Q });
-    const idx = scan((i) => i > 0 && hours(i) >= f.requiredHours);
-    outcomes.push({ id: 'freeze', requiredMm: mm(idx), message: idx === null
+    let idx: number | null = null;
+    for (let i = 1; i < n; i++) if (hours(i) >= f.requiredHours) { idx = i; break; }
+    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
       : `Stagnant water takes ≥ ${f.requiredHours} h to cool from ${f.initialWaterTempC} °C to 0 °C at ${fc.airC} °C air (${hours(idx).toFixed(1)} h).` });
   }
 
   // Economic thickness: annualised cost over the whole series (cost curve).
   let econIdx: number | null = null;
-  if (wants('heatConservation')) {
-    const crf = capitalRecoveryFactor(econ.discountRate, econ.lifeYears);
-    const lf = levelisingFactor(econ.discountRate, econ.escalationRate, econ.lifeYears);
+  if (purposes.includes('heatConservation')) {
+    const { crf, lf } = annuityFactors(econ);
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
       const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
@@ -359,7 +383,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       ri.installedCost = inst; ri.energyCostPerYear = energy; ri.annualCost = annual;
       if (results[i].serviceLimitOk && annual < best) { best = annual; econIdx = i; }
     }
-    outcomes.push({ id: 'economic', requiredMm: mm(econIdx), message: `Lowest annualised cost (${(capitalRecoveryFactor(econ.discountRate, econ.lifeYears) * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr).` });
+    outcomes.push({ id: 'economic', requiredMm: econIdx === null ? null : results[econIdx].totalMm, message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr).` });
   }
 
   // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
@@ -368,30 +392,34 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     if (o.requiredMm === null) { warnings.push(o.message); continue; }
     if (o.requiredMm > need || (governing === null && o.requiredMm === need && need > 0)) { need = o.requiredMm; governing = o.id; }
   }
-  let recIdx = results.findIndex((r, i) => r.totalMm >= need && (i === 0 || r.serviceLimitOk));
-  if (recIdx < 0) { recIdx = -1; warnings.push('No candidate keeps every layer within its service temperature; choose another material system.'); }
+  let recIdx = -1;
+  for (let i = 0; i < n; i++) if (results[i].totalMm >= need && (i === 0 || results[i].serviceLimitOk)) { recIdx = i; break; }
+  if (recIdx < 0) { warnings.push('No candidate keeps every layer within its service temperature; choose another material system.'); }
   if (!cold && maxC > system.outer.maxServiceC && !system.inner) warnings.push(`${system.outer.name} is rated to ${system.outer.maxServiceC} °C; the line runs at ${maxC} °C. Add a higher-temperature inner layer.`);
   if (cold && line.normalTempC < system.outer.minServiceC) warnings.push(`${system.outer.name} is rated down to ${system.outer.minServiceC} °C only.`);
   if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
 
   const rec = recIdx >= 0 ? results[recIdx] : null;
   const design = recIdx >= 0
-    ? solvePrepared(chains[recIdx], { ...base, processC: line.normalTempC, ambient: recIdx === 0 ? hlBare : hlAmb, layers: layersCache[recIdx] }, hlH[recIdx])
+    ? solvePrepared(chains[recIdx], { geometry: base.geometry, pipeOuterDiameterM: base.pipeOuterDiameterM, heightM: base.heightM, characteristicLengthM: base.characteristicLengthM, processC: line.normalTempC, ambient: recIdx === 0 ? hlBare : hlAmb, layers: layersCache[recIdx] }, hlH[recIdx])
     : undefined;
-  if (design) warnings.push(...design.warnings.filter((w) => !warnings.includes(w)));
+  if (design) for (const w of design.warnings) if (!warnings.includes(w)) warnings.push(w);
   const extent = pipe ? line.lengthM ?? 1 : line.areaM2 ?? 1;
-  const annual = design ? (() => {
+  let annual: Recommendation['annual'];
+  if (design) {
     const heatMWh = (Math.abs(design.heatFlow) * extent * econ.hoursPerYear) / 1e6;
     const boughtMWh = heatMWh / econ.efficiency;
-    return { energyMWh: heatMWh, cost: boughtMWh * 1000 * econ.energyPricePerKWh, co2Tonnes: (boughtMWh * 1000 * econ.co2KgPerKWh) / 1000 };
-  })() : undefined;
+    annual = { energyMWh: heatMWh, cost: boughtMWh * 1000 * econ.energyPricePerKWh, co2Tonnes: (boughtMWh * 1000 * econ.co2KgPerKWh) / 1000 };
+  }
+  const unmet: CriterionId[] = [];
+  for (const o of outcomes) if (o.requiredMm === null) unmet.push(o.id);
   let condensate: number | undefined;
   if (design && line.steamPressureMPaAbs) {
     condensate = condensateKgPerHour(design.heatFlow * extent, saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg);
   }
   return {
     recommendedMm: rec?.totalMm ?? null,
-    unmet: outcomes.filter((o) => o.requiredMm === null).map((o) => o.id),
+    unmet,
     layers: rec?.layers ?? [],
     governing,
     outcomes,

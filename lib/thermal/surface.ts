@@ -6,6 +6,12 @@ import {
   nusseltHorizontalCylinderChurchillChuWithFactor, nusseltHorizontalPlateAssistedLloydMoran, nusseltHorizontalPlateOpposedMcAdams,
   nusseltVerticalPlateChurchillChuWithFactor, type ForcedName, type NaturalName,
 } from './correlations';
+// The inner loop's imports bound once to local constants: module loaders and bundlers reach an
+// import through an accessor on every use, which the hottest calls should not pay (measured).
+const film = filmAt;
+const nuCb = nusseltCrossflowCylinderChurchillBernsteinWithFactor, nuFlat = nusseltFlatPlateAverage;
+const nuCyl = nusseltHorizontalCylinderChurchillChuWithFactor, nuPlate = nusseltVerticalPlateChurchillChuWithFactor;
+const nuUp = nusseltHorizontalPlateAssistedLloydMoran, nuDown = nusseltHorizontalPlateOpposedMcAdams;
 
 export type Geometry = 'horizontal-pipe' | 'vertical-pipe' | 'vertical-wall' | 'horizontal-wall-up' | 'horizontal-wall-down';
 export const GEOMETRIES: Geometry[] = ['horizontal-pipe', 'vertical-pipe', 'vertical-wall', 'horizontal-wall-up', 'horizontal-wall-down'];
@@ -82,16 +88,16 @@ const DETAIL: ConvectionDetail = { h: 0, natural: 'horizontal-cylinder-churchill
 function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: ConvectionDetail | null): number {
   const dT = TsC - amb.airC;
   const c = choose(shape, dT > 0);
-  const air = filmAt(0.5 * (TsC + amb.airC) + KELVIN);
+  const air = film(0.5 * (TsC + amb.airC) + KELVIN);
   const L = c.naturalLength;
   const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
   let nuN = 0, m = 0; // m = d ln Nu / d ln Ra of the natural correlation
   if (ra > 0) {
     switch (c.natural) {
-      case 'horizontal-cylinder-churchill-chu': nuN = nusseltHorizontalCylinderChurchillChuWithFactor(ra, air.fCyl); m = (1 - 0.6 / Math.sqrt(nuN)) / 3; break;
-      case 'vertical-plate-churchill-chu': nuN = nusseltVerticalPlateChurchillChuWithFactor(ra, air.fPlate); m = (1 - 0.825 / Math.sqrt(nuN)) / 3; break;
-      case 'horizontal-plate-assisted-lloyd-moran': nuN = nusseltHorizontalPlateAssistedLloydMoran(ra); m = ra <= 1e7 ? 0.25 : 1 / 3; break;
-      case 'horizontal-plate-opposed-mcadams': nuN = nusseltHorizontalPlateOpposedMcAdams(ra); m = 0.25; break;
+      case 'horizontal-cylinder-churchill-chu': nuN = nuCyl(ra, air.fCyl); m = (1 - 0.6 / Math.sqrt(nuN)) / 3; break;
+      case 'vertical-plate-churchill-chu': nuN = nuPlate(ra, air.fPlate); m = (1 - 0.825 / Math.sqrt(nuN)) / 3; break;
+      case 'horizontal-plate-assisted-lloyd-moran': nuN = nuUp(ra); m = ra <= 1e7 ? 0.25 : 1 / 3; break;
+      case 'horizontal-plate-opposed-mcadams': nuN = nuDown(ra); m = 0.25; break;
     }
   }
   const hN = (nuN * air.k) / L;
@@ -101,7 +107,7 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
   let dq = hN * (1 + m);
   if (amb.windMs > 0) {
     re = (amb.windMs * c.forcedLength) / air.nu;
-    const nuF = c.forced === 'crossflow-cylinder-churchill-bernstein' ? nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, air.fCb) : nusseltFlatPlateAverage(re, air.pr);
+    const nuF = c.forced === 'crossflow-cylinder-churchill-bernstein' ? nuCb(re, air.fCb) : nuFlat(re, air.pr);
     hF = (nuF * air.k) / c.forcedLength;
     const hN3 = hN * hN * hN;
     h = Math.cbrt(hF * hF * hF + hN3);

@@ -139,8 +139,9 @@ function chainsFor(set: CandidateSet, geometry: Geometry, odM: number, heightM: 
 
 /** One candidate solved: heat flow, surface temperature, what the next solve starts from, service limits (shared scratch). */
 const SOLVED = { Q: 0, Ts: 0, h: 0, ratio: 1, limitOk: true };
+const solveOne = solveChain; // bound once (see surface.ts)
 function solveCandidate(chain: PreparedChain, layers: SolidLayer[], processC: number, a: Ambient, hintH: number, hintRatio: number): typeof SOLVED {
-  const r = solveChain(chain, processC, a, hintH, hintRatio);
+  const r = solveOne(chain, processC, a, hintH, hintRatio);
   let limitOk = true;
   const t = chain.temps, first = t.length - layers.length;
   for (let j = 0; j < layers.length; j++) {

@@ -4,6 +4,9 @@ import {
   CONVECTIVE_SLOPE, convectionDetail, isPipe, radiativeFlux, surfaceFlux, surfaceWarnings,
   type Ambient, type Geometry, type OuterShape,
 } from './surface';
+// The inner loop's imports bound once to local constants (see surface.ts: loaders reach an import
+// through an accessor on every use).
+const flux = surfaceFlux, slopeOfConvection = CONVECTIVE_SLOPE;
 
 /** One solid layer, inside to outside. */
 export interface SolidLayer {
@@ -126,36 +129,36 @@ function solveHeatFlow(els: Element[], Tp: number, sgn: number, area: number, sh
   let lo = 0, hi = sgn * Infinity; // g(lo) has the sign sgn, g(hi) the opposite (or zero)
   let Qb = NaN; // evaluated on demand (no closure: this is the hot path)
   let Q = guess;
-  if (!(guess * sgn > 0 && Number.isFinite(guess))) { Qb = area * surfaceFlux(shape, Tp, amb); hi = Qb; Q = 0.5 * Qb; }
+  if (!(guess * sgn > 0 && Number.isFinite(guess))) { Qb = area * flux(shape, Tp, amb); hi = Qb; Q = 0.5 * Qb; }
   const tol = Math.abs(Q) * 1e-7;
   let prevTs = NaN, prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
     const Ts = marchSlope(els, Tp, Q);
     if (Ts !== Ts) { hi = Q; Q = 0.5 * (lo + hi); continue; }
     const dTsdQ = SLOPE.dTsdQ;
-    const flux = surfaceFlux(shape, Ts, amb);
-    const g = area * flux - Q;
+    const q = flux(shape, Ts, amb);
+    const g = area * q - Q;
     if (Math.abs(g) <= tol) { HEAT.Q = Q; HEAT.iterations = it; return HEAT; }
     if (g * sgn > 0) lo = Q; else hi = Q;
     let dflux: number;
     if (amb.fixedCoefficientWPerM2K !== undefined) dflux = amb.fixedCoefficientWPerM2K;
-    else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts))) dflux = (flux - prevFlux) / (Ts - prevTs); // secant on the surface law
+    else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts))) dflux = (q - prevFlux) / (Ts - prevTs); // secant on the surface law
     else {
       const t = Ts + 273.15;
-      dflux = CONVECTIVE_SLOPE.value + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
+      dflux = slopeOfConvection.value + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
     }
-    prevTs = Ts; prevFlux = flux;
+    prevTs = Ts; prevFlux = q;
     const dg = area * dflux * dTsdQ - 1; // negative
     let next = Q - g / dg;
     if (!((next - lo) * sgn > 0 && (hi - next) * sgn > 0)) {
-      if (Qb !== Qb) { Qb = area * surfaceFlux(shape, Tp, amb); if ((hi - Qb) * sgn > 0) hi = Qb; }
+      if (Qb !== Qb) { Qb = area * flux(shape, Tp, amb); if ((hi - Qb) * sgn > 0) hi = Qb; }
       next = 0.5 * (lo + hi);
     }
     if (Math.abs(next - Q) <= tol) { HEAT.Q = next; HEAT.iterations = it; return HEAT; }
     Q = next;
   }
-  const b = Qb === Qb ? Qb : area * surfaceFlux(shape, Tp, amb);
-  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * surfaceFlux(shape, t, amb) - q : -b; };
+  const b = Qb === Qb ? Qb : area * flux(shape, Tp, amb);
+  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * flux(shape, t, amb) - q : -b; };
   const r = brentRoot(g, 0, b, b, g(b), Math.abs(b) * 1e-10);
   HEAT.Q = r.x; HEAT.iterations = 40 + r.iterations;
   return HEAT;

@@ -4,4 +4,4 @@ source "$(dirname "$0")/common.sh"
 ensure_deps
 use_fresh_test_db
 migrate
-exec node --import tsx "$@"
+exec node ${BENCH_NODE_FLAGS:-} --import tsx "$@"

@@ -55,10 +55,10 @@ export function lineCaseFor(l: LineInput): LineCase {
   return { ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1 };
 }
 
-/** Hash of everything the answer depends on: calculation version, design basis and the line's inputs. */
-export function inputHash(basis: DesignBasis, l: LineInput): string {
+/** Hash of everything the answer depends on: calculation version, design basis (or its JSON, when hashing many lines) and the line's inputs. */
+export function inputHash(basis: DesignBasis | string, l: LineInput): string {
   const relevant = [CALCULATION_VERSION, l.geometry, l.outsideDiameterMm, l.lengthM, l.surfaceAreaM2, l.heightM, l.normalTempC, l.maxTempC, l.steamPressureBarG, l.flowKgPerS, l.fluidCpKJPerKgK, [...l.purposes].sort(), l.outdoor, l.accessible, l.jacketId];
-  return createHash('sha1').update(JSON.stringify(basis)).update(JSON.stringify(relevant)).digest('hex').slice(0, 20);
+  return createHash('sha1').update(typeof basis === 'string' ? basis : JSON.stringify(basis)).update(JSON.stringify(relevant)).digest('hex').slice(0, 20);
 }
 
 export interface SolvedLine {

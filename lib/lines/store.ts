@@ -157,6 +157,7 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
   const todo = await db.select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
   const systems = new Map<string, MaterialSystem>();
+  const basisJson = JSON.stringify(basis); // hashed with every line: serialised once
   const t0 = Date.now();
   const results = todo.map(({ line }) => {
     const input = inputOf(line);
@@ -164,7 +165,7 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
     const r = s.recommendation;
     const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
     return {
-      lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basis, input),
+      lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basisJson, input),
       recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: `${s.system.inner ? `${s.system.inner.name} + ` : ''}${s.system.outer.name}`, jacketId: s.system.jacket.id,
       outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
       // Compact cost curve and candidate table: [mm, layers, heat flow, surface °C (heat-loss), surface °C (personnel), annual cost, limits ok]
@@ -188,7 +189,8 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
 }
 
 const RESULT_COLUMNS = getTableColumns(lineResults);
-const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
+const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
 
 // ---------- reading ----------
 

@@ -30,7 +30,12 @@ const NEEDS_COMMENT: Disposition[] = ['guard', 'warning-sign', 'not-accessible',
 /** Every line of the project with its current flags (flagged lines only). */
 export async function currentFlags({ projectId, area }: { projectId: string; area?: string }) {
   const { basis, revision } = await getDesignBasis({ projectId });
-  const rows = await db.select({ line: lines, result: lineResults, design: lineDesigns }).from(lines)
+  // Only the result columns the flags need (the stored candidate curves and profiles are large).
+  const rows = await db.select({
+    line: lines,
+    result: { jacketId: lineResults.jacketId, basisRevision: lineResults.basisRevision, inputVersion: lineResults.inputVersion, calcVersion: lineResults.calcVersion, unmet: lineResults.unmet, recommendedMm: lineResults.recommendedMm },
+    design: { layers: lineDesigns.layers, belowCriterion: lineDesigns.belowCriterion, version: lineDesigns.version },
+  }).from(lines)
     .leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
     .where(area ? and(eq(lines.projectId, projectId), eq(lines.area, area)) : eq(lines.projectId, projectId)).orderBy(asc(lines.tag));
   const out: { lineId: string; tag: string; area: string; inputVersion: number; designVersion: number; flags: Flag[]; recommendedMm: number | null }[] = [];

@@ -6,7 +6,7 @@ import { AppError } from '@/lib/errors';
 import { actorName, writeAudit } from '@/lib/audit';
 import { getDesignBasis } from '@/lib/lines/store';
 import { currentFlags } from '@/lib/review/store';
-import { jacketById, materialById } from '@/lib/thermal/materials';
+import { catalogueOf } from '@/lib/lines/catalogue';
 import { billWorkbook } from './workbook';
 import { computeQuantities, quantityDelta, type BillQuantities, type BoqLine } from './quantities';
 
@@ -25,6 +25,7 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     where i.project_id = ${projectId} and i.line_id is not null
     order by i.line_id, r.number desc`);
   const review = new Map(decided.rows.map((r) => [r.line_id, r]));
+  const cat = catalogueOf((await getDesignBasis({ projectId })).basis);
   return rows.map(({ line, design, jacketId }) => {
     const flags = flagged.get(line.id) ?? [];
     const rv = review.get(line.id);
@@ -34,11 +35,11 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     else if (design.needsRedecision) status = { counted: false, reason: 'needs re-decision after a line-list revision' };
     else if (flags.length && !(current && rv!.status === 'signed-off')) status = { counted: false, reason: 'awaiting safety sign-off' };
     const reviewStatus = !rv ? (flags.length ? 'flagged, not reviewed' : 'not flagged') : `${rv.status === 'signed-off' ? 'signed off' : 'in review'}${rv.disposition ? `: ${rv.disposition}` : ''}${current ? '' : ' (re-opened)'}`;
-    const jacket = jacketById(line.jacketId ?? '') ?? jacketById(jacketId ?? '');
+    const jacket = cat.jackets.get(line.jacketId ?? '') ?? cat.jackets.get(jacketId ?? '');
     return {
       tag: line.tag, area: line.area, geometry: line.geometry, nps: line.nps, outsideDiameterMm: line.outsideDiameterMm, lengthM: line.lengthM, surfaceAreaM2: line.surfaceAreaM2,
       fittings: { elbows: line.elbows, tees: line.tees, valves: line.valves, flanges: line.flanges },
-      layers: ((design?.layers ?? []) as { materialId: string; thicknessMm: number }[]).map((x) => { const m = materialById(x.materialId); return { materialId: x.materialId, materialName: m?.name ?? x.materialId, productForm: m?.productForm ?? '', thicknessMm: x.thicknessMm }; }),
+      layers: ((design?.layers ?? []) as { materialId: string; thicknessMm: number }[]).map((x) => { const m = cat.materials.get(x.materialId); return { materialId: x.materialId, materialName: m?.name ?? x.materialId, productForm: m?.productForm ?? '', thicknessMm: x.thicknessMm }; }),
       jacketId: jacket?.id ?? '', jacketName: jacket?.name ?? '—', status, reviewStatus,
     };
   });

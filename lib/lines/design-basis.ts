@@ -11,8 +11,45 @@ import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 const num = (what: string) => z.coerce.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a number` });
 const cond = z.object({ airC: num('Air temperature').min(-60).max(60), windMs: num('Wind').min(0).max(40) });
 const condRh = cond.extend({ relativeHumidityPct: num('Relative humidity').gt(0).max(100) });
-const materialId = z.enum(MATERIALS.map((m) => m.id) as [string, ...string[]], { error: 'Choose a material from the library' });
-const jacketId = z.enum(JACKETS.map((j) => j.id) as [string, ...string[]], { error: 'Choose a jacket from the library' });
+// Band entries name a library material or one of the project's own (checked in checkBands).
+const materialId = z.string({ error: 'Choose a material' }).trim().min(1, { error: 'Choose a material' });
+const jacketId = z.string({ error: 'Choose a jacket' }).trim().min(1, { error: 'Choose a jacket' });
+
+/** A material the project adds with its own data (e.g. a manufacturer's declared values). */
+export const ownMaterialSchema = z.object({
+  id: z.string().regex(/^own-[a-z0-9-]{1,60}$/, { error: 'Project entries have ids starting with "own-"' }),
+  name: z.string({ error: 'Give the material a name' }).trim().min(2, { error: 'Give the material a name (2 characters or more)' }).max(80, { error: 'Name: at most 80 characters' }),
+  productForm: z.enum(['pipe-section', 'blanket', 'board', 'tube'], { error: 'Choose a product form' }),
+  /** Conductivity against mean temperature: [°C, W/(m·K)], at least one point. */
+  kPoints: z.array(z.tuple([z.number(), z.number()])).min(1, { error: 'Give at least one conductivity point' }).max(20, { error: 'At most 20 conductivity points' }),
+  minServiceC: num('Lowest service temperature').min(-273).max(1200),
+  maxServiceC: num('Highest service temperature').min(-273).max(1200),
+  densityKgPerM3: num('Density').positive().max(3000),
+  specificHeatJPerKgK: num('Specific heat').positive().max(5000),
+  thicknessesMm: z.array(z.number().positive().max(300)).min(1, { error: 'Give at least one thickness' }).max(30, { error: 'At most 30 thicknesses' }),
+  maxLayerMm: num('Thickest single layer').positive().max(300),
+  maxLayers: num('Most layers').int().min(1).max(8),
+  source: z.string({ error: 'Say where the data come from' }).trim().min(3, { error: 'Say where the data come from (data sheet, test report…)' }).max(300, { error: 'Source: at most 300 characters' }),
+}).superRefine((m, ctx) => {
+  if (!(m.maxServiceC > m.minServiceC)) ctx.addIssue({ code: 'custom', path: ['maxServiceC'], message: 'The highest service temperature must be above the lowest' });
+  const pts = [...m.kPoints].sort((a, b) => a[0] - b[0]);
+  pts.forEach(([t, k], i) => {
+    if (!(k > 0 && k < 5)) ctx.addIssue({ code: 'custom', path: ['kPoints'], message: `Conductivity at ${t} °C must be between 0 and 5 W/(m·K) (is ${k})` });
+    if (i > 0 && t === pts[i - 1][0]) ctx.addIssue({ code: 'custom', path: ['kPoints'], message: `Two conductivity points at ${t} °C: give each mean temperature once` });
+  });
+  if (!m.thicknessesMm.some((t) => t <= m.maxLayerMm)) ctx.addIssue({ code: 'custom', path: ['maxLayerMm'], message: 'At least one thickness must be within the thickest single layer' });
+});
+export type OwnMaterial = z.output<typeof ownMaterialSchema>;
+
+/** A jacket (cladding or finish) the project adds with its own emittance. */
+export const ownJacketSchema = z.object({
+  id: z.string().regex(/^own-[a-z0-9-]{1,60}$/, { error: 'Project entries have ids starting with "own-"' }),
+  name: z.string({ error: 'Give the jacket a name' }).trim().min(2, { error: 'Give the jacket a name (2 characters or more)' }).max(80, { error: 'Name: at most 80 characters' }),
+  emittance: num('Emittance').gt(0, { error: 'Emittance must be above 0' }).max(1, { error: 'Emittance is at most 1' }),
+  metal: z.boolean(),
+  source: z.string({ error: 'Say where the emittance comes from' }).trim().min(3, { error: 'Say where the emittance comes from' }).max(300, { error: 'Source: at most 300 characters' }),
+});
+export type OwnJacket = z.output<typeof ownJacketSchema>;
 
 export const systemBandSchema = z.object({
   /** Lines whose normal temperature is in [fromC, toC) use this system. */
@@ -38,6 +75,8 @@ export const designBasisObject = z.object({
   maxProcessDropK: num('Allowed temperature change').positive().max(200),
   freeze: z.object({ initialWaterTempC: num('Starting water temperature').min(0.5).max(90), requiredHours: num('Required hours').positive().max(1000) }),
   systems: z.array(systemBandSchema).min(1, { error: 'Give at least one material system' }),
+  ownMaterials: z.array(ownMaterialSchema).max(50, { error: 'At most 50 project materials' }).default([]),
+  ownJackets: z.array(ownJacketSchema).max(30, { error: 'At most 30 project jackets' }).default([]),
   economics: z.object({
     energyPricePerKWh: num('Energy price').min(0).max(10),
     efficiency: num('Heat-generation efficiency').gt(0).max(10),
@@ -58,8 +97,24 @@ export const designBasisObject = z.object({
   }),
 });
 
-export function checkBands(b: { systems: { fromC: number; toC: number }[] }, ctx: z.RefinementCtx) {
+const LIBRARY_MATERIAL_IDS = new Set(MATERIALS.map((m) => m.id));
+const LIBRARY_JACKET_IDS = new Set(JACKETS.map((j) => j.id));
+
+export function checkBandRanges(b: { systems: { fromC: number; toC: number }[] }, ctx: z.RefinementCtx) {
   b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
+}
+
+export function checkBands(b: { systems: { fromC: number; toC: number; outerId: string; innerId?: string; jacketId: string }[]; ownMaterials?: { id: string }[]; ownJackets?: { id: string }[] }, ctx: z.RefinementCtx) {
+  checkBandRanges(b, ctx);
+  const materials = new Set([...LIBRARY_MATERIAL_IDS, ...(b.ownMaterials ?? []).map((m) => m.id)]);
+  const jackets = new Set([...LIBRARY_JACKET_IDS, ...(b.ownJackets ?? []).map((j) => j.id)]);
+  b.systems.forEach((s, i) => {
+    if (!materials.has(s.outerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'outerId'], message: `Band ${i + 1}: "${s.outerId}" is not in the library or the project's materials` });
+    if (s.innerId && !materials.has(s.innerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'innerId'], message: `Band ${i + 1}: "${s.innerId}" is not in the library or the project's materials` });
+    if (!jackets.has(s.jacketId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'jacketId'], message: `Band ${i + 1}: "${s.jacketId}" is not in the library or the project's jackets` });
+  });
+  const ids = [...(b.ownMaterials ?? []), ...(b.ownJackets ?? [])].map((x) => x.id);
+  if (new Set(ids).size !== ids.length) ctx.addIssue({ code: 'custom', path: ['ownMaterials'], message: 'Two project entries share an id' });
 }
 export const designBasisSchema = designBasisObject.superRefine(checkBands);
 export type DesignBasis = z.output<typeof designBasisSchema>;
@@ -87,6 +142,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
     { fromC: 20, toC: 600, outerId: 'mineral-wool-pipe', jacketId: 'aluminium-oxidised' },
     { fromC: 600, toC: 1000, outerId: 'mineral-wool-pipe', innerId: 'calcium-silicate', jacketId: 'stainless-steel' },
   ],
+  ownMaterials: [],
+  ownJackets: [],
   economics: { ...DEFAULT_ECONOMICS },
   prices: { ...DEFAULT_PRICES },
 };
@@ -100,4 +157,10 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
   systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification.',
+  own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };
+
+/** A zod issue path as the form field name conform uses ("systems[0].outerId"). */
+export function fieldName(path: readonly PropertyKey[]): string {
+  return path.reduce<string>((a, p) => (typeof p === 'number' ? `${a}[${p}]` : a ? `${a}.${String(p)}` : String(p)), '');
+}

@@ -1,19 +1,21 @@
 import { createHash } from 'node:crypto';
 import {
-  CALCULATION_VERSION, barGaugeToMPaAbs, jacketById, materialById, recommendLine,
+  CALCULATION_VERSION, barGaugeToMPaAbs, recommendLine,
   type Criteria, type LineCase, type MaterialSystem, type Recommendation,
 } from '@/lib/thermal';
 import type { DesignBasis } from './design-basis';
+import { catalogueOf } from './catalogue';
 import type { LineInput } from './validate';
 
-/** The material system the design basis gives a line (by its normal temperature), with any jacket override. */
+/** The material system the design basis gives a line (by its normal temperature), with any jacket override (library or the project's own). */
 export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalTempC' | 'jacketId'>, cache = new Map<string, MaterialSystem>()): MaterialSystem {
   const band = basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ?? basis.systems[basis.systems.length - 1];
-  const jacket = (line.jacketId && jacketById(line.jacketId)) ? line.jacketId : band.jacketId;
+  const cat = catalogueOf(basis);
+  const jacket = (line.jacketId && cat.jackets.has(line.jacketId)) ? line.jacketId : band.jacketId;
   const key = `${band.outerId}|${band.innerId ?? ''}|${jacket}`;
   let s = cache.get(key);
   if (!s) {
-    s = { outer: materialById(band.outerId)!, inner: band.innerId ? materialById(band.innerId) : undefined, jacket: jacketById(jacket)! };
+    s = { outer: cat.materials.get(band.outerId)!, inner: band.innerId ? cat.materials.get(band.innerId) : undefined, jacket: cat.jackets.get(jacket)! };
     cache.set(key, s);
   }
   return s;

@@ -8,7 +8,8 @@ import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisio
 import { AppError } from '@/lib/errors';
 import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
 import { actorName, writeAudit } from '@/lib/audit';
-import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis } from './design-basis';
+import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis, type OwnJacket, type OwnMaterial } from './design-basis';
+import { catalogueOf, ownId } from './catalogue';
 import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from './diff';
 import { suggestMapping, type ColumnMapping } from './mapping';
 import { parseUpload, ParseError, type ParsedFile } from './parse';
@@ -36,7 +37,72 @@ export async function saveDesignBasis({ projectId, userId, basis }: { projectId:
   return { revision: row.revision };
 }
 
+// ---------- the project's own materials and jackets (kept in the design basis) ----------
+
+/**
+ * Changes the basis under a row lock and bumps its revision (results computed before are stale),
+ * with an audit entry. `change` returns the new basis or throws an AppError with the reason.
+ */
+async function changeBasis(o: { projectId: string; userId: string; action: string; after: unknown }, change: (b: DesignBasis) => DesignBasis | Promise<DesignBasis>) {
+  await getDesignBasis({ projectId: o.projectId }); // creates the default row when the project has none
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, o.projectId)).for('update');
+    const next = designBasisSchema.safeParse(await change(designBasisSchema.parse(row.basis)));
+    if (!next.success) throw new AppError('invalid', next.error.issues.map((i) => i.message).join('; '));
+    const [saved] = await tx.update(designBases).set({ basis: next.data, revision: sql`${designBases.revision} + 1`, updatedBy: o.userId, updatedAt: new Date() })
+      .where(eq(designBases.projectId, o.projectId)).returning();
+    await writeAudit(tx, [{ projectId: o.projectId, actorId: o.userId, actorName: await actorName(o.userId), action: o.action, after: o.after }]);
+    return { revision: saved.revision, basis: next.data };
+  });
+}
+
+export async function addOwnMaterial(o: { projectId: string; userId: string; material: Omit<OwnMaterial, 'id'>; pricePerM3?: number }) {
+  let id = '';
+  const r = await changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material added', after: { name: o.material.name, source: o.material.source } }, (b) => {
+    if (b.ownMaterials.some((m) => m.name.toLowerCase() === o.material.name.toLowerCase())) throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
+    id = ownId(b, o.material.name);
+    const prices = o.pricePerM3 === undefined ? b.prices : { ...b.prices, materialPerM3: { ...b.prices.materialPerM3, [id]: o.pricePerM3 } };
+    return { ...b, ownMaterials: [...b.ownMaterials, { ...o.material, id }], prices };
+  });
+  return { ...r, id };
+}
+
+export async function addOwnJacket(o: { projectId: string; userId: string; jacket: Omit<OwnJacket, 'id'> }) {
+  let id = '';
+  const r = await changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project jacket added', after: { name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source } }, (b) => {
+    if (b.ownJackets.some((j) => j.name.toLowerCase() === o.jacket.name.toLowerCase())) throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
+    id = ownId(b, o.jacket.name);
+    return { ...b, ownJackets: [...b.ownJackets, { ...o.jacket, id }] };
+  });
+  return { ...r, id };
+}
+
+/** Removes a project entry; refused while a material band, a line's jacket or a chosen design uses it. */
+export async function removeOwnEntry(o: { projectId: string; userId: string; id: string }) {
+  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b) => {
+    const name = catalogueOf(b).own.has(o.id) ? (b.ownMaterials.find((m) => m.id === o.id)?.name ?? b.ownJackets.find((j) => j.id === o.id)!.name) : null;
+    if (!name) throw new AppError('not_found', 'That project material or jacket does not exist (it may have been removed already).');
+    const bands = b.systems.map((s, i) => (s.outerId === o.id || s.innerId === o.id || s.jacketId === o.id ? i + 1 : 0)).filter(Boolean);
+    if (bands.length) throw new AppError('conflict', `"${name}" is used by material band ${bands.join(', ')} of the specification; choose another there first.`);
+    const [{ n: designs }] = await db.select({ n: count() }).from(lineDesigns)
+      .where(and(eq(lineDesigns.projectId, o.projectId), sql`${lineDesigns.layers} @> ${JSON.stringify([{ materialId: o.id }])}::jsonb`));
+    if (designs > 0) throw new AppError('conflict', `"${name}" is in ${designs} chosen line design${designs === 1 ? '' : 's'}; choose those thicknesses again before removing it.`);
+    const [{ n: overrides }] = await db.select({ n: count() }).from(lines).where(and(eq(lines.projectId, o.projectId), eq(lines.jacketId, o.id)));
+    if (overrides > 0) throw new AppError('conflict', `"${name}" is the jacket override of ${overrides} line${overrides === 1 ? '' : 's'} in the line list.`);
+    const materialPerM3 = { ...b.prices.materialPerM3 };
+    delete materialPerM3[o.id];
+    return { ...b, ownMaterials: b.ownMaterials.filter((m) => m.id !== o.id), ownJackets: b.ownJackets.filter((j) => j.id !== o.id), prices: { ...b.prices, materialPerM3 } };
+  });
+}
+
 // ---------- upload, mapping, preview, import ----------
+
+/** Jacket ids and names (lower case) → id, for reading a line list's jacket column. */
+async function jacketNames(projectId: string) {
+  const m = new Map<string, string>();
+  for (const j of catalogueOf((await getDesignBasis({ projectId })).basis).jackets.values()) { m.set(j.id, j.id); m.set(j.name.toLowerCase(), j.id); }
+  return m;
+}
 
 export interface DraftSummary {
   draftId: string;
@@ -85,7 +151,7 @@ export interface Preview { issues: RowIssue[]; errorCount: number; warningCount:
 
 export async function previewDraft({ projectId, draftId, sheetName, mapping }: { projectId: string; draftId: string; sheetName: string; mapping: ColumnMapping }): Promise<Preview> {
   const d = await loadDraft(projectId, draftId);
-  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName), mapping);
+  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName), mapping, await jacketNames(projectId));
   const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
   const [rev] = await db.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
   return { issues: v.issues, errorCount: v.errorCount, warningCount: v.warningCount, lineCount: v.lines.length, diff: diffLineLists(current.map(inputOf), v.lines), previousRevision: Number(rev.n) };
@@ -102,7 +168,7 @@ export async function commitDraft({ projectId, draftId, sheetName, mapping, user
   const d = await loadDraft(projectId, draftId);
   if (d.importedRevision) throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
   const sheet = sheetOf(d.parsed as ParsedFile, sheetName);
-  const v = validateSheet(sheet, mapping);
+  const v = validateSheet(sheet, mapping, await jacketNames(projectId));
   if (v.errorCount > 0) {
     const first = v.issues.filter((i) => i.severity === 'error').slice(0, 5).map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);
     throw new AppError('invalid', `Nothing was imported: ${v.errorCount} problem${v.errorCount === 1 ? '' : 's'} to fix first (${first.join('; ')}${v.errorCount > 5 ? '; …' : ''}).`);

@@ -98,7 +98,11 @@ function parseYesNo(v: CellValue): boolean | null {
  * Validates every row against the mapping: units converted to SI, every problem pinned to its
  * spreadsheet row and column. Nothing is stored here; the caller imports only when errorCount is 0.
  */
-export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping): ValidationResult {
+/**
+ * `jackets` (id and lower-case name → id, from the project's catalogue) lets a jacket override be
+ * written as a name; an override it does not know is kept, with a warning that the band's jacket is used.
+ */
+export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jackets?: Map<string, string>): ValidationResult {
   const issues: RowIssue[] = [];
   const lines: (LineInput & { sourceRow: number })[] = [];
   const formula = new Set(sheet.formulaCells), merged = new Set(sheet.mergedCells);
@@ -217,12 +221,18 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping): Valid
         purposes = normalTempC < 15 ? ['condensationControl'] : ['heatConservation', 'personnelProtection'];
         warn('purposes', `No purpose given; assumed ${normalTempC < 15 ? 'condensation control (cold line)' : 'heat conservation and personnel protection (hot line)'}.`);
       }
+      let jacketId = text('jacket') || null;
+      if (jacketId && jackets) {
+        const known = jackets.get(jacketId) ?? jackets.get(jacketId.toLowerCase());
+        if (known) jacketId = known;
+        else warn('jacket', `Jacket "${jacketId}" is not in the library or the project's jackets; the specification band's jacket is used.`);
+      }
       lines.push({
         sourceRow: row, tag, service: text('service'), area: text('area') || 'Unassigned', geometry, nps,
         outsideDiameterMm: pipe ? od : null, lengthM: pipe ? lengthM : null, surfaceAreaM2: pipe ? null : surfaceAreaM2, heightM,
         normalTempC, maxTempC, steamPressureBarG: steam, flowKgPerS, fluidCpKJPerKgK: fluidCp,
         elbows: counts[0], tees: counts[1], valves: counts[2], flanges: counts[3],
-        purposes, outdoor, accessible, accessHeightM, jacketId: text('jacket') || null, notes: text('notes'),
+        purposes, outdoor, accessible, accessHeightM, jacketId, notes: text('notes'),
       });
     }
   }

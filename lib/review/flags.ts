@@ -1,4 +1,5 @@
-import { compileConductivity, condensationThresholdC, jacketById, materialById, solveSteady, type Conductivity } from '@/lib/thermal';
+import { compileConductivity, condensationThresholdC, solveSteady, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import type { LineInput } from '@/lib/lines/validate';
@@ -25,8 +26,9 @@ export interface FlagInput {
   unmet: string[];
 }
 
-const conds = new Map<string, Conductivity>();
-const k = (id: string) => { let c = conds.get(id); if (!c) { c = compileConductivity(materialById(id)!.conductivity); conds.set(id, c); } return c; };
+// Compiled per material object: a project's own entry may be replaced under the same id.
+const conds = new WeakMap<InsulationMaterial, Conductivity>();
+const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compileConductivity(m.conductivity); conds.set(m, c); } return c; };
 
 /**
  * The flags of one line under the design basis, each with the numbers behind it. Personnel
@@ -43,11 +45,17 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
 
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
+  const cat = catalogueOf(basis);
+  const missing = (f.design?.layers ?? []).filter((x) => !cat.materials.has(x.materialId));
+  if (missing.length) {
+    flags.push({ type: 'blocked', message: `The chosen design uses ${missing.map((x) => x.materialId).join(', ')}, which is no longer in the library or the project's materials: choose the thickness again.` });
+    return flags;
+  }
   const layers = (f.design?.layers ?? []).map((x) => {
-    const m = materialById(x.materialId)!;
-    return { thicknessM: x.thicknessMm / 1000, conductivity: k(x.materialId), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
+    const m = cat.materials.get(x.materialId)!;
+    return { thicknessM: x.thicknessMm / 1000, conductivity: k(m), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
   });
-  const jacket = layers.length ? jacketById(f.jacketId ?? '') : undefined;
+  const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
   const metal = jacket ? jacket.metal : true;
   const base = { geometry: c.geometry, pipeOuterDiameterM: (c.pipeOuterDiameterMm ?? 0) / 1000, heightM: c.heightM ?? 1, characteristicLengthM: 1, layers };

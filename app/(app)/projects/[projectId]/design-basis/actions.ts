@@ -1,17 +1,23 @@
 'use server';
 import { revalidatePath } from 'next/cache';
+import { z } from 'zod';
 import { parseWithZod } from '@conform-to/zod/v4';
 import type { SubmissionResult } from '@conform-to/react';
 import { validateRequest } from '@/lib/auth/session';
 import { getProjectAccess } from '@/db/queries/projects';
 import { isAppError } from '@/lib/errors';
-import { checkBands, designBasisObject, designBasisSchema } from '@/lib/lines/design-basis';
-import { getDesignBasis, saveDesignBasis } from '@/lib/lines/store';
+import { checkBandRanges, designBasisObject, designBasisSchema, fieldName } from '@/lib/lines/design-basis';
+import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis } from '@/lib/lines/store';
+import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 
-// Material prices per m³ are kept from the stored basis (not edited on this form).
-const formSchema = designBasisObject.extend({ prices: designBasisObject.shape.prices.omit({ materialPerM3: true }) }).superRefine(checkBands);
+// Material prices per m³ and the project's own materials and jackets are kept from the stored basis
+// (they have their own forms).
+const formSchema = designBasisObject.omit({ ownMaterials: true, ownJackets: true })
+  .extend({ prices: designBasisObject.shape.prices.omit({ materialPerM3: true }) }).superRefine(checkBandRanges);
 
-export async function saveDesignBasisAction(_prev: unknown, formData: FormData): Promise<SubmissionResult<string[]> & { revision?: number }> {
+type Reply = SubmissionResult<string[]> & { revision?: number };
+
+export async function saveDesignBasisAction(_prev: unknown, formData: FormData): Promise<Reply> {
   const submission = parseWithZod(formData, { schema: formSchema });
   const { user } = await validateRequest();
   if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
@@ -20,8 +26,16 @@ export async function saveDesignBasisAction(_prev: unknown, formData: FormData):
     const projectId = String(formData.get('projectId') ?? '');
     const { project } = await getProjectAccess({ userId: user.id, projectId, action: 'designBasis.edit' });
     const current = await getDesignBasis({ projectId: project.id });
-    const basis = designBasisSchema.parse({ ...submission.value, prices: { ...submission.value.prices, materialPerM3: current.basis.prices.materialPerM3 } });
-    const { revision } = await saveDesignBasis({ projectId: project.id, userId: user.id, basis });
+    const parsed = designBasisSchema.safeParse({
+      ...submission.value, ownMaterials: current.basis.ownMaterials, ownJackets: current.basis.ownJackets,
+      prices: { ...submission.value.prices, materialPerM3: current.basis.prices.materialPerM3 },
+    });
+    if (!parsed.success) {
+      const fieldErrors: Record<string, string[]> = {};
+      for (const i of parsed.error.issues) (fieldErrors[fieldName(i.path)] ??= []).push(i.message);
+      return submission.reply({ fieldErrors });
+    }
+    const { revision } = await saveDesignBasis({ projectId: project.id, userId: user.id, basis: parsed.data });
     revalidatePath(`/projects/${project.id}`, 'layout');
     return { ...submission.reply(), status: 'success', revision };
   } catch (e) {
@@ -29,4 +43,34 @@ export async function saveDesignBasisAction(_prev: unknown, formData: FormData):
     console.error('[design-basis]', e);
     return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved.'] });
   }
+}
+
+/** Shared by the add and remove actions: session, role on the project, then the change. */
+async function ownEntryAction<S extends z.ZodType>(formData: FormData, schema: S, run: (projectId: string, userId: string, value: z.output<S>) => Promise<{ revision: number }>): Promise<Reply> {
+  const submission = parseWithZod(formData, { schema });
+  const { user } = await validateRequest();
+  if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
+  if (submission.status !== 'success') return submission.reply();
+  try {
+    const { project } = await getProjectAccess({ userId: user.id, projectId: String(formData.get('projectId') ?? ''), action: 'designBasis.edit' });
+    const { revision } = await run(project.id, user.id, submission.value as z.output<S>);
+    revalidatePath(`/projects/${project.id}`, 'layout');
+    return { ...submission.reply({ resetForm: true }), status: 'success', revision };
+  } catch (e) {
+    if (isAppError(e)) return submission.reply({ formErrors: [e.message] });
+    console.error('[design-basis own entry]', e);
+    return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved.'] });
+  }
+}
+
+export async function addOwnMaterialAction(_prev: unknown, formData: FormData): Promise<Reply> {
+  return ownEntryAction(formData, ownMaterialFormSchema, (projectId, userId, { pricePerM3, ...material }) => addOwnMaterial({ projectId, userId, material, pricePerM3 }));
+}
+
+export async function addOwnJacketAction(_prev: unknown, formData: FormData): Promise<Reply> {
+  return ownEntryAction(formData, ownJacketFormSchema, (projectId, userId, jacket) => addOwnJacket({ projectId, userId, jacket }));
+}
+
+export async function removeOwnEntryAction(_prev: unknown, formData: FormData): Promise<Reply> {
+  return ownEntryAction(formData, z.object({ id: z.string().min(1) }), (projectId, userId, { id }) => removeOwnEntry({ projectId, userId, id }));
 }

@@ -79,9 +79,9 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
               <tr key={i}>
                 <td><input aria-label={`Band ${i + 1} from`} name={`systems[${i}].fromC`} type="number" defaultValue={s.fromC} disabled={!canEdit} className="input w-24" /></td>
                 <td><input aria-label={`Band ${i + 1} to`} name={`systems[${i}].toC`} type="number" defaultValue={s.toC} disabled={!canEdit} className="input w-24" />{errors[`systems[${i}].toC`] ? <p className="field-error">{errors[`systems[${i}].toC`]!.join(' ')}</p> : null}</td>
-                <td><select aria-label={`Band ${i + 1} material`} name={`systems[${i}].outerId`} defaultValue={s.outerId} disabled={!canEdit} className="input">{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select></td>
-                <td><select aria-label={`Band ${i + 1} inner layer`} name={`systems[${i}].innerId`} defaultValue={s.innerId ?? ''} disabled={!canEdit} className="input"><option value="">none</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select></td>
-                <td><select aria-label={`Band ${i + 1} jacket`} name={`systems[${i}].jacketId`} defaultValue={s.jacketId} disabled={!canEdit} className="input">{jackets.map((j) => <option key={j.id} value={j.id}>{j.name}</option>)}</select></td>
+                <td><select aria-label={`Band ${i + 1} material`} name={`systems[${i}].outerId`} defaultValue={s.outerId} disabled={!canEdit} className="input">{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].outerId`] ? <p className="field-error">{errors[`systems[${i}].outerId`]!.join(' ')}</p> : null}</td>
+                <td><select aria-label={`Band ${i + 1} inner layer`} name={`systems[${i}].innerId`} defaultValue={s.innerId ?? ''} disabled={!canEdit} className="input"><option value="">none</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].innerId`] ? <p className="field-error">{errors[`systems[${i}].innerId`]!.join(' ')}</p> : null}</td>
+                <td><select aria-label={`Band ${i + 1} jacket`} name={`systems[${i}].jacketId`} defaultValue={s.jacketId} disabled={!canEdit} className="input">{jackets.map((j) => <option key={j.id} value={j.id}>{j.name}</option>)}</select>{errors[`systems[${i}].jacketId`] ? <p className="field-error">{errors[`systems[${i}].jacketId`]!.join(' ')}</p> : null}</td>
               </tr>
             ))}
           </tbody>

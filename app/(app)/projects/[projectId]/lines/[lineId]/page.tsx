@@ -2,9 +2,9 @@ import Link from 'next/link';
 import { loadProject, orNotFound } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
-import { getLine } from '@/lib/lines/store';
+import { getDesignBasis, getLine } from '@/lib/lines/store';
 import { GEOMETRY_LABEL, PURPOSE_LABEL, type Purpose } from '@/lib/lines/fields';
-import { jacketById, materialById } from '@/lib/thermal/materials';
+import { catalogueOf } from '@/lib/lines/catalogue';
 import { CostChart } from './cost-chart';
 import { auditForLine } from '@/lib/review/store';
 
@@ -20,6 +20,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const row = await orNotFound(getLine({ projectId: project.id, lineId }));
   const { line, result, design, stale } = row;
   const audit = await auditForLine({ projectId: project.id, lineId: line.id });
+  const cat = catalogueOf((await getDesignBasis({ projectId: project.id })).basis);
   const cands = (result?.candidates ?? []) as Cand[];
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
@@ -42,7 +43,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
             <dt className="text-ink-500">Purposes</dt><dd>{(line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', ')}</dd>
             <dt className="text-ink-500">Location / access</dt><dd>{line.outdoor ? 'Outdoor' : 'Indoor'} · {line.accessible ? 'accessible' : 'not accessible'}{line.accessHeightM !== null ? ` (${f(line.accessHeightM)} m)` : ''}</dd>
             <dt className="text-ink-500">Fittings</dt><dd>{line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges</dd>
-            <dt className="text-ink-500">System</dt><dd>{result ? `${result.systemLabel}, ${jacketById(result.jacketId)?.name ?? result.jacketId}` : '—'}</dd>
+            <dt className="text-ink-500">System</dt><dd>{result ? `${result.systemLabel}, ${cat.jackets.get(result.jacketId)?.name ?? result.jacketId}` : '—'}</dd>
           </dl>
         </section>
         <section className="panel p-4">
@@ -50,7 +51,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
           {result ? (
             <>
               <p className="text-2xl font-semibold" data-testid="recommended">{result.recommendedMm === null ? 'none' : result.recommendedMm === 0 ? 'bare' : `${result.recommendedMm} mm`}</p>
-              <p className="mb-2 text-sm text-ink-600">{(result.layers as { materialId: string; thicknessMm: number }[]).map((l) => `${l.thicknessMm} mm ${materialById(l.materialId)?.name ?? l.materialId}`).join(' + ') || 'no insulation'}</p>
+              <p className="mb-2 text-sm text-ink-600">{(result.layers as { materialId: string; thicknessMm: number }[]).map((l) => `${l.thicknessMm} mm ${cat.materials.get(l.materialId)?.name ?? l.materialId}`).join(' + ') || 'no insulation'}</p>
               <ul className="space-y-1 text-sm">
                 {econ.map((o) => <li key={o.id}><strong>{o.id === result.governing ? '▶ ' : ''}{o.id}</strong>: {o.requiredMm === null ? 'not met' : `${o.requiredMm} mm`} — {o.message}</li>)}
               </ul>

@@ -62,6 +62,8 @@ export const systemBandSchema = z.object({
 
 export const designBasisObject = z.object({
   unitSystem: z.enum(['SI', 'US']),
+  /** Nominal thicknesses offered: the millimetre series or the inch series of each product. */
+  thicknessSeries: z.enum(['mm', 'inch'], { error: 'Choose the millimetre or the inch series' }).default('mm'),
   conditions: z.object({
     heatLoss: z.object({ outdoor: cond, indoor: cond }),
     personnel: z.object({ outdoor: cond, indoor: cond }),
@@ -124,6 +126,7 @@ const C = DEFAULT_CRITERIA.conditions;
 /** Defaults for a new project; sources named in DEFAULT_BASIS_NOTES. */
 export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   unitSystem: 'SI',
+  thicknessSeries: 'mm',
   conditions: {
     // Outdoor conditions and the limits are the engine's defaults; indoor ones are set here.
     heatLoss: { outdoor: { airC: C.heatLoss.airC, windMs: C.heatLoss.windMs }, indoor: { airC: 20, windMs: 0 } },
@@ -157,6 +160,7 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
   systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification.',
+  thicknessSeries: 'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };
 

@@ -17,7 +17,7 @@ export function display(system: UnitSystem): Display {
   if (system === 'US') {
     return {
       temp: (c) => (dash(c) ? '—' : `${((c as number) * 1.8 + 32).toFixed(0)}`),
-      thickness: (mm) => (dash(mm) ? '—' : mm === 0 ? 'bare' : `${((mm as number) / 25.4).toFixed(1)}`),
+      thickness: (mm) => (dash(mm) ? '—' : mm === 0 ? 'bare' : String(Number(((mm as number) / 25.4).toFixed(3)))), // ⅜ in stays 0.375
       diameter: (mm) => (dash(mm) ? '—' : `${((mm as number) / 25.4).toFixed(2)} in`),
       length: (m) => (dash(m) ? '—' : `${((m as number) / 0.3048).toFixed(0)}`),
       linearLoss: (w) => (dash(w) ? '—' : `${((w as number) * 1.04007).toFixed(1)}`),

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import {
-  CALCULATION_VERSION, barGaugeToMPaAbs, recommendLine,
+  CALCULATION_VERSION, barGaugeToMPaAbs, recommendLine, seriesOf,
   type Criteria, type LineCase, type MaterialSystem, type Recommendation,
 } from '@/lib/thermal';
 import type { DesignBasis } from './design-basis';
@@ -12,10 +12,12 @@ export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalT
   const band = basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ?? basis.systems[basis.systems.length - 1];
   const cat = catalogueOf(basis);
   const jacket = (line.jacketId && cat.jackets.has(line.jacketId)) ? line.jacketId : band.jacketId;
-  const key = `${band.outerId}|${band.innerId ?? ''}|${jacket}`;
+  const key = `${band.outerId}|${band.innerId ?? ''}|${jacket}|${basis.thicknessSeries}`;
   let s = cache.get(key);
   if (!s) {
-    s = { outer: cat.materials.get(band.outerId)!, inner: band.innerId ? cat.materials.get(band.innerId) : undefined, jacket: cat.jackets.get(jacket)! };
+    const outer = cat.materials.get(band.outerId)!;
+    s = { outer, inner: band.innerId ? cat.materials.get(band.innerId) : undefined, jacket: cat.jackets.get(jacket)! };
+    if (basis.thicknessSeries === 'inch' && outer.inchSeries) s.series = seriesOf(outer, 'inch');
     cache.set(key, s);
   }
   return s;

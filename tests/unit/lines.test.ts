@@ -103,7 +103,9 @@ describe('display in the project unit system', () => {
     const { display } = await import('@/lib/lines/display');
     const us = display('US'), si = display('SI');
     expect(us.temp(100)).toBe('212');
-    expect(us.thickness(50.8)).toBe('2.0');
+    expect(us.thickness(50.8)).toBe('2');
+    expect(us.thickness(9.525)).toBe('0.375'); // ⅜ in elastomeric tube keeps its size
+    expect(us.thickness(50)).toBe('1.969'); // a millimetre size is not rounded to an inch size
     expect(us.linearLoss(100)).toBe('104.0'); // 1 W/m = 1.04007 Btu/(h·ft)
     expect(us.units).toMatchObject({ temp: '°F', thickness: 'in' });
     expect(si.temp(100)).toBe('100.0');

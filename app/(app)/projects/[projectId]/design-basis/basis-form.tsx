@@ -54,6 +54,13 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         </select>
         <p className="mt-1 text-xs text-ink-500">Line-list columns choose their own units at import. The values on this form stay SI.</p>
       </div>
+      <div className="max-w-md">
+        <label htmlFor="db-thicknessSeries" className="label">Nominal thicknesses</label>
+        <select id="db-thicknessSeries" name="thicknessSeries" defaultValue={basis.thicknessSeries} disabled={!canEdit} className="input">
+          <option value="mm">Millimetre series</option><option value="inch">Inch series</option>
+        </select>
+        <p className="mt-1 text-xs text-ink-500">{notes.thicknessSeries}</p>
+      </div>
       <div className="grid gap-4 lg:grid-cols-3">
         {condition('heatLoss', 'Heat loss (average conditions)', false)}
         {condition('personnel', 'Personnel protection (hottest, still air)', false)}

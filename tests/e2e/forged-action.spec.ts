@@ -1,0 +1,65 @@
+import { expect, test, type Page, type Request } from '@playwright/test';
+import { demo, signIn } from './helpers';
+
+/**
+ * A server action is an endpoint anyone can POST to once they know its id and body. Capture the
+ * request the engineer's own browser sends (without letting it through), then replay the very same
+ * bytes with other sessions: the server's session and role checks must refuse them, and nothing may
+ * change. The engineer's replay is the control that shows the replayed request is a working one.
+ */
+async function captureAddJacket(page: Page, projectId: string, name: string) {
+  await page.goto(`/projects/${projectId}/design-basis`);
+  const form = page.getByRole('form', { name: 'Add a project jacket' });
+  await form.getByLabel('Name', { exact: true }).fill(name);
+  await form.getByLabel('Emittance (0–1)').fill('0.35');
+  await form.getByLabel('Source of the emittance').fill('Replay test');
+  let captured: Request | null = null;
+  await page.route(`**/projects/${projectId}/design-basis`, async (route) => {
+    const r = route.request();
+    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+  });
+  await form.getByRole('button', { name: 'Add jacket' }).click();
+  await expect.poll(() => captured !== null).toBe(true);
+  await page.unroute(`**/projects/${projectId}/design-basis`);
+  const r = captured as unknown as Request;
+  const h = r.headers();
+  return { url: r.url(), body: r.postDataBuffer()!, headers: { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin } };
+}
+
+async function jacketNames(page: Page, projectId: string) {
+  await page.goto(`/projects/${projectId}/design-basis`);
+  return page.getByRole('table', { name: 'Project jackets' }).locator('tbody tr td:first-child').allTextContents();
+}
+
+test('a captured "add jacket" action replayed by a contractor, a reviewer and an anonymous caller is refused and changes nothing', async ({ page, browser, baseURL }) => {
+  await signIn(page, demo('engineer').email, demo('engineer').password);
+  await page.getByLabel('Code').fill(`E2E-F${Date.now().toString().slice(-6)}`);
+  await page.getByLabel('Name').fill('E2E forged actions');
+  await page.getByRole('button', { name: 'Create project' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: 'E2E forged actions' })).toBeVisible();
+  const projectId = page.url().split('/projects/')[1];
+
+  const req = await captureAddJacket(page, projectId, 'Replayed cladding');
+  expect(await jacketNames(page, projectId)).not.toContain('Replayed cladding');
+
+  for (const key of ['contractor', 'reviewer'] as const) {
+    const ctx = await browser.newContext({ baseURL });
+    const p = await ctx.newPage();
+    await signIn(p, demo(key).email, demo(key).password);
+    const res = await p.request.post(req.url, { headers: req.headers, data: req.body });
+    const text = await res.text();
+    expect(text).toContain('Your role in this organization does not allow that.');
+    expect(text).not.toContain('Jacket added');
+    await ctx.close();
+  }
+  const anon = await browser.newContext({ baseURL });
+  const anonRes = await anon.request.post(req.url, { headers: req.headers, data: req.body, maxRedirects: 0 });
+  expect(await anonRes.text()).not.toContain('Jacket added');
+  await anon.close();
+  expect(await jacketNames(page, projectId)).not.toContain('Replayed cladding');
+
+  // Control: the same bytes from the engineer's own session do add the jacket.
+  const ok = await page.request.post(req.url, { headers: req.headers, data: req.body });
+  expect(ok.status()).toBe(200);
+  expect(await jacketNames(page, projectId)).toContain('Replayed cladding');
+});

@@ -43,7 +43,14 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
   };
 }
 
-/** Line list geometry → engine geometry. A vessel is its shell: a vertical cylinder of D = A/(π·H). */
+/**
+ * Line list geometry → engine geometry. A vessel is a vertical shell with two flat heads whose bare
+ * outside area is the given area: πDH + 2·πD²/4 = A, so D = √(H² + 2A/π) − H.
+ */
+export function vesselDiameterM(areaM2: number, heightM: number): number {
+  return Math.sqrt(heightM * heightM + (2 * areaM2) / Math.PI) - heightM;
+}
+
 export function lineCaseFor(l: LineInput): LineCase {
   const base = {
     normalTempC: l.normalTempC, maxTempC: l.maxTempC ?? undefined, purposes: l.purposes, accessible: l.accessible,
@@ -51,9 +58,8 @@ export function lineCaseFor(l: LineInput): LineCase {
     massFlowKgPerS: l.flowKgPerS ?? undefined, fluidCpJPerKgK: l.fluidCpKJPerKgK ? l.fluidCpKJPerKgK * 1000 : undefined,
   };
   if (l.geometry === 'vessel') {
-    const H = l.heightM ?? 1;
-    const D = ((l.surfaceAreaM2 ?? 1) / (Math.PI * H)) * 1000;
-    return { ...base, geometry: 'vertical-pipe', pipeOuterDiameterMm: D, heightM: H, lengthM: H };
+    const H = l.heightM ?? 1, A = l.surfaceAreaM2 ?? 1;
+    return { ...base, geometry: 'vessel', pipeOuterDiameterMm: vesselDiameterM(A, H) * 1000, heightM: H, areaM2: A };
   }
   if (l.geometry === 'flat') return { ...base, geometry: 'vertical-wall', heightM: l.heightM ?? 2, areaM2: l.surfaceAreaM2 ?? 1 };
   return { ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1 };
@@ -78,13 +84,14 @@ export function solveLine(basis: DesignBasis, l: LineInput, systems?: Map<string
   const system = systemForLine(basis, l, systems);
   const c = lineCaseFor(l);
   const r = recommendLine(c, system, criteriaFor(basis, l.outdoor));
-  const extent = c.geometry === 'vertical-wall' ? c.areaM2 ?? 1 : c.lengthM ?? 1;
+  const areal = c.geometry === 'vertical-wall' || c.geometry === 'vessel';
+  const extent = areal ? c.areaM2 ?? 1 : c.lengthM ?? 1;
   const chosen = r.candidates.find((x) => x.totalMm === r.recommendedMm);
   return {
     recommendation: r,
     system,
     totalHeatW: chosen ? chosen.heatLoss.heatFlow * extent : null,
     bareHeatW: r.candidates[0].heatLoss.heatFlow * extent,
-    perUnit: c.geometry === 'vertical-wall' ? 'W/m²' : 'W/m',
+    perUnit: areal ? 'W/m²' : 'W/m',
   };
 }

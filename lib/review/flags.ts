@@ -1,4 +1,4 @@
-import { compileConductivity, condensationThresholdC, solveSteady, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import { compileConductivity, condensationThresholdC, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -58,12 +58,20 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
   const metal = jacket ? jacket.metal : true;
-  const base = { geometry: c.geometry, pipeOuterDiameterM: (c.pipeOuterDiameterMm ?? 0) / 1000, heightM: c.heightM ?? 1, characteristicLengthM: 1, layers };
+  const D = (c.pipeOuterDiameterMm ?? 0) / 1000, H = c.heightM ?? 1;
+  /** Outside surface temperature (the worst part of a vessel: shell, top or bottom head) and the solver's warnings. */
+  const surface = (processC: number, ambient: Ambient) => {
+    if (c.geometry === 'vessel') {
+      const v = solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers });
+      return { surfaceC: v.worstSurfaceC, warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])] };
+    }
+    return solveSteady({ geometry: c.geometry, pipeOuterDiameterM: D, heightM: H, characteristicLengthM: 1, layers, processC, ambient });
+  };
   const hotC = l.maxTempC ?? l.normalTempC;
 
   const pc = crit.conditions.personnel;
   if (l.accessible && hotC > pc.airC) {
-    const r = solveSteady({ ...base, processC: hotC, ambient: { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance } });
+    const r = surface(hotC, { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance });
     const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
     if (r.surfaceC > limit) {
       flags.push({ type: 'hot-surface', valueC: r.surfaceC, limitC: limit, conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`, message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.` });
@@ -74,7 +82,7 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   }
   const cc = crit.conditions.condensation;
   if (l.normalTempC < cc.airC && (l.purposes.includes('condensationControl') || l.normalTempC < 10)) {
-    const r = solveSteady({ ...base, processC: l.normalTempC, ambient: { airC: cc.airC, surroundingsC: cc.surroundingsC ?? cc.airC, windMs: cc.windMs, emittance } });
+    const r = surface(l.normalTempC, { airC: cc.airC, surroundingsC: cc.surroundingsC ?? cc.airC, windMs: cc.windMs, emittance });
     const th = condensationThresholdC(cc.airC, cc.relativeHumidityPct ?? 80);
     const need = th.valueC + basis.dewPointMarginK;
     if (r.surfaceC < need) {

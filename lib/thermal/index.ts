@@ -14,6 +14,6 @@ export * from './steam';
 export * from './surface';
 export * from './thickness';
 export * from './units';
-export const CALCULATION_VERSION = '2026.12-1';
+export const CALCULATION_VERSION = '2026.12-2'; // 2: vessels as shell + heads in the recommender
 export * from './defaults';
 export * from './vessel';

@@ -14,7 +14,12 @@ export type Purpose = 'heatConservation' | 'personnelProtection' | 'condensation
 export type CriterionId = 'personnel' | 'condensation' | 'heatLossLimit' | 'processDrop' | 'freeze' | 'economic';
 
 export interface LineCase {
-  geometry: Geometry;
+  /**
+   * "vessel": a vertical cylindrical shell (diameter `pipeOuterDiameterMm`, height `heightM`) with two
+   * flat heads, solved part by part; its heat flow is the mean flux over the bare outside area (W/m²)
+   * and its surface temperature the worst of the three parts.
+   */
+  geometry: Geometry | 'vessel';
   pipeOuterDiameterMm?: number;
   heightM?: number;
   characteristicLengthM?: number;
@@ -185,6 +190,35 @@ function annuityFactors(econ: Economics): { crf: number; lf: number } {
   return v;
 }
 
+/** A vessel's parts for one candidate: shell (vertical cylinder) and the two flat heads, with their bare areas. */
+interface VesselParts { shell: PreparedChain[]; top: PreparedChain[]; bottom: PreparedChain[]; heightM: number; headM2: number; totalM2: number }
+function vesselPartsFor(set: CandidateSet, diameterM: number, heightM: number): VesselParts {
+  const headM2 = (Math.PI * diameterM * diameterM) / 4;
+  return {
+    shell: chainsFor(set, 'vertical-pipe', diameterM, heightM, 1),
+    // Heads taken as flat discs, L = area / perimeter = D/4 (common practice for an estimate).
+    top: chainsFor(set, 'horizontal-wall-up', 0, 1, diameterM / 4),
+    bottom: chainsFor(set, 'horizontal-wall-down', 0, 1, diameterM / 4),
+    heightM, headM2, totalM2: Math.PI * diameterM * heightM + 2 * headM2,
+  };
+}
+/**
+ * Candidate i of a vessel: heat flow as the mean flux over the bare area, surface temperature the
+ * hottest part on hot service (the coldest on cold service), service limits checked on every part.
+ */
+function solveVesselCandidate(v: VesselParts, i: number, layers: SolidLayer[], processC: number, a: Ambient): typeof SOLVED {
+  const shell = solveCandidate(v.shell[i], layers, processC, a, 0, 1);
+  const qs = shell.Q, ts = shell.Ts; let ok = shell.limitOk;
+  const top = solveCandidate(v.top[i], layers, processC, a, 0, 1);
+  const qt = top.Q, tt = top.Ts; ok = ok && top.limitOk;
+  const bottom = solveCandidate(v.bottom[i], layers, processC, a, 0, 1);
+  const hot = processC >= a.airC;
+  const worst = hot ? Math.max(ts, tt, bottom.Ts) : Math.min(ts, tt, bottom.Ts);
+  SOLVED.Q = (qs * v.heightM + (qt + bottom.Q) * v.headM2) / v.totalM2;
+  SOLVED.Ts = worst; SOLVED.limitOk = ok && bottom.limitOk; SOLVED.h = 0; SOLVED.ratio = 1;
+  return SOLVED;
+}
+
 const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance });
 
 function layersOf(c: Candidate): SolidLayer[] {
@@ -231,6 +265,7 @@ export function outletTempC(o: { inletC: number; airC: number; uPerLengthWPerMK:
 }
 
 function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
+  if (line.geometry === 'vessel') return installedCostVessel(line, cand, jacketOuterM, prices);
   const pipe = isPipe(line.geometry);
   let r = (line.pipeOuterDiameterMm ?? 0) / 2000, cost = 0;
   for (const l of cand.layers) {
@@ -244,6 +279,22 @@ function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, pr
   return cost * (1 + prices.fittingsAllowanceFraction);
 }
 
+/** A vessel: the shell's layers as cylinders over its height, each head's as flat layers, labour and jacket per m². */
+function installedCostVessel(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
+  const D = (line.pipeOuterDiameterMm ?? 0) / 1000, H = line.heightM ?? 1, head = (Math.PI * D * D) / 4;
+  const area = Math.PI * D * H + 2 * head;
+  let r = D / 2, cost = 0;
+  for (const l of cand.layers) {
+    const t = l.thicknessMm / 1000;
+    const vol = Math.PI * ((r + t) * (r + t) - r * r) * H + 2 * head * t;
+    cost += vol * (prices.materialPerM3[l.material.id] ?? prices.defaultMaterialPerM3) * (1 + prices.wasteFraction);
+    cost += prices.labourPerM2PerLayer * area;
+    r += t;
+  }
+  if (cand.layers.length) cost += prices.jacketPerM2 * (Math.PI * jacketOuterM * H + 2 * head);
+  return cost * (1 + prices.fittingsAllowanceFraction);
+}
+
 /**
  * Recommendation for one line: evaluates the candidates of its material system under each
  * criterion's own conditions and returns the smallest that meets every hard criterion the line
@@ -251,11 +302,13 @@ function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, pr
  * governing criterion. A criterion no candidate can meet is said so explicitly.
  */
 export function recommendLine(line: LineCase, system: MaterialSystem, crit: Criteria): Recommendation {
-  const pipe = isPipe(line.geometry);
+  const vessel = line.geometry === 'vessel';
+  const geometry: Geometry = line.geometry === 'vessel' ? 'vertical-pipe' : line.geometry; // a vessel's shell
+  const pipe = isPipe(geometry) && !vessel;
   const warnings: string[] = [];
   const bareEps = 0.8; // bare oxidised steel
   const base = {
-    geometry: line.geometry,
+    geometry,
     pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
     heightM: line.heightM ?? 1,
     characteristicLengthM: line.characteristicLengthM ?? 1,
@@ -266,7 +319,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
   const { all, layersCache, layersOut } = set;
   const n = all.length;
-  const chains = chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
+  const parts = vessel ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM) : null;
+  const chains = parts ? parts.shell : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
 
   const purposes = line.purposes;
   const econ = crit.economics ?? DEFAULT_ECONOMICS;
@@ -281,7 +335,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   let h1 = 0, r1 = 1, h2 = 0, r2 = 1;
   for (let i = 0; i < n; i++) {
     const hint = sweepHint(all, i, h1, r1, h2, r2);
-    const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hint.h, hint.ratio);
+    const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb)
+      : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hint.h, hint.ratio);
     h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
     hlQ[i] = r.Q; hlH[i] = r.h;
     // Every field present from the start: one object shape for all candidates (the optional ones stay
@@ -304,7 +359,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
     for (let i = 0; i < n; i++) {
       const hint = sweepHint(all, i, h1, r1, h2, r2);
-      const r = solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, hint.h, hint.ratio);
+      const r = parts ? solveVesselCandidate(parts, i, layersCache[i], maxC, i === 0 ? bare : a)
+        : solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, hint.h, hint.ratio);
       h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (!r.limitOk) results[i].serviceLimitOk = false;
@@ -324,7 +380,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
     for (let i = 0; i < n; i++) {
       const hint = sweepHint(all, i, h1, r1, h2, r2);
-      const r = solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, hint.h, hint.ratio);
+      const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? bare : a)
+        : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, hint.h, hint.ratio);
       h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
       results[i].condensation = { surfaceC: r.Ts };
       if (r.Ts >= need) { idx = i; break; }
@@ -405,10 +462,12 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     ? solvePrepared(chains[recIdx], { geometry: base.geometry, pipeOuterDiameterM: base.pipeOuterDiameterM, heightM: base.heightM, characteristicLengthM: base.characteristicLengthM, processC: line.normalTempC, ambient: recIdx === 0 ? hlBare : hlAmb, layers: layersCache[recIdx] }, hlH[recIdx])
     : undefined;
   if (design) for (const w of design.warnings) if (!warnings.includes(w)) warnings.push(w);
-  const extent = pipe ? line.lengthM ?? 1 : line.areaM2 ?? 1;
+  const extent = pipe ? line.lengthM ?? 1 : parts ? parts.totalM2 : line.areaM2 ?? 1;
+  // A vessel's design profile is its shell's; its heat flow is the mean flux over shell and heads.
+  const designFlow = design ? (parts ? hlQ[recIdx] : design.heatFlow) : 0;
   let annual: Recommendation['annual'];
   if (design) {
-    const heatMWh = (Math.abs(design.heatFlow) * extent * econ.hoursPerYear) / 1e6;
+    const heatMWh = (Math.abs(designFlow) * extent * econ.hoursPerYear) / 1e6;
     const boughtMWh = heatMWh / econ.efficiency;
     annual = { energyMWh: heatMWh, cost: boughtMWh * 1000 * econ.energyPricePerKWh, co2Tonnes: (boughtMWh * 1000 * econ.co2KgPerKWh) / 1000 };
   }
@@ -416,7 +475,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   for (const o of outcomes) if (o.requiredMm === null) unmet.push(o.id);
   let condensate: number | undefined;
   if (design && line.steamPressureMPaAbs) {
-    condensate = condensateKgPerHour(design.heatFlow * extent, saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg);
+    condensate = condensateKgPerHour(designFlow * extent, saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg);
   }
   return {
     recommendedMm: rec?.totalMm ?? null,

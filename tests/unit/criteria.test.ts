@@ -11,7 +11,7 @@ const hotSystem: MaterialSystem = { outer: mw, jacket: jacketById('aluminium-oxi
 /** Re-solve a candidate from scratch with the public solver (independent of the recommender's caches). */
 function surfaceAt(line: LineCase, system: MaterialSystem, layersMm: number[], processC: number, c: { airC: number; windMs: number }, materials = layersMm.map(() => system.outer)) {
   return solveSteady({
-    geometry: line.geometry, pipeOuterDiameterM: line.pipeOuterDiameterMm! / 1000, heightM: line.heightM ?? 1, characteristicLengthM: 1, processC,
+    geometry: line.geometry as Exclude<LineCase['geometry'], 'vessel'>, pipeOuterDiameterM: line.pipeOuterDiameterMm! / 1000, heightM: line.heightM ?? 1, characteristicLengthM: 1, processC,
     ambient: { airC: c.airC, surroundingsC: c.airC, windMs: c.windMs, emittance: layersMm.length ? system.jacket.emittance : 0.8 },
     layers: layersMm.map((t, i) => ({ thicknessM: t / 1000, conductivity: compileConductivity(materials[i].conductivity) })),
   });

@@ -19,7 +19,7 @@ const k = compileConductivity(mw.conductivity);
 function fresh(line: LineCase, layersMm: number[]) {
   const c = DEFAULT_CRITERIA.conditions.heatLoss;
   return solveSteady({
-    geometry: line.geometry, pipeOuterDiameterM: line.pipeOuterDiameterMm! / 1000, heightM: line.heightM ?? 1, characteristicLengthM: line.characteristicLengthM ?? 1,
+    geometry: line.geometry as Exclude<LineCase['geometry'], 'vessel'>, pipeOuterDiameterM: line.pipeOuterDiameterMm! / 1000, heightM: line.heightM ?? 1, characteristicLengthM: line.characteristicLengthM ?? 1,
     processC: line.normalTempC,
     ambient: { airC: c.airC, surroundingsC: c.airC, windMs: c.windMs, emittance: layersMm.length ? system.jacket.emittance : 0.8 },
     layers: layersMm.map((t) => ({ thicknessM: t / 1000, conductivity: k })),

@@ -23,3 +23,41 @@ describe('vessel as shell plus heads, area-weighted', () => {
     expect(v.top.heatFlow).toBeCloseTo(direct.heatFlow, 9);
   });
 });
+
+describe('a vessel in the recommender and the line list', () => {
+  it('the diameter follows from the bare area and height: πDH + 2·πD²/4 = A (algebra)', async () => {
+    const { vesselDiameterM } = await import('@/lib/lines/solve-line');
+    for (const [A, H] of [[30, 4], [120, 12], [8, 0.5]]) {
+      const D = vesselDiameterM(A, H);
+      expect(Math.PI * D * H + (2 * Math.PI * D * D) / 4).toBeCloseTo(A, 9);
+    }
+  });
+
+  it('every candidate is shell + both heads: total heat against solveVessel, worst part for the touch check', async () => {
+    const { recommendLine, DEFAULT_CRITERIA, materialById, jacketById } = await import('@/lib/thermal');
+    const mw = materialById('mineral-wool-pipe')!;
+    const system = { outer: mw, jacket: jacketById('aluminium-oxidised')! };
+    const D = 1.8, H = 4.5, A = Math.PI * D * H + (Math.PI * D * D) / 2;
+    const r = recommendLine({ geometry: 'vessel', pipeOuterDiameterMm: D * 1000, heightM: H, areaM2: A, normalTempC: 180, maxTempC: 190, purposes: ['heatConservation', 'personnelProtection'], accessible: true }, system, DEFAULT_CRITERIA);
+    const km = compileConductivity(mw.conductivity);
+    const hl = DEFAULT_CRITERIA.conditions.heatLoss, pc = DEFAULT_CRITERIA.conditions.personnel;
+    const layersOf = (c: (typeof r.candidates)[number]) => c.layers.map((l) => ({ thicknessM: l.thicknessMm / 1000, conductivity: km }));
+    for (const c of [r.candidates[0], r.candidates[4], r.candidates[10]]) {
+      const eps = c.layers.length ? 0.13 : 0.8;
+      const v = solveVessel({ diameterM: D, shellHeightM: H, processC: 180, ambient: { airC: hl.airC, surroundingsC: hl.airC, windMs: hl.windMs, emittance: eps }, layers: layersOf(c) });
+      expect(Math.abs(c.heatLoss.heatFlow * A - v.totalW) / Math.abs(v.totalW)).toBeLessThan(1e-7);
+    }
+    const o = r.outcomes.find((x) => x.id === 'personnel')!;
+    const i = r.candidates.findIndex((c) => c.totalMm === o.requiredMm);
+    const at = solveVessel({ diameterM: D, shellHeightM: H, processC: 190, ambient: { airC: pc.airC, surroundingsC: pc.airC, windMs: 0, emittance: 0.13 }, layers: layersOf(r.candidates[i]) });
+    const before = solveVessel({ diameterM: D, shellHeightM: H, processC: 190, ambient: { airC: pc.airC, surroundingsC: pc.airC, windMs: 0, emittance: 0.13 }, layers: layersOf(r.candidates[i - 1]) });
+    expect(at.worstSurfaceC).toBeLessThanOrEqual(60);
+    expect(before.worstSurfaceC).toBeGreaterThan(60);
+    expect(r.candidates[i].personnel!.surfaceC).toBeCloseTo(at.worstSurfaceC, 4);
+    // The bottom head (buoyancy opposed, the weakest film) is the hottest part.
+    expect(at.worstSurfaceC).toBe(at.bottom.surfaceC);
+    // Annual energy is for the whole vessel: mean flux × bare area × hours.
+    const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm)!;
+    expect(r.annual!.energyMWh).toBeCloseTo((chosen.heatLoss.heatFlow * A * DEFAULT_CRITERIA.economics!.hoursPerYear) / 1e6, 9);
+  });
+});

@@ -25,7 +25,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
-  const unit = line.geometry === 'flat' ? 'W/m²' : 'W/m';
+  const unit = line.geometry === 'flat' || line.geometry === 'vessel' ? 'W/m² (mean over the outside area)' : 'W/m';
   return (
     <>
       <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/lines`}>← Line list</Link></p>
@@ -85,6 +85,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
               <dt className="text-ink-500">Surface temperature</dt><dd>{f(result.surfaceTempC)} °C (personnel check {f(result.personnelSurfaceC)} °C)</dd>
               <dt className="text-ink-500">Annual energy / cost / CO₂</dt><dd>{f(result.annualMWh)} MWh · {f(result.annualCost, 0)} · {f(result.co2Tonnes, 2)} t</dd>
               {result.condensateKgPerH !== null ? <><dt className="text-ink-500">Condensate</dt><dd>{f(result.condensateKgPerH, 2)} kg/h</dd></> : null}
+              {d && line.geometry === 'vessel' ? <><dt className="text-ink-500">Vessel model</dt><dd>Shell plus two flat heads; the coefficients and profile below are the shell&apos;s, the heat loss covers all three.</dd></> : null}
               {d ? <>
                 <dt className="text-ink-500">Surface coefficients</dt><dd>convection {f(d.convective, 2)}, radiation {f(d.radiative, 2)} W/(m²·K)</dd>
                 {d.overall.perLengthWPerMK !== undefined ? <><dt className="text-ink-500">U per metre</dt><dd>{f(d.overall.perLengthWPerMK, 4)} W/(m·K)</dd></> : null}

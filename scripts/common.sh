@@ -35,7 +35,7 @@ start_mail_sink() {
   export MAIL_SINK_SMTP_PORT="${MAIL_SINK_SMTP_PORT:-2525}" MAIL_SINK_HTTP_PORT="${MAIL_SINK_HTTP_PORT:-2526}"
   export MAIL_SINK_FILE="${MAIL_SINK_FILE:-.data/mail/messages.jsonl}"
   if port_in_use "$MAIL_SINK_SMTP_PORT"; then
-    if http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health"; then log "mail sink already running"; return; fi
+    if http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health"; then export DEV_MAILBOX=1; log "mail sink already running (mailbox page /dev/mailbox)"; return; fi
     log "port $MAIL_SINK_SMTP_PORT is taken by another program; set MAIL_SINK_SMTP_PORT"; exit 1
   fi
   mkdir -p .data/mail

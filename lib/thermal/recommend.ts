@@ -279,7 +279,10 @@ function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, pr
   return cost * (1 + prices.fittingsAllowanceFraction);
 }
 
-/** A vessel: the shell's layers as cylinders over its height, each head's as flat layers, labour and jacket per m². */
+/**
+ * A vessel, per m² of its bare outside area (as its heat flow is): the shell's layers as cylinders
+ * over its height, each head's as flat layers, labour and jacket per m².
+ */
 function installedCostVessel(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
   const D = (line.pipeOuterDiameterMm ?? 0) / 1000, H = line.heightM ?? 1, head = (Math.PI * D * D) / 4;
   const area = Math.PI * D * H + 2 * head;
@@ -292,7 +295,7 @@ function installedCostVessel(line: LineCase, cand: Candidate, jacketOuterM: numb
     r += t;
   }
   if (cand.layers.length) cost += prices.jacketPerM2 * (Math.PI * jacketOuterM * H + 2 * head);
-  return cost * (1 + prices.fittingsAllowanceFraction);
+  return (cost * (1 + prices.fittingsAllowanceFraction)) / area;
 }
 
 /**

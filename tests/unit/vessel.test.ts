@@ -61,3 +61,18 @@ describe('a vessel in the recommender and the line list', () => {
     expect(r.annual!.energyMWh).toBeCloseTo((chosen.heatLoss.heatFlow * A * DEFAULT_CRITERIA.economics!.hoursPerYear) / 1e6, 9);
   });
 });
+
+describe('vessel economics', () => {
+  it('installed cost and energy are both per m² of bare area: a large vessel costs about what a flat wall of the same build does, and a hot one is not left bare', async () => {
+    const { recommendLine, DEFAULT_CRITERIA, materialById, jacketById } = await import('@/lib/thermal');
+    const system = { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
+    const D = 12, H = 9, A = Math.PI * D * H + (Math.PI * D * D) / 2;
+    const tank = recommendLine({ geometry: 'vessel', pipeOuterDiameterMm: D * 1000, heightM: H, areaM2: A, normalTempC: 75, purposes: ['heatConservation'] }, system, DEFAULT_CRITERIA);
+    const wall = recommendLine({ geometry: 'vertical-wall', heightM: H, areaM2: A, normalTempC: 75, purposes: ['heatConservation'] }, system, DEFAULT_CRITERIA);
+    const at = (r: typeof tank, mm: number) => r.candidates.find((c) => c.totalMm === mm)!.installedCost!;
+    // Curvature adds a little material on the shell (t/D ≈ 1 %); labour and jacket are per m² on both.
+    expect(Math.abs(at(tank, 50) / at(wall, 50) - 1)).toBeLessThan(0.03);
+    expect(tank.recommendedMm).toBeGreaterThan(0);
+    expect(tank.governing).toBe('economic');
+  });
+});

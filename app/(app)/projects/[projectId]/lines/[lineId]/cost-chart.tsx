@@ -18,7 +18,7 @@ export function CostChart({ points, optimumMm, chosenMm, unit }: { points: Curve
           <Legend verticalAlign="top" height={24} />
           <Line yAxisId="q" dataKey="heatFlow" name="Heat loss" stroke="#257a74" dot={false} strokeWidth={2} isAnimationActive={false} />
           <Line yAxisId="c" dataKey="annualCost" name="Annualised cost" stroke="#a15a1c" dot={false} strokeWidth={2} isAnimationActive={false} />
-          {optimumMm ? <ReferenceLine yAxisId="c" x={optimumMm} stroke="#a15a1c" strokeDasharray="4 2" label={{ value: 'economic', fontSize: 10, position: 'top' }} /> : null}
+          {optimumMm ? <ReferenceLine yAxisId="c" x={optimumMm} stroke="#a15a1c" strokeDasharray="4 2" label={{ value: 'economic', fontSize: 10, position: 'insideTopLeft' }} /> : null}
           {chosenMm ? <ReferenceLine yAxisId="q" x={chosenMm} stroke="#23282e" label={{ value: 'chosen', fontSize: 10, position: 'insideTopRight' }} /> : null}
         </LineChart>
       </ResponsiveContainer>

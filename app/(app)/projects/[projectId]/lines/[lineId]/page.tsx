@@ -25,7 +25,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
-  const unit = line.geometry === 'flat' || line.geometry === 'vessel' ? 'W/m² (mean over the outside area)' : 'W/m';
+  const unit = line.geometry === 'flat' || line.geometry === 'vessel' ? 'W/m²' : 'W/m';
   return (
     <>
       <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/lines`}>← Line list</Link></p>
@@ -81,7 +81,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
           <section className="panel p-4">
             <h2 className="mb-2">At the recommendation (heat-loss conditions)</h2>
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-              <dt className="text-ink-500">Heat loss</dt><dd>{f(result.heatFlowPerUnit)} {unit} · {f((result.totalHeatW ?? 0) / 1000, 2)} kW for the line (bare {f(result.bareHeatW / 1000, 2)} kW)</dd>
+              <dt className="text-ink-500">Heat loss</dt><dd>{f(result.heatFlowPerUnit)} {unit}{line.geometry === 'vessel' ? ' (mean over the outside area)' : ''} · {f((result.totalHeatW ?? 0) / 1000, 2)} kW for the line (bare {f(result.bareHeatW / 1000, 2)} kW)</dd>
               <dt className="text-ink-500">Surface temperature</dt><dd>{f(result.surfaceTempC)} °C (personnel check {f(result.personnelSurfaceC)} °C)</dd>
               <dt className="text-ink-500">Annual energy / cost / CO₂</dt><dd>{f(result.annualMWh)} MWh · {f(result.annualCost, 0)} · {f(result.co2Tonnes, 2)} t</dd>
               {result.condensateKgPerH !== null ? <><dt className="text-ink-500">Condensate</dt><dd>{f(result.condensateKgPerH, 2)} kg/h</dd></> : null}

@@ -57,6 +57,8 @@ export const systemBandSchema = z.object({
   toC: num('To').min(-273).max(1200),
   outerId: materialId,
   innerId: materialId.optional().or(z.literal('').transform(() => undefined)),
+  /** Main material on vessels and flat surfaces (blanket or board), when it differs from the pipe product. */
+  flatOuterId: materialId.optional().or(z.literal('').transform(() => undefined)),
   jacketId,
 });
 
@@ -106,12 +108,13 @@ export function checkBandRanges(b: { systems: { fromC: number; toC: number }[] }
   b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
 }
 
-export function checkBands(b: { systems: { fromC: number; toC: number; outerId: string; innerId?: string; jacketId: string }[]; ownMaterials?: { id: string }[]; ownJackets?: { id: string }[] }, ctx: z.RefinementCtx) {
+export function checkBands(b: { systems: { fromC: number; toC: number; outerId: string; innerId?: string; flatOuterId?: string; jacketId: string }[]; ownMaterials?: { id: string }[]; ownJackets?: { id: string }[] }, ctx: z.RefinementCtx) {
   checkBandRanges(b, ctx);
   const materials = new Set([...LIBRARY_MATERIAL_IDS, ...(b.ownMaterials ?? []).map((m) => m.id)]);
   const jackets = new Set([...LIBRARY_JACKET_IDS, ...(b.ownJackets ?? []).map((j) => j.id)]);
   b.systems.forEach((s, i) => {
     if (!materials.has(s.outerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'outerId'], message: `Band ${i + 1}: "${s.outerId}" is not in the library or the project's materials` });
+    if (s.flatOuterId && !materials.has(s.flatOuterId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'flatOuterId'], message: `Band ${i + 1}: "${s.flatOuterId}" is not in the library or the project's materials` });
     if (s.innerId && !materials.has(s.innerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'innerId'], message: `Band ${i + 1}: "${s.innerId}" is not in the library or the project's materials` });
     if (!jackets.has(s.jacketId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'jacketId'], message: `Band ${i + 1}: "${s.jacketId}" is not in the library or the project's jackets` });
   });
@@ -142,8 +145,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   systems: [
     { fromC: -200, toC: 0, outerId: 'polyisocyanurate', innerId: 'cellular-glass', jacketId: 'aluminium-oxidised' },
     { fromC: 0, toC: 20, outerId: 'elastomeric-foam', jacketId: 'pvc' },
-    { fromC: 20, toC: 600, outerId: 'mineral-wool-pipe', jacketId: 'aluminium-oxidised' },
-    { fromC: 600, toC: 1000, outerId: 'mineral-wool-pipe', innerId: 'calcium-silicate', jacketId: 'stainless-steel' },
+    { fromC: 20, toC: 600, outerId: 'mineral-wool-pipe', flatOuterId: 'mineral-wool-blanket', jacketId: 'aluminium-oxidised' },
+    { fromC: 600, toC: 1000, outerId: 'mineral-wool-pipe', innerId: 'calcium-silicate', flatOuterId: 'mineral-wool-blanket', jacketId: 'stainless-steel' },
   ],
   ownMaterials: [],
   ownJackets: [],
@@ -159,7 +162,7 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
   co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
-  systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification.',
+  systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification. Vessels and flat surfaces take blanket or board where a band names one (pipe sections do not fit them).',
   thicknessSeries: 'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };

@@ -8,14 +8,16 @@ import { catalogueOf } from './catalogue';
 import type { LineInput } from './validate';
 
 /** The material system the design basis gives a line (by its normal temperature), with any jacket override (library or the project's own). */
-export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalTempC' | 'jacketId'>, cache = new Map<string, MaterialSystem>()): MaterialSystem {
+export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalTempC' | 'jacketId'> & Partial<Pick<LineInput, 'geometry'>>, cache = new Map<string, MaterialSystem>()): MaterialSystem {
   const band = basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ?? basis.systems[basis.systems.length - 1];
   const cat = catalogueOf(basis);
   const jacket = (line.jacketId && cat.jackets.has(line.jacketId)) ? line.jacketId : band.jacketId;
-  const key = `${band.outerId}|${band.innerId ?? ''}|${jacket}|${basis.thicknessSeries}`;
+  // Vessels and flat surfaces take the band's blanket or board when it names one.
+  const outerId = (line.geometry === 'vessel' || line.geometry === 'flat') && band.flatOuterId ? band.flatOuterId : band.outerId;
+  const key = `${outerId}|${band.innerId ?? ''}|${jacket}|${basis.thicknessSeries}`;
   let s = cache.get(key);
   if (!s) {
-    const outer = cat.materials.get(band.outerId)!;
+    const outer = cat.materials.get(outerId)!;
     s = { outer, inner: band.innerId ? cat.materials.get(band.innerId) : undefined, jacket: cat.jackets.get(jacket)! };
     if (basis.thicknessSeries === 'inch' && outer.inchSeries) s.series = seriesOf(outer, 'inch');
     cache.set(key, s);

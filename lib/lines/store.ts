@@ -82,7 +82,7 @@ export async function removeOwnEntry(o: { projectId: string; userId: string; id:
   return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b) => {
     const name = catalogueOf(b).own.has(o.id) ? (b.ownMaterials.find((m) => m.id === o.id)?.name ?? b.ownJackets.find((j) => j.id === o.id)!.name) : null;
     if (!name) throw new AppError('not_found', 'That project material or jacket does not exist (it may have been removed already).');
-    const bands = b.systems.map((s, i) => (s.outerId === o.id || s.innerId === o.id || s.jacketId === o.id ? i + 1 : 0)).filter(Boolean);
+    const bands = b.systems.map((s, i) => (s.outerId === o.id || s.innerId === o.id || s.flatOuterId === o.id || s.jacketId === o.id ? i + 1 : 0)).filter(Boolean);
     if (bands.length) throw new AppError('conflict', `"${name}" is used by material band ${bands.join(', ')} of the specification; choose another there first.`);
     const [{ n: designs }] = await db.select({ n: count() }).from(lineDesigns)
       .where(and(eq(lineDesigns.projectId, o.projectId), sql`${lineDesigns.layers} @> ${JSON.stringify([{ materialId: o.id }])}::jsonb`));

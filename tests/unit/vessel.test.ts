@@ -76,3 +76,17 @@ describe('vessel economics', () => {
     expect(tank.governing).toBe('economic');
   });
 });
+
+describe('product form on vessels', () => {
+  it('a vessel takes the band\'s blanket, a pipe of the same temperature its pipe section', async () => {
+    const { solveLine } = await import('@/lib/lines/solve-line');
+    const { DEFAULT_DESIGN_BASIS } = await import('@/lib/lines/design-basis');
+    const common = { tag: 'X', service: '', area: 'A', nps: null, lengthM: null, heightM: 4, normalTempC: 150, maxTempC: null, steamPressureBarG: null, flowKgPerS: null, fluidCpKJPerKgK: null, elbows: 0, tees: 0, valves: 0, flanges: 0, purposes: ['heatConservation' as const], outdoor: true, accessible: false, accessHeightM: null, jacketId: null, notes: '' };
+    const tank = solveLine(DEFAULT_DESIGN_BASIS, { ...common, geometry: 'vessel', outsideDiameterMm: null, surfaceAreaM2: 40 });
+    const pipe = solveLine(DEFAULT_DESIGN_BASIS, { ...common, geometry: 'horizontal-pipe', outsideDiameterMm: 168.3, lengthM: 10, surfaceAreaM2: null });
+    expect(tank.system.outer.id).toBe('mineral-wool-blanket');
+    expect(tank.system.outer.productForm).toBe('blanket');
+    expect(pipe.system.outer.id).toBe('mineral-wool-pipe');
+    expect(tank.recommendation.layers.every((l) => l.materialId === 'mineral-wool-blanket')).toBe(true);
+  });
+});

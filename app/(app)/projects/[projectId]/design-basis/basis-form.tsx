@@ -80,7 +80,7 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
       <fieldset className="panel p-3">
         <legend className="px-1 text-sm font-semibold">Insulation specification by normal temperature</legend>
         <table className="table-dense">
-          <thead><tr><th>From °C</th><th>To °C</th><th>Main material</th><th>Inner layer (high temperature)</th><th>Jacket</th></tr></thead>
+          <thead><tr><th>From °C</th><th>To °C</th><th>Main material</th><th>Inner layer (high temperature)</th><th>Vessels and flat surfaces</th><th>Jacket</th></tr></thead>
           <tbody>
             {basis.systems.map((s, i) => (
               <tr key={i}>
@@ -88,6 +88,7 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
                 <td><input aria-label={`Band ${i + 1} to`} name={`systems[${i}].toC`} type="number" defaultValue={s.toC} disabled={!canEdit} className="input w-24" />{errors[`systems[${i}].toC`] ? <p className="field-error">{errors[`systems[${i}].toC`]!.join(' ')}</p> : null}</td>
                 <td><select aria-label={`Band ${i + 1} material`} name={`systems[${i}].outerId`} defaultValue={s.outerId} disabled={!canEdit} className="input">{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].outerId`] ? <p className="field-error">{errors[`systems[${i}].outerId`]!.join(' ')}</p> : null}</td>
                 <td><select aria-label={`Band ${i + 1} inner layer`} name={`systems[${i}].innerId`} defaultValue={s.innerId ?? ''} disabled={!canEdit} className="input"><option value="">none</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].innerId`] ? <p className="field-error">{errors[`systems[${i}].innerId`]!.join(' ')}</p> : null}</td>
+                <td><select aria-label={`Band ${i + 1} vessels and flat surfaces`} name={`systems[${i}].flatOuterId`} defaultValue={s.flatOuterId ?? ''} disabled={!canEdit} className="input"><option value="">same as main</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].flatOuterId`] ? <p className="field-error">{errors[`systems[${i}].flatOuterId`]!.join(' ')}</p> : null}</td>
                 <td><select aria-label={`Band ${i + 1} jacket`} name={`systems[${i}].jacketId`} defaultValue={s.jacketId} disabled={!canEdit} className="input">{jackets.map((j) => <option key={j.id} value={j.id}>{j.name}</option>)}</select>{errors[`systems[${i}].jacketId`] ? <p className="field-error">{errors[`systems[${i}].jacketId`]!.join(' ')}</p> : null}</td>
               </tr>
             ))}

@@ -46,26 +46,29 @@ function table(points: [number, number][]): Conductivity {
   const pts = [...points].sort((p, q) => p[0] - q[0]);
   const n = pts.length;
   if (n === 1) return linear(pts[0][1], 0);
-  const T = pts.map((p) => p[0]);
-  const K = pts.map((p) => p[1]);
+  // Typed arrays and the segment slopes computed once: these run in the solver's inner loop.
+  const T = Float64Array.from(pts, (p) => p[0]);
+  const K = Float64Array.from(pts, (p) => p[1]);
+  const S = new Float64Array(n); // slope of segment i (T[i] → T[i+1])
+  for (let i = 0; i < n - 1; i++) S[i] = (K[i + 1] - K[i]) / (T[i + 1] - T[i]);
   // Antiderivative at the knots, F(T[0]) = 0.
-  const F = new Array<number>(n).fill(0);
+  const F = new Float64Array(n);
   for (let i = 1; i < n; i++) F[i] = F[i - 1] + 0.5 * (K[i] + K[i - 1]) * (T[i] - T[i - 1]);
-  const slope = (i: number) => (K[i + 1] - K[i]) / (T[i + 1] - T[i]);
+  const last = n - 1;
   const kAt = (t: number) => {
     if (t <= T[0]) return K[0];
-    if (t >= T[n - 1]) return K[n - 1];
+    if (t >= T[last]) return K[last];
     let i = 0;
     while (t > T[i + 1]) i++;
-    return K[i] + slope(i) * (t - T[i]);
+    return K[i] + S[i] * (t - T[i]);
   };
   const Fat = (t: number) => {
     if (t <= T[0]) return K[0] * (t - T[0]);
-    if (t >= T[n - 1]) return F[n - 1] + K[n - 1] * (t - T[n - 1]);
+    if (t >= T[last]) return F[last] + K[last] * (t - T[last]);
     let i = 0;
     while (t > T[i + 1]) i++;
     const d = t - T[i];
-    return F[i] + K[i] * d + 0.5 * slope(i) * d * d;
+    return F[i] + K[i] * d + 0.5 * S[i] * d * d;
   };
   return {
     k: kAt,
@@ -73,10 +76,10 @@ function table(points: [number, number][]): Conductivity {
     solveOut(Tin, target) {
       const f = Fat(Tin) - target;
       if (f <= 0) return T[0] + f / K[0];
-      if (f >= F[n - 1]) return T[n - 1] + (f - F[n - 1]) / K[n - 1];
+      if (f >= F[last]) return T[last] + (f - F[last]) / K[last];
       let i = 0;
       while (f > F[i + 1]) i++;
-      return T[i] + quadraticRoot(K[i], slope(i), f - F[i]);
+      return T[i] + quadraticRoot(K[i], S[i], f - F[i]);
     },
   };
 }

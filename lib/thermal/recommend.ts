@@ -100,7 +100,8 @@ interface CandidateSet {
   all: (Candidate | null)[];
   layersCache: SolidLayer[][];
   layersOut: { materialId: string; thicknessMm: number }[][];
-  chains: Map<string, PreparedChain[]>;
+  /** Prepared chains by geometry, then by pipe outside diameter (m; 0 for flat surfaces). */
+  chains: Map<string, Map<number, PreparedChain[]>>;
 }
 const candidateCache = new WeakMap<MaterialSystem, Map<string, CandidateSet>>();
 function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: number): CandidateSet {
@@ -130,12 +131,15 @@ const MAX_SIZES_PER_SET = 256;
  * chains' shapes for the line being solved (solving is synchronous; nothing else holds them).
  */
 function chainsFor(set: CandidateSet, geometry: Geometry, odM: number, heightM: number, lengthM: number): PreparedChain[] {
-  const key = isPipe(geometry) ? `${geometry}|${odM}` : geometry;
-  let chains = set.chains.get(key);
+  // Number keys: building a string key from the diameter cost more than the lookup (measured).
+  let bySize = set.chains.get(geometry);
+  if (!bySize) { bySize = new Map(); set.chains.set(geometry, bySize); }
+  const size = isPipe(geometry) ? odM : 0;
+  let chains = bySize.get(size);
   if (!chains) {
-    if (set.chains.size >= MAX_SIZES_PER_SET) set.chains.clear();
+    if (bySize.size >= MAX_SIZES_PER_SET) bySize.clear();
     chains = set.layersCache.map((layers) => prepareChain({ geometry, pipeOuterDiameterM: odM, heightM, characteristicLengthM: lengthM, layers }));
-    set.chains.set(key, chains);
+    bySize.set(size, chains);
   } else if (chains[0].shape.heightM !== heightM || chains[0].shape.characteristicLengthM !== lengthM) {
     for (let i = 0; i < chains.length; i++) { chains[i].shape.heightM = heightM; chains[i].shape.characteristicLengthM = lengthM; }
   }

@@ -81,9 +81,11 @@ export async function getIssue({ projectId, number }: { projectId: string; numbe
 export async function issueWorkbook({ projectId, number }: { projectId: string; number: number }) {
   const { issue, quantities, delta } = await getIssue({ projectId, number });
   const [p] = await db.select({ project: projects, org: organizations.name }).from(projects).innerJoin(organizations, eq(organizations.id, projects.organizationId)).where(eq(projects.id, projectId));
+  const { basis } = await getDesignBasis({ projectId });
   const buf = await billWorkbook(quantities, {
     projectCode: p.project.code, projectName: p.project.name, site: p.project.site, organization: p.org, issueNumber: issue.number, issuedAt: issue.issuedAt,
     issuedBy: await actorName(issue.issuedBy), basisRevision: issue.basisRevision, lineListRevision: issue.lineListRevision,
+    inches: basis.thicknessSeries === 'inch' || basis.unitSystem === 'US',
   }, delta);
   return { buf, fileName: `${p.project.code}-bill-of-quantities-issue-${issue.number}.xlsx` };
 }

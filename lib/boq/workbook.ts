@@ -19,23 +19,31 @@ function sheet(wb: ExcelJS.Workbook, name: string, headers: string[], rows: (str
   return ws;
 }
 
-export interface BillMeta { projectCode: string; projectName: string; site: string; organization: string; issueNumber: number; issuedAt: Date; issuedBy: string; basisRevision: number; lineListRevision: number | null }
+export interface BillMeta { projectCode: string; projectName: string; site: string; organization: string; issueNumber: number; issuedAt: Date; issuedBy: string; basisRevision: number; lineListRevision: number | null; /** Add inch columns beside the millimetres (projects on the inch series or US units). */ inches?: boolean }
+
+/** Millimetres as inches to 1/1000 in (1 in = 25.4 mm exactly): 76.2 → 3, 9.525 → 0.375. */
+export const mmToInches = (mm: number) => Math.round((mm / 25.4) * 1000) / 1000;
 
 /** The contractor's workbook: numbers as numbers, units in the headers, frozen headers and filters. */
 export async function billWorkbook(q: BillQuantities, meta: BillMeta, delta: QuantityDelta[]): Promise<Buffer> {
   const wb = new ExcelJS.Workbook();
   wb.creator = 'Lagwise';
   wb.created = meta.issuedAt;
-  sheet(wb, 'Summary', ['Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)'],
-    q.materials.map((r) => [r.material, r.productForm, r.layer, r.size, r.thicknessMm, r.lengthM, r.areaM2, r.volumeM3]), [32, 14, 8, 16, 14, 22, 20, 14]);
-  sheet(wb, 'Fittings', ['Size', 'Insulation thickness (mm)', 'Elbows (count)', 'Tees (count)', 'Valves (count)', 'Flange pairs (count)', 'Equivalent length (m)'],
-    q.fittings.map((r) => [r.size, r.thicknessMm, r.elbows, r.tees, r.valves, r.flanges, r.equivalentLengthM]));
+  // With inches, each thickness column is followed by the same thickness in inches.
+  const inch = meta.inches === true;
+  const th = (label: string) => (inch ? [label, label.replace('(mm)', '(in)')] : [label]);
+  const tv = (mm: number) => (inch ? [mm, mmToInches(mm)] : [mm]);
+  const tw = (w: number) => (inch ? [w, w] : [w]);
+  sheet(wb, 'Summary', ['Material', 'Product form', 'Layer', 'Size', ...th('Thickness (mm)'), 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)'],
+    q.materials.map((r) => [r.material, r.productForm, r.layer, r.size, ...tv(r.thicknessMm), r.lengthM, r.areaM2, r.volumeM3]), [32, 14, 8, 16, ...tw(14), 22, 20, 14]);
+  sheet(wb, 'Fittings', ['Size', ...th('Insulation thickness (mm)'), 'Elbows (count)', 'Tees (count)', 'Valves (count)', 'Flange pairs (count)', 'Equivalent length (m)'],
+    q.fittings.map((r) => [r.size, ...tv(r.thicknessMm), r.elbows, r.tees, r.valves, r.flanges, r.equivalentLengthM]));
   sheet(wb, 'Jacketing', ['Jacket', 'Outside diameter over insulation (mm)', 'Area incl. overlap (m²)'],
     q.jackets.map((r) => [r.jacket, r.outsideDiameterMm, r.areaM2]), [28, 34, 22]);
-  sheet(wb, 'Vessels and flat', ['Surface', 'Material', 'Layer', 'Thickness (mm)', 'Area incl. waste (m²)', 'Volume (m³)'],
-    q.surfaces.map((r) => [r.kind, r.material, r.layer, r.thicknessMm, r.areaM2, r.volumeM3]), [12, 32, 8, 14, 20, 14]);
-  sheet(wb, 'Line schedule', ['Tag', 'Area', 'Size', 'Length (m)', 'Area (m²)', 'Layers', 'Total thickness (mm)', 'Jacket', 'Bill status', 'Review status'],
-    q.schedule.map((r) => [r.tag, r.area, r.size, r.lengthM, r.areaM2, r.layers, r.totalMm, r.jacket, r.status, r.reviewStatus]), [20, 20, 14, 11, 11, 48, 18, 22, 40, 22]);
+  sheet(wb, 'Vessels and flat', ['Surface', 'Material', 'Layer', ...th('Thickness (mm)'), 'Area incl. waste (m²)', 'Volume (m³)'],
+    q.surfaces.map((r) => [r.kind, r.material, r.layer, ...tv(r.thicknessMm), r.areaM2, r.volumeM3]), [12, 32, 8, ...tw(14), 20, 14]);
+  sheet(wb, 'Line schedule', ['Tag', 'Area', 'Size', 'Length (m)', 'Area (m²)', 'Layers', ...th('Total thickness (mm)'), 'Jacket', 'Bill status', 'Review status'],
+    q.schedule.map((r) => [r.tag, r.area, r.size, r.lengthM, r.areaM2, r.layers, ...tv(r.totalMm), r.jacket, r.status, r.reviewStatus]), [20, 20, 14, 11, 11, 48, ...tw(18), 22, 40, 22]);
   sheet(wb, 'Change from previous', ['Sheet', 'Item', 'Quantity', 'Previous issue', 'This issue', 'Change'],
     delta.map((d) => [d.sheet, d.key, d.quantity, d.before, d.after, d.change]), [12, 60, 12, 16, 14, 12]);
   const f = q.factors;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { computeQuantities, quantityDelta, DEFAULT_BOQ_FACTORS, type BoqLine } from '@/lib/boq/quantities';
-import { safeText } from '@/lib/boq/workbook';
+import ExcelJS from 'exceljs';
+import { billWorkbook, mmToInches, safeText } from '@/lib/boq/workbook';
 
 const pipe = (o: Partial<BoqLine> = {}): BoqLine => ({
   tag: 'P-1', area: 'A', geometry: 'horizontal-pipe', nps: '4', outsideDiameterMm: 114.3, lengthM: 100, surfaceAreaM2: null,
@@ -62,5 +63,23 @@ describe('formula-injection escaping (OWASP CSV injection guidance)', () => {
     expect(safeText('-cmd')).toBe("'-cmd");
     expect(safeText('@SUM(A1)')).toBe("'@SUM(A1)");
     expect(safeText('4"-LS-101')).toBe('4"-LS-101');
+  });
+});
+
+describe('inch columns in the bill', () => {
+  const meta = { projectCode: 'T-1', projectName: 'Test', site: '', organization: 'Org', issueNumber: 1, issuedAt: new Date('2026-12-01T00:00:00Z'), issuedBy: 'Tester', basisRevision: 1, lineListRevision: 1 };
+  const read = async (buf: Buffer) => { const wb = new ExcelJS.Workbook(); await wb.xlsx.load(buf as unknown as ArrayBuffer); return wb; };
+  it('a project on the inch series gets each thickness in inches beside the millimetres (1 in = 25.4 mm exactly)', async () => {
+    expect(mmToInches(76.2)).toBe(3);
+    expect(mmToInches(9.525)).toBe(0.375);
+    const q = computeQuantities([pipe({ layers: [{ materialId: 'mineral-wool-pipe', materialName: 'Mineral wool pipe section', productForm: 'pipe-section', thicknessMm: 76.2 }] })]);
+    const us = await read(await billWorkbook(q, { ...meta, inches: true }, []));
+    const sum = us.getWorksheet('Summary')!;
+    expect(sum.getRow(1).values).toEqual([undefined, 'Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Thickness (in)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)']);
+    expect(sum.getRow(2).getCell(5).value).toBe(76.2);
+    expect(sum.getRow(2).getCell(6).value).toBe(3);
+    expect(us.getWorksheet('Line schedule')!.getRow(1).values).toContain('Total thickness (in)');
+    const si = await read(await billWorkbook(q, meta, []));
+    expect(si.getWorksheet('Summary')!.getRow(1).values).not.toContain('Thickness (in)');
   });
 });

@@ -26,15 +26,28 @@ export async function getDesignBasis({ projectId }: { projectId: string }): Prom
 }
 
 export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
-  const current = await getDesignBasis({ projectId });
-  // The display unit system changes no result: saving only that keeps the revision (nothing goes stale).
+  await getDesignBasis({ projectId }); // creates the default row when the project has none
   // jsonb does not keep key order, so compare with sorted keys.
   const canon = (v: unknown): unknown => (Array.isArray(v) ? v.map(canon) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canon((v as Record<string, unknown>)[k])])) : v);
-  const strip = (b: DesignBasis) => JSON.stringify(canon({ ...b, unitSystem: undefined }));
-  const bump = strip(current.basis) !== strip(basis);
-  const [row] = await db.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
-    .where(eq(designBases.projectId, projectId)).returning();
-  return { revision: row.revision };
+  const json = (v: unknown) => JSON.stringify(canon(v));
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, projectId)).for('update');
+    const current = designBasisSchema.parse(row.basis);
+    // What changed, by section; the display unit system changes no result, so it alone keeps the
+    // revision (nothing goes stale).
+    const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])]
+      .filter((k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]));
+    if (!changed.length) return { revision: row.revision };
+    const bump = changed.some((k) => k !== 'unitSystem');
+    const [saved] = await tx.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
+      .where(eq(designBases.projectId, projectId)).returning();
+    await writeAudit(tx, [{
+      projectId, actorId: userId, actorName: await actorName(userId), action: 'design basis saved',
+      before: { revision: row.revision, ...Object.fromEntries(changed.map((k) => [k, (current as Record<string, unknown>)[k]])) },
+      after: { revision: saved.revision, ...Object.fromEntries(changed.map((k) => [k, (basis as Record<string, unknown>)[k]])) },
+    }]);
+    return { revision: saved.revision };
+  });
 }
 
 // ---------- the project's own materials and jackets (kept in the design basis) ----------

@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
 import ExcelJS from 'exceljs';
 import { db, getPool } from '@/db/client';
-import { lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
+import { auditLog, lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
 import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
@@ -110,6 +110,13 @@ describe('line-list import on PostgreSQL', () => {
     const again = await store.saveDesignBasis({ projectId, userId, basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55, unitSystem: 'US' } });
     expect(again.revision).toBe(2);
     expect((await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total).toBe(0);
+    // Each save that changes something is in the audit trail with the sections before and after; saving the same again records nothing.
+    await store.saveDesignBasis({ projectId, userId, basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55, unitSystem: 'US' } });
+    const audit = await db.select().from(auditLog).where(and(eq(auditLog.projectId, projectId), eq(auditLog.action, 'design basis saved'))).orderBy(asc(auditLog.at));
+    expect(audit).toHaveLength(2);
+    expect(audit[0].before).toEqual({ revision: 1, touchLimitMetalC: 60 });
+    expect(audit[0].after).toEqual({ revision: 2, touchLimitMetalC: 55 });
+    expect(audit[1].after).toEqual({ revision: 2, unitSystem: 'US' });
   });
 
   it('picks: a reason for a manual pick, flagged below a hard criterion, and the second of two concurrent saves refused', async () => {

@@ -44,7 +44,7 @@ const systems = new Map<string, ReturnType<typeof defaultSystemFor>>();
 const systemFor = (t: number) => { const k = t < 0 ? 'cold' : t < 20 ? 'chill' : t <= 120 ? 'warm' : t <= 600 ? 'hot' : 'very'; if (!systems.has(k)) systems.set(k, defaultSystemFor(t)); return systems.get(k)!; };
 
 // Warm-up so the figure is the steady JIT-compiled rate.
-for (let i = 0; i < 500; i++) recommendLine(lines[i % N], systemFor(lines[i % N].normalTempC), DEFAULT_CRITERIA);
+for (let i = 0; i < 3000; i++) recommendLine(lines[i % N], systemFor(lines[i % N].normalTempC), DEFAULT_CRITERIA);
 
 // Five timed passes over the same lines; the machine is shared, so every pass is printed and the
 // median is the figure (the best pass is shown beside it).

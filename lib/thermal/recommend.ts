@@ -170,19 +170,27 @@ function interfacesOf(chain: PreparedChain, layerCount: number): number[] {
 }
 
 /**
- * Start values for candidate i of a sweep from the two solved before it: surface coefficient and
- * resistance ratio extrapolated linearly in total thickness (the previous values when that would
- * not be positive). Fills the shared HINT.
+ * Start values for candidate i of a sweep from the ones solved before it: surface coefficient and
+ * resistance ratio extrapolated in total thickness — quadratically through the last three, linearly
+ * through two for the third candidate (the previous values when that would not be positive).
+ * `Sweep` keeps the history; `pushSweep` adds a solved candidate. Fills the shared HINT.
  */
+interface Sweep { h1: number; h2: number; h3: number; r1: number; r2: number; r3: number }
+const newSweep = (): Sweep => ({ h1: 0, h2: 0, h3: 0, r1: 1, r2: 1, r3: 1 });
+function pushSweep(s: Sweep, h: number, r: number) { s.h3 = s.h2; s.r3 = s.r2; s.h2 = s.h1; s.r2 = s.r1; s.h1 = h; s.r1 = r; }
 const HINT = { h: 0, ratio: 1 };
-function sweepHint(all: (Candidate | null)[], i: number, h1: number, r1: number, h2: number, r2: number): typeof HINT {
+function sweepHint(all: (Candidate | null)[], i: number, s: Sweep): typeof HINT {
   HINT.h = 0; HINT.ratio = 1;
-  if (i === 2) { HINT.h = h1; HINT.ratio = r1; }
-  else if (i > 2) {
+  if (i === 2) { HINT.h = s.h1; HINT.ratio = s.r1; }
+  else if (i === 3) {
     const t0 = all[i - 2]!.totalMm, t1 = all[i - 1]!.totalMm, f = (all[i]!.totalMm - t1) / (t1 - t0);
-    HINT.h = h1 + (h1 - h2) * f; HINT.ratio = r1 + (r1 - r2) * f;
-    if (!(HINT.h > 0 && HINT.ratio > 0)) { HINT.h = h1; HINT.ratio = r1; }
+    HINT.h = s.h1 + (s.h1 - s.h2) * f; HINT.ratio = s.r1 + (s.r1 - s.r2) * f;
+  } else if (i > 3) {
+    const t = all[i]!.totalMm, t1 = all[i - 1]!.totalMm, t2 = all[i - 2]!.totalMm, t3 = all[i - 3]!.totalMm;
+    const l1 = ((t - t2) * (t - t3)) / ((t1 - t2) * (t1 - t3)), l2 = ((t - t1) * (t - t3)) / ((t2 - t1) * (t2 - t3)), l3 = ((t - t1) * (t - t2)) / ((t3 - t1) * (t3 - t2));
+    HINT.h = s.h1 * l1 + s.h2 * l2 + s.h3 * l3; HINT.ratio = s.r1 * l1 + s.r2 * l2 + s.r3 * l3;
   }
+  if (i > 2 && !(HINT.h > 0 && HINT.ratio > 0)) { HINT.h = s.h1; HINT.ratio = s.r1; }
   return HINT;
 }
 
@@ -338,13 +346,13 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const hlAmb = ambientOf(crit.conditions.heatLoss, emittance), hlBare = ambientOf(crit.conditions.heatLoss, bareEps);
   const hlQ = new Array<number>(n), hlH = new Array<number>(n);
   const results: CandidateResult[] = new Array(n);
-  // From the third candidate on the hint is extrapolated linearly in thickness from the two before.
-  let h1 = 0, r1 = 1, h2 = 0, r2 = 1;
+  // From the third candidate on the hint is extrapolated in thickness from the ones before (sweepHint).
+  const sweep = newSweep();
   for (let i = 0; i < n; i++) {
-    const hint = sweepHint(all, i, h1, r1, h2, r2);
+    const hint = sweepHint(all, i, sweep);
     const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb)
       : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hint.h, hint.ratio);
-    h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
+    pushSweep(sweep, r.h, r.ratio);
     hlQ[i] = r.Q; hlH[i] = r.h;
     // Every field present from the start: one object shape for all candidates (the optional ones stay
     // undefined unless a criterion fills them, and JSON leaves them out).
@@ -363,12 +371,13 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (purposes.includes('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
     const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
     const a = ambientOf(crit.conditions.personnel, emittance), bare = ambientOf(crit.conditions.personnel, bareEps);
-    let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
+    const sweep = newSweep();
+    let idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const hint = sweepHint(all, i, h1, r1, h2, r2);
+      const hint = sweepHint(all, i, sweep);
       const r = parts ? solveVesselCandidate(parts, i, layersCache[i], maxC, i === 0 ? bare : a)
         : solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, hint.h, hint.ratio);
-      h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
+      pushSweep(sweep, r.h, r.ratio);
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (!r.limitOk) results[i].serviceLimitOk = false;
       if (r.Ts <= limit) { idx = i; break; }
@@ -384,12 +393,13 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
     const need = th.valueC + crit.dewPointMarginK;
     const a = ambientOf(c, emittance), bare = ambientOf(c, bareEps);
-    let h1 = 0, r1 = 1, h2 = 0, r2 = 1, idx: number | null = null;
+    const sweep = newSweep();
+    let idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const hint = sweepHint(all, i, h1, r1, h2, r2);
+      const hint = sweepHint(all, i, sweep);
       const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? bare : a)
         : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, hint.h, hint.ratio);
-      h2 = h1; r2 = r1; h1 = r.h; r1 = r.ratio;
+      pushSweep(sweep, r.h, r.ratio);
       results[i].condensation = { surfaceC: r.Ts };
       if (r.Ts >= need) { idx = i; break; }
     }

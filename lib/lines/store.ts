@@ -90,6 +90,29 @@ export async function addOwnJacket(o: { projectId: string; userId: string; jacke
   return { ...r, id };
 }
 
+/** Changes a project material's data in place (same id, so the bands and designs that use it follow). */
+export async function updateOwnMaterial(o: { projectId: string; userId: string; id: string; material: Omit<OwnMaterial, 'id'>; pricePerM3?: number }) {
+  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material changed', after: { id: o.id, name: o.material.name, source: o.material.source } }, (b) => {
+    const i = b.ownMaterials.findIndex((m) => m.id === o.id);
+    if (i < 0) throw new AppError('not_found', 'That project material does not exist (it may have been removed).');
+    if (b.ownMaterials.some((m) => m.id !== o.id && m.name.toLowerCase() === o.material.name.toLowerCase())) throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
+    const materialPerM3 = { ...b.prices.materialPerM3 };
+    if (o.pricePerM3 === undefined) delete materialPerM3[o.id]; else materialPerM3[o.id] = o.pricePerM3;
+    const ownMaterials = b.ownMaterials.map((m, j) => (j === i ? { ...o.material, id: o.id } : m));
+    return { ...b, ownMaterials, prices: { ...b.prices, materialPerM3 } };
+  });
+}
+
+/** Changes a project jacket in place. */
+export async function updateOwnJacket(o: { projectId: string; userId: string; id: string; jacket: Omit<OwnJacket, 'id'> }) {
+  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project jacket changed', after: { id: o.id, name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source } }, (b) => {
+    const i = b.ownJackets.findIndex((j) => j.id === o.id);
+    if (i < 0) throw new AppError('not_found', 'That project jacket does not exist (it may have been removed).');
+    if (b.ownJackets.some((j) => j.id !== o.id && j.name.toLowerCase() === o.jacket.name.toLowerCase())) throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
+    return { ...b, ownJackets: b.ownJackets.map((j, k) => (k === i ? { ...o.jacket, id: o.id } : j)) };
+  });
+}
+
 /** Removes a project entry; refused while a material band, a line's jacket or a chosen design uses it. */
 export async function removeOwnEntry(o: { projectId: string; userId: string; id: string }) {
   return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b) => {

@@ -24,6 +24,15 @@ test('an engineer adds a project material with its data; a bad table line is nam
   const table = page.getByRole('table', { name: 'Project materials' });
   await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText('0.021 at 50 °C … 0.03 at 300 °C (3 points)');
   await expect(table).toContainText('Scenario data sheet rev 1');
+  // Change it in place: the form fills with its values and saves under the same id.
+  await table.getByRole('button', { name: 'Change Scenario microporous section' }).click();
+  const edit = page.getByRole('form', { name: 'Change a project material' });
+  await expect(edit.getByLabel(/Conductivity: mean °C/)).toHaveValue('50, 0.021\n150, 0.024\n300, 0.03');
+  await edit.getByLabel('Source of the data').fill('Scenario data sheet rev 2');
+  await edit.getByRole('button', { name: 'Save changes' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Material changed.' })).toBeVisible();
+  await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText('Scenario data sheet rev 2');
+  await expect(table.getByRole('row')).toHaveCount(2); // header + the one material
   // The specification bands offer it.
   await page.reload();
   await expect(page.getByLabel('Band 3 material').locator('option', { hasText: 'Scenario microporous section (project)' })).toHaveCount(1);

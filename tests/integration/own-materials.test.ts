@@ -108,6 +108,24 @@ describe('project materials and jackets', () => {
     expect(ho2.surfaceTempC).toBeCloseTo(check2.surfaceC, 1);
   });
 
+  it('a material changed in place keeps its id, so the band still uses it; the next solve uses the new data', async () => {
+    const before = await store.getDesignBasis({ projectId });
+    const [ho1Before] = await db.select({ q: lineResults.heatFlowPerUnit }).from(lineResults).innerJoin(lines, eq(lines.id, lineResults.lineId)).where(and(eq(lines.projectId, projectId), eq(lines.tag, 'HO-1')));
+    // A revised data sheet: 10 % higher k throughout.
+    const r = await store.updateOwnMaterial({ projectId, userId, id: materialId, material: { ...product, kPoints: product.kPoints.map(([t, k]) => [t, k * 1.1] as [number, number]), source: 'Scenario data for tests, rev B' }, pricePerM3: 2500 });
+    expect(r.revision).toBe(before.revision + 1);
+    expect(r.basis.ownMaterials).toHaveLength(1);
+    expect(r.basis.ownMaterials[0]).toMatchObject({ id: materialId, source: 'Scenario data for tests, rev B' });
+    expect(r.basis.prices.materialPerM3[materialId]).toBe(2500);
+    expect(r.basis.systems.find((s) => s.fromC === 20)!.outerId).toBe(materialId);
+    await store.solveProject({ projectId });
+    const [ho1After] = await db.select({ q: lineResults.heatFlowPerUnit, mm: lineResults.recommendedMm }).from(lineResults).innerJoin(lines, eq(lines.id, lineResults.lineId)).where(and(eq(lines.projectId, projectId), eq(lines.tag, 'HO-1')));
+    expect(ho1After.q).not.toBe(ho1Before.q);
+    await expectAppError(store.updateOwnMaterial({ projectId, userId, id: 'own-nothing', material: product }), 'not_found', /does not exist/);
+    const audit = await db.select().from(auditLog).where(and(eq(auditLog.projectId, projectId), eq(auditLog.action, 'project material changed')));
+    expect(audit).toHaveLength(1);
+  });
+
   it('the bill names the project material, and removal is refused while a band or a chosen design uses it', async () => {
     await store.acceptRecommendations({ projectId, userId });
     const bill = await collectBillLines({ projectId });

@@ -7,7 +7,7 @@ import { validateRequest } from '@/lib/auth/session';
 import { getProjectAccess } from '@/db/queries/projects';
 import { isAppError } from '@/lib/errors';
 import { checkBandRanges, designBasisObject, designBasisSchema, fieldName } from '@/lib/lines/design-basis';
-import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis } from '@/lib/lines/store';
+import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis, updateOwnJacket, updateOwnMaterial } from '@/lib/lines/store';
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 
 // Material prices per m³ and the project's own materials and jackets are kept from the stored basis
@@ -63,12 +63,18 @@ async function ownEntryAction<S extends z.ZodType>(formData: FormData, schema: S
   }
 }
 
+/** Adds a project material, or changes one in place when the form carries its id. */
 export async function addOwnMaterialAction(_prev: unknown, formData: FormData): Promise<Reply> {
-  return ownEntryAction(formData, ownMaterialFormSchema, (projectId, userId, { pricePerM3, ...material }) => addOwnMaterial({ projectId, userId, material, pricePerM3 }));
+  const id = String(formData.get('id') ?? '');
+  return ownEntryAction(formData, ownMaterialFormSchema, (projectId, userId, { pricePerM3, ...material }) =>
+    id ? updateOwnMaterial({ projectId, userId, id, material, pricePerM3 }) : addOwnMaterial({ projectId, userId, material, pricePerM3 }));
 }
 
+/** Adds a project jacket, or changes one in place when the form carries its id. */
 export async function addOwnJacketAction(_prev: unknown, formData: FormData): Promise<Reply> {
-  return ownEntryAction(formData, ownJacketFormSchema, (projectId, userId, jacket) => addOwnJacket({ projectId, userId, jacket }));
+  const id = String(formData.get('id') ?? '');
+  return ownEntryAction(formData, ownJacketFormSchema, (projectId, userId, jacket) =>
+    id ? updateOwnJacket({ projectId, userId, id, jacket }) : addOwnJacket({ projectId, userId, jacket }));
 }
 
 export async function removeOwnEntryAction(_prev: unknown, formData: FormData): Promise<Reply> {

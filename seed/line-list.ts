@@ -85,10 +85,10 @@ export async function lineListWorkbook(rows: Row[], o: { withInstructions?: bool
     const help = wb.addWorksheet('How to fill');
     [
       ['One row per line, vessel or flat surface. Units are in the headers; the import lets you change them (°F, in, ft, psig, lb/h).'],
-      ['Geometry: Horizontal pipe, Vertical pipe, Vessel or Flat. Pipes need NPS (or OD) and length; vessels need surface area and height; flat surfaces need area.'],
+      ['Geometry: Horizontal pipe, Vertical pipe, Vessel or Flat. Pipes need NPS (or OD) and length; vessels need their bare outside area (shell and both heads) and the shell height — they are solved as a shell with two flat heads; flat surfaces need area.'],
       ['Purpose: H heat conservation, P personnel protection, C condensation control, T process control, F freeze protection (comma-separated).'],
       ['Accessible: yes, no, or the height in metres above grade or platform (within 2.1 m counts as accessible, common practice).'],
-      ['Jacket: leave empty for the design-basis jacket, or name one (e.g. Stainless steel, PVC sheet).'],
+      ['Jacket: leave empty for the design-basis jacket, or name one from the library or the project\'s own jackets (e.g. Stainless steel, PVC sheet).'],
     ].forEach((r) => help.addRow(r));
     help.getColumn(1).width = 120;
   }

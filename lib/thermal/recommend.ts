@@ -231,6 +231,17 @@ function solveVesselCandidate(v: VesselParts, i: number, layers: SolidLayer[], p
   return SOLVED;
 }
 
+/** What one line's sweeps share: its candidates, their prepared chains, and a vessel's parts. */
+interface LineChains { all: (Candidate | null)[]; layersCache: SolidLayer[][]; chains: PreparedChain[]; parts: VesselParts | null }
+/** Candidate i of a sweep: solved from the sweep's hint (a vessel part by part), the sweep then told the result. */
+function solveInSweep(lc: LineChains, i: number, processC: number, a: Ambient, sweep: Sweep): typeof SOLVED {
+  const hint = sweepHint(lc.all, i, sweep);
+  const r = lc.parts ? solveVesselCandidate(lc.parts, i, lc.layersCache[i], processC, a)
+    : solveCandidate(lc.chains[i], lc.layersCache[i], processC, a, hint.h, hint.ratio);
+  pushSweep(sweep, r.h, r.ratio);
+  return r;
+}
+
 const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance });
 
 function layersOf(c: Candidate): SolidLayer[] {
@@ -276,37 +287,27 @@ export function outletTempC(o: { inletC: number; airC: number; uPerLengthWPerMK:
   return o.airC + (o.inletC - o.airC) * Math.exp((-o.uPerLengthWPerMK * o.lengthM) / (o.massFlowKgPerS * o.cpJPerKgK));
 }
 
-function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
-  if (line.geometry === 'vessel') return installedCostVessel(line, cand, jacketOuterM, prices);
-  const pipe = isPipe(line.geometry);
-  let r = (line.pipeOuterDiameterMm ?? 0) / 2000, cost = 0;
-  for (const l of cand.layers) {
-    const t = l.thicknessMm / 1000;
-    const vol = pipe ? Math.PI * ((r + t) * (r + t) - r * r) : t;
-    cost += vol * (prices.materialPerM3[l.material.id] ?? prices.defaultMaterialPerM3) * (1 + prices.wasteFraction);
-    cost += pipe ? prices.labourPerMPerLayer : prices.labourPerM2PerLayer;
-    r += t;
-  }
-  if (cand.layers.length) cost += prices.jacketPerM2 * (pipe ? Math.PI * jacketOuterM : 1);
-  return cost * (1 + prices.fittingsAllowanceFraction);
-}
-
 /**
- * A vessel, per m² of its bare outside area (as its heat flow is): the shell's layers as cylinders
- * over its height, each head's as flat layers, labour and jacket per m².
+ * Installed cost per unit of the line's extent — per metre of pipe, per m² of flat surface, per m²
+ * of a vessel's bare outside area (as its heat flow is): material by volume with waste, labour per
+ * layer, jacket per m², plus the fittings allowance. A vessel's shell layers are cylinders over its
+ * height and each head's flat layers.
  */
-function installedCostVessel(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
-  const D = (line.pipeOuterDiameterMm ?? 0) / 1000, H = line.heightM ?? 1, head = (Math.PI * D * D) / 4;
-  const area = Math.PI * D * H + 2 * head;
+function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
+  const vessel = line.geometry === 'vessel', pipe = line.geometry !== 'vessel' && isPipe(line.geometry);
+  const D = (line.pipeOuterDiameterMm ?? 0) / 1000, H = line.heightM ?? 1;
+  const head = vessel ? (Math.PI * D * D) / 4 : 0;
+  const area = vessel ? Math.PI * D * H + 2 * head : 1; // the unit the cost is per
   let r = D / 2, cost = 0;
   for (const l of cand.layers) {
     const t = l.thicknessMm / 1000;
-    const vol = Math.PI * ((r + t) * (r + t) - r * r) * H + 2 * head * t;
+    const ring = Math.PI * ((r + t) * (r + t) - r * r);
+    const vol = vessel ? ring * H + 2 * head * t : pipe ? ring : t;
     cost += vol * (prices.materialPerM3[l.material.id] ?? prices.defaultMaterialPerM3) * (1 + prices.wasteFraction);
-    cost += prices.labourPerM2PerLayer * area;
+    cost += pipe ? prices.labourPerMPerLayer : prices.labourPerM2PerLayer * area;
     r += t;
   }
-  if (cand.layers.length) cost += prices.jacketPerM2 * (Math.PI * jacketOuterM * H + 2 * head);
+  if (cand.layers.length) cost += prices.jacketPerM2 * (vessel ? Math.PI * jacketOuterM * H + 2 * head : pipe ? Math.PI * jacketOuterM : 1);
   return (cost * (1 + prices.fittingsAllowanceFraction)) / area;
 }
 
@@ -336,6 +337,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const n = all.length;
   const parts = vessel ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM) : null;
   const chains = parts ? parts.shell : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
+  const lc: LineChains = { all, layersCache, chains, parts };
 
   const purposes = line.purposes;
   const econ = crit.economics ?? DEFAULT_ECONOMICS;
@@ -349,10 +351,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   // From the third candidate on the hint is extrapolated in thickness from the ones before (sweepHint).
   const sweep = newSweep();
   for (let i = 0; i < n; i++) {
-    const hint = sweepHint(all, i, sweep);
-    const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb)
-      : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? hlBare : hlAmb, hint.h, hint.ratio);
-    pushSweep(sweep, r.h, r.ratio);
+    const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? hlBare : hlAmb, sweep);
     hlQ[i] = r.Q; hlH[i] = r.h;
     // Every field present from the start: one object shape for all candidates (the optional ones stay
     // undefined unless a criterion fills them, and JSON leaves them out).
@@ -374,10 +373,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const sweep = newSweep();
     let idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const hint = sweepHint(all, i, sweep);
-      const r = parts ? solveVesselCandidate(parts, i, layersCache[i], maxC, i === 0 ? bare : a)
-        : solveCandidate(chains[i], layersCache[i], maxC, i === 0 ? bare : a, hint.h, hint.ratio);
-      pushSweep(sweep, r.h, r.ratio);
+      const r = solveInSweep(lc, i, maxC, i === 0 ? bare : a, sweep);
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (!r.limitOk) results[i].serviceLimitOk = false;
       if (r.Ts <= limit) { idx = i; break; }
@@ -396,10 +392,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const sweep = newSweep();
     let idx: number | null = null;
     for (let i = 0; i < n; i++) {
-      const hint = sweepHint(all, i, sweep);
-      const r = parts ? solveVesselCandidate(parts, i, layersCache[i], line.normalTempC, i === 0 ? bare : a)
-        : solveCandidate(chains[i], layersCache[i], line.normalTempC, i === 0 ? bare : a, hint.h, hint.ratio);
-      pushSweep(sweep, r.h, r.ratio);
+      const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? bare : a, sweep);
       results[i].condensation = { surfaceC: r.Ts };
       if (r.Ts >= need) { idx = i; break; }
     }

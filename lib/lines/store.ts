@@ -3,7 +3,7 @@
  * Every import is one transaction: all rows or none, the previous revision intact on any error.
  */
 import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
-import { db } from '@/db/client';
+import { db, type Tx } from '@/db/client';
 import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
@@ -25,47 +25,59 @@ export async function getDesignBasis({ projectId }: { projectId: string }): Prom
   return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
 }
 
+/**
+ * Runs `fn` in a transaction holding the project's design-basis row locked, with the stored basis
+ * (the default row is created first when the project has none). Every basis write goes through it.
+ */
+async function withLockedBasis<T>(projectId: string, fn: (tx: Tx, row: { revision: number }, current: DesignBasis) => Promise<T>): Promise<T> {
+  await getDesignBasis({ projectId });
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, projectId)).for('update');
+    return fn(tx, row, designBasisSchema.parse(row.basis));
+  });
+}
+
+/** Writes the basis in the locked transaction, bumping the revision when `bump`; returns the new revision. */
+async function writeBasis(tx: Tx, projectId: string, userId: string, basis: DesignBasis, bump: boolean) {
+  const [saved] = await tx.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
+    .where(eq(designBases.projectId, projectId)).returning();
+  return saved.revision;
+}
+
 export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
-  await getDesignBasis({ projectId }); // creates the default row when the project has none
   // jsonb does not keep key order, so compare with sorted keys.
   const canon = (v: unknown): unknown => (Array.isArray(v) ? v.map(canon) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canon((v as Record<string, unknown>)[k])])) : v);
   const json = (v: unknown) => JSON.stringify(canon(v));
-  return db.transaction(async (tx) => {
-    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, projectId)).for('update');
-    const current = designBasisSchema.parse(row.basis);
+  return withLockedBasis(projectId, async (tx, row, current) => {
     // What changed, by section; the display unit system changes no result, so it alone keeps the
     // revision (nothing goes stale).
     const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])]
       .filter((k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]));
     if (!changed.length) return { revision: row.revision };
-    const bump = changed.some((k) => k !== 'unitSystem');
-    const [saved] = await tx.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
-      .where(eq(designBases.projectId, projectId)).returning();
+    const revision = await writeBasis(tx, projectId, userId, basis, changed.some((k) => k !== 'unitSystem'));
     await writeAudit(tx, [{
       projectId, actorId: userId, actorName: await actorName(userId), action: 'design basis saved',
       before: { revision: row.revision, ...Object.fromEntries(changed.map((k) => [k, (current as Record<string, unknown>)[k]])) },
-      after: { revision: saved.revision, ...Object.fromEntries(changed.map((k) => [k, (basis as Record<string, unknown>)[k]])) },
+      after: { revision, ...Object.fromEntries(changed.map((k) => [k, (basis as Record<string, unknown>)[k]])) },
     }]);
-    return { revision: saved.revision };
+    return { revision };
   });
 }
 
 // ---------- the project's own materials and jackets (kept in the design basis) ----------
 
 /**
- * Changes the basis under a row lock and bumps its revision (results computed before are stale),
- * with an audit entry. `change` returns the new basis or throws an AppError with the reason.
+ * Changes the basis under the row lock and bumps its revision (results computed before are stale),
+ * with an audit entry. `change` returns the new basis (reading in the same transaction) or throws an
+ * AppError with the reason.
  */
-async function changeBasis(o: { projectId: string; userId: string; action: string; after: unknown }, change: (b: DesignBasis) => DesignBasis | Promise<DesignBasis>) {
-  await getDesignBasis({ projectId: o.projectId }); // creates the default row when the project has none
-  return db.transaction(async (tx) => {
-    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, o.projectId)).for('update');
-    const next = designBasisSchema.safeParse(await change(designBasisSchema.parse(row.basis)));
+async function changeBasis(o: { projectId: string; userId: string; action: string; after: unknown }, change: (b: DesignBasis, tx: Tx) => DesignBasis | Promise<DesignBasis>) {
+  return withLockedBasis(o.projectId, async (tx, _row, current) => {
+    const next = designBasisSchema.safeParse(await change(current, tx));
     if (!next.success) throw new AppError('invalid', next.error.issues.map((i) => i.message).join('; '));
-    const [saved] = await tx.update(designBases).set({ basis: next.data, revision: sql`${designBases.revision} + 1`, updatedBy: o.userId, updatedAt: new Date() })
-      .where(eq(designBases.projectId, o.projectId)).returning();
+    const revision = await writeBasis(tx, o.projectId, o.userId, next.data, true);
     await writeAudit(tx, [{ projectId: o.projectId, actorId: o.userId, actorName: await actorName(o.userId), action: o.action, after: o.after }]);
-    return { revision: saved.revision, basis: next.data };
+    return { revision, basis: next.data };
   });
 }
 
@@ -115,15 +127,16 @@ export async function updateOwnJacket(o: { projectId: string; userId: string; id
 
 /** Removes a project entry; refused while a material band, a line's jacket or a chosen design uses it. */
 export async function removeOwnEntry(o: { projectId: string; userId: string; id: string }) {
-  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b) => {
-    const name = catalogueOf(b).own.has(o.id) ? (b.ownMaterials.find((m) => m.id === o.id)?.name ?? b.ownJackets.find((j) => j.id === o.id)!.name) : null;
+  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b, tx) => {
+    const cat = catalogueOf(b);
+    const name = cat.own.has(o.id) ? (cat.materials.get(o.id) ?? cat.jackets.get(o.id))!.name : null;
     if (!name) throw new AppError('not_found', 'That project material or jacket does not exist (it may have been removed already).');
     const bands = b.systems.map((s, i) => (s.outerId === o.id || s.innerId === o.id || s.flatOuterId === o.id || s.jacketId === o.id ? i + 1 : 0)).filter(Boolean);
     if (bands.length) throw new AppError('conflict', `"${name}" is used by material band ${bands.join(', ')} of the specification; choose another there first.`);
-    const [{ n: designs }] = await db.select({ n: count() }).from(lineDesigns)
+    const [{ n: designs }] = await tx.select({ n: count() }).from(lineDesigns)
       .where(and(eq(lineDesigns.projectId, o.projectId), sql`${lineDesigns.layers} @> ${JSON.stringify([{ materialId: o.id }])}::jsonb`));
     if (designs > 0) throw new AppError('conflict', `"${name}" is in ${designs} chosen line design${designs === 1 ? '' : 's'}; choose those thicknesses again before removing it.`);
-    const [{ n: overrides }] = await db.select({ n: count() }).from(lines).where(and(eq(lines.projectId, o.projectId), eq(lines.jacketId, o.id)));
+    const [{ n: overrides }] = await tx.select({ n: count() }).from(lines).where(and(eq(lines.projectId, o.projectId), eq(lines.jacketId, o.id)));
     if (overrides > 0) throw new AppError('conflict', `"${name}" is the jacket override of ${overrides} line${overrides === 1 ? '' : 's'} in the line list.`);
     const materialPerM3 = { ...b.prices.materialPerM3 };
     delete materialPerM3[o.id];

@@ -17,7 +17,7 @@ const LIBRARY_MATERIALS = new Map(MATERIALS.map((m) => [m.id, m]));
 const LIBRARY_JACKETS = new Map(JACKETS.map((j) => [j.id, j]));
 const cache = new WeakMap<object, Catalogue>();
 
-export function ownMaterialToLibraryForm(m: OwnMaterial): InsulationMaterial {
+function ownMaterialToLibraryForm(m: OwnMaterial): InsulationMaterial {
   return {
     id: m.id, name: m.name, productForm: m.productForm,
     conductivity: { type: 'table', points: [...m.kPoints].sort((a, b) => a[0] - b[0]) },
@@ -38,8 +38,6 @@ export function catalogueOf(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJacket
   return c;
 }
 
-export const materialIn = (basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>, id: string) => catalogueOf(basis).materials.get(id);
-export const jacketIn = (basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>, id: string) => catalogueOf(basis).jackets.get(id);
 
 /** A new id for a project entry: "own-" + the name's slug, unique within the catalogue. */
 export function ownId(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>, name: string): string {

@@ -113,9 +113,10 @@ export function checkBands(b: { systems: { fromC: number; toC: number; outerId: 
   const materials = new Set([...LIBRARY_MATERIAL_IDS, ...(b.ownMaterials ?? []).map((m) => m.id)]);
   const jackets = new Set([...LIBRARY_JACKET_IDS, ...(b.ownJackets ?? []).map((j) => j.id)]);
   b.systems.forEach((s, i) => {
-    if (!materials.has(s.outerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'outerId'], message: `Band ${i + 1}: "${s.outerId}" is not in the library or the project's materials` });
-    if (s.flatOuterId && !materials.has(s.flatOuterId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'flatOuterId'], message: `Band ${i + 1}: "${s.flatOuterId}" is not in the library or the project's materials` });
-    if (s.innerId && !materials.has(s.innerId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'innerId'], message: `Band ${i + 1}: "${s.innerId}" is not in the library or the project's materials` });
+    for (const field of ['outerId', 'flatOuterId', 'innerId'] as const) {
+      const id = s[field];
+      if (id !== undefined && !materials.has(id)) ctx.addIssue({ code: 'custom', path: ['systems', i, field], message: `Band ${i + 1}: "${id}" is not in the library or the project's materials` });
+    }
     if (!jackets.has(s.jacketId)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'jacketId'], message: `Band ${i + 1}: "${s.jacketId}" is not in the library or the project's jackets` });
   });
   const ids = [...(b.ownMaterials ?? []), ...(b.ownJackets ?? [])].map((x) => x.id);

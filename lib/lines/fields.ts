@@ -69,3 +69,5 @@ export const PURPOSE_CODES: Record<string, Purpose> = { h: 'heatConservation', p
 
 export type LineGeometry = 'horizontal-pipe' | 'vertical-pipe' | 'vessel' | 'flat';
 export const GEOMETRY_LABEL: Record<LineGeometry, string> = { 'horizontal-pipe': 'Horizontal pipe', 'vertical-pipe': 'Vertical pipe', vessel: 'Vessel', flat: 'Flat surface' };
+/** Vessels and flat surfaces: sized by area, heat loss per m², blanket or board rather than pipe sections. */
+export const isSurfaceGeometry = (g: string) => g === 'vessel' || g === 'flat';

@@ -4,6 +4,7 @@ import {
   type Criteria, type LineCase, type MaterialSystem, type Recommendation,
 } from '@/lib/thermal';
 import type { DesignBasis } from './design-basis';
+import { isSurfaceGeometry } from './fields';
 import { catalogueOf } from './catalogue';
 import type { LineInput } from './validate';
 
@@ -13,7 +14,7 @@ export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalT
   const cat = catalogueOf(basis);
   const jacket = (line.jacketId && cat.jackets.has(line.jacketId)) ? line.jacketId : band.jacketId;
   // Vessels and flat surfaces take the band's blanket or board when it names one.
-  const outerId = (line.geometry === 'vessel' || line.geometry === 'flat') && band.flatOuterId ? band.flatOuterId : band.outerId;
+  const outerId = line.geometry && isSurfaceGeometry(line.geometry) && band.flatOuterId ? band.flatOuterId : band.outerId;
   const key = `${outerId}|${band.innerId ?? ''}|${jacket}|${basis.thicknessSeries}`;
   let s = cache.get(key);
   if (!s) {
@@ -86,7 +87,7 @@ export function solveLine(basis: DesignBasis, l: LineInput, systems?: Map<string
   const system = systemForLine(basis, l, systems);
   const c = lineCaseFor(l);
   const r = recommendLine(c, system, criteriaFor(basis, l.outdoor));
-  const areal = c.geometry === 'vertical-wall' || c.geometry === 'vessel';
+  const areal = isSurfaceGeometry(l.geometry);
   const extent = areal ? c.areaM2 ?? 1 : c.lengthM ?? 1;
   const chosen = r.candidates.find((x) => x.totalMm === r.recommendedMm);
   return {

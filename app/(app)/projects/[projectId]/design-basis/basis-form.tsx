@@ -24,6 +24,19 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
       </div>
     );
   };
+  /** A band's choice of material or jacket, with its error; `empty` labels the "no choice" option where one is allowed. */
+  const bandSelect = (i: number, field: 'outerId' | 'innerId' | 'flatOuterId' | 'jacketId', label: string, value: string | undefined, options: Option[], empty?: string) => {
+    const name = `systems[${i}].${field}`;
+    return (
+      <td>
+        <select aria-label={`Band ${i + 1} ${label}`} name={name} defaultValue={value ?? ''} disabled={!canEdit} className="input">
+          {empty !== undefined ? <option value="">{empty}</option> : null}
+          {options.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}
+        </select>
+        {errors[name] ? <p className="field-error">{errors[name]!.join(' ')}</p> : null}
+      </td>
+    );
+  };
   const condition = (key: 'heatLoss' | 'personnel' | 'condensation', title: string, rh: boolean) => (
     <fieldset className="panel p-3">
       <legend className="px-1 text-sm font-semibold">{title}</legend>
@@ -86,10 +99,10 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
               <tr key={i}>
                 <td><input aria-label={`Band ${i + 1} from`} name={`systems[${i}].fromC`} type="number" defaultValue={s.fromC} disabled={!canEdit} className="input w-24" /></td>
                 <td><input aria-label={`Band ${i + 1} to`} name={`systems[${i}].toC`} type="number" defaultValue={s.toC} disabled={!canEdit} className="input w-24" />{errors[`systems[${i}].toC`] ? <p className="field-error">{errors[`systems[${i}].toC`]!.join(' ')}</p> : null}</td>
-                <td><select aria-label={`Band ${i + 1} material`} name={`systems[${i}].outerId`} defaultValue={s.outerId} disabled={!canEdit} className="input">{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].outerId`] ? <p className="field-error">{errors[`systems[${i}].outerId`]!.join(' ')}</p> : null}</td>
-                <td><select aria-label={`Band ${i + 1} inner layer`} name={`systems[${i}].innerId`} defaultValue={s.innerId ?? ''} disabled={!canEdit} className="input"><option value="">none</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].innerId`] ? <p className="field-error">{errors[`systems[${i}].innerId`]!.join(' ')}</p> : null}</td>
-                <td><select aria-label={`Band ${i + 1} vessels and flat surfaces`} name={`systems[${i}].flatOuterId`} defaultValue={s.flatOuterId ?? ''} disabled={!canEdit} className="input"><option value="">same as main</option>{materials.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</select>{errors[`systems[${i}].flatOuterId`] ? <p className="field-error">{errors[`systems[${i}].flatOuterId`]!.join(' ')}</p> : null}</td>
-                <td><select aria-label={`Band ${i + 1} jacket`} name={`systems[${i}].jacketId`} defaultValue={s.jacketId} disabled={!canEdit} className="input">{jackets.map((j) => <option key={j.id} value={j.id}>{j.name}</option>)}</select>{errors[`systems[${i}].jacketId`] ? <p className="field-error">{errors[`systems[${i}].jacketId`]!.join(' ')}</p> : null}</td>
+                {bandSelect(i, 'outerId', 'material', s.outerId, materials)}
+                {bandSelect(i, 'innerId', 'inner layer', s.innerId, materials, 'none')}
+                {bandSelect(i, 'flatOuterId', 'vessels and flat surfaces', s.flatOuterId, materials, 'same as main')}
+                {bandSelect(i, 'jacketId', 'jacket', s.jacketId, jackets)}
               </tr>
             ))}
           </tbody>

@@ -5,6 +5,7 @@ import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-quer
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { acceptRecommendationsAction, pickThicknessAction, solveLinesAction } from './actions';
 import { display, type UnitSystem } from '@/lib/lines/display';
+import { isSurfaceGeometry } from '@/lib/lines/fields';
 
 interface Candidate { mm: number; heatFlow: number; surfaceC: number; personnelC: number | null; ok: boolean }
 interface Row {
@@ -52,7 +53,7 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
     ch.accessor('recommendedMm', { header: `Rec. ${u.units.thickness}`, cell: (c) => <span className="num block">{c.getValue() === null ? '—' : u.thickness(c.getValue())}</span> }),
     ch.accessor('governing', { header: 'Governs', cell: (c) => (c.getValue() ? GOV[c.getValue()!] ?? c.getValue() : '—') }),
     ch.accessor('surfaceTempC', { header: `Surface ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
-    ch.accessor('heatFlowPerUnit', { header: `Loss ${u.units.linearLoss}·${u.units.arealLoss}`, cell: (c) => <span className="num block">{c.row.original.geometry === 'flat' || c.row.original.geometry === 'vessel' ? u.arealLoss(c.getValue()) : u.linearLoss(c.getValue())}</span> }),
+    ch.accessor('heatFlowPerUnit', { header: `Loss ${u.units.linearLoss}·${u.units.arealLoss}`, cell: (c) => <span className="num block">{isSurfaceGeometry(c.row.original.geometry) ? u.arealLoss(c.getValue()) : u.linearLoss(c.getValue())}</span> }),
     ch.display({ id: 'status', header: 'Status', cell: (c) => <Badges row={c.row.original} /> }),
     ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} unitSystem={unitSystem} /> }),
   ], [projectId, canPick, unitSystem]); // eslint-disable-line react-hooks/exhaustive-deps
@@ -164,7 +165,7 @@ function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; 
           <option value="">—</option>
           {row.candidates.map((c) => (
             <option key={c.mm} value={c.mm} disabled={!c.ok}>
-              {c.mm === 0 ? 'bare' : `${u.thickness(c.mm)} ${u.units.thickness}`}{c.mm === row.recommendedMm ? ' ★' : ''} · {u.temp(c.surfaceC)} {u.units.temp} · {row.geometry === 'flat' || row.geometry === 'vessel' ? u.arealLoss(c.heatFlow) : u.linearLoss(c.heatFlow)}{!c.ok ? ' · over limit' : ''}
+              {c.mm === 0 ? 'bare' : `${u.thickness(c.mm)} ${u.units.thickness}`}{c.mm === row.recommendedMm ? ' ★' : ''} · {u.temp(c.surfaceC)} {u.units.temp} · {isSurfaceGeometry(row.geometry) ? u.arealLoss(c.heatFlow) : u.linearLoss(c.heatFlow)}{!c.ok ? ' · over limit' : ''}
             </option>
           ))}
         </select>

@@ -3,7 +3,7 @@ import { loadProject, orNotFound } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
 import { getDesignBasis, getLine } from '@/lib/lines/store';
-import { GEOMETRY_LABEL, PURPOSE_LABEL, type Purpose } from '@/lib/lines/fields';
+import { GEOMETRY_LABEL, PURPOSE_LABEL, isSurfaceGeometry, type Purpose } from '@/lib/lines/fields';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { CostChart } from './cost-chart';
 import { auditForLine } from '@/lib/review/store';
@@ -25,7 +25,8 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
-  const unit = line.geometry === 'flat' || line.geometry === 'vessel' ? 'W/m²' : 'W/m';
+  const surface = isSurfaceGeometry(line.geometry);
+  const unit = surface ? 'W/m²' : 'W/m';
   return (
     <>
       <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/lines`}>← Line list</Link></p>
@@ -38,7 +39,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
           <h2 className="mb-2">Inputs</h2>
           <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
             <dt className="text-ink-500">Normal / max temperature</dt><dd>{f(line.normalTempC)} / {f(line.maxTempC)} °C</dd>
-            <dt className="text-ink-500">{line.geometry === 'vessel' || line.geometry === 'flat' ? 'Area / height' : 'Length'}</dt><dd>{line.geometry === 'vessel' || line.geometry === 'flat' ? `${f(line.surfaceAreaM2)} m² / ${f(line.heightM)} m` : `${f(line.lengthM)} m`}</dd>
+            <dt className="text-ink-500">{surface ? 'Area / height' : 'Length'}</dt><dd>{surface ? `${f(line.surfaceAreaM2)} m² / ${f(line.heightM)} m` : `${f(line.lengthM)} m`}</dd>
             <dt className="text-ink-500">Steam pressure</dt><dd>{line.steamPressureBarG !== null ? `${f(line.steamPressureBarG)} bar(g)` : '—'}</dd>
             <dt className="text-ink-500">Purposes</dt><dd>{(line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', ')}</dd>
             <dt className="text-ink-500">Location / access</dt><dd>{line.outdoor ? 'Outdoor' : 'Indoor'} · {line.accessible ? 'accessible' : 'not accessible'}{line.accessHeightM !== null ? ` (${f(line.accessHeightM)} m)` : ''}</dd>

@@ -8,7 +8,8 @@ import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
  * insulation specification by service-temperature band, and the economics. Every default is a
  * starting point labelled with where it comes from; the project overrides it.
  */
-const num = (what: string) => z.coerce.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a number` });
+/** A number typed in a form field, with a message naming the field. */
+export const num = (what: string) => z.coerce.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a number` });
 const cond = z.object({ airC: num('Air temperature').min(-60).max(60), windMs: num('Wind').min(0).max(40) });
 const condRh = cond.extend({ relativeHumidityPct: num('Relative humidity').gt(0).max(100) });
 // Band entries name a library material or one of the project's own (checked in checkBands).

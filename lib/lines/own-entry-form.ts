@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ownJacketSchema, ownMaterialSchema } from './design-basis';
+import { num, ownJacketSchema, ownMaterialSchema } from './design-basis';
 
 /**
  * The forms that add a project material or jacket: text as people type it (a conductivity table one
@@ -27,7 +27,6 @@ export function parseConductivityTable(text: string, ctx: z.RefinementCtx): [num
 }
 
 const text = (what: string) => z.string({ error: `${what} is required` });
-const num = (what: string) => z.coerce.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a number` });
 
 export const ownMaterialFormSchema = z.object({
   name: text('Name'),

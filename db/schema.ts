@@ -64,12 +64,17 @@ export const passwordResets = pgTable('password_resets', {
 });
 
 /** One row per failed sign-in; throttling counts these per account and per IP. */
-export const signInFailures = pgTable('sign_in_failures', {
-  id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
-  email: text('email').notNull(),
-  ip: text('ip').notNull(),
-  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [index('sign_in_failures_email_idx').on(t.email, t.at), index('sign_in_failures_ip_idx').on(t.ip, t.at)]);
+/**
+ * Sign-in attempt counters, one row per throttle key (an account, an account at an address, an
+ * address): failures counted before the password is checked (so parallel tries cannot slip past
+ * the limit), and the time until which the key is refused. See lib/auth/throttle.ts.
+ */
+export const signInThrottle = pgTable('sign_in_throttle', {
+  key: text('key').primaryKey(),
+  failures: integer('failures').notNull().default(0),
+  lastFailureAt: timestamp('last_failure_at', { withTimezone: true }).notNull().defaultNow(),
+  blockedUntil: timestamp('blocked_until', { withTimezone: true }),
+});
 
 export const geometryEnum = pgEnum('line_geometry', ['horizontal-pipe', 'vertical-pipe', 'vessel', 'flat']);
 

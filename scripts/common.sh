@@ -23,6 +23,7 @@ ensure_db() {
   else
     bash db/pg.sh start
     export DATABASE_URL="$(bash db/pg.sh url "${1:-lagwise}")"
+    export DATABASE_OWNER_URL="$(bash db/pg.sh owner-url "${1:-lagwise}")"
   fi
 }
 
@@ -35,7 +36,7 @@ start_mail_sink() {
   export MAIL_SINK_SMTP_PORT="${MAIL_SINK_SMTP_PORT:-2525}" MAIL_SINK_HTTP_PORT="${MAIL_SINK_HTTP_PORT:-2526}"
   export MAIL_SINK_FILE="${MAIL_SINK_FILE:-.data/mail/messages.jsonl}"
   if port_in_use "$MAIL_SINK_SMTP_PORT"; then
-    if http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health"; then export DEV_MAILBOX=1; log "mail sink already running (mailbox page /dev/mailbox)"; return; fi
+    if http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health"; then log "mail sink already running (messages: http://127.0.0.1:$MAIL_SINK_HTTP_PORT/messages)"; return; fi
     log "port $MAIL_SINK_SMTP_PORT is taken by another program; set MAIL_SINK_SMTP_PORT"; exit 1
   fi
   mkdir -p .data/mail
@@ -43,8 +44,7 @@ start_mail_sink() {
   echo $! > ".data/mail/sink-$MAIL_SINK_SMTP_PORT.pid"
   for _ in $(seq 1 50); do http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health" && break; sleep 0.2; done
   http_ok "http://127.0.0.1:$MAIL_SINK_HTTP_PORT/health" || { log "mail sink did not start; see .data/mail/sink.log"; exit 1; }
-  export DEV_MAILBOX=1
-  log "mail sink on 127.0.0.1:$MAIL_SINK_SMTP_PORT (mailbox page /dev/mailbox)"
+  log "mail sink on 127.0.0.1:$MAIL_SINK_SMTP_PORT (messages, loopback only: http://127.0.0.1:$MAIL_SINK_HTTP_PORT/messages)"
 }
 
 stop_mail_sink() {
@@ -61,6 +61,7 @@ use_fresh_test_db() {
     bash db/pg.sh start
     bash db/pg.sh reset-test
     export DATABASE_URL="$(bash db/pg.sh url lagwise_test)"
+    export DATABASE_OWNER_URL="$(bash db/pg.sh owner-url lagwise_test)"
   fi
 }
 

@@ -5,7 +5,8 @@
 import { and, eq, gt, isNull, sql, count } from 'drizzle-orm';
 import { generateIdFromEntropySize, type Session } from 'lucia';
 import { db } from '@/db/client';
-import { invitations, memberships, organizations, passwordResets, signInFailures, users, type Role } from '@/db/schema';
+import { invitations, memberships, organizations, passwordResets, users, type Role } from '@/db/schema';
+import { clearAccountThrottle, releaseSignInAttempt, reserveSignInAttempt } from './throttle';
 import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { composeMail, sendMail } from '@/lib/mail';
@@ -15,7 +16,7 @@ import { hashToken, newToken } from './tokens';
 import { ROLE_LABEL } from './permissions';
 import { passwordAllowedFor } from './sso';
 
-export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
+export { THROTTLE } from './throttle';
 export const RESET_TTL_MINUTES = 60;
 export const INVITE_TTL_DAYS = 7;
 
@@ -52,29 +53,21 @@ export async function signUp(input: { name: string; email: string; password: str
   return { userId, organizationId, session };
 }
 
-async function recentFailures(email: string, ip: string) {
-  const since = sql`now() - make_interval(mins => ${THROTTLE.windowMinutes})`;
-  const [byEmail] = await db.select({ n: count() }).from(signInFailures).where(and(eq(signInFailures.email, email), gt(signInFailures.at, since)));
-  const [byIp] = await db.select({ n: count() }).from(signInFailures).where(and(eq(signInFailures.ip, ip), gt(signInFailures.at, since)));
-  return Math.max(byEmail.n, byIp.n);
-}
-
 export const GENERIC_SIGN_IN_ERROR = 'E-mail or password is not right.';
 
-/** Same message whether the e-mail exists or not; throttled per account and per IP. */
+/**
+ * Same message whether the e-mail exists or not. Throttled per account, per account at an
+ * address and per address (lib/auth/throttle.ts); the attempt is counted before the password
+ * is checked. `ip` is the client address as lib/server/client-address.ts trusts it.
+ */
 export async function signIn(input: { email: string; password: string; ip: string }): Promise<{ userId: string; session: Session }> {
   const email = normalizeEmail(input.email);
-  if ((await recentFailures(email, input.ip)) >= THROTTLE.maxFailures) {
-    throw new AppError('throttled', `Too many failed sign-ins. Wait ${THROTTLE.windowMinutes} minutes and try again.`);
-  }
+  const keys = await reserveSignInAttempt(email, input.ip);
   const user = await findUserByEmail(email);
   // Verify against a dummy hash when the user is missing so timing does not reveal the account.
   const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, input.password) : (await verifyPassword(DUMMY_HASH, input.password), false);
-  if (!user || !ok) {
-    await db.insert(signInFailures).values({ email, ip: input.ip });
-    throw new AppError('invalid', GENERIC_SIGN_IN_ERROR);
-  }
-  await db.delete(signInFailures).where(eq(signInFailures.email, email));
+  if (!user || !ok) throw new AppError('invalid', GENERIC_SIGN_IN_ERROR);
+  await releaseSignInAttempt(keys);
   if (!(await passwordAllowedFor(user.id))) throw new AppError('forbidden', 'Your organization signs in with the company account. Use "Sign in with your company account".');
   const session = await lucia.createSession(user.id, {});
   return { userId: user.id, session };
@@ -111,7 +104,7 @@ export async function resetPassword(input: { token: string; password: string }):
     weakPassword(input.password, user.email);
     await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, user.id));
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
-    await tx.delete(signInFailures).where(eq(signInFailures.email, user.email));
+    await clearAccountThrottle(normalizeEmail(user.email), tx);
     return { userId: user.id };
   }).then(async (r) => { await lucia.invalidateUserSessions(r.userId); return r; });
 }

@@ -4,6 +4,7 @@ import { cookies, headers } from 'next/headers';
 import { redirect } from 'next/navigation';
 import type { Session, User } from 'lucia';
 import { lucia } from './lucia';
+import { clientAddressFrom } from '@/lib/server/client-address';
 
 /** The request's session, validated once per request; refreshes or clears the cookie when it can. */
 export const validateRequest = cache(async (): Promise<{ user: User; session: Session } | { user: null; session: null }> => {
@@ -41,8 +42,7 @@ export async function clearSessionCookie() {
   (await cookies()).set(c.name, c.value, c.attributes);
 }
 
-/** Client IP as seen by the server (first X-Forwarded-For hop when behind a proxy on loopback). */
+/** The client address as far as it can be trusted (lib/server/client-address.ts; TRUST_PROXY). */
 export async function clientIp(): Promise<string> {
-  const h = await headers();
-  return h.get('x-forwarded-for')?.split(',')[0].trim() || h.get('x-real-ip') || '127.0.0.1';
+  return clientAddressFrom(await headers());
 }

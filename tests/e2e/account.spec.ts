@@ -1,4 +1,5 @@
 import { expect, test } from '@playwright/test';
+import { mailLink } from './helpers';
 
 test('sign up creates an organization; a password reset link arrives in the mailbox and works', async ({ page }) => {
   const email = `e2e.${Date.now()}@example.com`;
@@ -21,10 +22,8 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await page.getByRole('button', { name: 'Send reset link' }).click();
   await expect(page.getByRole('status')).toContainText('reset link is on its way');
 
-  await page.goto('/dev/mailbox');
-  const link = page.getByRole('link', { name: 'Choose a new password' }).first();
-  await expect(link).toBeVisible();
-  await page.goto((await link.getAttribute('href'))!);
+  const { url: resetUrl } = await mailLink(email, /Reset your Lagwise password/, 'Choose a new password');
+  await page.goto(resetUrl);
   await page.getByLabel('New password').fill('marble-flange-lagging');
   await page.getByRole('button', { name: 'Save password' }).click();
   await expect(page).toHaveURL(/\/sign-in\?reset=1$/);
@@ -49,16 +48,15 @@ test('the owner invites an engineer who joins through the e-mailed link', async 
 
   const ctx = await browser.newContext();
   const p = await ctx.newPage();
-  await p.goto('/dev/mailbox');
-  const href = await p.locator('li', { hasText: invitee }).getByRole('link', { name: 'Accept the invitation' }).getAttribute('href');
-  await p.goto(href!);
+  const { url: href } = await mailLink(invitee, /invited you/, 'Accept the invitation');
+  await p.goto(href);
   await expect(p.getByText(`Invitation for ${invitee} as Engineer.`)).toBeVisible();
   await p.getByLabel('Your name').fill('Nia Newcomer');
   await p.getByLabel('Password', { exact: true }).fill('cobalt-riser-clamp');
   await p.getByRole('button', { name: 'Create account and join' }).click();
   await expect(p).toHaveURL(/\/projects$/);
   await expect(p.getByText('Korvane Polymers · Engineer')).toBeVisible();
-  await p.goto(href!);
+  await p.goto(href);
   await expect(p.getByRole('alert').filter({ hasText: 'already been used' })).toBeVisible();
   await ctx.close();
 });

@@ -44,3 +44,22 @@ export async function createProjectWithLines(page: Page, name: string, rows: (st
   await expect(page.getByText(new RegExp(`imported: ${rows.length} lines`))).toBeVisible();
   return id;
 }
+
+/**
+ * The newest message to an address in the local SMTP sink, and the URL behind one of its links
+ * (the text part ends each link as "Label: URL"). The app itself never shows other people's mail.
+ */
+export async function mailLink(to: string, subject: RegExp, label: string, opts: { text?: RegExp; after?: Date } = {}): Promise<{ url: string; text: string }> {
+  const { waitForMail } = await import('../support/mail');
+  const deadline = Date.now() + 15_000;
+  for (;;) {
+    const m = await waitForMail(to.toLowerCase(), { subject, after: opts.after, timeoutMs: 15_000 });
+    if (!opts.text || opts.text.test(m.text)) {
+      const hit = m.text.match(new RegExp(`${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: (\\S+)`));
+      if (!hit) throw new Error(`no "${label}" link in "${m.subject}"`);
+      return { url: hit[1], text: m.text };
+    }
+    if (Date.now() > deadline) throw new Error(`no matching mail to ${to}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}

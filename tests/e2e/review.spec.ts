@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { createProjectWithLines, demo, lineRow, signIn } from './helpers';
+import { createProjectWithLines, demo, lineRow, mailLink, signIn } from './helpers';
 
 test('engineer requests a review, the reviewer gets the e-mail, disposes and signs off, the engineer sees the outcome', async ({ page, browser }) => {
   const eng = demo('engineer');
@@ -11,6 +11,7 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Safety review' }).click();
   await expect(page.getByRole('heading', { name: 'Flagged now: 2 lines' })).toBeVisible();
   await page.getByLabel('Note to the reviewer').fill('Before the walkdown on Friday');
+  const requestedAt = new Date(Date.now() - 2000);
   await page.getByRole('button', { name: 'Request a review of the flagged lines' }).click();
   await expect(page.getByRole('status').filter({ hasText: /Round 1 requested for 2 lines; 1 reviewer notified by e-mail\./ })).toBeVisible();
 
@@ -18,10 +19,9 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   const rp = await ctx.newPage();
   const rev = demo('reviewer');
   await signIn(rp, rev.email, rev.password);
-  await rp.goto('/dev/mailbox');
-  const mail = rp.locator('li', { hasText: 'Safety review requested' }).filter({ hasText: 'round 1 (2 lines)' }).first();
-  await expect(mail).toContainText('Surface over the touch limit: 2');
-  await rp.goto((await mail.getByRole('link', { name: 'Open the review' }).getAttribute('href'))!);
+  const mail = await mailLink(rev.email, /Safety review requested: .* round 1 \(2 lines\)/, 'Open the review', { after: requestedAt });
+  expect(mail.text).toContain('Surface over the touch limit: 2');
+  await rp.goto(mail.url);
   await rp.getByRole('link', { name: 'Round 1', exact: true }).click();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 2 open · 0 decided · 0 re-opened');
   await expect(rp.locator('tr[data-tag="RW-1"]')).toContainText(/Surface \d+\.\d °C over the 60 °C touch limit \(bare\)/);
@@ -49,8 +49,8 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   // The engineer sees the outcome and the printable report lists exactly the flagged lines.
   await page.goto(`/projects/${id}/review`);
   await expect(page.getByRole('table', { name: 'Review rounds' })).toContainText('signed off');
-  await page.goto(`/dev/mailbox`);
-  await expect(page.locator('li', { hasText: 'review round 1 signed off' }).first()).toBeVisible();
+  const signedMail = await mailLink(demo('engineer').email, /review round 1 signed off/, 'Open the review report', { after: requestedAt });
+  expect(signedMail.url).toContain(`/projects/${id}/review/`);
   await page.goto(`/projects/${id}/review`);
   await page.getByRole('link', { name: 'Report' }).click();
   await expect(page.getByTestId('signoff')).toContainText('Signed off by Mira Castell');

@@ -1,8 +1,9 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { eq, sql } from 'drizzle-orm';
+import { eq, like, sql } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
 import { db, getPool } from '@/db/client';
-import { memberships, sessions, signInFailures } from '@/db/schema';
+import { memberships, sessions, signInThrottle } from '@/db/schema';
+import { UNKNOWN_ADDRESS } from '@/lib/server/client-address';
 import * as auth from '@/lib/auth/service';
 import { lucia } from '@/lib/auth/lucia';
 import { isAppError } from '@/lib/errors';
@@ -61,25 +62,57 @@ describe('sign-up, sign-in, sign-out (real PostgreSQL)', () => {
     expect(await db.select().from(sessions).where(eq(sessions.id, session.id))).toHaveLength(0);
   });
 
-  it('throttles after 5 failures per account, even with the right password', async () => {
+  it('throttles an account after 5 failures (unknown address), even with the right password, and leaves other accounts alone', async () => {
     const email = `throttle.${uniq()}@example.com`;
+    const bystander = `bystander.${uniq()}@example.com`;
     await auth.signUp({ name: 'T', email, password: PASSWORD, organizationName: 'T Org' });
-    for (let i = 0; i < auth.THROTTLE.maxFailures; i++) {
-      await expectAppError(auth.signIn({ email, password: 'not-the-password', ip: `10.2.0.${i}` }), 'invalid');
+    await auth.signUp({ name: 'B', email: bystander, password: PASSWORD, organizationName: 'B Org' });
+    for (let i = 0; i < auth.THROTTLE.accountAtAddress; i++) {
+      await expectAppError(auth.signIn({ email, password: 'not-the-password', ip: UNKNOWN_ADDRESS }), 'invalid');
     }
-    await expectAppError(auth.signIn({ email, password: PASSWORD, ip: '10.2.0.99' }), 'throttled', /Too many/);
-    // Failures older than the window no longer count.
-    await db.update(signInFailures).set({ at: sql`now() - interval '16 minutes'` }).where(eq(signInFailures.email, email));
-    const ok = await auth.signIn({ email, password: PASSWORD, ip: '10.2.0.99' });
-    expect(ok.userId).toBeTruthy();
+    await expectAppError(auth.signIn({ email, password: PASSWORD, ip: UNKNOWN_ADDRESS }), 'throttled', /Wait 30 seconds/);
+    // Another account signs in at the same time from the same (unknown) address.
+    expect((await auth.signIn({ email: bystander, password: PASSWORD, ip: UNKNOWN_ADDRESS })).userId).toBeTruthy();
+    // When the delay has run out, one more failure doubles it (exponential, not one fixed lock).
+    await db.update(signInThrottle).set({ blockedUntil: sql`now() - interval '1 second'` }).where(like(signInThrottle.key, `%${email}%`));
+    await expectAppError(auth.signIn({ email, password: 'still-not-it', ip: UNKNOWN_ADDRESS }), 'invalid');
+    const [row] = await db.select({ s: sql<number>`extract(epoch from (${signInThrottle.blockedUntil} - now()))::float8` })
+      .from(signInThrottle).where(eq(signInThrottle.key, `account-address:${email}|${UNKNOWN_ADDRESS}`));
+    expect(row.s).toBeGreaterThan(55);
+    expect(row.s).toBeLessThanOrEqual(60);
+    // After the delay the right password works and clears the account's counters.
+    await db.update(signInThrottle).set({ blockedUntil: sql`now() - interval '1 second'` }).where(like(signInThrottle.key, `%${email}%`));
+    expect((await auth.signIn({ email, password: PASSWORD, ip: UNKNOWN_ADDRESS })).userId).toBeTruthy();
+    expect(await db.select().from(signInThrottle).where(like(signInThrottle.key, `%${email}%`))).toHaveLength(0);
   });
 
-  it('throttles per IP across accounts', async () => {
+  it('rotating addresses does not get round the account limit', async () => {
+    const email = `rotate.${uniq()}@example.com`;
+    await auth.signUp({ name: 'R', email, password: PASSWORD, organizationName: 'R2 Org' });
+    for (let i = 0; i < auth.THROTTLE.account; i++) {
+      await expectAppError(auth.signIn({ email, password: 'not-the-password', ip: `10.9.${i}.1` }), 'invalid');
+    }
+    await expectAppError(auth.signIn({ email, password: PASSWORD, ip: '10.9.200.1' }), 'throttled');
+  });
+
+  it('20 parallel wrong tries get exactly 5 password checks', async () => {
+    const email = `parallel.${uniq()}@example.com`;
+    await auth.signUp({ name: 'P', email, password: PASSWORD, organizationName: 'P Org' });
+    const results = await Promise.allSettled(Array.from({ length: 20 }, () => auth.signIn({ email, password: 'not-the-password', ip: UNKNOWN_ADDRESS })));
+    const codes = results.map((r) => (r.status === 'rejected' && isAppError(r.reason) ? r.reason.code : 'other'));
+    expect(codes.filter((c) => c === 'invalid')).toHaveLength(auth.THROTTLE.accountAtAddress);
+    expect(codes.filter((c) => c === 'throttled')).toHaveLength(20 - auth.THROTTLE.accountAtAddress);
+  });
+
+  it('throttles one address spraying many accounts, not the same accounts from elsewhere', async () => {
     const ip = `10.3.${Math.floor(Math.random() * 250)}.${Math.floor(Math.random() * 250)}`;
-    for (let i = 0; i < auth.THROTTLE.maxFailures; i++) {
+    for (let i = 0; i < auth.THROTTLE.address; i++) {
       await expectAppError(auth.signIn({ email: `spray${i}.${uniq()}@example.com`, password: 'whatever-pass', ip }), 'invalid');
     }
-    await expectAppError(auth.signIn({ email: `spray.${uniq()}@example.com`, password: 'whatever-pass', ip }), 'throttled');
+    const email = `sprayed.${uniq()}@example.com`;
+    await auth.signUp({ name: 'V', email, password: PASSWORD, organizationName: 'V Org' });
+    await expectAppError(auth.signIn({ email, password: PASSWORD, ip }), 'throttled');
+    expect((await auth.signIn({ email, password: PASSWORD, ip: '10.250.0.1' })).userId).toBeTruthy();
   });
 });
 

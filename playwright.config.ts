@@ -1,6 +1,8 @@
 import { defineConfig } from '@playwright/test';
 
 const port = Number(process.env.PORT ?? 3100);
+/** The server's stderr, kept so the security suite can check that no request data is logged. */
+export const SERVER_LOG = '.data/reports/server-e2e.log';
 
 export default defineConfig({
   testDir: 'tests/e2e',
@@ -20,7 +22,7 @@ export default defineConfig({
     },
   },
   webServer: {
-    command: `node_modules/.bin/next start -H 127.0.0.1 -p ${port}`,
+    command: `mkdir -p .data/reports && : > ${SERVER_LOG} && exec bash -c 'exec node_modules/.bin/next start -H 127.0.0.1 -p ${port} 2> >(tee -a ${SERVER_LOG} >&2)'`,
     url: `http://127.0.0.1:${port}/api/health`,
     reuseExistingServer: false,
     timeout: 60_000,

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { connection } from 'next/server';
 import localFont from 'next/font/local';
 import './globals.css';
 
@@ -19,7 +20,9 @@ export const metadata: Metadata = {
   description: 'Insulation thickness, surface safety review and bill of quantities for industrial pipework and vessels.',
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page renders per request so Next.js can put this request's CSP nonce (proxy.ts) on its scripts.
+  await connection();
   return (
     <html lang="en" className={`${sans.variable} ${mono.variable}`}>
       <body className="min-h-screen font-sans">{children}</body>

@@ -16,5 +16,12 @@ if port_in_use "$PORT"; then log "port $PORT is taken; set PORT to a free port";
 print_logins
 log "serving on http://127.0.0.1:$PORT"
 # The local set-up serves plain HTTP on loopback, so the session cookie cannot be Secure here.
+case "${HOST:-127.0.0.1}" in
+  127.*|localhost|::1) ;;
+  *) if [ -z "${LAGWISE_SECURE_COOKIES:-}" ]; then
+       log "WARNING: serving on ${HOST} without LAGWISE_SECURE_COOKIES=1: session cookies are not marked Secure and"
+       log "         no HSTS is sent. Put Lagwise behind an HTTPS proxy and set LAGWISE_SECURE_COOKIES=1 (and TRUST_PROXY)."
+     fi ;;
+esac
 [ -z "${LAGWISE_SECURE_COOKIES:-}" ] && export LAGWISE_INSECURE_COOKIES=1
 exec node_modules/.bin/next start -H "${HOST:-127.0.0.1}" -p "$PORT"

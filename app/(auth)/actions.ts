@@ -10,12 +10,13 @@ import { cookies } from 'next/headers';
 import * as sso from '@/lib/auth/sso';
 import { LINK_COOKIE, SSO_COOKIE } from '@/lib/auth/cookie-names';
 import { env } from '@/lib/env';
+import { logUnexpected } from '@/lib/log';
 
 // Account actions run before there is a session, so they do not use the role wrapper;
 // each still parses on the server and answers with conform field errors.
 function failed(submission: { reply: (o: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
   if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields, hideFields: ['password'] });
-  console.error('[auth] unexpected', e);
+  logUnexpected('auth', e);
   return submission.reply({ formErrors: ['Something went wrong on our side. Try again.'] });
 }
 

@@ -33,7 +33,7 @@ export async function getMembershipRole({ userId, organizationId }: { userId: st
  * does not belong to is reported as not found, never as forbidden, so ids reveal nothing.
  */
 export async function getProjectAccess({ userId, projectId, action }: { userId: string; projectId: string; action?: Action }) {
-  if (!/^[0-9a-f-]{36}$/i.test(projectId)) throw new AppError('not_found');
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(projectId)) throw new AppError('not_found');
   const [row] = await db.select({ project: projects, role: memberships.role, organizationName: organizations.name })
     .from(projects)
     .innerJoin(memberships, and(eq(memberships.organizationId, projects.organizationId), eq(memberships.userId, userId)))
@@ -49,7 +49,7 @@ export async function getProjectAccess({ userId, projectId, action }: { userId: 
  * (like foreign projects); a member whose role may not do `action`: forbidden.
  */
 export async function getOrganizationAccess({ userId, organizationId, action }: { userId: string; organizationId: string; action?: Action }) {
-  if (!/^[0-9a-f-]{36}$/i.test(organizationId)) throw new AppError('not_found');
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(organizationId)) throw new AppError('not_found');
   const role = await getMembershipRole({ userId, organizationId });
   if (!role) throw new AppError('not_found');
   if (action && !can(role, action)) throw new AppError('forbidden');

@@ -174,7 +174,7 @@ export async function createDraft({ projectId, userId, fileName, bytes }: { proj
 }
 
 async function loadDraft(projectId: string, draftId: string) {
-  if (!/^[0-9a-f-]{36}$/i.test(draftId)) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(draftId)) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
   const [d] = await db.select().from(importDrafts).where(and(eq(importDrafts.id, draftId), eq(importDrafts.projectId, projectId)));
   if (!d) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
   return d;
@@ -348,7 +348,7 @@ export async function listAreas({ projectId }: { projectId: string }) {
 }
 
 export async function getLine({ projectId, lineId }: { projectId: string; lineId: string }) {
-  if (!/^[0-9a-f-]{36}$/i.test(lineId)) throw new AppError('not_found');
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(lineId)) throw new AppError('not_found');
   const [row] = await db.select({ line: lines, result: lineResults, design: lineDesigns }).from(lines)
     .leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
     .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));

@@ -98,7 +98,7 @@ export type ItemStatus = 'open' | 'decided' | 'reopened';
 
 /** A round with its items and each item's current status (re-opened when its line moved on). */
 export async function getRound({ projectId, roundId }: { projectId: string; roundId: string }) {
-  if (!/^[0-9a-f-]{36}$/i.test(roundId)) throw new AppError('not_found');
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(roundId)) throw new AppError('not_found');
   const [round] = await db.select().from(reviewRounds).where(and(eq(reviewRounds.id, roundId), eq(reviewRounds.projectId, projectId)));
   if (!round) throw new AppError('not_found');
   const rows = await db.select({ item: reviewItems, inputVersion: lines.inputVersion, designVersion: lineDesigns.version, decider: users.name })

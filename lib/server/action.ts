@@ -7,13 +7,14 @@ import { validateRequest } from '@/lib/auth/session';
 import { getProjectAccess } from '@/db/queries/projects';
 import type { Action } from '@/lib/auth/permissions';
 import { AppError, isAppError } from '@/lib/errors';
+import { logUnexpected } from '@/lib/log';
 
 type Ctx<T> = { user: User; input: T };
 type ProjectCtx<T> = Ctx<T> & Awaited<ReturnType<typeof getProjectAccess>>;
 
 function toReply(submission: { reply: (o?: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
   if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields });
-  console.error('[action] unexpected error', e);
+  logUnexpected('action', e);
   return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved; try again.'] });
 }
 
@@ -72,7 +73,7 @@ export function projectAction<S extends z.ZodType, R>(permission: Action, schema
       return { ok: true, data: await handler({ user, input: parsed.data, ...access }) };
     } catch (e) {
       if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
-      console.error('[action] unexpected error', e);
+      logUnexpected('action', e);
       return { ok: false, error: 'Something went wrong on our side. Nothing was saved; try again.' };
     }
   };

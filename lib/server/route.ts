@@ -5,10 +5,11 @@ import { z } from 'zod';
 import { validateRequest } from '@/lib/auth/session';
 import { AppError, isAppError } from '@/lib/errors';
 import { env } from '@/lib/env';
+import { logUnexpected } from '@/lib/log';
 
 export function errorResponse(e: unknown) {
   if (isAppError(e)) return NextResponse.json({ error: { code: e.code, message: e.message, fields: e.fields } }, { status: e.status });
-  console.error('[route] unexpected error', e);
+  logUnexpected('route', e);
   return NextResponse.json({ error: { code: 'internal', message: 'Something went wrong on our side.' } }, { status: 500 });
 }
 
@@ -17,9 +18,11 @@ function checkMutation(req: NextRequest) {
   const origin = req.headers.get('origin');
   const host = req.headers.get('host');
   if (origin) {
-    const o = new URL(origin);
+    // "null" (sandboxed frames, file: pages, some redirects) and anything unparsable is not our origin.
+    let originHost: string | null = null;
+    try { originHost = new URL(origin).host; } catch { originHost = null; }
     const allowed = new Set([host, new URL(env.appUrl()).host]);
-    if (!allowed.has(o.host)) throw new AppError('forbidden', 'Cross-site request refused.');
+    if (!originHost || !allowed.has(originHost)) throw new AppError('forbidden', 'Cross-site request refused.');
   } else if (req.headers.get('sec-fetch-site') === 'cross-site') {
     throw new AppError('forbidden', 'Cross-site request refused.');
   }

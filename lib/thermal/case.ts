@@ -14,11 +14,15 @@ import { materialById } from './materials';
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive({ error: `${what} must be greater than 0` });
 const temperature = (what: string) => z.number({ error: `${what} must be a number` }).gt(-273.15, { error: `${what} must be above absolute zero` }).lt(2000, { error: `${what} must be below 2000 °C` });
 
+/** A declared conductivity curve never needs more points than this; more only costs CPU. */
+export const MAX_TABLE_POINTS = 200;
+
 const conductivitySchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('linear'), a: z.number({ error: 'a must be a number' }), b: z.number({ error: 'b must be a number' }) }),
   z.object({
     type: z.literal('table'),
-    points: z.array(z.tuple([z.number(), positive('k')]), { error: 'points must be [[temperature °C, k], …]' }).min(1, { error: 'give at least one point' }),
+    points: z.array(z.tuple([z.number(), positive('k')]), { error: 'points must be [[temperature °C, k], …]' }).min(1, { error: 'give at least one point' })
+      .max(MAX_TABLE_POINTS, { error: `a conductivity table may have at most ${MAX_TABLE_POINTS} points` }),
   }),
 ], { error: 'conductivity.type must be "linear" or "table"' });
 
@@ -80,6 +84,22 @@ export interface CalcResult {
 export type CalcOutput = CalcResult | { id?: string | number; error: string };
 
 /** zod issues as "path: message; …" so the caller sees which field is wrong. */
+/**
+ * Relative CPU cost of one case, in units of a bare straight pipe (measured with bench-style loops:
+ * each layer adds about one solve's worth of work, a 200-point table about as much as six more solves,
+ * a vessel is three surfaces). The calculation API bounds a request by the sum, not only the count.
+ */
+export function caseCost(input: unknown): number {
+  const c = (input ?? {}) as { geometry?: unknown; layers?: unknown };
+  const layers = Array.isArray(c.layers) ? c.layers : [];
+  let cost = 1 + layers.length;
+  for (const l of layers) {
+    const pts = (l as { conductivity?: { points?: unknown } })?.conductivity?.points;
+    if (Array.isArray(pts)) cost += pts.length / 30;
+  }
+  return c.geometry === 'vessel' ? cost * 3 : cost;
+}
+
 export function describeIssues(e: z.ZodError): string {
   return e.issues.map((i) => `${i.path.length ? i.path.join('.') : '(case)'}: ${i.message}`).join('; ');
 }

@@ -5,6 +5,7 @@ import { lucia } from '@/lib/auth/lucia';
 import { isAppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { LINK_COOKIE, SSO_COOKIE, SSO_MESSAGE_COOKIE } from '@/lib/auth/cookie-names';
+import { logUnexpected } from '@/lib/log';
 
 export const dynamic = 'force-dynamic';
 
@@ -34,7 +35,7 @@ export async function GET(req: NextRequest) {
     return to('/projects');
   } catch (e) {
     if (isAppError(e)) return say(e.message);
-    console.error('[sso] callback failed', (e as Error).message);
+    logUnexpected('sso callback', e);
     return say('The company sign-in could not be completed. Try again, or sign in with your password.');
   }
 }

@@ -7,6 +7,7 @@ import { getOrganizationAccess } from '@/db/queries/projects';
 import { AppError, isAppError } from '@/lib/errors';
 import { saveSsoConfig, ssoConfigSchema, approveMembershipRequest } from '@/lib/auth/sso';
 import { z } from 'zod';
+import { logUnexpected } from '@/lib/log';
 
 
 export async function saveCompanySignInAction(_prev: unknown, formData: FormData): Promise<SubmissionResult<string[]>> {
@@ -21,7 +22,7 @@ export async function saveCompanySignInAction(_prev: unknown, formData: FormData
     return { ...submission.reply({ hideFields: ['clientSecret'] }), status: 'success' };
   } catch (e) {
     if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields, hideFields: ['clientSecret'] });
-    console.error('[sso settings]', (e as Error).message);
+    logUnexpected('sso settings', e);
     return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved.'], hideFields: ['clientSecret'] });
   }
 }

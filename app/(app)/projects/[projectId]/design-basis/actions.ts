@@ -9,6 +9,7 @@ import { isAppError } from '@/lib/errors';
 import { checkBandRanges, designBasisObject, designBasisSchema, fieldName } from '@/lib/lines/design-basis';
 import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis, updateOwnJacket, updateOwnMaterial } from '@/lib/lines/store';
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
+import { logUnexpected } from '@/lib/log';
 
 // Material prices per m³ and the project's own materials and jackets are kept from the stored basis
 // (they have their own forms).
@@ -40,7 +41,7 @@ export async function saveDesignBasisAction(_prev: unknown, formData: FormData):
     return { ...submission.reply(), status: 'success', revision };
   } catch (e) {
     if (isAppError(e)) return submission.reply({ formErrors: [e.message] });
-    console.error('[design-basis]', e);
+    logUnexpected('design-basis', e);
     return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved.'] });
   }
 }
@@ -58,7 +59,7 @@ async function ownEntryAction<S extends z.ZodType>(formData: FormData, schema: S
     return { ...submission.reply({ resetForm: true }), status: 'success', revision };
   } catch (e) {
     if (isAppError(e)) return submission.reply({ formErrors: [e.message] });
-    console.error('[design-basis own entry]', e);
+    logUnexpected('design-basis own entry', e);
     return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved.'] });
   }
 }

@@ -8,6 +8,7 @@ import { AppError, isAppError } from '@/lib/errors';
 import { FIELDS, MAX_UPLOAD_BYTES } from '@/lib/lines';
 import type { DraftSummary } from '@/lib/lines/store';
 import * as store from '@/lib/lines/store';
+import { logUnexpected } from '@/lib/log';
 
 const mappingSchema = z.object({
   columns: z.record(z.enum(FIELDS.map((f) => f.key) as [string, ...string[]]), z.number().int().min(0)),
@@ -28,7 +29,7 @@ export async function uploadLineListAction(projectId: string, formData: FormData
     return { ok: true, data: await store.createDraft({ projectId, userId: user.id, fileName: file.name, bytes }) };
   } catch (e) {
     if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
-    console.error('[upload] unexpected', e);
+    logUnexpected('upload', e);
     return { ok: false, error: 'The file could not be read. Nothing was imported.' };
   }
 }

@@ -1,4 +1,4 @@
-import { compileConductivity, condensationThresholdC, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import { compileConductivity, condensationControlApplies, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -70,7 +70,7 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const hotC = l.maxTempC ?? l.normalTempC;
 
   const pc = crit.conditions.personnel;
-  if (l.accessible && hotC > pc.airC) {
+  if (personnelProtectionApplies({ accessible: l.accessible, hottestC: hotC }, pc)) {
     const r = surface(hotC, { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance });
     const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
     if (r.surfaceC > limit) {
@@ -81,10 +81,10 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
     }
   }
   const cc = crit.conditions.condensation;
-  if (l.normalTempC < cc.airC && (l.purposes.includes('condensationControl') || l.normalTempC < 10)) {
+  if (condensationControlApplies({ purposes: l.purposes, coldestC: l.normalTempC }, cc, basis.dewPointMarginK)) {
     const r = surface(l.normalTempC, { airC: cc.airC, surroundingsC: cc.surroundingsC ?? cc.airC, windMs: cc.windMs, emittance });
-    const th = condensationThresholdC(cc.airC, cc.relativeHumidityPct ?? 80);
-    const need = th.valueC + basis.dewPointMarginK;
+    const th = condensationLimit(cc, basis.dewPointMarginK);
+    const need = th.needC;
     if (r.surfaceC < need) {
       flags.push({ type: 'sweating', valueC: r.surfaceC, limitC: need, conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`, message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).` });
     }

@@ -9,11 +9,12 @@ export * from './materials';
 export * from './pipes';
 export * from './psychro';
 export * from './recommend';
+export * from './rules';
 export * from './solve';
 export * from './steam';
 export * from './surface';
 export * from './thickness';
 export * from './units';
-export const CALCULATION_VERSION = '2026.12-2'; // 2: vessels as shell + heads in the recommender
+export const CALCULATION_VERSION = '2026.12-3'; // 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review
 export * from './defaults';
 export * from './vessel';

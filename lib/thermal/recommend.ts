@@ -1,7 +1,7 @@
 import { compileConductivity, type Conductivity } from './conductivity';
 import { capitalRecoveryFactor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
-import { condensationThresholdC } from './psychro';
+import { condensationControlApplies, condensationLimit, personnelProtectionApplies } from './rules';
 import { prepareChain, solveChain, solvePrepared, type PreparedChain, type SolidLayer, type SteadyResult } from './solve';
 import { condensateKgPerHour, saturatedSteamAtPressure } from './steam';
 import { isPipe, type Ambient, type Geometry } from './surface';
@@ -366,8 +366,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
 
   const outcomes: CriterionOutcome[] = [];
 
-  // Personnel protection: hottest air, still air, the actual jacket emittance.
-  if (purposes.includes('personnelProtection') && line.accessible !== false && maxC > crit.conditions.personnel.airC) {
+  // Personnel protection (rules.ts: every accessible surface hotter than the air): hottest air, still air, the actual jacket emittance.
+  if (personnelProtectionApplies({ accessible: line.accessible, hottestC: maxC }, crit.conditions.personnel)) {
     const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
     const a = ambientOf(crit.conditions.personnel, emittance), bare = ambientOf(crit.conditions.personnel, bareEps);
     const sweep = newSweep();
@@ -383,11 +383,11 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).` });
   }
 
-  // Condensation control: surface at or above the dew (frost) point plus margin.
-  if (purposes.includes('condensationControl') && cold) {
+  // Condensation control (rules.ts): surface at or above the dew (frost) point plus margin under the condensation conditions.
+  if (condensationControlApplies({ purposes, coldestC: line.normalTempC }, crit.conditions.condensation, crit.dewPointMarginK)) {
     const c = crit.conditions.condensation;
-    const th = condensationThresholdC(c.airC, c.relativeHumidityPct ?? 80);
-    const need = th.valueC + crit.dewPointMarginK;
+    const th = condensationLimit(c, crit.dewPointMarginK);
+    const need = th.needC;
     const a = ambientOf(c, emittance), bare = ambientOf(c, bareEps);
     const sweep = newSweep();
     let idx: number | null = null;

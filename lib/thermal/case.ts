@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { compileConductivity } from './conductivity';
-import { dewPointC } from './psychro';
+import { condensationThresholdC, dewPointC } from './psychro';
 import { solveSteady } from './solve';
 import { solveVessel } from './vessel';
 import { GEOMETRIES, isPipe } from './surface';
@@ -77,6 +77,8 @@ export interface CalcResult {
   convectiveCoefficientWPerM2K: number;
   radiativeCoefficientWPerM2K: number;
   dewPointC?: number;
+  /** When the dew point is below 0 °C: the frost point (over ice), the temperature a cold surface must stay above. */
+  frostPointC?: number;
   overallCoefficient: ReturnType<typeof solveSteady>['overall'];
   warnings: string[];
 }
@@ -104,6 +106,20 @@ export function describeIssues(e: z.ZodError): string {
   return e.issues.map((i) => `${i.path.length ? i.path.join('.') : '(case)'}: ${i.message}`).join('; ');
 }
 
+/** Dew point, and the frost point when the dew point is below 0 °C (moisture then deposits as ice). */
+function moisture(airC: number, rh: number | undefined): { dewPointC?: number; frostPointC?: number } {
+  if (rh === undefined) return {};
+  const th = condensationThresholdC(airC, rh);
+  return th.basis === 'frost point' ? { dewPointC: dewPointC(airC, rh), frostPointC: th.valueC } : { dewPointC: th.valueC };
+}
+function frostWarning(airC: number, rh: number | undefined): string[] {
+  if (rh === undefined) return [];
+  const th = condensationThresholdC(airC, rh);
+  return th.basis === 'frost point'
+    ? [`The dew point is below 0 °C: moisture deposits as frost, so a cold surface must stay above the frost point (over ice), ${th.valueC.toFixed(1)} °C (frostPointC), not the dew point.`]
+    : [];
+}
+
 /** Runs one case; never throws — an invalid case comes back as { id, error }. */
 export function runCase(input: unknown): CalcOutput {
   const id = input && typeof input === 'object' && 'id' in input ? (input as { id?: string | number }).id : undefined;
@@ -127,8 +143,8 @@ export function runCase(input: unknown): CalcOutput {
       return {
         id, heatLossW: v.totalW, heatFluxWPerM2: v.meanFluxWPerM2, surfaceTempC: v.worstSurfaceC, interfaceTempsC: v.shell.interfacesC,
         convectiveCoefficientWPerM2K: v.shell.convectiveWPerM2K, radiativeCoefficientWPerM2K: v.shell.radiativeWPerM2K,
-        ...(c.relativeHumidityPct !== undefined ? { dewPointC: dewPointC(c.ambientTempC, c.relativeHumidityPct) } : {}),
-        overallCoefficient: v.shell.overall, warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])],
+        ...moisture(c.ambientTempC, c.relativeHumidityPct),
+        overallCoefficient: v.shell.overall, warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings, ...frostWarning(c.ambientTempC, c.relativeHumidityPct)])],
         parts: { shellWPerM: v.shell.heatFlow, topWPerM2: v.top.heatFlow, bottomWPerM2: v.bottom.heatFlow, areasM2: v.areasM2 },
       } as CalcResult;
     }
@@ -151,9 +167,9 @@ export function runCase(input: unknown): CalcOutput {
       interfaceTempsC: r.interfacesC,
       convectiveCoefficientWPerM2K: r.convectiveWPerM2K,
       radiativeCoefficientWPerM2K: r.radiativeWPerM2K,
-      ...(c.relativeHumidityPct !== undefined ? { dewPointC: dewPointC(c.ambientTempC, c.relativeHumidityPct) } : {}),
+      ...moisture(c.ambientTempC, c.relativeHumidityPct),
       overallCoefficient: r.overall,
-      warnings: r.warnings,
+      warnings: [...r.warnings, ...frostWarning(c.ambientTempC, c.relativeHumidityPct)],
     };
   } catch (e) {
     return { id, error: `calculation failed: ${(e as Error).message}` };

@@ -20,8 +20,13 @@ export interface LineCase {
    * and its surface temperature the worst of the three parts.
    */
   geometry: Geometry | 'vessel';
+  /** A vessel's axis: vertical (default; heads on top and bottom) or horizontal (shell lying, two upright heads). */
+  vesselOrientation?: 'vertical' | 'horizontal';
   pipeOuterDiameterMm?: number;
+  /** Height of a vertical pipe or wall; a vessel's shell length along its axis (its height when vertical). */
   heightM?: number;
+  /** Pipe wall for the heat capacity of a stagnant line (freeze time); Schedule 40 / STD when not given. */
+  pipeWallMm?: number;
   characteristicLengthM?: number;
   /** Pipe length (pipes) or area (flat), for totals. */
   lengthM?: number;
@@ -69,6 +74,8 @@ export interface CriterionOutcome {
   /** Smallest total thickness (mm) meeting it; 0 = bare is enough; null = no candidate meets it. */
   requiredMm: number | null;
   message: string;
+  /** Freeze protection: hours for the stagnant water to cool to 0 °C at the required thickness. */
+  hours?: number;
 }
 
 export interface Recommendation {
@@ -204,8 +211,14 @@ function annuityFactors(econ: Economics): { crf: number; lf: number } {
 
 /** A vessel's parts for one candidate: shell (vertical cylinder) and the two flat heads, with their bare areas. */
 interface VesselParts { shell: PreparedChain[]; top: PreparedChain[]; bottom: PreparedChain[]; heightM: number; headM2: number; totalM2: number }
-function vesselPartsFor(set: CandidateSet, diameterM: number, heightM: number): VesselParts {
+function vesselPartsFor(set: CandidateSet, diameterM: number, heightM: number, horizontal = false): VesselParts {
   const headM2 = (Math.PI * diameterM * diameterM) / 4;
+  if (horizontal) {
+    // A lying shell is a horizontal cylinder (per metre, times its length); each head an upright disc
+    // taken as a vertical wall of height D (common practice for an estimate).
+    const head = chainsFor(set, 'vertical-wall', 0, diameterM, 1);
+    return { shell: chainsFor(set, 'horizontal-pipe', diameterM, 1, 1), top: head, bottom: head, heightM, headM2, totalM2: Math.PI * diameterM * heightM + 2 * headM2 };
+  }
   return {
     shell: chainsFor(set, 'vertical-pipe', diameterM, heightM, 1),
     // Heads taken as flat discs, L = area / perimeter = D/4 (common practice for an estimate).
@@ -319,7 +332,8 @@ function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, pr
  */
 export function recommendLine(line: LineCase, system: MaterialSystem, crit: Criteria): Recommendation {
   const vessel = line.geometry === 'vessel';
-  const geometry: Geometry = line.geometry === 'vessel' ? 'vertical-pipe' : line.geometry; // a vessel's shell
+  // A vessel's shell: a vertical cylinder, or a horizontal one when the vessel lies.
+  const geometry: Geometry = line.geometry === 'vessel' ? (line.vesselOrientation === 'horizontal' ? 'horizontal-pipe' : 'vertical-pipe') : line.geometry;
   const pipe = isPipe(geometry) && !vessel;
   const warnings: string[] = [];
   const bareEps = 0.8; // bare oxidised steel
@@ -335,7 +349,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
   const { all, layersCache, layersOut } = set;
   const n = all.length;
-  const parts = vessel ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM) : null;
+  const parts = vessel ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM, line.vesselOrientation === 'horizontal') : null;
   const chains = parts ? parts.shell : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
   const lc: LineChains = { all, layersCache, chains, parts };
 
@@ -430,10 +444,10 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (purposes.includes('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
     const f = crit.freeze, fc = crit.conditions.freeze;
     const a = ambientOf(fc, emittance);
-    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveCandidate(chains[i], layersCache[i], T, a, hlH[i], 1).Q });
+    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, wallMm: line.pipeWallMm, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveCandidate(chains[i], layersCache[i], T, a, hlH[i], 1).Q });
     let idx: number | null = null;
     for (let i = 1; i < n; i++) if (hours(i) >= f.requiredHours) { idx = i; break; }
-    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
+    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, hours: idx === null ? undefined : hours(idx), message: idx === null
       ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
       : `Stagnant water takes ≥ ${f.requiredHours} h to cool from ${f.initialWaterTempC} °C to 0 °C at ${fc.airC} °C air (${hours(idx).toFixed(1)} h).` });
   }

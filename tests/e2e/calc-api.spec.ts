@@ -36,3 +36,24 @@ test('the calculation API refuses a contractor and an anonymous caller', async (
   await signIn(page, u.email, u.password);
   expect((await page.request.post('/api/v1/calc', { data: [good], headers: { origin: baseURL! } })).status()).toBe(403);
 });
+
+test('the recommendation API answers per case for an engineer and refuses a contractor', async ({ page, baseURL, playwright }) => {
+  const anon = await playwright.request.newContext({ baseURL });
+  const rc = { id: 'chw-2in', geometry: 'horizontal-pipe', nps: '2', normalTempC: 12, purposes: ['condensationControl'] };
+  expect((await anon.post('/api/v1/recommend', { data: [rc], headers: { origin: baseURL! } })).status()).toBe(401);
+  await anon.dispose();
+  const u = demo('engineer');
+  await signIn(page, u.email, u.password);
+  const res = await page.request.post('/api/v1/recommend', { data: [rc, { id: 'bad', geometry: 'horizontal-pipe', normalTempC: 80, purposes: ['heatConservation'] }], headers: { origin: baseURL! } });
+  expect(res.status()).toBe(200);
+  const [a, b] = await res.json();
+  // 12 °C chilled water under the default condensation day (30 °C, 80 % RH: dew point 26.2 °C) needs insulation.
+  expect(a.id).toBe('chw-2in');
+  expect(a.governing).toBe('condensation');
+  expect(a.criteria.condensation.surfaceTempC).toBeGreaterThanOrEqual(a.criteria.condensation.limitC);
+  expect(b).toEqual({ id: 'bad', error: 'pipeOuterDiameterMm: a pipe needs pipeOuterDiameterMm or nps' });
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  const c = demo('contractor');
+  await signIn(page, c.email, c.password);
+  expect((await page.request.post('/api/v1/recommend', { data: [rc], headers: { origin: baseURL! } })).status()).toBe(403);
+});

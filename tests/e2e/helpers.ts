@@ -50,12 +50,14 @@ export async function createProjectWithLines(page: Page, name: string, rows: (st
  * (the text part ends each link as "Label: URL"). The app itself never shows other people's mail.
  */
 export async function mailLink(to: string, subject: RegExp, label: string, opts: { text?: RegExp; after?: Date } = {}): Promise<{ url: string; text: string }> {
-  const { waitForMail } = await import('../support/mail');
+  const sink = `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}`;
   const deadline = Date.now() + 15_000;
+  const escaped = label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
   for (;;) {
-    const m = await waitForMail(to.toLowerCase(), { subject, after: opts.after, timeoutMs: 15_000 });
-    if (!opts.text || opts.text.test(m.text)) {
-      const hit = m.text.match(new RegExp(`${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: (\\S+)`));
+    const list: { subject: string; text: string; receivedAt: string }[] = await (await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)).json();
+    const m = list.find((x) => subject.test(x.subject) && (!opts.after || new Date(x.receivedAt) >= opts.after) && (!opts.text || opts.text.test(x.text)));
+    if (m) {
+      const hit = m.text.match(new RegExp(`${escaped}: (\\S+)`));
       if (!hit) throw new Error(`no "${label}" link in "${m.subject}"`);
       return { url: hit[1], text: m.text };
     }

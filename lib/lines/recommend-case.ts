@@ -1,0 +1,308 @@
+/**
+ * The recommendation for one case given as JSON — the batch front door (`npm run recommend`,
+ * `POST /api/v1/recommend`) to the same code path the product uses for a line: the default design
+ * basis fills whatever the case leaves out, `systemForLine` picks the material system, `criteriaFor`
+ * the conditions, `recommendLine` decides. SI units throughout.
+ */
+import { z } from 'zod';
+import {
+  condensationLimit, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
+  type Ambient, type ConditionSet, type Criteria, type CriterionId, type InsulationMaterial, type Jacket,
+  type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity,
+} from '@/lib/thermal';
+import { DEFAULT_DESIGN_BASIS } from './design-basis';
+import { criteriaFor, systemForLine, vesselDiameterM } from './solve-line';
+
+const num = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, { error: `${what} must be a finite number` });
+const positive = (what: string) => num(what).refine((v) => v > 0, { error: `${what} must be greater than 0` });
+const temperature = (what: string) => num(what).refine((v) => v > -273.15 && v < 2000, { error: `${what} must be above absolute zero and below 2000 °C` });
+
+const PURPOSES = ['heatConservation', 'personnelProtection', 'condensationControl', 'processControl', 'freezeProtection'] as const;
+export const RECOMMEND_GEOMETRIES = ['horizontal-pipe', 'vertical-pipe', 'horizontal-vessel', 'vertical-vessel', 'flat'] as const;
+
+const conditionSchema = z.object({
+  airC: temperature('airC'),
+  windMs: num('windMs').refine((v) => v >= 0 && v <= 60, { error: 'windMs must be between 0 and 60' }),
+  relativeHumidityPct: num('relativeHumidityPct').refine((v) => v > 0 && v <= 100, { error: 'relativeHumidityPct must be above 0 and at most 100' }).optional(),
+  surroundingsC: temperature('surroundingsC').optional(),
+}, { error: 'a condition set must be an object { airC, windMs, relativeHumidityPct?, surroundingsC? }' });
+
+const conductivitySchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('linear'), a: num('a'), b: num('b') }),
+  z.object({
+    type: z.literal('table'),
+    points: z.array(z.tuple([num('temperature'), positive('k')]), { error: 'points must be [[temperature °C, k], …]' })
+      .min(1, { error: 'give at least one point' }).max(200, { error: 'a conductivity table may have at most 200 points' }),
+  }),
+], { error: 'conductivity.type must be "linear" or "table"' });
+
+export const recommendCaseSchema = z.object({
+  id: z.union([z.string(), z.number()]).optional(),
+  geometry: z.enum(RECOMMEND_GEOMETRIES, { error: `geometry must be one of ${RECOMMEND_GEOMETRIES.join(', ')}` }),
+  pipeOuterDiameterMm: positive('pipeOuterDiameterMm').refine((v) => v <= 10000, { error: 'pipeOuterDiameterMm must be at most 10000' }).optional(),
+  nps: z.union([z.string(), z.number()], { error: 'nps must be a nominal pipe size such as "2", "1-1/2" or 4' }).optional(),
+  pipeWallMm: positive('pipeWallMm').optional(),
+  heightM: positive('heightM').refine((v) => v <= 500, { error: 'heightM must be at most 500' }).optional(),
+  lengthM: positive('lengthM').optional(),
+  surfaceAreaM2: positive('surfaceAreaM2').optional(),
+  normalTempC: temperature('normalTempC'),
+  maxTempC: temperature('maxTempC').optional(),
+  purposes: z.array(z.enum(PURPOSES, { error: `each purpose must be one of ${PURPOSES.join(', ')}` }), { error: 'purposes must be an array' }).min(1, { error: 'give at least one purpose' }),
+  accessible: z.boolean({ error: 'accessible must be true or false' }).optional(),
+  outdoor: z.boolean({ error: 'outdoor must be true or false' }).optional(),
+  thicknessMm: num('thicknessMm').refine((v) => v >= 0 && v <= 1000, { error: 'thicknessMm must be between 0 and 1000' }).optional(),
+  conditions: z.object({
+    heatLoss: conditionSchema.optional(), personnel: conditionSchema.optional(),
+    condensation: conditionSchema.optional(), freeze: conditionSchema.optional(),
+  }, { error: 'conditions must be an object with heatLoss, personnel, condensation and/or freeze' }).optional(),
+  touchLimitC: temperature('touchLimitC').optional(),
+  dewPointMarginK: num('dewPointMarginK').refine((v) => v >= 0 && v <= 20, { error: 'dewPointMarginK must be between 0 and 20' }).optional(),
+  insulation: z.object({
+    materialId: z.string().refine((id) => !!materialById(id), { error: 'materialId is not in the material library' }).optional(),
+    conductivity: conductivitySchema.optional(),
+    thicknessesMm: z.array(positive('thickness'), { error: 'thicknessesMm must be an array of millimetres' }).min(1, { error: 'give at least one thickness' }).max(100, { error: 'at most 100 thicknesses' }).optional(),
+    surfaceEmittance: num('surfaceEmittance').refine((v) => v >= 0 && v <= 1, { error: 'surfaceEmittance must be between 0 and 1' }).optional(),
+  }, { error: 'insulation must be an object' }).optional(),
+}, { error: 'a case must be a JSON object' }).superRefine((c, ctx) => {
+  const pipe = c.geometry.endsWith('pipe'), vessel = c.geometry.endsWith('vessel');
+  if (pipe && c.pipeOuterDiameterMm === undefined && c.nps === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['pipeOuterDiameterMm'], message: 'a pipe needs pipeOuterDiameterMm or nps' });
+  }
+  if (pipe && c.pipeOuterDiameterMm === undefined && c.nps !== undefined && !pipeByNps(c.nps)) {
+    ctx.addIssue({ code: 'custom', path: ['nps'], message: `nps ${JSON.stringify(c.nps)} is not a nominal pipe size (ASME B36.10M)` });
+  }
+  if (vessel) {
+    const along = c.geometry === 'vertical-vessel' ? c.heightM : (c.lengthM ?? c.heightM);
+    if (along === undefined) ctx.addIssue({ code: 'custom', path: [c.geometry === 'vertical-vessel' ? 'heightM' : 'lengthM'], message: `a ${c.geometry} needs its ${c.geometry === 'vertical-vessel' ? 'heightM' : 'lengthM'}` });
+    if (c.pipeOuterDiameterMm === undefined && c.surfaceAreaM2 === undefined) ctx.addIssue({ code: 'custom', path: ['pipeOuterDiameterMm'], message: 'a vessel needs pipeOuterDiameterMm (its diameter) or surfaceAreaM2 (bare shell and heads)' });
+  }
+  if (c.insulation?.conductivity && !c.insulation.thicknessesMm && c.thicknessMm === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['insulation', 'thicknessesMm'], message: 'with your own conductivity give the thicknesses to choose from (thicknessesMm) or one thicknessMm' });
+  }
+  if (c.insulation?.conductivity && c.insulation.materialId) {
+    ctx.addIssue({ code: 'custom', path: ['insulation'], message: 'give materialId or conductivity, not both' });
+  }
+});
+
+export type RecommendCase = z.input<typeof recommendCaseSchema>;
+
+export interface CriterionResult {
+  requiredMm: number | null;
+  /** Surface temperature at requiredMm under this criterion's own conditions (null when none meets it). */
+  surfaceTempC: number | null;
+  message: string;
+  /** With thicknessMm given: whether that thickness meets the criterion. */
+  met?: boolean;
+  limitC?: number;
+  dewPointC?: number;
+  frostPoint?: boolean;
+  limitWPerM?: number;
+  limitWPerM2?: number;
+  heatLossWPerM?: number;
+  heatFluxWPerM2?: number;
+  limitK?: number;
+  hoursToFreezingPoint?: number;
+  requiredHours?: number;
+  annualCostPerUnit?: number;
+}
+
+export interface RecommendResult {
+  id?: string | number;
+  recommendedMm: number | null;
+  /** The thickness evaluated when the case gave thicknessMm (then recommendedMm is the one Lagwise would choose). */
+  evaluatedMm?: number;
+  governing: CriterionId | null;
+  layers: { materialId: string; thicknessMm: number }[];
+  /** Pipes: W per metre of pipe; vessels and flat surfaces report heatFluxWPerM2 instead. */
+  heatLossWPerM: number | null;
+  heatFluxWPerM2?: number | null;
+  /** The whole line or surface, W, where a length or area is known. */
+  heatLossW?: number | null;
+  /** At the recommended (or evaluated) thickness under the heat-loss conditions. */
+  surfaceTempC: number | null;
+  material: string;
+  jacket: { name: string; emittance: number; metal: boolean };
+  criteria: Partial<Record<CriterionId, CriterionResult>>;
+  unmet: CriterionId[];
+  warnings: string[];
+}
+
+export type RecommendOutput = RecommendResult | { id?: string | number; error: string };
+
+function describeIssues(e: z.ZodError): string {
+  return e.issues.map((i) => `${i.path.length ? i.path.join('.') : '(case)'}: ${i.message}`).join('; ');
+}
+
+const merge = (base: ConditionSet, over?: Partial<ConditionSet>): ConditionSet => (over ? { ...base, ...over } : base);
+
+/** The case → the engine's line, material system and criteria. */
+function prepare(c: z.output<typeof recommendCaseSchema>) {
+  const basis = DEFAULT_DESIGN_BASIS;
+  const outdoor = c.outdoor ?? true;
+  const base = {
+    normalTempC: c.normalTempC, maxTempC: c.maxTempC, purposes: c.purposes as Purpose[], accessible: c.accessible ?? true, pipeWallMm: c.pipeWallMm,
+  };
+  let line: LineCase;
+  let engineGeometry: 'pipe' | 'vessel' | 'flat';
+  if (c.geometry === 'horizontal-pipe' || c.geometry === 'vertical-pipe') {
+    const od = c.pipeOuterDiameterMm ?? pipeByNps(c.nps!)!.outsideDiameterMm;
+    line = { ...base, geometry: c.geometry, pipeOuterDiameterMm: od, heightM: c.heightM ?? 6, lengthM: c.lengthM ?? 1 };
+    engineGeometry = 'pipe';
+  } else if (c.geometry === 'flat') {
+    line = { ...base, geometry: 'vertical-wall', heightM: c.heightM ?? 2, areaM2: c.surfaceAreaM2 ?? 1 };
+    engineGeometry = 'flat';
+  } else {
+    const horizontal = c.geometry === 'horizontal-vessel';
+    const along = horizontal ? (c.lengthM ?? c.heightM)! : c.heightM!;
+    const D = c.pipeOuterDiameterMm !== undefined ? c.pipeOuterDiameterMm / 1000 : vesselDiameterM(c.surfaceAreaM2!, along);
+    line = { ...base, geometry: 'vessel', vesselOrientation: horizontal ? 'horizontal' : 'vertical', pipeOuterDiameterMm: D * 1000, heightM: along };
+    engineGeometry = 'vessel';
+  }
+
+  const crit0 = criteriaFor(basis, outdoor);
+  const cond = c.conditions ?? {};
+  const crit: Criteria = {
+    ...crit0,
+    conditions: {
+      heatLoss: merge(crit0.conditions.heatLoss, cond.heatLoss),
+      personnel: merge(crit0.conditions.personnel, cond.personnel),
+      condensation: merge(crit0.conditions.condensation, cond.condensation),
+      freeze: merge(crit0.conditions.freeze, cond.freeze),
+    },
+    touchLimitMetalC: c.touchLimitC ?? crit0.touchLimitMetalC,
+    touchLimitNonMetalC: c.touchLimitC ?? crit0.touchLimitNonMetalC,
+    dewPointMarginK: c.dewPointMarginK ?? crit0.dewPointMarginK,
+  };
+
+  const band = systemForLine(basis, { normalTempC: c.normalTempC, jacketId: null, geometry: engineGeometry === 'pipe' ? 'horizontal-pipe' : engineGeometry === 'vessel' ? 'vessel' : 'flat' });
+  const ins = c.insulation;
+  let outer: InsulationMaterial = band.outer;
+  let inner = band.inner;
+  if (ins?.materialId) { outer = materialById(ins.materialId)!; inner = undefined; }
+  if (ins?.conductivity) {
+    outer = {
+      ...band.outer, id: 'case-material', name: 'the case\'s insulation', conductivity: ins.conductivity as InsulationMaterial['conductivity'],
+      minServiceC: -273, maxServiceC: 2000,
+    };
+    inner = undefined;
+  }
+  let jacket: Jacket = band.jacket;
+  if (ins?.surfaceEmittance !== undefined) {
+    // A given emittance replaces the jacket; low emittance means bright metal (touch limit for metal).
+    jacket = { id: 'case-jacket', name: `surface of emittance ${ins.surfaceEmittance}`, emittance: ins.surfaceEmittance, metal: ins.surfaceEmittance <= 0.5, source: 'the case' };
+  }
+  // Thicknesses: the case's totals (each one layer), or the material's series; a thickness to evaluate is added.
+  let thicknesses = ins?.thicknessesMm;
+  if (c.thicknessMm !== undefined && c.thicknessMm > 0) {
+    const seriesTotals = thicknesses ?? null;
+    if (!seriesTotals || !seriesTotals.includes(c.thicknessMm)) {
+      thicknesses = [...new Set([...(seriesTotals ?? defaultTotals(outer, inner, c, band)), c.thicknessMm])];
+    }
+  }
+  const system: MaterialSystem = thicknesses
+    ? { outer, inner, jacket, series: { thicknessesMm: thicknesses, maxLayerMm: Math.max(...thicknesses), maxLayers: 1, maxTotalMm: Math.max(...thicknesses) } }
+    : { outer, inner, jacket, series: band.series };
+  return { line, crit, system, engineGeometry };
+}
+
+/** The totals the material's series offers (how the product would build them). */
+function defaultTotals(outer: InsulationMaterial, inner: InsulationMaterial | undefined, c: z.output<typeof recommendCaseSchema>, band: MaterialSystem): number[] {
+  const probe = recommendLine({ geometry: 'horizontal-pipe', pipeOuterDiameterMm: 60.3, normalTempC: c.normalTempC, maxTempC: c.maxTempC, purposes: [] }, { outer, inner, jacket: band.jacket, series: band.series }, criteriaFor(DEFAULT_DESIGN_BASIS, true));
+  return probe.candidates.map((x) => x.totalMm).filter((t) => t > 0);
+}
+
+/** Surface temperature of a given build under one condition set (vessels: the worst part). */
+function surfaceAt(line: LineCase, system: MaterialSystem, layers: { materialId: string; thicknessMm: number }[], processC: number, cs: ConditionSet): number {
+  const bare = layers.length === 0;
+  const ambient: Ambient = { airC: cs.airC, surroundingsC: cs.surroundingsC ?? cs.airC, windMs: cs.windMs, emittance: bare ? 0.8 : system.jacket.emittance };
+  const solid = layers.map((l) => {
+    const m = l.materialId === system.outer.id ? system.outer : l.materialId === system.inner?.id ? system.inner! : materialById(l.materialId)!;
+    return { thicknessM: l.thicknessMm / 1000, conductivity: compileConductivity(m.conductivity), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
+  });
+  const D = (line.pipeOuterDiameterMm ?? 0) / 1000;
+  if (line.geometry === 'vessel') {
+    return solveVessel({ diameterM: D, shellHeightM: line.heightM ?? 1, processC, ambient, layers: solid, horizontal: line.vesselOrientation === 'horizontal' }).worstSurfaceC;
+  }
+  return solveSteady({ geometry: line.geometry, pipeOuterDiameterM: D, heightM: line.heightM ?? 1, characteristicLengthM: line.characteristicLengthM ?? 1, processC, ambient, layers: solid }).surfaceC;
+}
+
+function criteriaOf(r: Recommendation, line: LineCase, system: MaterialSystem, crit: Criteria, evaluatedMm: number | undefined, pipe: boolean): Partial<Record<CriterionId, CriterionResult>> {
+  const out: Partial<Record<CriterionId, CriterionResult>> = {};
+  const at = (mm: number | null) => (mm === null ? undefined : r.candidates.find((x) => x.totalMm === mm));
+  for (const o of r.outcomes) {
+    const cand = at(o.requiredMm);
+    const res: CriterionResult = { requiredMm: o.requiredMm, surfaceTempC: null, message: o.message };
+    if (evaluatedMm !== undefined) res.met = o.requiredMm !== null && evaluatedMm >= o.requiredMm;
+    switch (o.id) {
+      case 'personnel': {
+        res.limitC = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+        res.surfaceTempC = cand?.personnel?.surfaceC ?? null;
+        break;
+      }
+      case 'condensation': {
+        const th = condensationLimit(crit.conditions.condensation, crit.dewPointMarginK);
+        res.dewPointC = th.valueC; res.frostPoint = th.basis !== 'dew point'; res.limitC = th.needC;
+        res.surfaceTempC = cand?.condensation?.surfaceC ?? null;
+        break;
+      }
+      case 'freeze': {
+        res.hoursToFreezingPoint = o.hours; res.requiredHours = crit.freeze?.requiredHours;
+        res.surfaceTempC = cand ? surfaceAt(line, system, cand.layers, crit.freeze?.initialWaterTempC ?? 10, crit.conditions.freeze) : null;
+        break;
+      }
+      default: {
+        res.surfaceTempC = cand?.heatLoss.surfaceC ?? null;
+        if (cand) { if (pipe) res.heatLossWPerM = cand.heatLoss.heatFlow; else res.heatFluxWPerM2 = cand.heatLoss.heatFlow; }
+        if (o.id === 'heatLossLimit') { if (pipe) res.limitWPerM = crit.heatLossLimitWPerM; else res.limitWPerM2 = crit.heatLossLimitWPerM2; }
+        if (o.id === 'processDrop') res.limitK = crit.maxProcessDropK;
+        if (o.id === 'economic' && cand?.annualCost !== undefined) res.annualCostPerUnit = cand.annualCost;
+      }
+    }
+    out[o.id] = res;
+  }
+  return out;
+}
+
+/** One case; never throws — an invalid case comes back as { id, error } naming the field. */
+export function runRecommendCase(input: unknown): RecommendOutput {
+  const id = input && typeof input === 'object' && 'id' in input ? (input as { id?: string | number }).id : undefined;
+  const parsed = recommendCaseSchema.safeParse(input);
+  if (!parsed.success) return { id, error: describeIssues(parsed.error) };
+  const c = parsed.data;
+  try {
+    const { line, crit, system, engineGeometry } = prepare(c);
+    const r = recommendLine(line, system, crit);
+    const pipe = engineGeometry === 'pipe';
+    const shownMm = c.thicknessMm ?? r.recommendedMm;
+    const shown = shownMm === null ? undefined : r.candidates.find((x) => x.totalMm === shownMm);
+    const flow = shown?.heatLoss.heatFlow ?? null;
+    const extent = pipe ? (c.lengthM ?? null) : engineGeometry === 'vessel' ? (c.surfaceAreaM2 ?? (Math.PI * (line.pipeOuterDiameterMm! / 1000) * line.heightM! + Math.PI * (line.pipeOuterDiameterMm! / 1000) ** 2 / 2)) : (c.surfaceAreaM2 ?? null);
+    const warnings = [...r.warnings];
+    const condensationTh = condensationLimit(crit.conditions.condensation, crit.dewPointMarginK);
+    if (r.outcomes.some((o) => o.id === 'condensation') && condensationTh.basis !== 'dew point') warnings.push(`The condensation limit is the frost point (over ice), ${condensationTh.valueC.toFixed(1)} °C, because it is below 0 °C.`);
+    return {
+      id,
+      recommendedMm: r.recommendedMm,
+      ...(c.thicknessMm !== undefined ? { evaluatedMm: c.thicknessMm } : {}),
+      governing: r.governing,
+      layers: shown?.layers ?? [],
+      heatLossWPerM: pipe ? flow : null,
+      ...(pipe ? {} : { heatFluxWPerM2: flow }),
+      heatLossW: flow !== null && extent !== null ? flow * extent : null,
+      surfaceTempC: shown?.heatLoss.surfaceC ?? null,
+      material: system.inner && shown?.layers.some((l) => l.materialId === system.inner!.id) ? `${system.inner.name} inside ${system.outer.name}` : system.outer.name,
+      jacket: { name: system.jacket.name, emittance: system.jacket.emittance, metal: system.jacket.metal },
+      criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
+      unmet: r.unmet,
+      warnings,
+    };
+  } catch (e) {
+    return { id, error: `calculation failed: ${(e as Error).message}` };
+  }
+}
+
+/** Relative CPU cost of a recommendation case (about 35 solves; a vessel three surfaces each). */
+export function recommendCaseCost(input: unknown): number {
+  const g = (input as { geometry?: unknown } | null)?.geometry;
+  return typeof g === 'string' && g.endsWith('vessel') ? 3 : 1;
+}

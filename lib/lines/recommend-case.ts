@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import {
-  condensationLimit, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
+  condensationLimit, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
   type Ambient, type ConditionSet, type Criteria, type CriterionId, type InsulationMaterial, type Jacket,
   type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity,
 } from '@/lib/thermal';
@@ -57,6 +57,26 @@ export const recommendCaseSchema = z.object({
   }, { error: 'conditions must be an object with heatLoss, personnel, condensation and/or freeze' }).optional(),
   touchLimitC: temperature('touchLimitC').optional(),
   dewPointMarginK: num('dewPointMarginK').refine((v) => v >= 0 && v <= 20, { error: 'dewPointMarginK must be between 0 and 20' }).optional(),
+  freeze: z.object({
+    initialWaterTempC: temperature('freeze.initialWaterTempC').refine((v) => v > 0 && v <= 90, { error: 'freeze.initialWaterTempC must be above 0 and at most 90 °C' }).optional(),
+    requiredHours: positive('freeze.requiredHours').optional(),
+    iceFractionPct: num('freeze.iceFractionPct').refine((v) => v >= 0 && v <= 100, { error: 'freeze.iceFractionPct must be between 0 and 100' }).optional(),
+  }, { error: 'freeze must be an object { initialWaterTempC, requiredHours, iceFractionPct }' }).optional(),
+  energyCode: z.literal('ashrae-90.1', { error: 'energyCode must be "ashrae-90.1"' }).optional(),
+  heatTracing: z.object({
+    maintainTempC: temperature('heatTracing.maintainTempC'),
+    minAmbientC: temperature('heatTracing.minAmbientC'),
+    windMs: num('heatTracing.windMs').refine((v) => v >= 0 && v <= 60, { error: 'heatTracing.windMs must be between 0 and 60' }).optional(),
+    safetyFactor: num('heatTracing.safetyFactor').refine((v) => v >= 1 && v <= 3, { error: 'heatTracing.safetyFactor must be between 1 and 3' }).optional(),
+  }, { error: 'heatTracing must be an object { maintainTempC, minAmbientC, windMs, safetyFactor }' }).optional(),
+  fittings: z.object({
+    elbows: num('fittings.elbows').refine((v) => v >= 0, { error: 'fittings.elbows must be 0 or more' }).optional(),
+    tees: num('fittings.tees').refine((v) => v >= 0, { error: 'fittings.tees must be 0 or more' }).optional(),
+    valves: num('fittings.valves').refine((v) => v >= 0, { error: 'fittings.valves must be 0 or more' }).optional(),
+    flangePairs: num('fittings.flangePairs').refine((v) => v >= 0, { error: 'fittings.flangePairs must be 0 or more' }).optional(),
+    supportsPerM: num('fittings.supportsPerM').refine((v) => v >= 0 && v <= 10, { error: 'fittings.supportsPerM must be between 0 and 10' }).optional(),
+    valvesBare: z.boolean({ error: 'fittings.valvesBare must be true or false' }).optional(),
+  }, { error: 'fittings must be an object { elbows, tees, valves, flangePairs, supportsPerM?, valvesBare? }' }).optional(),
   insulation: z.object({
     materialId: z.string().refine((id) => !!materialById(id), { error: 'materialId is not in the material library' }).optional(),
     conductivity: conductivitySchema.optional(),
@@ -78,6 +98,9 @@ export const recommendCaseSchema = z.object({
   }
   if (c.insulation?.conductivity && !c.insulation.thicknessesMm && c.thicknessMm === undefined) {
     ctx.addIssue({ code: 'custom', path: ['insulation', 'thicknessesMm'], message: 'with your own conductivity give the thicknesses to choose from (thicknessesMm) or one thicknessMm' });
+  }
+  if ((c.heatTracing || c.fittings) && !pipe) {
+    ctx.addIssue({ code: 'custom', path: [c.heatTracing ? 'heatTracing' : 'fittings'], message: `${c.heatTracing ? 'heatTracing' : 'fittings'} apply to pipes only` });
   }
   if (c.insulation?.conductivity && c.insulation.materialId) {
     ctx.addIssue({ code: 'custom', path: ['insulation'], message: 'give materialId or conductivity, not both' });
@@ -102,7 +125,11 @@ export interface CriterionResult {
   heatFluxWPerM2?: number;
   limitK?: number;
   hoursToFreezingPoint?: number;
+  hoursToIceFraction?: number;
+  iceFractionPct?: number;
   requiredHours?: number;
+  tableMm?: number;
+  minimumMm?: number;
   annualCostPerUnit?: number;
 }
 
@@ -123,6 +150,11 @@ export interface RecommendResult {
   material: string;
   jacket: { name: string; emittance: number; metal: boolean };
   criteria: Partial<Record<CriterionId, CriterionResult>>;
+  /** With heatTracing: the heat loss at the maintain temperature in the minimum ambient, and the tracer duty. */
+  heatTracing?: { heatLossWPerM: number; requiredWPerM: number };
+  /** With fittings: their extra heat flow (equivalent lengths, lib/thermal/fittings.ts) and the run's total, W. */
+  fittingsHeatLossW?: number;
+  totalHeatLossW?: number;
   unmet: CriterionId[];
   warnings: string[];
 }
@@ -169,6 +201,8 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
       condensation: merge(crit0.conditions.condensation, cond.condensation),
       freeze: merge(crit0.conditions.freeze, cond.freeze),
     },
+    freeze: { ...crit0.freeze!, ...(c.freeze ?? {}) },
+    energyCode: c.energyCode,
     touchLimitMetalC: c.touchLimitC ?? crit0.touchLimitMetalC,
     touchLimitNonMetalC: c.touchLimitC ?? crit0.touchLimitNonMetalC,
     dewPointMarginK: c.dewPointMarginK ?? crit0.dewPointMarginK,
@@ -211,8 +245,8 @@ function defaultTotals(outer: InsulationMaterial, inner: InsulationMaterial | un
   return probe.candidates.map((x) => x.totalMm).filter((t) => t > 0);
 }
 
-/** Surface temperature of a given build under one condition set (vessels: the worst part). */
-function surfaceAt(line: LineCase, system: MaterialSystem, layers: { materialId: string; thicknessMm: number }[], processC: number, cs: ConditionSet): number {
+/** Surface temperature and heat flow of a given build under one condition set (vessels: the worst part, mean flux). */
+function solveAt(line: LineCase, system: MaterialSystem, layers: { materialId: string; thicknessMm: number }[], processC: number, cs: ConditionSet): { surfaceC: number; heatFlow: number } {
   const bare = layers.length === 0;
   const ambient: Ambient = { airC: cs.airC, surroundingsC: cs.surroundingsC ?? cs.airC, windMs: cs.windMs, emittance: bare ? 0.8 : system.jacket.emittance };
   const solid = layers.map((l) => {
@@ -221,9 +255,11 @@ function surfaceAt(line: LineCase, system: MaterialSystem, layers: { materialId:
   });
   const D = (line.pipeOuterDiameterMm ?? 0) / 1000;
   if (line.geometry === 'vessel') {
-    return solveVessel({ diameterM: D, shellHeightM: line.heightM ?? 1, processC, ambient, layers: solid, horizontal: line.vesselOrientation === 'horizontal' }).worstSurfaceC;
+    const v = solveVessel({ diameterM: D, shellHeightM: line.heightM ?? 1, processC, ambient, layers: solid, horizontal: line.vesselOrientation === 'horizontal' });
+    return { surfaceC: v.worstSurfaceC, heatFlow: v.meanFluxWPerM2 };
   }
-  return solveSteady({ geometry: line.geometry, pipeOuterDiameterM: D, heightM: line.heightM ?? 1, characteristicLengthM: line.characteristicLengthM ?? 1, processC, ambient, layers: solid }).surfaceC;
+  const r = solveSteady({ geometry: line.geometry, pipeOuterDiameterM: D, heightM: line.heightM ?? 1, characteristicLengthM: line.characteristicLengthM ?? 1, processC, ambient, layers: solid });
+  return { surfaceC: r.surfaceC, heatFlow: r.heatFlow };
 }
 
 function criteriaOf(r: Recommendation, line: LineCase, system: MaterialSystem, crit: Criteria, evaluatedMm: number | undefined, pipe: boolean): Partial<Record<CriterionId, CriterionResult>> {
@@ -247,7 +283,14 @@ function criteriaOf(r: Recommendation, line: LineCase, system: MaterialSystem, c
       }
       case 'freeze': {
         res.hoursToFreezingPoint = o.hours; res.requiredHours = crit.freeze?.requiredHours;
-        res.surfaceTempC = cand ? surfaceAt(line, system, cand.layers, crit.freeze?.initialWaterTempC ?? 10, crit.conditions.freeze) : null;
+        res.iceFractionPct = crit.freeze?.iceFractionPct ?? 0;
+        res.hoursToIceFraction = o.iceHours ?? o.hours;
+        res.surfaceTempC = cand ? solveAt(line, system, cand.layers, crit.freeze?.initialWaterTempC ?? 10, crit.conditions.freeze).surfaceC : null;
+        break;
+      }
+      case 'energyCode': {
+        res.tableMm = o.tableMm; res.minimumMm = o.minimumMm;
+        res.surfaceTempC = cand?.heatLoss.surfaceC ?? null;
         break;
       }
       default: {
@@ -280,6 +323,20 @@ export function runRecommendCase(input: unknown): RecommendOutput {
     const warnings = [...r.warnings];
     const condensationTh = condensationLimit(crit.conditions.condensation, crit.dewPointMarginK);
     if (r.outcomes.some((o) => o.id === 'condensation') && condensationTh.basis !== 'dew point') warnings.push(`The condensation limit is the frost point (over ice), ${condensationTh.valueC.toFixed(1)} °C, because it is below 0 °C.`);
+    let tracing: RecommendResult['heatTracing'];
+    if (c.heatTracing && pipe) {
+      const ht = c.heatTracing;
+      const q = solveAt(line, system, shown?.layers ?? [], ht.maintainTempC, { airC: ht.minAmbientC, windMs: ht.windMs ?? crit.conditions.freeze.windMs }).heatFlow;
+      const extra = c.fittings ? fittingsHeatLoss({ counts: c.fittings, lengthM: c.lengthM ?? 1, insulatedWPerM: 1, bareWPerM: 0 }).insulatedEquivalentM : 0;
+      tracing = heatTracingDuty({ heatLossWPerM: q, safetyFactor: ht.safetyFactor, fittingsExtraM: extra, lengthM: c.lengthM });
+    }
+    let fittingsW: number | undefined, totalW: number | undefined;
+    if (c.fittings && pipe && flow !== null) {
+      const run = c.lengthM ?? 1;
+      if (c.lengthM === undefined) warnings.push('No lengthM: the fittings are added to 1 m of straight run.');
+      fittingsW = fittingsHeatLoss({ counts: c.fittings, lengthM: run, insulatedWPerM: flow, bareWPerM: r.candidates[0].heatLoss.heatFlow }).fittingsW;
+      totalW = flow * run + fittingsW;
+    }
     return {
       id,
       recommendedMm: r.recommendedMm,
@@ -293,6 +350,8 @@ export function runRecommendCase(input: unknown): RecommendOutput {
       material: system.inner && shown?.layers.some((l) => l.materialId === system.inner!.id) ? `${system.inner.name} inside ${system.outer.name}` : system.outer.name,
       jacket: { name: system.jacket.name, emittance: system.jacket.emittance, metal: system.jacket.metal },
       criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
+      ...(tracing ? { heatTracing: tracing } : {}),
+      ...(fittingsW !== undefined ? { fittingsHeatLossW: fittingsW, totalHeatLossW: totalW } : {}),
       unmet: r.unmet,
       warnings,
     };

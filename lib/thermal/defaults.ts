@@ -19,7 +19,8 @@ export const DEFAULT_CRITERIA: Criteria = {
   touchLimitNonMetalC: 65,
   dewPointMarginK: 2,
   maxProcessDropK: 5,
-  freeze: { initialWaterTempC: 10, requiredHours: 8 },
+  // 25 % ice allowed by the required time: common practice for water lines (a partly frozen line still drains and rarely bursts).
+  freeze: { initialWaterTempC: 10, requiredHours: 8, iceFractionPct: 25 },
   economics: DEFAULT_ECONOMICS,
   prices: DEFAULT_PRICES,
 };

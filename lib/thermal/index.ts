@@ -10,6 +10,8 @@ export * from './pipes';
 export * from './psychro';
 export * from './recommend';
 export * from './rules';
+export * from './energy-code';
+export * from './fittings';
 export * from './solve';
 export * from './steam';
 export * from './surface';

@@ -7,11 +7,12 @@ import { condensateKgPerHour, saturatedSteamAtPressure } from './steam';
 import { isPipe, type Ambient, type Geometry } from './surface';
 import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
 import { pipeByOutsideDiameter } from './pipes';
+import { energyCodeMinimum } from './energy-code';
 
 export interface ConditionSet { airC: number; surroundingsC?: number; windMs: number; relativeHumidityPct?: number }
 
 export type Purpose = 'heatConservation' | 'personnelProtection' | 'condensationControl' | 'processControl' | 'freezeProtection';
-export type CriterionId = 'personnel' | 'condensation' | 'heatLossLimit' | 'processDrop' | 'freeze' | 'economic';
+export type CriterionId = 'personnel' | 'condensation' | 'heatLossLimit' | 'processDrop' | 'freeze' | 'energyCode' | 'economic';
 
 export interface LineCase {
   /**
@@ -50,9 +51,12 @@ export interface Criteria {
   heatLossLimitWPerM?: number;
   heatLossLimitWPerM2?: number;
   maxProcessDropK?: number;
-  freeze?: { initialWaterTempC: number; requiredHours: number };
+  /** Stagnant water: starting temperature, hours required, and the ice fraction allowed by then (0: none, time to 0 °C). */
+  freeze?: { initialWaterTempC: number; requiredHours: number; iceFractionPct?: number };
   economics?: Economics;
   prices?: PriceModel;
+  /** An energy code whose minimum pipe insulation is a hard criterion (energy-code.ts). */
+  energyCode?: 'ashrae-90.1';
 }
 
 export interface MaterialSystem { outer: InsulationMaterial; inner?: InsulationMaterial; jacket: Jacket; series?: Partial<SeriesOptions> }
@@ -76,6 +80,11 @@ export interface CriterionOutcome {
   message: string;
   /** Freeze protection: hours for the stagnant water to cool to 0 °C at the required thickness. */
   hours?: number;
+  /** Freeze protection: hours until the allowed ice fraction has frozen (cooling included). */
+  iceHours?: number;
+  /** Energy code: the table thickness and the minimum after the conductivity correction, mm. */
+  tableMm?: number;
+  minimumMm?: number;
 }
 
 export interface Recommendation {
@@ -274,18 +283,30 @@ const GL_X = [-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.86
 const GL_W = [0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538];
 
 /**
+ * Properties for stagnant-water freeze times by the ISO 12241 method: water 1000 kg/m³,
+ * 4190 J/(kg·K), latent heat of fusion 334 kJ/kg; carbon steel 7850 kg/m³, 460 J/(kg·K)
+ * (handbook values; ISO 12241 Annex B uses the same quantities).
+ */
+export const FREEZE_PROPERTIES = { waterKgPerM3: 1000, waterJPerKgK: 4190, fusionJPerKg: 334_000, steelKgPerM3: 7850, steelJPerKgK: 460 } as const;
+
+function pipeRadii(odMm: number, wallMm?: number) {
+  const wall = wallMm ?? typicalWallMm(odMm);
+  const ro = odMm / 2000, ri = Math.max(0, ro - wall / 1000);
+  return { ro, ri };
+}
+
+/**
  * Time for stagnant water in a pipe to cool from T0 to 0 °C, hours: lumped heat capacity of water
- * and steel, C·dT/dt = −Q'(T), so t = ∫₀^T0 C / Q'(T) dT, with Q'(T) re-solved at each water
- * temperature (4-point Gauss–Legendre in T). With a constant resistance this reduces to the
- * ISO 12241 exponential form t = C·R'·ln((T0 − Ta)/(0 − Ta)). Latent heat of freezing is not counted
- * (conservative: the time to the start of freezing). Returns Infinity when the air is not below 0 °C.
+ * and steel per metre, C′·dT/dt = −q′(T), so t = ∫₀^T0 C′ / q′(T) dT, with q′(T) re-solved at each
+ * water temperature (4-point Gauss–Legendre in T). With a constant resistance this reduces to the
+ * ISO 12241 exponential form t = C′·R′·ln((T0 − Ta)/(0 − Ta)). Returns Infinity when the air is not below 0 °C.
  */
 export function freezeTimeHours(o: { odMm: number; wallMm?: number; initialC: number; heatFlowAt: (waterC: number) => number; airC: number }): number {
   if (o.airC >= 0) return Infinity;
   if (o.initialC <= 0) return 0;
-  const wall = o.wallMm ?? typicalWallMm(o.odMm);
-  const ro = o.odMm / 2000, ri = ro - wall / 1000;
-  const C = 1000 * 4186 * Math.PI * ri * ri + 7850 * 490 * Math.PI * (ro * ro - ri * ri); // J/(m·K): water 4.186 kJ/kg·K, steel 0.49 kJ/kg·K
+  const { ro, ri } = pipeRadii(o.odMm, o.wallMm);
+  const P = FREEZE_PROPERTIES;
+  const C = P.waterKgPerM3 * P.waterJPerKgK * Math.PI * ri * ri + P.steelKgPerM3 * P.steelJPerKgK * Math.PI * (ro * ro - ri * ri); // J/(m·K)
   const half = o.initialC / 2;
   let integral = 0;
   for (let i = 0; i < 4; i++) {
@@ -293,6 +314,17 @@ export function freezeTimeHours(o: { odMm: number; wallMm?: number; initialC: nu
     integral += GL_W[i] * (C / o.heatFlowAt(T));
   }
   return (integral * half) / 3600;
+}
+
+/**
+ * Time, after the water reached 0 °C, to freeze a fraction f of it (ISO 12241 method): the latent
+ * heat of that ice over the heat flow at 0 °C, t = f·ρ·A_water·h_if / q′(0 °C), hours.
+ */
+export function iceFractionHours(o: { odMm: number; wallMm?: number; iceFractionPct: number; heatFlowAtZeroWPerM: number }): number {
+  if (!(o.heatFlowAtZeroWPerM > 0)) return Infinity;
+  const { ri } = pipeRadii(o.odMm, o.wallMm);
+  const P = FREEZE_PROPERTIES;
+  return ((o.iceFractionPct / 100) * P.waterKgPerM3 * Math.PI * ri * ri * P.fusionJPerKg) / o.heatFlowAtZeroWPerM / 3600;
 }
 
 /** Outlet temperature of a flowing line: T_out = T_a + (T_in − T_a)·exp(−U'·L / (ṁ·c_p)) (ISO 12241 exponential form). */
@@ -440,16 +472,37 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K).` });
   }
 
-  // Freeze protection of a stagnant water line.
+  // Freeze protection of a stagnant water line (ISO 12241 method): cooling to 0 °C, then freezing
+  // the allowed ice fraction; the time to that fraction must reach the required hours.
   if (purposes.includes('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
     const f = crit.freeze, fc = crit.conditions.freeze;
-    const a = ambientOf(fc, emittance);
-    const hours = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, wallMm: line.pipeWallMm, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => solveCandidate(chains[i], layersCache[i], T, a, hlH[i], 1).Q });
-    let idx: number | null = null;
-    for (let i = 1; i < n; i++) if (hours(i) >= f.requiredHours) { idx = i; break; }
-    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, hours: idx === null ? undefined : hours(idx), message: idx === null
-      ? `No standard thickness gives ${f.requiredHours} h before freezing at ${fc.airC} °C; consider heat tracing or draining.`
-      : `Stagnant water takes ≥ ${f.requiredHours} h to cool from ${f.initialWaterTempC} °C to 0 °C at ${fc.airC} °C air (${hours(idx).toFixed(1)} h).` });
+    const a = ambientOf(fc, emittance), aBare = ambientOf(fc, bareEps);
+    const ice = f.iceFractionPct ?? 0;
+    const flowAt = (i: number, T: number) => solveCandidate(chains[i], layersCache[i], T, i === 0 ? aBare : a, hlH[i], 1).Q;
+    const toZero = (i: number) => freezeTimeHours({ odMm: line.pipeOuterDiameterMm!, wallMm: line.pipeWallMm, initialC: f.initialWaterTempC, airC: fc.airC, heatFlowAt: (T) => flowAt(i, T) });
+    const toIce = (i: number, zero: number) => zero + (ice > 0 ? iceFractionHours({ odMm: line.pipeOuterDiameterMm!, wallMm: line.pipeWallMm, iceFractionPct: ice, heatFlowAtZeroWPerM: flowAt(i, 0) }) : 0);
+    let idx: number | null = null, zeroH = 0, iceH = 0;
+    for (let i = 0; i < n; i++) {
+      const z = toZero(i), t = toIce(i, z);
+      if (t >= f.requiredHours) { idx = i; zeroH = z; iceH = t; break; }
+    }
+    const what = ice > 0 ? `${ice} % of the water has frozen` : 'freezing starts';
+    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, hours: idx === null ? undefined : zeroH, iceHours: idx === null || ice === 0 ? undefined : iceH, message: idx === null
+      ? `No standard thickness gives ${f.requiredHours} h before ${what} at ${fc.airC} °C; consider heat tracing or draining.`
+      : `Stagnant water from ${f.initialWaterTempC} °C at ${fc.airC} °C air: ${zeroH.toFixed(1)} h to 0 °C${ice > 0 ? `, ${iceH.toFixed(1)} h to ${ice} % ice` : ''} (≥ ${f.requiredHours} h required, ISO 12241 method).` });
+  }
+
+  // Energy-code minimum (ASHRAE 90.1 Table 6.8.3-1): heating and cooling piping, whatever the purposes.
+  if (crit.energyCode === 'ashrae-90.1' && pipe) {
+    const k = cond(system.outer);
+    const m = energyCodeMinimum({ fluidC: line.normalTempC, outsideDiameterMm: line.pipeOuterDiameterMm!, conductivityAt: (T) => k.k(T) });
+    if (m) {
+      let idx: number | null = null;
+      for (let i = 0; i < n; i++) if (results[i].totalMm >= m.minimumMm - 1e-6) { idx = i; break; }
+      outcomes.push({ id: 'energyCode', requiredMm: idx === null ? null : results[idx].totalMm, tableMm: m.tableMm, minimumMm: m.minimumMm, message: idx === null
+        ? `No standard thickness reaches the ASHRAE 90.1 minimum of ${m.minimumMm.toFixed(1)} mm.`
+        : `ASHRAE 90.1 Table 6.8.3-1: ${(m.tableMm / 25.4).toFixed(1)} in (${m.tableMm.toFixed(1)} mm)${m.corrected ? `, ${m.minimumMm.toFixed(1)} mm for this insulation's conductivity (footnote formula)` : ''}.` });
+    }
   }
 
   // Economic thickness: annualised cost over the whole series (cost curve).

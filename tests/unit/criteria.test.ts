@@ -104,7 +104,7 @@ describe('energy balance along a line and stagnant cooling', () => {
   it('freeze time equals C·R\'·ln((T0 − Ta)/(0 − Ta)) when the resistance is constant', () => {
     const Rp = 2.5; // K·m/W
     const ro = 0.0843, ri = ro - 0.00711;
-    const C = 1000 * 4186 * Math.PI * ri * ri + 7850 * 490 * Math.PI * (ro * ro - ri * ri);
+    const C = 1000 * 4190 * Math.PI * ri * ri + 7850 * 460 * Math.PI * (ro * ro - ri * ri); // ISO 12241 method's properties
     const t = freezeTimeHours({ odMm: 168.6, wallMm: 7.11, initialC: 10, airC: -20, heatFlowAt: (T) => (T + 20) / Rp });
     expect(t).toBeCloseTo((C * Rp * Math.log(30 / 20)) / 3600, 3);
   });

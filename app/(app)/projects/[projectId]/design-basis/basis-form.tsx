@@ -87,6 +87,7 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         <Num name="maxProcessDropK" label="Allowed process temperature change K" />
         <Num name="freeze.initialWaterTempC" label="Freeze: starting water °C" />
         <Num name="freeze.requiredHours" label="Freeze: required hours" />
+        <Num name="freeze.iceFractionPct" label="Freeze: ice allowed by then %" />
         <Num name="conditions.freeze.airC" label="Freeze: air °C" />
         <Num name="conditions.freeze.windMs" label="Freeze: wind m/s" />
       </div>

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/thermal/economics';
+import { DEFAULT_COOLING, DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/thermal/economics';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 
@@ -90,6 +90,13 @@ export const designBasisObject = z.object({
     lifeYears: num('Life').int().min(1).max(60),
     escalationRate: num('Price escalation').min(-0.5).max(1),
     co2KgPerKWh: num('CO₂ factor').min(0).max(2),
+    cooling: z.object({
+      electricityPricePerKWh: num('Electricity price for cooling').min(0).max(10),
+      cop: num('Chiller COP').gt(0).max(20),
+      co2KgPerKWh: num('CO₂ factor of electricity').min(0).max(2),
+    }).default(DEFAULT_COOLING),
+    economicChoice: z.enum(['optimum', 'thinnest-within-range'], { error: 'Choose the optimum or the thinnest within the range' }).default('optimum'),
+    flatRangePct: num('Flat range').min(0).max(20).default(2),
   }),
   prices: z.object({
     defaultMaterialPerM3: num('Material price').min(0),
@@ -152,7 +159,7 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ],
   ownMaterials: [],
   ownJackets: [],
-  economics: { ...DEFAULT_ECONOMICS },
+  economics: { ...DEFAULT_ECONOMICS, cooling: { ...DEFAULT_COOLING }, economicChoice: 'optimum', flatRangePct: 2 },
   prices: { ...DEFAULT_PRICES },
 };
 
@@ -164,6 +171,8 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
   co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
   freeze: 'Stagnant water by the ISO 12241 method: cooling to 0 °C, then freezing the allowed fraction of the water (latent heat 334 kJ/kg). 25 % ice by the required time is common practice for water lines; set 0 to require the water stay above 0 °C.',
+  cooling: 'Cold lines gain heat that a chiller removes: priced as electricity ÷ COP with the grid\'s CO₂ factor (COP 3 is a common-practice estimate; set the plant\'s own).',
+  flatRange: 'Annual-cost curves are flat near the optimum; the range within this percentage is shown, and the project may take its thinnest thickness (common practice leans to the thinner).',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
   systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification. Vessels and flat surfaces take blanket or board where a band names one (pipe sections do not fit them).',
   thicknessSeries: 'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',

@@ -18,6 +18,13 @@ import { validateSheet, type LineInput, type RowIssue } from './validate';
 
 // ---------- design basis ----------
 
+/** The system as built: only the materials of the layers actually chosen (inner first); the outer material when bare. */
+function systemLabelOf(system: MaterialSystem, layers: { materialId: string }[]): string {
+  const ids = [...new Set(layers.map((l) => l.materialId))];
+  const name = (id: string) => (id === system.inner?.id ? system.inner.name : id === system.outer.id ? system.outer.name : id);
+  return ids.length ? ids.map(name).join(' + ') : system.outer.name;
+}
+
 export async function getDesignBasis({ projectId }: { projectId: string }): Promise<{ basis: DesignBasis; revision: number }> {
   const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
   if (row) return { basis: designBasisSchema.parse(row.basis), revision: row.revision };
@@ -281,7 +288,7 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
     const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
     return {
       lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basisJson, input),
-      recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: `${s.system.inner ? `${s.system.inner.name} + ` : ''}${s.system.outer.name}`, jacketId: s.system.jacket.id,
+      recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: systemLabelOf(s.system, r.layers), jacketId: s.system.jacket.id,
       outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
       // Compact cost curve and candidate table: [mm, layers, heat flow, surface °C (heat-loss), surface °C (personnel), annual cost, limits ok]
       candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 6), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk]),

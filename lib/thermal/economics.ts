@@ -31,6 +31,33 @@ export interface Economics {
   escalationRate: number;
   /** kg CO₂ per kWh of energy bought. */
   co2KgPerKWh: number;
+  /**
+   * Cold service is priced as cooling, not as fuel: the heat gained is removed by a chiller
+   * (electricity ÷ COP). Absent: cold lines are priced like hot ones (older design bases).
+   */
+  cooling?: CoolingEconomics;
+  /**
+   * Which thickness the economic criterion asks for: the optimum, or the thinnest within
+   * `flatRangePct` of the minimum annual cost (common practice leans to the thinner on a flat curve).
+   */
+  economicChoice?: 'optimum' | 'thinnest-within-range';
+  /** Width of the flat range around the optimum, % of the minimum annual cost (default 2). */
+  flatRangePct?: number;
+}
+
+export interface CoolingEconomics {
+  /** Electricity price per kWh. */
+  electricityPricePerKWh: number;
+  /** Chiller coefficient of performance: heat removed ÷ electricity used. */
+  cop: number;
+  /** kg CO₂ per kWh of electricity. */
+  co2KgPerKWh: number;
+}
+
+/** Energy bought per kWh of heat lost (hot) or gained (cold), its price and CO₂, per the service. */
+export function energyTerms(econ: Economics, cold: boolean): { boughtPerHeat: number; pricePerKWh: number; co2KgPerKWh: number } {
+  if (cold && econ.cooling) return { boughtPerHeat: 1 / econ.cooling.cop, pricePerKWh: econ.cooling.electricityPricePerKWh, co2KgPerKWh: econ.cooling.co2KgPerKWh };
+  return { boughtPerHeat: 1 / econ.efficiency, pricePerKWh: econ.energyPricePerKWh, co2KgPerKWh: econ.co2KgPerKWh };
 }
 
 export interface PriceModel {
@@ -50,9 +77,18 @@ export interface PriceModel {
 /** Natural gas: IPCC 2006 Guidelines Vol. 2 Table 2.2, 56 100 kg CO₂/TJ on net calorific value = 0.20196 kg/kWh. */
 export const CO2_NATURAL_GAS_KG_PER_KWH = (56100 / 1e12) * 3.6e6;
 
+/**
+ * Cooling defaults: an electric chiller with COP 3 (common practice for an estimate), electricity
+ * at 0.15 per kWh and 0.35 kg CO₂/kWh of grid electricity — placeholders for the plant's own figures.
+ */
+export const DEFAULT_COOLING: CoolingEconomics = { electricityPricePerKWh: 0.15, cop: 3, co2KgPerKWh: 0.35 };
+
 export const DEFAULT_ECONOMICS: Economics = {
   energyPricePerKWh: 0.045, efficiency: 0.85, hoursPerYear: 8000, discountRate: 0.08, lifeYears: 15, escalationRate: 0.02,
   co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH,
+  cooling: DEFAULT_COOLING,
+  economicChoice: 'optimum',
+  flatRangePct: 2,
 };
 
 export const DEFAULT_PRICES: PriceModel = {

@@ -1,5 +1,5 @@
 import { compileConductivity, type Conductivity } from './conductivity';
-import { capitalRecoveryFactor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
+import { capitalRecoveryFactor, energyTerms, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
 import { condensationControlApplies, condensationLimit, personnelProtectionApplies } from './rules';
 import { prepareChain, solveChain, solvePrepared, type PreparedChain, type SolidLayer, type SteadyResult } from './solve';
@@ -82,6 +82,8 @@ export interface CriterionOutcome {
   hours?: number;
   /** Freeze protection: hours until the allowed ice fraction has frozen (cooling included). */
   iceHours?: number;
+  /** Economic: the optimum and the thicknesses whose annual cost is within the flat range of it. */
+  range?: { fromMm: number; toMm: number; optimumMm: number };
   /** Energy code: the table thickness and the minimum after the conductivity correction, mm. */
   tableMm?: number;
   minimumMm?: number;
@@ -457,19 +459,26 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
   }
 
-  // Process temperature change along a flowing line.
+  // Process temperature change along a flowing line, at the coldest design air and wind (the freeze
+  // conditions) for a hot line — the worst case, not the annual mean.
   if (purposes.includes('processControl') && pipe && crit.maxProcessDropK !== undefined && line.massFlowKgPerS && line.lengthM) {
     const cp = line.fluidCpJPerKgK ?? 4186;
+    const pc = cold ? crit.conditions.personnel : crit.conditions.freeze; // a cold line gains most on the hottest day
+    const a = ambientOf(pc, emittance), aBare = ambientOf(pc, bareEps);
+    const q = new Array<number>(n);
+    const sweep = newSweep();
+    for (let i = 0; i < n; i++) q[i] = solveInSweep(lc, i, line.normalTempC, i === 0 ? aBare : a, sweep).Q;
     const drop = (i: number) => {
-      const u = hlQ[i] / (line.normalTempC - crit.conditions.heatLoss.airC || 1);
-      const out = outletTempC({ inletC: line.normalTempC, airC: crit.conditions.heatLoss.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
+      const u = q[i] / (line.normalTempC - pc.airC || 1);
+      const out = outletTempC({ inletC: line.normalTempC, airC: pc.airC, uPerLengthWPerMK: u, lengthM: line.lengthM!, massFlowKgPerS: line.massFlowKgPerS!, cpJPerKgK: cp });
       return Math.abs(line.normalTempC - out);
     };
     let idx: number | null = null;
     for (let i = 0; i < n; i++) if (drop(i) <= crit.maxProcessDropK) { idx = i; break; }
+    const where = `${pc.airC} °C air, ${pc.windMs} m/s (${cold ? 'hottest' : 'coldest'} design conditions)`;
     outcomes.push({ id: 'processDrop', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
-      ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K.`
-      : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K).` });
+      ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K at ${where}.`
+      : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K at ${where}).` });
   }
 
   // Freeze protection of a stagnant water line (ISO 12241 method): cooling to 0 °C, then freezing
@@ -505,20 +514,33 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     }
   }
 
-  // Economic thickness: annualised cost over the whole series (cost curve).
+  // Economic thickness: annualised cost over the whole series (cost curve). Cold service is priced
+  // as cooling (economics.cooling); the optimum and the flat range within flatRangePct of it.
   let econIdx: number | null = null;
+  let econRange: { fromMm: number; toMm: number; optimumMm: number } | undefined;
+  const et = energyTerms(econ, cold);
   if (purposes.includes('heatConservation')) {
     const { crf, lf } = annuityFactors(econ);
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
       const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
-      const energy = (Math.abs(hlQ[i]) * econ.hoursPerYear / 1000) * econ.energyPricePerKWh / econ.efficiency;
+      const energy = (Math.abs(hlQ[i]) * econ.hoursPerYear / 1000) * et.pricePerKWh * et.boughtPerHeat;
       const annual = crf * inst + lf * energy;
       const ri = results[i];
       ri.installedCost = inst; ri.energyCostPerYear = energy; ri.annualCost = annual;
       if (results[i].serviceLimitOk && annual < best) { best = annual; econIdx = i; }
     }
-    outcomes.push({ id: 'economic', requiredMm: econIdx === null ? null : results[econIdx].totalMm, message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr).` });
+    const optimumIdx = econIdx;
+    if (optimumIdx !== null) {
+      const cap = best * (1 + (econ.flatRangePct ?? 2) / 100);
+      let lo = optimumIdx, hi = optimumIdx;
+      while (lo > 0 && results[lo - 1].serviceLimitOk && results[lo - 1].annualCost! <= cap) lo--;
+      while (hi < n - 1 && results[hi + 1].serviceLimitOk && results[hi + 1].annualCost! <= cap) hi++;
+      econRange = { fromMm: results[lo].totalMm, toMm: results[hi].totalMm, optimumMm: results[optimumIdx].totalMm };
+      if (econ.economicChoice === 'thinnest-within-range') econIdx = lo;
+    }
+    const rangeText = econRange ? ` Within ${econ.flatRangePct ?? 2} % of the minimum from ${econRange.fromMm} to ${econRange.toMm} mm (optimum ${econRange.optimumMm} mm)${econ.economicChoice === 'thinnest-within-range' ? '; the thinnest of that range is taken' : ''}.` : '';
+    outcomes.push({ id: 'economic', requiredMm: econIdx === null ? null : results[econIdx].totalMm, range: econRange, message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr${cold && econ.cooling ? `, cooling at COP ${econ.cooling.cop}` : ''}).${rangeText}` });
   }
 
   // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
@@ -533,6 +555,11 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (!cold && maxC > system.outer.maxServiceC && !system.inner) warnings.push(`${system.outer.name} is rated to ${system.outer.maxServiceC} °C; the line runs at ${maxC} °C. Add a higher-temperature inner layer.`);
   if (cold && line.normalTempC < system.outer.minServiceC) warnings.push(`${system.outer.name} is rated down to ${system.outer.minServiceC} °C only.`);
   if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
+  if (line.steamPressureMPaAbs) {
+    // Plausibility (IAPWS-IF97): saturated steam at the stated pressure has one temperature.
+    const sat = saturatedSteamAtPressure(line.steamPressureMPaAbs).temperatureC;
+    if (line.normalTempC < sat - 1) warnings.push(`The line is at ${line.normalTempC} °C, ${(sat - line.normalTempC).toFixed(1)} K below the saturation temperature of steam at its pressure (${sat.toFixed(1)} °C, IAPWS-IF97): check the temperature or the pressure.`);
+  }
 
   const rec = recIdx >= 0 ? results[recIdx] : null;
   const design = recIdx >= 0
@@ -545,8 +572,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   let annual: Recommendation['annual'];
   if (design) {
     const heatMWh = (Math.abs(designFlow) * extent * econ.hoursPerYear) / 1e6;
-    const boughtMWh = heatMWh / econ.efficiency;
-    annual = { energyMWh: heatMWh, cost: boughtMWh * 1000 * econ.energyPricePerKWh, co2Tonnes: (boughtMWh * 1000 * econ.co2KgPerKWh) / 1000 };
+    const boughtMWh = heatMWh * et.boughtPerHeat;
+    annual = { energyMWh: heatMWh, cost: boughtMWh * 1000 * et.pricePerKWh, co2Tonnes: (boughtMWh * 1000 * et.co2KgPerKWh) / 1000 };
   }
   const unmet: CriterionId[] = [];
   for (const o of outcomes) if (o.requiredMm === null) unmet.push(o.id);

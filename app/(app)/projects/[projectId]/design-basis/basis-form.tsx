@@ -118,6 +118,17 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         <Num name="economics.lifeYears" label="Life, years" step="1" />
         <Num name="economics.escalationRate" label="Energy price escalation (fraction)" />
         <Num name="economics.co2KgPerKWh" label="CO₂ kg per kWh" hint={notes.co2KgPerKWh} />
+        <Num name="economics.cooling.electricityPricePerKWh" label="Cold lines: electricity per kWh" hint={notes.cooling} />
+        <Num name="economics.cooling.cop" label="Cold lines: chiller COP" />
+        <Num name="economics.cooling.co2KgPerKWh" label="Cold lines: CO₂ kg per kWh of electricity" />
+        <Num name="economics.flatRangePct" label="Flat range around the optimum, %" hint={notes.flatRange} />
+        <div>
+          <label htmlFor="db-economicChoice" className="label">Economic thickness to require</label>
+          <select id="db-economicChoice" name="economics.economicChoice" defaultValue={basis.economics.economicChoice ?? 'optimum'} disabled={!canEdit} className="input">
+            <option value="optimum">The optimum (lowest annual cost)</option>
+            <option value="thinnest-within-range">The thinnest within the flat range</option>
+          </select>
+        </div>
         <Num name="prices.defaultMaterialPerM3" label="Material price per m³ (default)" />
         <Num name="prices.wasteFraction" label="Waste allowance (fraction)" />
         <Num name="prices.labourPerMPerLayer" label="Labour per metre per layer" />

@@ -105,6 +105,14 @@ export const designBasisObject = z.object({
     labourPerM2PerLayer: num('Labour per m² per layer').min(0),
     jacketPerM2: num('Jacket price').min(0),
     fittingsAllowanceFraction: num('Fittings allowance').min(0).max(5),
+    labourByNps: z.array(z.object({ maxNps: num('Size band').gt(0), perMPerLayer: num('Labour per metre per layer for the size band').min(0) })).min(1).max(10).default(DEFAULT_PRICES.labourByNps!),
+    jacketPerM2ById: z.record(z.string(), z.number().min(0)).default(DEFAULT_PRICES.jacketPerM2ById!),
+    accessoriesPerM: num('Accessories per metre').min(0).default(DEFAULT_PRICES.accessoriesPerM!),
+    accessoriesPerM2: num('Accessories per m²').min(0).default(DEFAULT_PRICES.accessoriesPerM2!),
+    fittingItem: z.object({
+      elbow: num('Insulating an elbow').min(0), tee: num('Insulating a tee').min(0),
+      valve: num('Insulating a valve').min(0), flangePair: num('Insulating a flange pair').min(0),
+    }).default(DEFAULT_PRICES.fittingItem!),
     materialPerM3: z.record(z.string(), z.number().min(0)),
   }),
 });
@@ -160,7 +168,7 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ownMaterials: [],
   ownJackets: [],
   economics: { ...DEFAULT_ECONOMICS, cooling: { ...DEFAULT_COOLING }, economicChoice: 'optimum', flatRangePct: 2 },
-  prices: { ...DEFAULT_PRICES },
+  prices: { ...DEFAULT_PRICES, labourByNps: DEFAULT_PRICES.labourByNps!.map((b) => ({ ...b })), jacketPerM2ById: { ...DEFAULT_PRICES.jacketPerM2ById! }, accessoriesPerM: DEFAULT_PRICES.accessoriesPerM!, accessoriesPerM2: DEFAULT_PRICES.accessoriesPerM2!, fittingItem: { ...DEFAULT_PRICES.fittingItem! } },
 };
 
 export const DEFAULT_BASIS_NOTES: Record<string, string> = {

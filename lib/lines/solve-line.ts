@@ -65,7 +65,12 @@ export function lineCaseFor(l: LineInput): LineCase {
     return { ...base, geometry: 'vessel', pipeOuterDiameterMm: vesselDiameterM(A, H) * 1000, heightM: H, areaM2: A };
   }
   if (l.geometry === 'flat') return { ...base, geometry: 'vertical-wall', heightM: l.heightM ?? 2, areaM2: l.surfaceAreaM2 ?? 1 };
-  return { ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1 };
+  const counted = l.elbows + l.tees + l.valves + l.flanges > 0;
+  return {
+    ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1,
+    // The line's own fitting counts price its fittings item by item (else an allowance).
+    fittings: counted ? { elbows: l.elbows, tees: l.tees, valves: l.valves, flangePairs: l.flanges } : undefined,
+  };
 }
 
 /** Hash of everything the answer depends on: calculation version, design basis (or its JSON, when hashing many lines) and the line's inputs. */

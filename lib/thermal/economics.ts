@@ -70,8 +70,20 @@ export interface PriceModel {
   /** For flat surfaces: labour per m² per layer. */
   labourPerM2PerLayer: number;
   jacketPerM2: number;
-  /** Fittings and supports as a fraction added to the straight-run cost. */
+  /** Fittings and supports as a fraction added to the straight-run cost (used when a line gives no fitting counts). */
   fittingsAllowanceFraction: number;
+  /**
+   * Pipe labour per metre per layer by nominal size band (the first band whose `maxNps` is at or
+   * above the pipe's NPS); replaces `labourPerMPerLayer` for pipes when given.
+   */
+  labourByNps?: { maxNps: number; perMPerLayer: number }[];
+  /** Jacketing per m² by jacket id (type and sheet thickness); `jacketPerM2` for the rest. */
+  jacketPerM2ById?: Record<string, number>;
+  /** Bands, wire, screws and sealant per metre of pipe (per m² of flat surface or vessel). */
+  accessoriesPerM?: number;
+  accessoriesPerM2?: number;
+  /** Insulating one fitting, labour and material, per layer, when the line gives its counts. */
+  fittingItem?: { elbow: number; tee: number; valve: number; flangePair: number };
 }
 
 /** Natural gas: IPCC 2006 Guidelines Vol. 2 Table 2.2, 56 100 kg CO₂/TJ on net calorific value = 0.20196 kg/kWh. */
@@ -94,4 +106,20 @@ export const DEFAULT_ECONOMICS: Economics = {
 export const DEFAULT_PRICES: PriceModel = {
   materialPerM3: { 'mineral-wool-pipe': 450, 'mineral-wool-blanket': 300, 'calcium-silicate': 900, 'cellular-glass': 1400, 'polyisocyanurate': 700, 'elastomeric-foam': 1500, 'aerogel-blanket': 9000, perlite: 800 },
   defaultMaterialPerM3: 600, wasteFraction: 0.1, labourPerMPerLayer: 18, labourPerM2PerLayer: 22, jacketPerM2: 35, fittingsAllowanceFraction: 0.15,
+  // Placeholder contractor rates (not from a published source): set the project's own.
+  labourByNps: [
+    { maxNps: 2, perMPerLayer: 18 }, { maxNps: 4, perMPerLayer: 24 }, { maxNps: 8, perMPerLayer: 32 },
+    { maxNps: 12, perMPerLayer: 42 }, { maxNps: 1000, perMPerLayer: 55 },
+  ],
+  jacketPerM2ById: { 'aluminium-oxidised': 35, 'aluminium-bright': 35, 'stainless-steel': 70, 'galvanised-steel': 40, 'galvanised-steel-dusty': 40, 'painted-metal': 45, pvc: 22, 'mastic-cloth': 28 },
+  accessoriesPerM: 3,
+  accessoriesPerM2: 4,
+  fittingItem: { elbow: 25, tee: 35, valve: 90, flangePair: 45 },
 };
+
+/** Pipe labour per metre per layer for a nominal size (inches), from the band table or the flat rate. */
+export function labourPerMFor(prices: PriceModel, npsInches: number | undefined): number {
+  if (!prices.labourByNps?.length || npsInches === undefined) return prices.labourPerMPerLayer;
+  const band = prices.labourByNps.find((b) => npsInches <= b.maxNps + 1e-9) ?? prices.labourByNps[prices.labourByNps.length - 1];
+  return band.perMPerLayer;
+}

@@ -1,5 +1,5 @@
 import { compileConductivity, type Conductivity } from './conductivity';
-import { capitalRecoveryFactor, energyTerms, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
+import { capitalRecoveryFactor, energyTerms, labourPerMFor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
 import { condensationControlApplies, condensationLimit, personnelProtectionApplies } from './rules';
 import { prepareChain, solveChain, solvePrepared, type PreparedChain, type SolidLayer, type SteadyResult } from './solve';
@@ -28,6 +28,8 @@ export interface LineCase {
   heightM?: number;
   /** Pipe wall for the heat capacity of a stagnant line (freeze time); Schedule 40 / STD when not given. */
   pipeWallMm?: number;
+  /** The line's fittings, when the line list gives them (installed cost per item instead of an allowance). */
+  fittings?: { elbows: number; tees: number; valves: number; flangePairs: number };
   characteristicLengthM?: number;
   /** Pipe length (pipes) or area (flat), for totals. */
   lengthM?: number;
@@ -337,24 +339,36 @@ export function outletTempC(o: { inletC: number; airC: number; uPerLengthWPerMK:
 /**
  * Installed cost per unit of the line's extent — per metre of pipe, per m² of flat surface, per m²
  * of a vessel's bare outside area (as its heat flow is): material by volume with waste, labour per
- * layer, jacket per m², plus the fittings allowance. A vessel's shell layers are cylinders over its
- * height and each head's flat layers.
+ * layer (for pipes by size band), jacketing per m² by jacket, accessories, and the fittings — from
+ * the line's own counts when it gives them (per item and layer), else as an allowance. A vessel's
+ * shell layers are cylinders over its height and each head's flat layers.
  */
-function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel): number {
+export function installedCost(line: LineCase, cand: Candidate, jacketOuterM: number, prices: PriceModel, jacketId?: string): number {
   const vessel = line.geometry === 'vessel', pipe = line.geometry !== 'vessel' && isPipe(line.geometry);
   const D = (line.pipeOuterDiameterMm ?? 0) / 1000, H = line.heightM ?? 1;
   const head = vessel ? (Math.PI * D * D) / 4 : 0;
   const area = vessel ? Math.PI * D * H + 2 * head : 1; // the unit the cost is per
+  const labourPerM = pipe ? labourPerMFor(prices, pipeByOutsideDiameter(line.pipeOuterDiameterMm ?? 0)?.npsInches) : 0;
   let r = D / 2, cost = 0;
   for (const l of cand.layers) {
     const t = l.thicknessMm / 1000;
     const ring = Math.PI * ((r + t) * (r + t) - r * r);
     const vol = vessel ? ring * H + 2 * head * t : pipe ? ring : t;
     cost += vol * (prices.materialPerM3[l.material.id] ?? prices.defaultMaterialPerM3) * (1 + prices.wasteFraction);
-    cost += pipe ? prices.labourPerMPerLayer : prices.labourPerM2PerLayer * area;
+    cost += pipe ? labourPerM : prices.labourPerM2PerLayer * area;
     r += t;
   }
-  if (cand.layers.length) cost += prices.jacketPerM2 * (vessel ? Math.PI * jacketOuterM * H + 2 * head : pipe ? Math.PI * jacketOuterM : 1);
+  if (cand.layers.length) {
+    const jacketRate = (jacketId !== undefined ? prices.jacketPerM2ById?.[jacketId] : undefined) ?? prices.jacketPerM2;
+    cost += jacketRate * (vessel ? Math.PI * jacketOuterM * H + 2 * head : pipe ? Math.PI * jacketOuterM : 1);
+    cost += pipe ? (prices.accessoriesPerM ?? 0) : (prices.accessoriesPerM2 ?? 0) * area;
+  }
+  const f = line.fittings;
+  if (pipe && f && prices.fittingItem && line.lengthM && cand.layers.length) {
+    const item = prices.fittingItem;
+    const perLayer = f.elbows * item.elbow + f.tees * item.tee + f.valves * item.valve + f.flangePairs * item.flangePair;
+    return cost + (perLayer * cand.layers.length) / line.lengthM;
+  }
   return (cost * (1 + prices.fittingsAllowanceFraction)) / area;
 }
 
@@ -523,7 +537,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const { crf, lf } = annuityFactors(econ);
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
-      const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices) : 0;
+      const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices, system.jacket.id) : 0;
       const energy = (Math.abs(hlQ[i]) * econ.hoursPerYear / 1000) * et.pricePerKWh * et.boughtPerHeat;
       const annual = crf * inst + lf * energy;
       const ri = results[i];

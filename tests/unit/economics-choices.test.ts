@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  DEFAULT_CRITERIA, DEFAULT_COOLING, capitalRecoveryFactor, compileConductivity, defaultSystemFor, jacketById, materialById, outletTempC, recommendLine, saturatedSteamAtPressure, solveSteady,
+  DEFAULT_CRITERIA, DEFAULT_COOLING, DEFAULT_PRICES, installedCost, capitalRecoveryFactor, compileConductivity, defaultSystemFor, jacketById, materialById, outletTempC, recommendLine, saturatedSteamAtPressure, solveSteady,
   type Criteria, type LineCase, type MaterialSystem,
 } from '@/lib/thermal';
 
@@ -75,5 +75,40 @@ describe('conditions where they belong', () => {
     const ok = recommendLine({ geometry: 'horizontal-pipe', pipeOuterDiameterMm: 114.3, normalTempC: 180, steamPressureMPaAbs: 1, purposes: ['heatConservation'] }, hot, DEFAULT_CRITERIA);
     expect(ok.warnings.join(' ')).not.toMatch(/saturation/);
     expect(capitalRecoveryFactor(0.08, 15)).toBeCloseTo(0.11683, 5); // annuity tables: 8 %, 15 years
+  });
+});
+
+describe('installed cost from the stated rates (hand calculations [X])', () => {
+  const mw = materialById('mineral-wool-pipe')!, blanket = materialById('mineral-wool-blanket')!;
+  const P = DEFAULT_PRICES;
+  it('2" pipe, 50 mm in one layer, aluminium jacket, no fitting counts: allowance 15 %', () => {
+    const line: LineCase = { geometry: 'horizontal-pipe', pipeOuterDiameterMm: 60.3, lengthM: 30, normalTempC: 150, purposes: ['heatConservation'] };
+    const ri = 0.03015, ro = ri + 0.05;
+    const material = Math.PI * (ro * ro - ri * ri) * 450 * 1.1; // 0.017326 m³/m × 450 €/m³ × 1.10 waste = 8.58
+    const labour = 18; // NPS 2 band
+    const jacket = 35 * Math.PI * 2 * ro; // 35 €/m² over the jacket's circumference
+    const expected = (material + labour + jacket + 3) * 1.15;
+    expect(installedCost(line, { totalMm: 50, layers: [{ material: mw, thicknessMm: 50 }] }, 2 * ro, P, 'aluminium-oxidised')).toBeCloseTo(expected, 9);
+    expect(expected).toBeCloseTo(54.28, 1); // (8.58 + 18 + 17.63 + 3) × 1.15 by hand
+  });
+  it('4" pipe, 2 × 40 mm, stainless jacket, its own counts (2 elbows, 1 valve, 2 flange pairs over 20 m)', () => {
+    const line: LineCase = { geometry: 'horizontal-pipe', pipeOuterDiameterMm: 114.3, lengthM: 20, normalTempC: 250, purposes: ['heatConservation'], fittings: { elbows: 2, tees: 0, valves: 1, flangePairs: 2 } };
+    const r0 = 0.05715, r1 = r0 + 0.04, r2 = r1 + 0.04;
+    const material = Math.PI * (r2 * r2 - r0 * r0) * 450 * 1.1;
+    const labour = 2 * 24; // NPS 4 band, two layers
+    const jacket = 70 * Math.PI * 2 * r2;
+    const fittings = ((2 * 25 + 90 + 2 * 45) * 2) / 20; // per item and layer, spread over the run
+    const expected = material + labour + jacket + 3 + fittings;
+    expect(installedCost(line, { totalMm: 80, layers: [{ material: mw, thicknessMm: 40 }, { material: mw, thicknessMm: 40 }] }, 2 * r2, P, 'stainless-steel')).toBeCloseTo(expected, 9);
+  });
+  it('a vertical vessel (D 2 m, H 4 m), 100 mm blanket, per m² of bare area', () => {
+    const line: LineCase = { geometry: 'vessel', pipeOuterDiameterMm: 2000, heightM: 4, normalTempC: 120, purposes: ['heatConservation'] };
+    const D = 2, H = 4, head = Math.PI, area = Math.PI * D * H + 2 * head; // 31.42 m²
+    const vol = Math.PI * (1.1 * 1.1 - 1) * H + 2 * head * 0.1;
+    const material = vol * 300 * 1.1;
+    const labour = 22 * area;
+    const jacket = 35 * (Math.PI * 2.2 * H + 2 * head);
+    const expected = ((material + labour + jacket + 4 * area) * 1.15) / area;
+    expect(installedCost(line, { totalMm: 100, layers: [{ material: blanket, thicknessMm: 100 }] }, 2.2, P, 'aluminium-oxidised')).toBeCloseTo(expected, 9);
   });
 });

@@ -11,10 +11,10 @@ import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesig
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 import { logUnexpected } from '@/lib/log';
 
-// Material prices per m³ and the project's own materials and jackets are kept from the stored basis
-// (they have their own forms).
+// Material prices per m³, jacketing rates by jacket and the project's own materials and jackets are
+// kept from the stored basis (they are not on this form).
 const formSchema = designBasisObject.omit({ ownMaterials: true, ownJackets: true })
-  .extend({ prices: designBasisObject.shape.prices.omit({ materialPerM3: true }) }).superRefine(checkBandRanges);
+  .extend({ prices: designBasisObject.shape.prices.omit({ materialPerM3: true, jacketPerM2ById: true }) }).superRefine(checkBandRanges);
 
 type Reply = SubmissionResult<string[]> & { revision?: number };
 
@@ -29,7 +29,7 @@ export async function saveDesignBasisAction(_prev: unknown, formData: FormData):
     const current = await getDesignBasis({ projectId: project.id });
     const parsed = designBasisSchema.safeParse({
       ...submission.value, ownMaterials: current.basis.ownMaterials, ownJackets: current.basis.ownJackets,
-      prices: { ...submission.value.prices, materialPerM3: current.basis.prices.materialPerM3 },
+      prices: { ...submission.value.prices, materialPerM3: current.basis.prices.materialPerM3, jacketPerM2ById: current.basis.prices.jacketPerM2ById },
     });
     if (!parsed.success) {
       const fieldErrors: Record<string, string[]> = {};

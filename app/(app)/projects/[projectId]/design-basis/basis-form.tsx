@@ -134,7 +134,17 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         <Num name="prices.labourPerMPerLayer" label="Labour per metre per layer" />
         <Num name="prices.labourPerM2PerLayer" label="Labour per m² per layer" />
         <Num name="prices.jacketPerM2" label="Jacket price per m²" />
-        <Num name="prices.fittingsAllowanceFraction" label="Fittings allowance (fraction)" />
+        <Num name="prices.fittingsAllowanceFraction" label="Fittings allowance when a line has no counts (fraction)" />
+        {basis.prices.labourByNps?.map((b, i) => (
+          <Num key={`lab${i}`} name={`prices.labourByNps[${i}].perMPerLayer`} label={`Pipe labour per metre per layer, ${i === 0 ? 'up to' : 'over the last, up to'} NPS ${b.maxNps >= 1000 ? 'any' : b.maxNps}`} />
+        ))}
+        {basis.prices.labourByNps?.map((b, i) => <input key={`labn${i}`} type="hidden" name={`prices.labourByNps[${i}].maxNps`} value={b.maxNps} />)}
+        <Num name="prices.accessoriesPerM" label="Accessories per metre of pipe" />
+        <Num name="prices.accessoriesPerM2" label="Accessories per m² (vessels, flat)" />
+        <Num name="prices.fittingItem.elbow" label="Insulating an elbow, per layer" />
+        <Num name="prices.fittingItem.tee" label="Insulating a tee, per layer" />
+        <Num name="prices.fittingItem.valve" label="Insulating a valve (removable cover), per layer" />
+        <Num name="prices.fittingItem.flangePair" label="Insulating a flange pair, per layer" />
       </div>
       {canEdit ? <button className="btn-primary" disabled={pending}>{pending ? 'Saving…' : 'Save design basis'}</button> : <p className="text-sm text-ink-500">Only owners and engineers change the design basis.</p>}
     </form>

@@ -1,8 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import {
-  DEFAULT_CRITERIA, DEFAULT_COOLING, DEFAULT_PRICES, installedCost, capitalRecoveryFactor, compileConductivity, defaultSystemFor, jacketById, materialById, outletTempC, recommendLine, saturatedSteamAtPressure, solveSteady,
+  DEFAULT_CRITERIA, DEFAULT_COOLING, DEFAULT_PRICES, installedCost, capitalRecoveryFactor, levelisingFactor, compileConductivity, defaultSystemFor, jacketById, materialById, outletTempC, recommendLine, saturatedSteamAtPressure, solveSteady,
   type Criteria, type LineCase, type MaterialSystem,
 } from '@/lib/thermal';
+import { economicsView } from '@/lib/lines/economics-view';
+import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
+import { solveLine } from '@/lib/lines/solve-line';
+import type { LineInput } from '@/lib/lines/validate';
 
 const hot: MaterialSystem = { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
 
@@ -110,5 +114,31 @@ describe('installed cost from the stated rates (hand calculations [X])', () => {
     const jacket = 35 * (Math.PI * 2.2 * H + 2 * head);
     const expected = ((material + labour + jacket + 4 * area) * 1.15) / area;
     expect(installedCost(line, { totalMm: 100, layers: [{ material: blanket, thicknessMm: 100 }] }, 2.2, P, 'aluminium-oxidised')).toBeCloseTo(expected, 9);
+  });
+});
+
+describe('the economics a cost engineer reads on the line page', () => {
+  it('payback and net present value against bare and the next thinner, and the optimum under ±30 % prices', () => {
+    const line = {
+      tag: 'HO-1', service: 'hot oil', area: 'A', geometry: 'horizontal-pipe', nps: '4', outsideDiameterMm: 114.3, lengthM: 60, surfaceAreaM2: null, heightM: null,
+      normalTempC: 290, maxTempC: null, steamPressureBarG: null, flowKgPerS: null, fluidCpKJPerKgK: null, elbows: 0, tees: 0, valves: 0, flanges: 0,
+      purposes: ['heatConservation'], outdoor: true, accessible: false, accessHeightM: null, jacketId: null, notes: '',
+    } as LineInput;
+    const v = economicsView(DEFAULT_DESIGN_BASIS, line, null)!;
+    const r = solveLine(DEFAULT_DESIGN_BASIS, line).recommendation;
+    const at = r.candidates.find((c) => c.totalMm === v.atMm)!, bare = r.candidates[0];
+    const econ = DEFAULT_DESIGN_BASIS.economics;
+    const crf = capitalRecoveryFactor(econ.discountRate, econ.lifeYears);
+    const lf = levelisingFactor(econ.discountRate, econ.escalationRate, econ.lifeYears);
+    const saving = bare.energyCostPerYear! - at.energyCostPerYear!;
+    expect(v.vsBare!.paybackYears!).toBeCloseTo(at.installedCost! / saving, 9);
+    expect(v.vsBare!.npv).toBeCloseTo((saving * lf) / crf - at.installedCost!, 6);
+    expect(v.vsBare!.paybackYears!).toBeLessThan(2); // a bare 290 °C line pays back fast
+    const opt = (label: string) => v.sensitivity.find((x) => x.label === label)!.optimumMm!;
+    expect(opt('Labour +30 %')).toBeLessThanOrEqual(v.optimumMm!);
+    expect(opt('Labour −30 %')).toBeGreaterThanOrEqual(v.optimumMm!);
+    expect(opt('Energy price +30 %')).toBeGreaterThanOrEqual(v.optimumMm!);
+    expect(opt('Energy price −30 %')).toBeLessThanOrEqual(v.optimumMm!);
+    expect(v.range!.fromMm).toBeLessThanOrEqual(v.optimumMm!);
   });
 });

@@ -7,6 +7,8 @@ import { GEOMETRY_LABEL, PURPOSE_LABEL, isSurfaceGeometry, type Purpose } from '
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { CostChart } from './cost-chart';
 import { auditForLine } from '@/lib/review/store';
+import { economicsView } from '@/lib/lines/economics-view';
+import type { LineInput } from '@/lib/lines/validate';
 
 export const metadata = { title: 'Line' };
 
@@ -20,7 +22,9 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const row = await orNotFound(getLine({ projectId: project.id, lineId }));
   const { line, result, design, stale } = row;
   const audit = await auditForLine({ projectId: project.id, lineId: line.id });
-  const cat = catalogueOf((await getDesignBasis({ projectId: project.id })).basis);
+  const { basis } = await getDesignBasis({ projectId: project.id });
+  const cat = catalogueOf(basis);
+  const ev = result ? economicsView(basis, line as unknown as LineInput, design?.thicknessMm ?? null) : null;
   const cands = (result?.candidates ?? []) as Cand[];
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
@@ -79,6 +83,29 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
             <h2 className="mb-2">Cost curve</h2>
             <CostChart points={cands.map((c) => ({ mm: c[0], heatFlow: c[2], annualCost: c[5] }))} optimumMm={optimum} chosenMm={design?.thicknessMm ?? null} unit={unit} />
           </section>
+          {ev ? (
+            <section className="panel p-4" aria-labelledby="econ-h">
+              <h2 id="econ-h" className="mb-2">Economic thickness</h2>
+              <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
+                <dt className="text-ink-500">Optimum</dt><dd data-testid="econ-optimum">{ev.optimumMm === null ? '—' : `${ev.optimumMm} mm`}</dd>
+                <dt className="text-ink-500">Within {ev.flatRangePct} % of the lowest annual cost</dt><dd data-testid="econ-range">{ev.range ? `${ev.range.fromMm}–${ev.range.toMm} mm` : '—'}</dd>
+                <dt className="text-ink-500">Project rule</dt><dd>{ev.choice === 'optimum' ? 'the optimum is required' : 'the thinnest in the range is required'}</dd>
+                {ev.vsBare ? <>
+                  <dt className="text-ink-500">{ev.atMm} mm against bare, per {ev.per}</dt>
+                  <dd>extra first cost {f(ev.vsBare.extraInstalled, 0)}, saves {f(ev.vsBare.annualSaving, 0)} a year; payback {ev.vsBare.paybackYears === null ? 'none' : `${f(ev.vsBare.paybackYears, 1)} years`}; net present value {f(ev.vsBare.npv, 0)}</dd>
+                </> : null}
+                {ev.vsThinner ? <>
+                  <dt className="text-ink-500">{ev.atMm} mm against {ev.vsThinner.againstMm} mm</dt>
+                  <dd>extra {f(ev.vsThinner.extraInstalled, 1)}, saves {f(ev.vsThinner.annualSaving, 1)} a year; payback {ev.vsThinner.paybackYears === null ? 'none' : `${f(ev.vsThinner.paybackYears, 1)} years`}; net present value {f(ev.vsThinner.npv, 1)}</dd>
+                </> : null}
+              </dl>
+              <table className="table-dense mt-3" aria-label="Optimum under other prices">
+                <thead><tr><th>If</th><th className="text-right">Optimum, mm</th></tr></thead>
+                <tbody>{ev.sensitivity.map((x) => <tr key={x.label}><td>{x.label}</td><td className="num">{x.optimumMm ?? '—'}</td></tr>)}</tbody>
+              </table>
+              <p className="mt-2 text-xs text-ink-600">Annualised cost = capital recovery × installed cost + levelised energy cost (cold lines priced as cooling). Rates and prices are the design basis&apos;s; set the project&apos;s own.</p>
+            </section>
+          ) : null}
           <section className="panel p-4">
             <h2 className="mb-2">At the recommendation (heat-loss conditions)</h2>
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">

@@ -44,3 +44,14 @@ export async function createProjectWithLines(page: Page, name: string, rows: (st
   await expect(page.getByText(new RegExp(`imported: ${rows.length} lines`))).toBeVisible();
   return id;
 }
+
+/** The href of a link in the newest development-mailbox message to `to` (mail is sent in the background, so this waits for it). */
+export async function mailboxLink(page: Page, to: string, linkName: string): Promise<string> {
+  for (let i = 0; i < 40; i++) {
+    await page.goto('/dev/mailbox');
+    const link = page.locator('li', { hasText: `to ${to}` }).getByRole('link', { name: linkName }).first();
+    if (await link.count()) return (await link.getAttribute('href'))!;
+    await page.waitForTimeout(250);
+  }
+  throw new Error(`no "${linkName}" message to ${to} in the mailbox`);
+}

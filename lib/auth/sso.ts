@@ -44,9 +44,13 @@ export const LINK_TTL_MINUTES = 15;
 export const DOMAIN_PROOF_TTL_HOURS = 24;
 export { OUTBOUND_ERROR };
 
-const roleOrNone = z.preprocess((v) => (v === undefined || v === null ? '' : v),
-  z.enum(['', 'owner', 'engineer', 'reviewer', 'contractor'], { error: 'Role for people who arrive this way: choose a role or "None until an owner approves".' }))
-  .transform((r) => (r === '' ? null : (r as Role)));
+// No enum here on purpose: conform's form parsing turns the empty option into undefined inside an
+// enum, so "None until an owner approves" could not be chosen. A plain optional string keeps '' and
+// a missing value both meaning "none".
+const ROLE_VALUES: readonly string[] = ['owner', 'engineer', 'reviewer', 'contractor'];
+const roleOrNone = z.string({ error: 'Role for people who arrive this way: choose a role or "None until an owner approves".' }).nullish()
+  .refine((v) => !v || ROLE_VALUES.includes(v), { error: 'Role for people who arrive this way: choose a role or "None until an owner approves".' })
+  .transform((r) => (r ? (r as Role) : null));
 
 export const ssoConfigSchema = z.object({
   organizationId: z.uuid({ error: 'The organization is missing; reload the page.' }),

@@ -56,7 +56,7 @@ test('linking by a mailed link works only in the browser that came back from the
   const p2 = await other.newPage();
   await p2.goto(href);
   await p2.getByRole('button', { name: 'Link my company account' }).click();
-  await expect(p2.getByRole('alert')).toHaveText('Open this link in the browser where you started the company sign-in.');
+  await expect(p2.getByRole('alert').filter({ hasText: 'Open this link' })).toHaveText('Open this link in the browser where you started the company sign-in.');
   await other.close();
 
   await page.goto(href);

@@ -13,6 +13,7 @@ import { expectAppError } from '../support/errors';
 import { addIdpAccount, hostileDiscovery, loginAtIdp, proveDomain } from '../support/idp';
 import { linkIn, waitForMail } from '../support/mail';
 import { hostname } from 'node:os';
+import { parseWithZod } from '@conform-to/zod/v4';
 import { lookup } from 'node:dns/promises';
 import { OUTBOUND_ERROR, isForbiddenAddress, outboundJson, urlRefusal } from '@/lib/auth/outbound';
 
@@ -359,6 +360,12 @@ describe('removals and refusals stick', () => {
     expect(sso.ssoConfigSchema.parse({ organizationId: orgId, issuer: ISSUER, clientId: CLIENT_ID, domains: 'korvane.example', newMemberRole: undefined }).newMemberRole).toBeNull();
     await sso.saveSsoConfig({ organizationId: orgId, issuer: ISSUER, clientId: CLIENT_ID, domains: 'korvane.example', newMemberRole: '', passwordsAllowed: true });
     expect((await sso.getSsoConfig(orgId))?.newMemberRole).toBeNull();
+    // Exactly as the settings form sends it, through conform's parser.
+    const fd = new FormData();
+    for (const [k, v] of Object.entries({ organizationId: orgId, issuer: ISSUER, clientId: CLIENT_ID, clientSecret: '', domains: 'korvane.example', newMemberRole: '' })) fd.set(k, v);
+    const viaForm = parseWithZod(fd, { schema: sso.ssoConfigSchema });
+    expect(viaForm.status).toBe('success');
+    expect(viaForm.status === 'success' && viaForm.value.newMemberRole).toBeNull();
     const bad = sso.ssoConfigSchema.safeParse({ organizationId: orgId, issuer: ISSUER, clientId: CLIENT_ID, domains: 'korvane.example', newMemberRole: 'janitor' });
     expect(bad.success ? '' : bad.error.issues[0].message).toMatch(/^Role for people who arrive this way:/);
   });

@@ -69,6 +69,7 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   await signIn(page, demo('owner').email, demo('owner').password);
   await page.getByRole('link', { name: 'Members' }).first().click();
   await page.getByRole('link', { name: 'Company sign-in settings' }).click();
+  await expect(page).toHaveURL(/\/orgs\/[0-9a-f-]+\/company-sign-in$/);
   const settingsUrl = page.url();
   const settingsGlob = '**/orgs/*/company-sign-in';
   await page.getByLabel('Allowed e-mail domains').fill(`korvane.example, ${domain}`);

@@ -21,7 +21,9 @@ vi.mock('next/headers', () => ({
 
 const uniq = () => randomUUID().slice(0, 8);
 const PASSWORD = 'tarnished-copper-valve';
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+// The fastest of several runs is what the work itself costs; slower runs measure the machine's other load
+// (a shared 2-core machine here, load average above 10 at times), so the bounds compare minimums.
+const fastest = (xs: number[]) => Math.min(...xs);
 const timed = async (f: () => Promise<unknown>) => { const t = performance.now(); await f(); return performance.now() - t; };
 
 afterAll(async () => { await getPool().end(); });
@@ -74,9 +76,9 @@ describe('one live reset link per account', () => {
 });
 
 describe('the same answer for known and unknown addresses', () => {
-  // Bounds: the medians of 9 alternating runs each differ by less than 25 ms for forgot-password and
-  // 40 ms for sign-up (argon2id dominates both of its ways and varies more on a busy machine); the gap
-  // measured before the change was 126 ms vs 10 ms.
+  // Bounds: the fastest of 9 alternating runs each way differ by less than 25 ms for forgot-password and
+  // 40 ms for sign-up (argon2id, ~100 ms, dominates both of its ways); the gap measured before the
+  // change was 126 ms vs 10 ms.
   const BOUND_MS = 25, SIGNUP_BOUND_MS = 40;
 
   it('forgot-password: same result, same work, timing within the bound', async () => {
@@ -87,7 +89,7 @@ describe('the same answer for known and unknown addresses', () => {
       k.push(await timed(async () => expect(await auth.requestPasswordReset({ email: known })).toBeUndefined()));
       u.push(await timed(async () => expect(await auth.requestPasswordReset({ email: `ghost.${uniq()}@example.com` })).toBeUndefined()));
     }
-    expect(Math.abs(median(k) - median(u))).toBeLessThan(BOUND_MS);
+    expect(Math.abs(fastest(k) - fastest(u))).toBeLessThan(BOUND_MS);
   });
 
   it('sign-up: same message for a new and a taken address; the new one gets a link that creates the account, the taken one a notice', async () => {
@@ -121,7 +123,7 @@ describe('the same answer for known and unknown addresses', () => {
       k.push(await timed(() => auth.requestSignUp({ name: 'X', email: taken, password: PASSWORD, organizationName: 'X Org' })));
       u.push(await timed(() => auth.requestSignUp({ name: 'X', email: `n.${uniq()}@example.com`, password: PASSWORD, organizationName: 'X Org' })));
     }
-    expect(Math.abs(median(k) - median(u))).toBeLessThan(SIGNUP_BOUND_MS);
+    expect(Math.abs(fastest(k) - fastest(u))).toBeLessThan(SIGNUP_BOUND_MS);
   });
 });
 

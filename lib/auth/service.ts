@@ -18,7 +18,6 @@ import { passwordAllowedFor } from './sso';
 export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
 export const RESET_TTL_MINUTES = 60;
 export const INVITE_TTL_DAYS = 7;
-export const SIGNUP_TTL_HOURS = 24;
 
 export const normalizeEmail = (e: string) => e.trim().toLowerCase();
 
@@ -51,64 +50,6 @@ export async function signUp(input: { name: string; email: string; password: str
   });
   const session = await lucia.createSession(userId, {});
   return { userId, organizationId, session };
-}
-
-/** What sign-up answers, whether or not the address has an account. */
-export const SIGNUP_SENT = (email: string) => `Check your e-mail: we sent a message to ${email} to finish creating your account. The link works once and expires in ${SIGNUP_TTL_HOURS} hours.`;
-
-/**
- * Sign-up that does not reveal whether an address has an account: both ways hash the password, make
- * a token and enqueue one message (a confirmation link for a new address, a "you already have an
- * account" notice for a known one); the account is created only from the confirmation link.
- */
-export async function requestSignUp(input: { name: string; email: string; password: string; organizationName: string }): Promise<{ message: string }> {
-  const email = normalizeEmail(input.email);
-  weakPassword(input.password, email);
-  const passwordHash = await hashPassword(input.password);
-  const { token, hash } = newToken();
-  const existing = await findUserByEmail(email);
-  if (existing) {
-    enqueueMail(composeMail({
-      to: existing.email,
-      subject: 'You already have a Lagwise account',
-      lines: [`Hello ${existing.name},`, 'Someone tried to create a Lagwise account with this address, which already has one. Nothing was changed.'],
-      link: { label: 'Sign in or reset your password', url: `${env.appUrl()}/forgot-password` },
-      footer: 'If it was not you, ignore this message.',
-    }));
-  } else {
-    await db.insert(signupRequests).values({ tokenHash: hash, email, name: input.name.trim(), organizationName: input.organizationName.trim(), passwordHash, expiresAt: new Date(Date.now() + SIGNUP_TTL_HOURS * 3_600_000) });
-    enqueueMail(composeMail({
-      to: email,
-      subject: 'Finish creating your Lagwise account',
-      lines: [`Hello ${input.name.trim()},`, `Open the link to create your account and the organization ${input.organizationName.trim()}. It works once and expires in ${SIGNUP_TTL_HOURS} hours.`],
-      link: { label: 'Create my account', url: `${env.appUrl()}/sign-up/confirm/${token}` },
-      footer: 'If you did not ask for this, ignore this message; no account is created.',
-    }));
-  }
-  return { message: SIGNUP_SENT(email) };
-}
-
-export async function getSignUpRequest(token: string) {
-  const [r] = await db.select().from(signupRequests).where(eq(signupRequests.tokenHash, hashToken(token)));
-  if (!r || r.expiresAt.getTime() < Date.now()) return null;
-  return { email: r.email, name: r.name, organizationName: r.organizationName };
-}
-
-/** The confirmation link, used: creates the user, the organization and the owner membership in one transaction. */
-export async function confirmSignUp(input: { token: string }): Promise<{ userId: string; organizationId: string; session: Session }> {
-  const userId = generateIdFromEntropySize(10);
-  const organizationId = await db.transaction(async (tx) => {
-    const [r] = await tx.delete(signupRequests).where(eq(signupRequests.tokenHash, hashToken(input.token))).returning();
-    if (!r || r.expiresAt.getTime() < Date.now()) throw new AppError('invalid', 'This link has been used, has expired or is not valid. Sign up again.');
-    await tx.delete(signupRequests).where(eq(signupRequests.email, r.email));
-    const [taken] = await tx.select().from(users).where(sql`lower(${users.email}) = ${r.email}`);
-    if (taken) throw new AppError('conflict', 'This address has an account already. Sign in, or reset the password.');
-    await tx.insert(users).values({ id: userId, email: r.email, name: r.name, passwordHash: r.passwordHash });
-    const [org] = await tx.insert(organizations).values({ name: r.organizationName }).returning();
-    await tx.insert(memberships).values({ organizationId: org.id, userId, role: 'owner' });
-    return org.id;
-  });
-  return { userId, organizationId, session: await lucia.createSession(userId, {}) };
 }
 
 async function recentFailures(email: string, ip: string) {
@@ -320,4 +261,64 @@ export async function changePassword(input: { userId: string; currentPassword: s
 export async function signOutOtherSessions(input: { userId: string; keepSessionId: string }): Promise<{ ended: number }> {
   const ended = await db.delete(sessions).where(and(eq(sessions.userId, input.userId), ne(sessions.id, input.keepSessionId))).returning({ id: sessions.id });
   return { ended: ended.length };
+}
+
+export const SIGNUP_TTL_HOURS = 24;
+
+/** What sign-up answers, whether or not the address has an account. */
+export const SIGNUP_SENT = (email: string) => `Check your e-mail: we sent a message to ${email} to finish creating your account. The link works once and expires in ${SIGNUP_TTL_HOURS} hours.`;
+
+/**
+ * Sign-up that does not reveal whether an address has an account: both ways hash the password, make
+ * a token and enqueue one message (a confirmation link for a new address, a "you already have an
+ * account" notice for a known one); the account is created only from the confirmation link.
+ */
+export async function requestSignUp(input: { name: string; email: string; password: string; organizationName: string }): Promise<{ message: string }> {
+  const email = normalizeEmail(input.email);
+  weakPassword(input.password, email);
+  const passwordHash = await hashPassword(input.password);
+  const { token, hash } = newToken();
+  const existing = await findUserByEmail(email);
+  if (existing) {
+    enqueueMail(composeMail({
+      to: existing.email,
+      subject: 'You already have a Lagwise account',
+      lines: [`Hello ${existing.name},`, 'Someone tried to create a Lagwise account with this address, which already has one. Nothing was changed.'],
+      link: { label: 'Sign in or reset your password', url: `${env.appUrl()}/forgot-password` },
+      footer: 'If it was not you, ignore this message.',
+    }));
+  } else {
+    await db.insert(signupRequests).values({ tokenHash: hash, email, name: input.name.trim(), organizationName: input.organizationName.trim(), passwordHash, expiresAt: new Date(Date.now() + SIGNUP_TTL_HOURS * 3_600_000) });
+    enqueueMail(composeMail({
+      to: email,
+      subject: 'Finish creating your Lagwise account',
+      lines: [`Hello ${input.name.trim()},`, `Open the link to create your account and the organization ${input.organizationName.trim()}. It works once and expires in ${SIGNUP_TTL_HOURS} hours.`],
+      link: { label: 'Create my account', url: `${env.appUrl()}/sign-up/confirm/${token}` },
+      footer: 'If you did not ask for this, ignore this message; no account is created.',
+    }));
+  }
+  return { message: SIGNUP_SENT(email) };
+}
+
+export async function getSignUpRequest(token: string) {
+  const [r] = await db.select().from(signupRequests).where(eq(signupRequests.tokenHash, hashToken(token)));
+  if (!r || r.expiresAt.getTime() < Date.now()) return null;
+  return { email: r.email, name: r.name, organizationName: r.organizationName };
+}
+
+/** The confirmation link, used: creates the user, the organization and the owner membership in one transaction. */
+export async function confirmSignUp(input: { token: string }): Promise<{ userId: string; organizationId: string; session: Session }> {
+  const userId = generateIdFromEntropySize(10);
+  const organizationId = await db.transaction(async (tx) => {
+    const [r] = await tx.delete(signupRequests).where(eq(signupRequests.tokenHash, hashToken(input.token))).returning();
+    if (!r || r.expiresAt.getTime() < Date.now()) throw new AppError('invalid', 'This link has been used, has expired or is not valid. Sign up again.');
+    await tx.delete(signupRequests).where(eq(signupRequests.email, r.email));
+    const [taken] = await tx.select().from(users).where(sql`lower(${users.email}) = ${r.email}`);
+    if (taken) throw new AppError('conflict', 'This address has an account already. Sign in, or reset the password.');
+    await tx.insert(users).values({ id: userId, email: r.email, name: r.name, passwordHash: r.passwordHash });
+    const [org] = await tx.insert(organizations).values({ name: r.organizationName }).returning();
+    await tx.insert(memberships).values({ organizationId: org.id, userId, role: 'owner' });
+    return org.id;
+  });
+  return { userId, organizationId, session: await lucia.createSession(userId, {}) };
 }

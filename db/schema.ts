@@ -63,6 +63,20 @@ export const passwordResets = pgTable('password_resets', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
+/**
+ * A sign-up waiting for its e-mail to be confirmed. Sign-up answers the same for known and unknown
+ * addresses, so the account (and its organization) is created only from the mailed link.
+ */
+export const signupRequests = pgTable('signup_requests', {
+  tokenHash: text('token_hash').primaryKey(),
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  organizationName: text('organization_name').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 /** One row per failed sign-in; throttling counts these per account and per IP. */
 /**
  * Sign-in attempt counters, one row per throttle key (an account, an account at an address, an
@@ -291,11 +305,37 @@ export const ssoConfigs = pgTable('sso_configs', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** One e-mail domain belongs to at most one organization's company sign-in. */
+/**
+ * E-mail domains an organization's company sign-in claims. A claim takes effect only once proven
+ * (verifiedAt set by the one-time link mailed to an administrative address of the domain); a domain
+ * has at most one verified owner, while unproven claims of several organizations may wait side by side.
+ */
 export const ssoDomains = pgTable('sso_domains', {
-  domain: text('domain').primaryKey(),
+  domain: text('domain').notNull(),
   organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-});
+  verifiedAt: timestamp('verified_at', { withTimezone: true }),
+  verifiedVia: text('verified_via'),
+}, (t) => [primaryKey({ columns: [t.organizationId, t.domain] }), uniqueIndex('sso_domains_verified_owner_key').on(t.domain).where(sql`${t.verifiedAt} is not null`)]);
+
+/** One-time domain-proof links, mailed to an administrative address of the domain; only the hash is kept. */
+export const domainVerifications = pgTable('domain_verifications', {
+  tokenHash: text('token_hash').primaryKey(),
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  domain: text('domain').notNull(),
+  sentTo: text('sent_to').notNull(),
+  requestedBy: text('requested_by').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index('domain_verifications_org_idx').on(t.organizationId, t.domain)]);
+
+/** A removal or a refused request: company sign-in does not bring the person back until an owner re-admits them. */
+export const membershipBlocks = pgTable('membership_blocks', {
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  reason: text('reason', { enum: ['removed', 'refused'] }).notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [primaryKey({ columns: [t.organizationId, t.userId] })]);
 
 export const userIdentities = pgTable('user_identities', {
   issuer: text('issuer').notNull(),
@@ -311,12 +351,19 @@ export const membershipRequests = pgTable('membership_requests', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [primaryKey({ columns: [t.organizationId, t.userId] })]);
 
-/** A company identity waiting to be linked to an existing password account (after one password sign-in). */
+/**
+ * A company identity waiting to be linked to an existing account. `tokenHash` is the hash of the secret
+ * kept only in the httpOnly cookie of the browser that came back from the provider; `mailTokenHash` the
+ * hash of the one-time link mailed to the account's address. Mail linking needs both (the link opened in
+ * that same browser); password linking needs the cookie and the account's password.
+ */
 export const pendingLinks = pgTable('pending_links', {
   tokenHash: text('token_hash').primaryKey(),
   issuer: text('issuer').notNull(),
   subject: text('subject').notNull(),
   email: text('email').notNull(),
+  userId: text('user_id').references(() => users.id, { onDelete: 'cascade' }),
+  mailTokenHash: text('mail_token_hash').unique(),
   organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
 });

@@ -19,6 +19,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
         <CurrentProject><ProjectSwitcher projects={projects} /></CurrentProject>
         <div className="ml-auto flex items-center gap-3 text-sm">
           <span className="text-ink-300" data-testid="user-email">{user.email}</span>
+          <Link href="/account" className="text-ink-200 hover:text-white">Account</Link>
           <form action={signOutAction}><button className="rounded border border-ink-600 px-2 py-0.5 text-ink-100 hover:bg-ink-800">Sign out</button></form>
         </div>
       </header>

@@ -8,7 +8,7 @@ import { clearSessionCookie, clientIp, setSessionCookie, validateRequest } from 
 import { isAppError } from '@/lib/errors';
 import { cookies } from 'next/headers';
 import * as sso from '@/lib/auth/sso';
-import { LINK_COOKIE, SSO_COOKIE } from '@/lib/auth/cookie-names';
+import { LINK_COOKIE, SSO_COOKIE, SSO_MESSAGE_COOKIE } from '@/lib/auth/cookie-names';
 import { env } from '@/lib/env';
 import { logUnexpected } from '@/lib/log';
 
@@ -52,11 +52,48 @@ export async function companySignInAction(_prev: unknown, formData: FormData) {
 export async function signUpAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.signUp });
   if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
+  // Same answer for a new and a known address: the account is created from the mailed link.
+  try { await auth.requestSignUp(submission.value); } catch (e) { return failed(submission, e); }
+  return { ...submission.reply({ resetForm: true }), status: 'success' as const };
+}
+
+export async function confirmSignUpAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.token });
+  if (submission.status !== 'success') return submission.reply();
   try {
-    const { session } = await auth.signUp(submission.value);
+    const { session } = await auth.confirmSignUp(submission.value);
     await setSessionCookie(session.id);
   } catch (e) { return failed(submission, e); }
   redirect('/projects');
+}
+
+/** From the sign-in page after a company sign-in that needs linking: mails a one-time link to the account's address. */
+export async function sendLinkMailAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.empty });
+  if (submission.status !== 'success') return submission.reply();
+  try { await sso.sendLinkMail({ linkToken: (await cookies()).get(LINK_COOKIE)?.value }); } catch (e) { return failed(submission, e); }
+  return { ...submission.reply({ resetForm: true }), status: 'success' as const };
+}
+
+/** The mailed linking link, confirmed in the browser that holds the linking cookie. */
+export async function linkCompanyAccountAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.token });
+  if (submission.status !== 'success') return submission.reply();
+  const jar = await cookies();
+  try {
+    await sso.linkWithMail({ linkToken: jar.get(LINK_COOKIE)?.value, mailToken: submission.value.token });
+    jar.delete(LINK_COOKIE);
+    jar.set(SSO_MESSAGE_COOKIE, 'Your company account is linked. Sign in with it now.', { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 60 });
+  } catch (e) { return failed(submission, e); }
+  redirect('/sign-in?company=1');
+}
+
+/** Anyone holding the domain-proof link mailed to the domain's administrative address may confirm it. */
+export async function confirmDomainAction(_prev: unknown, formData: FormData) {
+  const submission = parseWithZod(formData, { schema: formSchemas.token });
+  if (submission.status !== 'success') return submission.reply();
+  try { await sso.confirmDomainProof(submission.value.token); } catch (e) { return failed(submission, e); }
+  return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
 export async function forgotPasswordAction(_prev: unknown, formData: FormData) {

@@ -3,9 +3,18 @@
  * It knows the demo organization's company accounts and nothing else, and it is never used in
  * production: production points at the company's issuer through the organization's settings.
  * Plain ESM JavaScript because oidc-provider is ESM-only; started by the start and test scripts.
+ *
+ * For tests it has a small control surface on its own loopback port (never part of the app):
+ * - POST /dev/accounts {login, password, sub, email, email_verified (true | false | null = claim left out),
+ *   name, extraAudience, azp} adds a company account — a second subject with an e-mail another account
+ *   already has, an unverified e-mail, an ID token with an extra audience (and azp as given, or none);
+ * - POST /dev/hostile/<name> {mode: 'json' | 'huge' | 'slow' | 'redirect', document, location} makes
+ *   /hostile/<name>/.well-known/openid-configuration answer like a hostile provider would.
+ * Its signing key is made at start (jose) so the ID token can be re-signed with the extra audience.
  */
 import { createServer } from 'node:http';
 import Provider from 'oidc-provider';
+import { SignJWT, decodeJwt, exportJWK, generateKeyPair, importJWK } from 'jose';
 
 const port = Number(process.env.OIDC_DEV_PORT ?? 4010);
 const issuer = `http://127.0.0.1:${port}`;
@@ -13,15 +22,21 @@ const clientId = process.env.OIDC_DEV_CLIENT_ID ?? 'lagwise-local';
 const clientSecret = process.env.OIDC_DEV_CLIENT_SECRET ?? 'local-development-client-secret';
 const appPorts = (process.env.OIDC_DEV_APP_PORTS ?? '3000,3100').split(',');
 
-// Company accounts of the demo scenario (invented). Passwords are for this local provider only.
-const ACCOUNTS = {
+// Company accounts of the demo scenario (invented), by login. Passwords are for this local provider only.
+const ACCOUNTS = new Map(Object.entries({
   'owner@korvane.example': { name: 'Olwen Ayres', password: 'korvane-sso-owner' },
   'engineer@korvane.example': { name: 'Dario Fenn', password: 'korvane-sso-engineer' },
   'reviewer@korvane.example': { name: 'Mira Castell', password: 'korvane-sso-reviewer' },
   'newcomer@korvane.example': { name: 'Nadia Okafor', password: 'korvane-sso-newcomer' },
   'approved@korvane.example': { name: 'Arun Pillai', password: 'korvane-sso-approved' },
   'outsider@elsewhere.example': { name: 'Olaf Outsider', password: 'elsewhere-sso-outsider' },
-};
+}).map(([login, a]) => [login, { ...a, sub: login, email: login, email_verified: true }]));
+const bySub = (sub) => [...ACCOUNTS.values()].find((a) => a.sub === sub);
+const HOSTILE = new Map();
+
+const { privateKey } = await generateKeyPair('RS256', { extractable: true });
+const signingJwk = { ...(await exportJWK(privateKey)), kid: 'dev-idp-1', alg: 'RS256', use: 'sig' };
+const signingKey = await importJWK(signingJwk, 'RS256');
 
 const provider = new Provider(issuer, {
   clients: [{
@@ -32,10 +47,11 @@ const provider = new Provider(issuer, {
     grant_types: ['authorization_code'],
     token_endpoint_auth_method: 'client_secret_post',
   }],
+  jwks: { keys: [signingJwk] },
   async findAccount(_ctx, id) {
-    const a = ACCOUNTS[id];
+    const a = bySub(id);
     if (!a) return undefined;
-    return { accountId: id, async claims() { return { sub: id, email: id, email_verified: true, name: a.name }; } };
+    return { accountId: id, async claims() { return { sub: id, email: a.email, ...(a.email_verified === null ? {} : { email_verified: a.email_verified }), name: a.name }; } };
   },
   claims: { openid: ['sub'], email: ['email', 'email_verified'], profile: ['name'] },
   scopes: ['openid', 'email', 'profile'],
@@ -58,20 +74,76 @@ async function readForm(req) {
 }
 
 const handler = provider.callback();
+
+async function readJson(req) {
+  let data = '';
+  for await (const chunk of req) data += chunk;
+  return data ? JSON.parse(data) : {};
+}
+
+/** Test control and hostile documents; true when the request was answered here. */
+async function control(req, res) {
+  if (req.method === 'POST' && req.url === '/dev/accounts') {
+    const a = await readJson(req);
+    const login = String(a.login).toLowerCase();
+    ACCOUNTS.set(login, { name: a.name ?? login, password: a.password, sub: a.sub ?? login, email: a.email ?? login, email_verified: a.email_verified === undefined ? true : a.email_verified, extraAudience: a.extraAudience, azp: a.azp });
+    res.setHeader('content-type', 'application/json');
+    res.end(JSON.stringify({ ok: true }));
+    return true;
+  }
+  const h = req.url.match(/^\/dev\/hostile\/([a-z0-9-]+)$/);
+  if (req.method === 'POST' && h) {
+    HOSTILE.set(h[1], await readJson(req));
+    res.end('{"ok":true}');
+    return true;
+  }
+  const d = req.url.match(/^\/hostile\/([a-z0-9-]+)\/\.well-known\/openid-configuration$/);
+  if (d && HOSTILE.has(d[1])) {
+    const spec = HOSTILE.get(d[1]);
+    if (spec.mode === 'slow') return true; // never answers
+    if (spec.mode === 'redirect') { res.statusCode = 302; res.setHeader('location', spec.location); res.end(); return true; }
+    res.setHeader('content-type', 'application/json');
+    if (spec.mode === 'huge') { res.end(JSON.stringify({ issuer: `${issuer}/hostile/${d[1]}`, padding: 'x'.repeat(2 * 1024 * 1024) })); return true; }
+    res.end(JSON.stringify(spec.document));
+    return true;
+  }
+  return false;
+}
+
+/** Token answers for accounts with an extra audience: the ID token is re-signed with aud [client, extra] and azp as set. */
+function rewriteTokenResponse(res) {
+  const end = res.end.bind(res), setHeader = res.setHeader.bind(res);
+  res.setHeader = (k, v) => (String(k).toLowerCase() === 'content-length' ? res : setHeader(k, v));
+  res.end = (body, ...rest) => {
+    let parsed;
+    try { parsed = JSON.parse(String(body)); } catch { return end(body, ...rest); }
+    const claims = parsed?.id_token ? decodeJwt(parsed.id_token) : null;
+    const account = claims ? bySub(claims.sub) : null;
+    if (!account?.extraAudience) return end(body, ...rest);
+    const { aud, azp: _azp, ...others } = claims;
+    const payload = { ...others, aud: [aud, account.extraAudience].flat(), ...(account.azp ? { azp: account.azp } : {}) };
+    new SignJWT(payload).setProtectedHeader({ alg: 'RS256', kid: signingJwk.kid, typ: 'JWT' }).sign(signingKey)
+      .then((t) => end(JSON.stringify({ ...parsed, id_token: t })), (e) => { console.error('[idp] re-sign failed', e.message); end(body); });
+    return res;
+  };
+}
+
 createServer(async (req, res) => {
   try {
+    if (await control(req, res)) return;
+    if (req.method === 'POST' && req.url.startsWith('/token')) rewriteTokenResponse(res);
     const m = req.url.match(/^\/interaction\/([^/?]+)(\/login)?/);
     if (!m) return handler(req, res);
     const details = await provider.interactionDetails(req, res);
     if (req.method === 'POST' && m[2]) {
       const form = await readForm(req);
-      const account = ACCOUNTS[String(form.email ?? '').toLowerCase()];
+      const account = ACCOUNTS.get(String(form.email ?? '').toLowerCase());
       if (!account || account.password !== form.password) {
         res.setHeader('content-type', 'text/html');
         res.end(page(`<h1>Korvane sign-in</h1><p role="alert">E-mail or password is not right.</p>${loginForm(details.uid, form.email)}`));
         return;
       }
-      await provider.interactionFinished(req, res, { login: { accountId: String(form.email).toLowerCase() } }, { mergeWithLastSubmission: false });
+      await provider.interactionFinished(req, res, { login: { accountId: account.sub } }, { mergeWithLastSubmission: false });
       return;
     }
     if (details.prompt.name === 'login') {

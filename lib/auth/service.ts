@@ -2,14 +2,14 @@
  * Account flows, free of Next.js: callers pass the request facts (IP) and get back results.
  * Server actions wrap these; integration tests call them directly against PostgreSQL.
  */
-import { and, eq, gt, isNull, sql, count } from 'drizzle-orm';
+import { and, eq, gt, isNull, ne, sql, count } from 'drizzle-orm';
 import { generateIdFromEntropySize, type Session } from 'lucia';
 import { db } from '@/db/client';
-import { invitations, memberships, organizations, passwordResets, users, type Role } from '@/db/schema';
+import { invitations, membershipBlocks, memberships, sessions, organizations, passwordResets, signupRequests, users, type Role } from '@/db/schema';
 import { clearAccountThrottle, releaseSignInAttempt, reserveSignInAttempt } from './throttle';
 import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
-import { composeMail, sendMail } from '@/lib/mail';
+import { composeMail, enqueueMail, sendMail } from '@/lib/mail';
 import { lucia } from './lucia';
 import { hashPassword, passwordWeakness, verifyPassword } from './password';
 import { hashToken, newToken } from './tokens';
@@ -78,18 +78,28 @@ export async function signOut(sessionId: string) {
   await lucia.invalidateSession(sessionId);
 }
 
-/** Always succeeds from the caller's view; sends a message only when the account exists. */
+/**
+ * Always answers the same; both ways look the account up, make a token, run one short transaction
+ * and enqueue at most one message without waiting for SMTP, so timing does not tell the cases apart.
+ * A new link replaces every earlier one of the account (one live reset link).
+ */
 export async function requestPasswordReset(input: { email: string }): Promise<void> {
   const user = await findUserByEmail(input.email);
-  if (!user) return;
   const { token, hash } = newToken();
-  await db.insert(passwordResets).values({ tokenHash: hash, userId: user.id, expiresAt: new Date(Date.now() + RESET_TTL_MINUTES * 60_000) });
-  const url = `${env.appUrl()}/reset-password/${token}`;
-  await sendMail(composeMail({
+  await db.transaction(async (tx) => {
+    // Without this, only the known-address commit waits for its WAL flush — on a busy disk a tell of
+    // tens of milliseconds. A reset row lost in a crash just means asking again.
+    await tx.execute(sql`set local synchronous_commit to off`);
+    if (!user) { await tx.select({ n: count() }).from(passwordResets).where(eq(passwordResets.tokenHash, hash)); return; }
+    await tx.delete(passwordResets).where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt)));
+    await tx.insert(passwordResets).values({ tokenHash: hash, userId: user.id, expiresAt: new Date(Date.now() + RESET_TTL_MINUTES * 60_000) });
+  });
+  if (!user) return;
+  enqueueMail(composeMail({
     to: user.email,
     subject: 'Reset your Lagwise password',
-    lines: [`Hello ${user.name},`, `Someone asked to reset the password of your Lagwise account. The link works once and expires in ${RESET_TTL_MINUTES} minutes.`],
-    link: { label: 'Choose a new password', url },
+    lines: [`Hello ${user.name},`, `Someone asked to reset the password of your Lagwise account. The link works once and expires in ${RESET_TTL_MINUTES} minutes; any earlier reset link no longer works.`],
+    link: { label: 'Choose a new password', url: `${env.appUrl()}/reset-password/${token}` },
     footer: 'If you did not ask for this, ignore this message; your password stays as it is.',
   }));
 }
@@ -103,7 +113,8 @@ export async function resetPassword(input: { token: string; password: string }):
     const [user] = await tx.select().from(users).where(eq(users.id, row.userId));
     weakPassword(input.password, user.email);
     await tx.update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, user.id));
-    await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
+    // Every reset link of the account ends with this one.
+    await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt)));
     await clearAccountThrottle(normalizeEmail(user.email), tx);
     return { userId: user.id };
   }).then(async (r) => { await lucia.invalidateUserSessions(r.userId); return r; });
@@ -140,8 +151,8 @@ export async function getInvitation(token: string) {
     .where(eq(invitations.tokenHash, hashToken(token)));
   if (!row || row.inv.acceptedAt || row.inv.revokedAt) return { status: 'used' as const };
   if (row.inv.expiresAt.getTime() < Date.now()) return { status: 'expired' as const };
-  const hasAccount = !!(await findUserByEmail(row.inv.email));
-  return { status: 'open' as const, email: row.inv.email, role: row.inv.role, organizationName: row.orgName, hasAccount };
+  // Whether the address has an account is not part of the answer (the page offers both ways).
+  return { status: 'open' as const, email: row.inv.email, role: row.inv.role, organizationName: row.orgName };
 }
 
 /**
@@ -169,6 +180,8 @@ export async function acceptInvitation(input: { token: string; userId?: string; 
       createdUser = true;
     }
     await tx.insert(memberships).values({ organizationId: inv.organizationId, userId, role: inv.role }).onConflictDoNothing();
+    // An invitation is an owner re-admitting the person: an earlier removal or refusal is lifted.
+    await tx.delete(membershipBlocks).where(and(eq(membershipBlocks.organizationId, inv.organizationId), eq(membershipBlocks.userId, userId)));
     await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
     return { userId, organizationId: inv.organizationId };
   });
@@ -192,17 +205,122 @@ export async function changeMemberRole(input: { organizationId: string; userId: 
   });
 }
 
-/** Removing a member also ends every session the person has, at once. */
+/**
+ * Removing a member also ends every session the person has, at once, and sticks: company sign-in
+ * does not bring the person back until an owner invites them again.
+ */
 export async function removeMember(input: { organizationId: string; userId: string }) {
   await db.transaction(async (tx) => {
     const [m] = await tx.select().from(memberships).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId))).for('update');
     if (!m) throw new AppError('not_found', 'No such member.');
     if (m.role === 'owner' && (await ownerCount(input.organizationId)) <= 1) throw new AppError('conflict', 'The last owner cannot be removed.');
     await tx.delete(memberships).where(and(eq(memberships.organizationId, input.organizationId), eq(memberships.userId, input.userId)));
+    await tx.insert(membershipBlocks).values({ organizationId: input.organizationId, userId: input.userId, reason: 'removed' })
+      .onConflictDoUpdate({ target: [membershipBlocks.organizationId, membershipBlocks.userId], set: { reason: 'removed', createdAt: new Date() } });
   });
   await lucia.invalidateUserSessions(input.userId);
 }
 
 export async function pendingInvitations(organizationId: string) {
   return db.select().from(invitations).where(and(eq(invitations.organizationId, organizationId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, sql`now()`)));
+}
+
+/**
+ * Password change for a signed-in user: the current password is required, every session of the
+ * account ends (this browser gets a fresh one back), and the address gets a notice.
+ */
+export async function changePassword(input: { userId: string; currentPassword: string; newPassword: string }): Promise<{ session: Session }> {
+  const [user] = await db.select().from(users).where(eq(users.id, input.userId));
+  if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
+  const ok = user.passwordHash ? await verifyPassword(user.passwordHash, input.currentPassword) : (await verifyPassword(DUMMY_HASH, input.currentPassword), false);
+  if (!ok) throw new AppError('invalid', 'Current password: this is not your current password.', { currentPassword: ['This is not your current password.'] });
+  const reason = passwordWeakness(input.newPassword, user.email);
+  if (reason) throw new AppError('invalid', `New password: ${reason}`, { newPassword: [reason] });
+  if (input.newPassword === input.currentPassword) throw new AppError('invalid', 'New password: choose a password different from the current one.', { newPassword: ['Choose a password different from the current one.'] });
+  await db.transaction(async (tx) => {
+    await tx.update(users).set({ passwordHash: await hashPassword(input.newPassword) }).where(eq(users.id, user.id));
+    await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt)));
+  });
+  await lucia.invalidateUserSessions(user.id);
+  const session = await lucia.createSession(user.id, {});
+  enqueueMail(composeMail({
+    to: user.email,
+    subject: 'Your Lagwise password was changed',
+    lines: [`Hello ${user.name},`, `The password of your Lagwise account was changed on ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC, and every other session of the account was signed out.`,
+      'If this was not you, reset your password now and tell your organization\'s owner.'],
+    link: { label: 'Reset the password', url: `${env.appUrl()}/forgot-password` },
+  }));
+  return { session };
+}
+
+/** Ends every session of the account except the one given (the browser asking). */
+export async function signOutOtherSessions(input: { userId: string; keepSessionId: string }): Promise<{ ended: number }> {
+  const ended = await db.delete(sessions).where(and(eq(sessions.userId, input.userId), ne(sessions.id, input.keepSessionId))).returning({ id: sessions.id });
+  return { ended: ended.length };
+}
+
+export const SIGNUP_TTL_HOURS = 24;
+
+/** What sign-up answers, whether or not the address has an account. */
+export const SIGNUP_SENT = (email: string) => `Check your e-mail: we sent a message to ${email} to finish creating your account. The link works once and expires in ${SIGNUP_TTL_HOURS} hours.`;
+
+/**
+ * Sign-up that does not reveal whether an address has an account: both ways hash the password, make
+ * a token and enqueue one message (a confirmation link for a new address, a "you already have an
+ * account" notice for a known one); the account is created only from the confirmation link.
+ */
+export async function requestSignUp(input: { name: string; email: string; password: string; organizationName: string }): Promise<{ message: string }> {
+  const email = normalizeEmail(input.email);
+  weakPassword(input.password, email);
+  const passwordHash = await hashPassword(input.password);
+  const { token, hash } = newToken();
+  const existing = await db.transaction(async (tx) => {
+    // As in requestPasswordReset: the commit waits for no WAL flush either way, so the write of the
+    // new-address case takes no longer than the read of the known one.
+    await tx.execute(sql`set local synchronous_commit to off`);
+    const [known] = await tx.select().from(users).where(sql`lower(${users.email}) = ${email}`).limit(1);
+    if (!known) await tx.insert(signupRequests).values({ tokenHash: hash, email, name: input.name.trim(), organizationName: input.organizationName.trim(), passwordHash, expiresAt: new Date(Date.now() + SIGNUP_TTL_HOURS * 3_600_000) });
+    return known ?? null;
+  });
+  if (existing) {
+    enqueueMail(composeMail({
+      to: existing.email,
+      subject: 'You already have a Lagwise account',
+      lines: [`Hello ${existing.name},`, 'Someone tried to create a Lagwise account with this address, which already has one. Nothing was changed.'],
+      link: { label: 'Sign in or reset your password', url: `${env.appUrl()}/forgot-password` },
+      footer: 'If it was not you, ignore this message.',
+    }));
+  } else {
+    enqueueMail(composeMail({
+      to: email,
+      subject: 'Finish creating your Lagwise account',
+      lines: [`Hello ${input.name.trim()},`, `Open the link to create your account and the organization ${input.organizationName.trim()}. It works once and expires in ${SIGNUP_TTL_HOURS} hours.`],
+      link: { label: 'Create my account', url: `${env.appUrl()}/sign-up/confirm/${token}` },
+      footer: 'If you did not ask for this, ignore this message; no account is created.',
+    }));
+  }
+  return { message: SIGNUP_SENT(email) };
+}
+
+export async function getSignUpRequest(token: string) {
+  const [r] = await db.select().from(signupRequests).where(eq(signupRequests.tokenHash, hashToken(token)));
+  if (!r || r.expiresAt.getTime() < Date.now()) return null;
+  return { email: r.email, name: r.name, organizationName: r.organizationName };
+}
+
+/** The confirmation link, used: creates the user, the organization and the owner membership in one transaction. */
+export async function confirmSignUp(input: { token: string }): Promise<{ userId: string; organizationId: string; session: Session }> {
+  const userId = generateIdFromEntropySize(10);
+  const organizationId = await db.transaction(async (tx) => {
+    const [r] = await tx.delete(signupRequests).where(eq(signupRequests.tokenHash, hashToken(input.token))).returning();
+    if (!r || r.expiresAt.getTime() < Date.now()) throw new AppError('invalid', 'This link has been used, has expired or is not valid. Sign up again.');
+    await tx.delete(signupRequests).where(eq(signupRequests.email, r.email));
+    const [taken] = await tx.select().from(users).where(sql`lower(${users.email}) = ${r.email}`);
+    if (taken) throw new AppError('conflict', 'This address has an account already. Sign in, or reset the password.');
+    await tx.insert(users).values({ id: userId, email: r.email, name: r.name, passwordHash: r.passwordHash });
+    const [org] = await tx.insert(organizations).values({ name: r.organizationName }).returning();
+    await tx.insert(memberships).values({ organizationId: org.id, userId, role: 'owner' });
+    return org.id;
+  });
+  return { userId, organizationId, session: await lucia.createSession(userId, {}) };
 }

@@ -32,9 +32,16 @@ export async function requireUser(): Promise<{ user: User; session: Session }> {
   return r;
 }
 
+/**
+ * Puts a new session in this browser's cookie. The session the browser held before (another
+ * sign-in, possibly someone else's account) ends at once: sign-in always rotates the session.
+ */
 export async function setSessionCookie(sessionId: string) {
+  const jar = await cookies();
+  const previous = jar.get(lucia.sessionCookieName)?.value;
+  if (previous && previous !== sessionId) await lucia.invalidateSession(previous);
   const c = lucia.createSessionCookie(sessionId);
-  (await cookies()).set(c.name, c.value, c.attributes);
+  jar.set(c.name, c.value, c.attributes);
 }
 
 export async function clearSessionCookie() {

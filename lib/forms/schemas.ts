@@ -20,6 +20,18 @@ export const formSchemas = {
   resetPassword: z.object({ token: z.string().min(10), password: newPassword }),
   acceptInviteNew: z.object({ token: z.string().min(10), name, password: newPassword }),
   acceptInviteExisting: z.object({ token: z.string().min(10) }),
+  token: z.object({ token: z.string({ error: 'The link is incomplete; open it from the message again.' }).min(10, { error: 'The link is incomplete; open it from the message again.' }) }),
+  empty: z.object({}),
+  changePassword: z.object({
+    currentPassword: z.string({ error: 'Current password: enter it.' }).min(1, { error: 'Current password: enter it.' }),
+    newPassword: z.string({ error: 'New password: choose one.' }).min(12, { error: 'New password: use at least 12 characters.' }).max(256, { error: 'New password: use at most 256 characters.' }),
+  }),
+  domainProof: z.object({
+    organizationId: z.uuid({ error: 'The organization is missing; reload the page.' }),
+    domain: z.string({ error: 'Domain: choose the domain to prove.' }).trim().toLowerCase().min(3, { error: 'Domain: choose the domain to prove.' }),
+    mailbox: z.enum(['admin', 'administrator', 'hostmaster', 'postmaster', 'webmaster'], { error: 'Mailbox: choose one of the administrative addresses.' }),
+  }),
+  membershipRequest: z.object({ organizationId: z.uuid(), userId: z.string().min(1) }),
   invite: z.object({ organizationId: z.uuid(), email, role }),
   changeRole: z.object({ organizationId: z.uuid(), userId: z.string().min(1), role }),
   removeMember: z.object({ organizationId: z.uuid(), userId: z.string().min(1) }),

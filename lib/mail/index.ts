@@ -27,3 +27,11 @@ ${o.lines.map((l) => `<p>${esc(l)}</p>`).join('\n')}
 <p style="color:#677482;font-size:13px">${esc(o.footer ?? '')}</p><p style="color:#677482;font-size:13px">— Lagwise</p></body></html>`;
   return { to: o.to, subject: o.subject, text, html };
 }
+
+/**
+ * Sends in the background: the request answers without waiting for SMTP, so a flow that mails in one
+ * case and not in another (known or unknown address) takes the same time. Failures are logged.
+ */
+export function enqueueMail(mail: OutgoingMail): void {
+  void sendMail(mail).catch((e) => console.error('[mail] sending failed:', (e as Error).message));
+}

@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
-import { mailLink } from './helpers';
+import { mailboxLink, signIn } from './helpers';
 
-test('sign up creates an organization; a password reset link arrives in the mailbox and works', async ({ page }) => {
+test('sign up (confirmed from the mailed link) creates an organization; a password reset link arrives in the mailbox and works', async ({ page }) => {
   const email = `e2e.${Date.now()}@example.com`;
   await page.goto('/sign-up');
   await page.getByLabel('Your name').fill('Piet Tester');
@@ -12,6 +12,10 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await expect(page.getByText('Use at least 12 characters.')).toBeVisible();
   await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
   await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByRole('status')).toHaveText('Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.');
+  await page.goto(await mailboxLink(page, email, 'Create my account'));
+  await expect(page.getByText(`Account ${email} with the organization Tester Chemicals.`)).toBeVisible();
+  await page.getByRole('button', { name: 'Create my account' }).click();
   await expect(page).toHaveURL(/\/projects$/);
   await expect(page.getByText('Tester Chemicals · Owner')).toBeVisible();
   await page.getByRole('button', { name: 'Sign out' }).click();
@@ -22,8 +26,7 @@ test('sign up creates an organization; a password reset link arrives in the mail
   await page.getByRole('button', { name: 'Send reset link' }).click();
   await expect(page.getByRole('status')).toContainText('reset link is on its way');
 
-  const { url: resetUrl } = await mailLink(email, /Reset your Lagwise password/, 'Choose a new password');
-  await page.goto(resetUrl);
+  await page.goto(await mailboxLink(page, email, 'Choose a new password'));
   await page.getByLabel('New password').fill('marble-flange-lagging');
   await page.getByRole('button', { name: 'Save password' }).click();
   await expect(page).toHaveURL(/\/sign-in\?reset=1$/);
@@ -48,7 +51,7 @@ test('the owner invites an engineer who joins through the e-mailed link', async 
 
   const ctx = await browser.newContext();
   const p = await ctx.newPage();
-  const { url: href } = await mailLink(invitee, /invited you/, 'Accept the invitation');
+  const href = await mailboxLink(p, invitee, 'Accept the invitation');
   await p.goto(href);
   await expect(p.getByText(`Invitation for ${invitee} as Engineer.`)).toBeVisible();
   await p.getByLabel('Your name').fill('Nia Newcomer');
@@ -59,4 +62,60 @@ test('the owner invites an engineer who joins through the e-mailed link', async 
   await p.goto(href);
   await expect(p.getByRole('alert').filter({ hasText: 'already been used' })).toBeVisible();
   await ctx.close();
+});
+
+test('sign-up with an address that has an account answers exactly as for a new one', async ({ page }) => {
+  await page.goto('/sign-up');
+  await page.getByLabel('Your name').fill('Someone Else');
+  await page.getByLabel('Work e-mail').fill('owner@korvane.example');
+  await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
+  await page.getByLabel('Organization').fill('Copycat Ltd');
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByRole('status')).toHaveText('Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.');
+  await expect(page.getByText(/already exists|already has an account/)).toHaveCount(0);
+});
+
+test('a signed-in user changes the password: the current one is required, the other browser is signed out, a notice is mailed', async ({ page, browser }) => {
+  const email = `pwchange.${Date.now()}@example.com`;
+  await page.goto('/sign-up');
+  await page.getByLabel('Your name').fill('Pia Change');
+  await page.getByLabel('Work e-mail').fill(email);
+  await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
+  await page.getByLabel('Organization').fill('Change Chemicals');
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByRole('status')).toBeVisible();
+  await page.goto(await mailboxLink(page, email, 'Create my account'));
+  await page.getByRole('button', { name: 'Create my account' }).click();
+  await expect(page).toHaveURL(/\/projects$/);
+
+  const other = await browser.newContext();
+  const p2 = await other.newPage();
+  await signIn(p2, email, 'granite-elbow-jacket');
+
+  await page.getByRole('link', { name: 'Account', exact: true }).click();
+  await page.getByLabel('Current password').fill('not-my-password');
+  await page.getByLabel('New password').fill('copper-saddle-weld');
+  await page.getByRole('button', { name: 'Change password' }).click();
+  await expect(page.getByText('This is not your current password.')).toBeVisible();
+  await page.getByLabel('Current password').fill('granite-elbow-jacket');
+  await page.getByLabel('New password').fill('copper-saddle-weld');
+  await page.getByRole('button', { name: 'Change password' }).click();
+  await expect(page.getByRole('status')).toHaveText('Password changed. Every other session was signed out, and a notice went to your address.');
+  // This browser stays signed in; the other one is out.
+  await page.goto('/projects');
+  await expect(page.getByTestId('user-email')).toHaveText(email);
+  await p2.goto('/projects');
+  await expect(p2).toHaveURL(/\/sign-in$/);
+  expect(await mailboxLink(page, email, 'Reset the password')).toContain('/forgot-password');
+
+  // "Sign out other sessions" ends a fresh second session and keeps this one.
+  await signIn(p2, email, 'copper-saddle-weld');
+  await page.goto('/account');
+  await page.getByRole('button', { name: 'Sign out other sessions' }).click();
+  await expect(page.getByRole('status')).toHaveText('Every other session was signed out.');
+  await p2.goto('/projects');
+  await expect(p2).toHaveURL(/\/sign-in$/);
+  await page.goto('/projects');
+  await expect(page.getByTestId('user-email')).toHaveText(email);
+  await other.close();
 });

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { demo, openDemoProject } from './helpers';
+import { demo, mailboxLink, openDemoProject, signIn } from './helpers';
 
 async function companySignIn(page: import('@playwright/test').Page, email: string, password: string) {
   await page.goto('/sign-in');
@@ -19,7 +19,7 @@ test('the demo engineer signs in with the company account (linked once by passwo
   const eng = demo('engineer');
   await companySignIn(page, eng.email, 'korvane-sso-engineer');
   // First time: the existing password account must confirm the link.
-  await expect(page.getByTestId('company-message')).toContainText('already has a Lagwise password. Sign in with it once to link');
+  await expect(page.getByTestId('company-message')).toContainText('already has a Lagwise account. To link your company account, sign in with its password once');
   await page.getByLabel('E-mail', { exact: true }).fill(eng.email);
   await page.getByLabel('Password', { exact: true }).fill(eng.password);
   await page.getByRole('button', { name: 'Sign in', exact: true }).click();
@@ -41,4 +41,52 @@ test('a newcomer arrives waiting for an owner, and an unknown domain is told to 
   await page.getByLabel('Work e-mail').fill('someone@unknown.example');
   await page.getByRole('button', { name: 'Continue with company sign-in' }).click();
   await expect(page.getByRole('alert').filter({ hasText: 'No company sign-in is set up for unknown.example' })).toBeVisible();
+});
+
+test('linking by a mailed link works only in the browser that came back from the provider', async ({ page, browser }) => {
+  const rev = demo('reviewer');
+  await companySignIn(page, rev.email, 'korvane-sso-reviewer');
+  await expect(page.getByTestId('company-message')).toContainText(`${rev.email} already has a Lagwise account`);
+  await page.getByRole('button', { name: 'E-mail me a one-time link' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Sent to the address of your Lagwise account' })).toBeVisible();
+  const href = await mailboxLink(page, rev.email, 'Link my company account');
+
+  // Another browser (say, the mailbox's reader being someone else) cannot use it.
+  const other = await browser.newContext();
+  const p2 = await other.newPage();
+  await p2.goto(href);
+  await p2.getByRole('button', { name: 'Link my company account' }).click();
+  await expect(p2.getByRole('alert').filter({ hasText: 'Open this link' })).toHaveText('Open this link in the browser where you started the company sign-in.');
+  await other.close();
+
+  await page.goto(href);
+  await page.getByRole('button', { name: 'Link my company account' }).click();
+  await expect(page.getByTestId('company-message')).toHaveText('Your company account is linked. Sign in with it now.');
+  await companySignIn(page, rev.email, 'korvane-sso-reviewer');
+  await expect(page).toHaveURL(/\/projects$/);
+  await expect(page.getByTestId('user-email')).toHaveText(rev.email);
+});
+
+test('company sign-in settings: a public domain is refused by field, the role switches back to "None until an owner approves", domains show their proof', async ({ page }) => {
+  const owner = demo('owner');
+  await signIn(page, owner.email, owner.password);
+  await page.getByRole('link', { name: 'Members' }).first().click();
+  await page.getByRole('link', { name: 'Company sign-in settings' }).click();
+  await expect(page.getByTestId('domain-korvane.example')).toContainText('korvane.example · proven');
+  const domains = page.getByLabel('Allowed e-mail domains');
+  await domains.fill('korvane.example, gmail.com');
+  await page.getByRole('button', { name: 'Save company sign-in' }).click();
+  await expect(page.getByText("Allowed e-mail domains: public mail providers (like gmail.com or outlook.com) cannot be claimed; use your organization's own domain.")).toBeVisible();
+  await domains.fill('korvane.example');
+  await page.getByLabel('Role for people who arrive this way').selectOption('engineer');
+  await page.getByRole('button', { name: 'Save company sign-in' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Company sign-in saved.' })).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel('Role for people who arrive this way')).toHaveValue('engineer');
+  await page.getByLabel('Role for people who arrive this way').selectOption('');
+  await page.getByRole('button', { name: 'Save company sign-in' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Company sign-in saved.' })).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel('Role for people who arrive this way')).toHaveValue('');
+  await expect(page.getByTestId('domain-korvane.example')).toContainText('korvane.example · proven');
 });

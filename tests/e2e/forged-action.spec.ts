@@ -1,5 +1,5 @@
 import { expect, test, type Page, type Request } from '@playwright/test';
-import { demo, signIn } from './helpers';
+import { demo, mailboxLink, signIn } from './helpers';
 
 /**
  * A server action is an endpoint anyone can POST to once they know its id and body. Capture the
@@ -62,4 +62,51 @@ test('a captured "add jacket" action replayed by a contractor, a reviewer and an
   const ok = await page.request.post(req.url, { headers: req.headers, data: req.body });
   expect(ok.status()).toBe(200);
   expect(await jacketNames(page, projectId)).toContain('Replayed cladding');
+});
+
+test('a captured "send domain proof" action replayed by an engineer is refused; the owner\'s proof link, confirmed, makes the domain count', async ({ page, browser, baseURL }) => {
+  const domain = `labs-${Date.now().toString().slice(-6)}.korvane.example`;
+  await signIn(page, demo('owner').email, demo('owner').password);
+  await page.getByRole('link', { name: 'Members' }).first().click();
+  await page.getByRole('link', { name: 'Company sign-in settings' }).click();
+  await expect(page).toHaveURL(/\/orgs\/[0-9a-f-]+\/company-sign-in$/);
+  const settingsUrl = page.url();
+  const settingsGlob = '**/orgs/*/company-sign-in';
+  await page.getByLabel('Allowed e-mail domains').fill(`korvane.example, ${domain}`);
+  await page.getByRole('button', { name: 'Save company sign-in' }).click();
+  await expect(page.getByTestId(`domain-${domain}`)).toContainText('not proven yet');
+
+  let captured: Request | null = null;
+  await page.route(settingsGlob, async (route) => {
+    const r = route.request();
+    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+  });
+  await page.getByTestId(`domain-${domain}`).getByLabel(`Mailbox at ${domain}`).selectOption('hostmaster');
+  await page.getByRole('button', { name: `Send proof link for ${domain}` }).click();
+  await expect.poll(() => captured !== null).toBe(true);
+  await page.unroute(settingsGlob);
+  const r = captured as unknown as Request;
+  const h = r.headers();
+  const headers = { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin };
+
+  const ctx = await browser.newContext({ baseURL });
+  const p = await ctx.newPage();
+  await signIn(p, demo('engineer').email, demo('engineer').password);
+  const res = await p.request.post(r.url(), { headers, data: r.postDataBuffer()! });
+  expect(await res.text()).toContain('Your role in this organization does not allow that.');
+  await ctx.close();
+  const mails = await (await page.request.get(`http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}/messages?to=${encodeURIComponent(`hostmaster@${domain}`)}`)).json();
+  expect(mails).toHaveLength(0);
+
+  // Control: the owner's own request sends the link; whoever reads hostmaster@ confirms it.
+  const ok = await page.request.post(r.url(), { headers, data: r.postDataBuffer()! });
+  expect(ok.status()).toBe(200);
+  await page.goto(await mailboxLink(page, `hostmaster@${domain}`, 'Confirm the domain'));
+  await page.getByRole('button', { name: `Confirm ${domain} for Korvane Polymers` }).click();
+  await expect(page.getByRole('status')).toHaveText(`${domain} is confirmed for Korvane Polymers.`);
+  await page.goto(settingsUrl);
+  await expect(page.getByTestId(`domain-${domain}`)).toContainText(`${domain} · proven (hostmaster@${domain})`);
+  await page.getByLabel('Allowed e-mail domains').fill('korvane.example');
+  await page.getByRole('button', { name: 'Save company sign-in' }).click();
+  await expect(page.getByTestId(`domain-${domain}`)).toHaveCount(0);
 });

@@ -65,3 +65,22 @@ export async function mailLink(to: string, subject: RegExp, label: string, opts:
     await new Promise((r) => setTimeout(r, 200));
   }
 }
+
+/**
+ * The URL of a link in the newest message to `to` in the local SMTP sink (mail is sent in the
+ * background, so this waits for it). The app never shows mail in a production build.
+ */
+export async function mailboxLink(_page: Page, to: string, linkName: string): Promise<string> {
+  const sink = `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}`;
+  const escaped = linkName.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const deadline = Date.now() + 15_000;
+  for (;;) {
+    const list: { text: string }[] = await (await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)).json();
+    for (const m of list) {
+      const hit = m.text.match(new RegExp(`${escaped}: (\\S+)`));
+      if (hit) return hit[1];
+    }
+    if (Date.now() > deadline) throw new Error(`no "${linkName}" message to ${to} in the mail sink`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}

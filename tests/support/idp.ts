@@ -24,3 +24,34 @@ export async function loginAtIdp(authorizationUrl: string, email: string, passwo
   }
   throw new Error('too many redirects at the identity provider');
 }
+
+const idpBase = () => process.env.OIDC_DEV_ISSUER ?? 'http://127.0.0.1:4020';
+
+/**
+ * Adds a company account to the local identity provider (its test control surface): another subject
+ * with an address someone already has, an unverified (false) or unstated (null) e-mail, an ID token
+ * with an extra audience and the azp given.
+ */
+export async function addIdpAccount(a: { login: string; password: string; sub: string; email: string; email_verified?: boolean | null; name?: string; extraAudience?: string; azp?: string }) {
+  const r = await fetch(`${idpBase()}/dev/accounts`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(a) });
+  if (!r.ok) throw new Error(`identity provider refused the account (${r.status})`);
+}
+
+/** Makes /hostile/<name>/.well-known/openid-configuration of the local provider answer as told. */
+export async function hostileDiscovery(name: string, spec: { mode: 'json' | 'huge' | 'slow' | 'redirect'; document?: object; location?: string }) {
+  const r = await fetch(`${idpBase()}/dev/hostile/${name}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(spec) });
+  if (!r.ok) throw new Error(`identity provider refused the hostile document (${r.status})`);
+  return `${idpBase()}/hostile/${name}`;
+}
+
+/** Proves a claimed domain the way an owner does: the link mailed to admin@ of the domain, confirmed. */
+export async function proveDomain(organizationId: string, domain: string) {
+  const { requestDomainProof, confirmDomainProof } = await import('@/lib/auth/sso');
+  const { waitForMail, linkIn } = await import('./mail');
+  const asked = new Date(Date.now() - 1000);
+  const [owner] = await (await import('@/db/client')).db.execute<{ user_id: string }>(
+    (await import('drizzle-orm')).sql`select user_id from memberships where organization_id = ${organizationId} and role = 'owner' limit 1`).then((r) => r.rows);
+  await requestDomainProof({ organizationId, domain, mailbox: 'admin', actorId: owner.user_id });
+  const mail = await waitForMail(`admin@${domain}`, { subject: /Confirm that .* may use/, after: asked });
+  return confirmDomainProof(linkIn(mail.text, '/verify-domain'));
+}

@@ -25,13 +25,14 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
       <p className="mb-4 text-sm text-ink-600">Invitation for <strong>{inv.email}</strong> as <strong>{ROLE_LABEL[inv.role]}</strong>.</p>
       {user ? (
         <SimpleForm action={acceptInviteExistingAction} schema="acceptInviteExisting" submitLabel="Accept and join" hidden={{ token }} fields={[]} />
-      ) : inv.hasAccount ? (
-        <p className="text-sm">You already have an account. <Link href="/sign-in">Sign in</Link>, then open this link again.</p>
       ) : (
+        <>
+        <p className="mb-3 text-sm">Already have a Lagwise account with this address? <Link href="/sign-in">Sign in</Link>, then open this link again. Otherwise create your account here:</p>
         <SimpleForm action={acceptInviteNewAction} schema="acceptInviteNew" submitLabel="Create account and join" hidden={{ token }} fields={[
           { name: 'name', label: 'Your name', autoComplete: 'name' },
           { name: 'password', label: 'Password', type: 'password', autoComplete: 'new-password', hint: 'At least 12 characters.' },
         ]} />
+        </>
       )}
     </>
   );

@@ -1,7 +1,7 @@
 import { cookies } from 'next/headers';
 import { NextResponse, type NextRequest } from 'next/server';
-import { completeSso } from '@/lib/auth/sso';
-import { lucia } from '@/lib/auth/lucia';
+import { completeSso, LINK_TTL_MINUTES } from '@/lib/auth/sso';
+import { setSessionCookie } from '@/lib/auth/session';
 import { isAppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { LINK_COOKIE, SSO_COOKIE, SSO_MESSAGE_COOKIE } from '@/lib/auth/cookie-names';
@@ -26,12 +26,16 @@ export async function GET(req: NextRequest) {
   try {
     const out = await completeSso({ code: req.nextUrl.searchParams.get('code'), state: req.nextUrl.searchParams.get('state'), expected });
     if (out.kind === 'pending') return say(`Signed in with your company account. An owner of ${out.organizationName} still has to give you a role; you will be able to open projects after that.`);
+    if (out.kind === 'blocked') return say(`Signed in with your company account, but an owner of ${out.organizationName} has ended or refused your membership. Ask an owner to invite you again.`);
     if (out.kind === 'link-required') {
-      jar.set(LINK_COOKIE, out.linkToken, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 900, secure: env.isProduction() });
-      return say(`${out.email} already has a Lagwise password. Sign in with it once to link your company account; after that the company sign-in is enough.`);
+      // The linking secret lives only in this browser's httpOnly cookie; the mailed link works only together with it.
+      jar.set(LINK_COOKIE, out.linkToken, { httpOnly: true, sameSite: 'lax', path: '/', maxAge: LINK_TTL_MINUTES * 60, secure: env.isProduction() });
+      return say(out.hasPassword
+        ? `${out.email} already has a Lagwise account. To link your company account, sign in with its password once, or e-mail yourself a one-time link and open it in this browser.`
+        : `${out.email} already has a Lagwise account. To link this company account, e-mail yourself a one-time link and open it in this browser.`);
     }
-    const c = lucia.createSessionCookie(out.session.id);
-    jar.set(c.name, c.value, c.attributes);
+    // A new session for this browser; the one it had before (if any) ends.
+    await setSessionCookie(out.session.id);
     return to('/projects');
   } catch (e) {
     if (isAppError(e)) return say(e.message);

@@ -12,7 +12,7 @@ export default async function CompanySignInPage({ params }: { params: Promise<{ 
   return (
     <main className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-2">Company sign-in</h1>
-      <p className="mb-4 max-w-2xl text-sm text-ink-600">People of your organization sign in with their company account (OpenID Connect). Someone who already has a Lagwise password is linked only after signing in with it once.</p>
+      <p className="mb-4 max-w-2xl text-sm text-ink-600">People of your organization sign in with their company account (OpenID Connect). A company account is tied to the Lagwise account it first signed in as; someone who already has a Lagwise account links a new company account once, with the Lagwise password or a link mailed to their address.</p>
       <CompanySignInForm organizationId={orgId} current={await getSsoConfig(orgId)} callbackUrl={callbackUrl()} />
     </main>
   );

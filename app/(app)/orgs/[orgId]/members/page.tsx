@@ -6,7 +6,7 @@ import { SimpleForm } from '@/components/simple-form';
 import { Denied } from '@/components/denied';
 import { changeRoleAction, inviteAction, removeMemberAction } from './actions';
 import { listMembershipRequests } from '@/lib/auth/sso';
-import { approveRequestAction } from '../company-sign-in/actions';
+import { approveRequestAction, refuseRequestAction } from '../company-sign-in/actions';
 import Link from 'next/link';
 import { MemberRowActions } from './member-row-actions';
 
@@ -31,6 +31,10 @@ export default async function MembersPage({ params }: { params: Promise<{ orgId:
                 <input type="hidden" name="organizationId" value={orgId} /><input type="hidden" name="userId" value={r.userId} />
                 <select name="role" aria-label={`Role for ${r.name}`} className="input w-40 py-1" defaultValue="engineer">{ROLES.map((x) => <option key={x} value={x}>{ROLE_LABEL[x]}</option>)}</select>
                 <button className="btn-quiet py-1">Approve</button>
+              </form>
+              <form action={refuseRequestAction}>
+                <input type="hidden" name="organizationId" value={orgId} /><input type="hidden" name="userId" value={r.userId} />
+                <button className="btn-quiet py-1" aria-label={`Refuse ${r.name}`}>Refuse</button>
               </form>
             </li>))}</ul>
         </section>

@@ -2,6 +2,7 @@ import { expect, test } from '@playwright/test';
 import { createProjectWithLines, demo, lineRow, signIn } from './helpers';
 
 test('engineer: bulk accept states its counts for the filter shown, leaves a manual pick alone, and is undone', async ({ page }) => {
+  test.slow(); // a whole flow: a project, an import, a pick, two previews, an accept, an undo and a reload
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
   await createProjectWithLines(page, 'Bulk accept check', [

@@ -65,6 +65,7 @@ test('a captured "add jacket" action replayed by a contractor, a reviewer and an
 });
 
 test('a captured bulk accept replayed by a reviewer and a contractor is refused and changes nothing', async ({ page, browser, baseURL }) => {
+  test.slow(); // a project with an import, then three sessions
   await signIn(page, demo('engineer').email, demo('engineer').password);
   const projectId = await createProjectWithLines(page, 'E2E forged bulk accept', [lineRow('F-1', '4', 180, 'H,P'), lineRow('F-2', '2', 120, 'H,P')]);
   const undecided = async () => (await (await page.request.get(`/api/v1/projects/${projectId}/lines?status=undecided`)).json()).total as number;

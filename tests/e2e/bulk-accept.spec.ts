@@ -46,7 +46,6 @@ test('engineer: bulk accept states its counts for the filter shown, leaves a man
   await expect(dialog.locator('#bulk-accept-counts')).toHaveText('This changes 2 lines and leaves 1 line alone.');
   await expect(dialog.getByRole('list', { name: 'Lines that change' })).toHaveText('2 lines without a decision get the recommendation');
   await expect(leftAlone).toHaveText('1 manual pick');
-  if (process.env.BULK_SCREENSHOT) await page.screenshot({ path: process.env.BULK_SCREENSHOT });
   await dialog.getByRole('button', { name: 'Accept for 2 lines' }).click();
   await expect(dialog).toBeHidden();
   await expect(page.getByRole('status').filter({ hasText: 'Recommendation accepted' })).toHaveText('Recommendation accepted for 2 lines; 1 line left alone.');

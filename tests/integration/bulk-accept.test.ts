@@ -122,6 +122,8 @@ describe('accept recommendation for the filtered lines', () => {
     const p = await preview({ area: 'A' });
     const r = await apply({ area: 'A' }, p.items);
     expect(r.accepted).toBe(3);
+    // The same confirmation sent twice (a double click, a second tab): the second changes nothing.
+    await expectAppError(apply({ area: 'A' }, p.items), 'conflict', /^3 lines changed since the counts were shown/);
     const after = await designs();
     expect(after['B-3']).toEqual(before['B-3']); // the manual pick, its reason and below-criterion mark
     expect(after['B-3']).toMatchObject({ source: 'manual', reason: 'Existing lagging reused', belowCriterion: 'personnel' });

@@ -161,6 +161,11 @@ export const lines = pgTable('lines', {
   notes: text('notes').notNull().default(''),
   /** Bumped when a thermal input changes. */
   inputVersion: integer('input_version').notNull().default(1),
+  /**
+   * The version of a design that was taken back (undoing a bulk accept removes a decision): the next
+   * decision continues from it, so a design version someone has seen is never given out again.
+   */
+  lastDesignVersion: integer('last_design_version').notNull().default(0),
   revision: integer('revision').notNull(),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag), index('lines_project_area_idx').on(t.projectId, t.area)]);
@@ -213,6 +218,27 @@ export const lineDesigns = pgTable('line_designs', {
   decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
   version: integer('version').notNull().default(1),
 }, (t) => [index('line_designs_project_idx').on(t.projectId)]);
+
+/** A line's design as it was before a bulk accept replaced it (null in `before`: no decision). */
+export interface DesignSnapshot {
+  thicknessMm: number; layers: unknown; source: 'recommended' | 'manual'; reason: string | null; belowCriterion: string | null;
+  needsRedecision: boolean; redecisionReason: string | null; decidedBy: string | null; decidedAt: string; version: number;
+}
+export interface BulkAcceptEntry { lineId: string; tag: string; before: DesignSnapshot | null; version: number }
+
+/** One "accept recommendation for the filtered lines": what it changed and what was there before, for undo. */
+export const bulkAccepts = pgTable('bulk_accepts', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  acceptedBy: text('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+  acceptedAt: timestamp('accepted_at', { withTimezone: true }).notNull().defaultNow(),
+  /** The table filter it was applied to: { q?, area?, status? }. */
+  filter: jsonb('filter').$type<{ q?: string; area?: string; status?: string }>().notNull(),
+  /** Each changed line with its design before and the design version the accept wrote. */
+  entries: jsonb('entries').$type<BulkAcceptEntry[]>().notNull(),
+  undoneBy: text('undone_by').references(() => users.id, { onDelete: 'set null' }),
+  undoneAt: timestamp('undone_at', { withTimezone: true }),
+}, (t) => [index('bulk_accepts_project_idx').on(t.projectId, t.acceptedAt)]);
 
 export const roundStatusEnum = pgEnum('review_round_status', ['open', 'signed-off']);
 export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned']);

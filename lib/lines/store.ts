@@ -2,7 +2,7 @@
  * Line-list persistence, free of Next.js (server actions, the seed, tests and benchmarks call it).
  * Every import is one transaction: all rows or none, the previous revision intact on any error.
  */
-import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
 import { db, type Tx } from '@/db/client';
 import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
 import { AppError } from '@/lib/errors';
@@ -15,6 +15,10 @@ import { suggestMapping, type ColumnMapping } from './mapping';
 import { parseUpload, ParseError, type ParsedFile } from './parse';
 import { inputHash, solveLine } from './solve-line';
 import { validateSheet, type LineInput, type RowIssue } from './validate';
+import { isResultStale, lineFilterSql, staleSql } from './stale';
+import type { LineFilter } from './filter';
+
+export { acceptRecommendations, applyBulkAccept, previewBulkAccept, undoBulkAccept, type BulkItem, type BulkPreview } from './bulk-accept';
 
 // ---------- design basis ----------
 
@@ -275,7 +279,7 @@ function camel(snake: string) { return snake.replace(/_([a-z0-9])/g, (_, c) => c
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
 export async function solveProject({ projectId, all = false }: { projectId: string; all?: boolean }) {
   const { basis, revision } = await getDesignBasis({ projectId });
-  const staleCond = all ? sql`true` : sql`(${lineResults.lineId} is null or ${lineResults.basisRevision} <> ${revision} or ${lineResults.inputVersion} <> ${lines.inputVersion} or ${lineResults.calcVersion} <> ${CALCULATION_VERSION})`;
+  const staleCond = all ? sql`true` : staleSql(revision);
   const todo = await db.select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
   const systems = new Map<string, MaterialSystem>();
@@ -317,19 +321,12 @@ const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
 // ---------- reading ----------
 
 export type LineSort = 'tag' | 'area' | 'normalTempC' | 'outsideDiameterMm' | 'recommendedMm' | 'heatFlowPerUnit' | 'surfaceTempC' | 'governing';
-export interface LineQuery { projectId: string; page: number; size: number; sort: LineSort; dir: 'asc' | 'desc'; q?: string; area?: string; status?: 'stale' | 'flagged' | 'overridden' | 'undecided' | 'redecide' }
+export interface LineQuery extends LineFilter { projectId: string; page: number; size: number; sort: LineSort; dir: 'asc' | 'desc' }
 
 export async function listLines(o: LineQuery) {
   const { revision } = await getDesignBasis({ projectId: o.projectId });
-  const stale = sql<boolean>`(${lineResults.lineId} is null or ${lineResults.basisRevision} <> ${revision} or ${lineResults.inputVersion} <> ${lines.inputVersion} or ${lineResults.calcVersion} <> ${CALCULATION_VERSION})`;
-  const where: SQL[] = [eq(lines.projectId, o.projectId)];
-  if (o.q) where.push(or(ilike(lines.tag, `%${o.q}%`), ilike(lines.service, `%${o.q}%`))!);
-  if (o.area) where.push(eq(lines.area, o.area));
-  if (o.status === 'stale') where.push(stale);
-  if (o.status === 'flagged') where.push(sql`(${lineDesigns.belowCriterion} is not null or cardinality(${lineResults.unmet}) > 0)`);
-  if (o.status === 'overridden') where.push(eq(lineDesigns.source, 'manual'));
-  if (o.status === 'undecided') where.push(sql`${lineDesigns.lineId} is null`);
-  if (o.status === 'redecide') where.push(eq(lineDesigns.needsRedecision, true));
+  const stale = staleSql(revision);
+  const where = [lineFilterSql(o.projectId, o, revision)];
   const sortCol = {
     tag: lines.tag, area: lines.area, normalTempC: lines.normalTempC, outsideDiameterMm: lines.outsideDiameterMm,
     recommendedMm: lineResults.recommendedMm, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC, governing: lineResults.governing,
@@ -361,7 +358,7 @@ export async function getLine({ projectId, lineId }: { projectId: string; lineId
     .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));
   if (!row) throw new AppError('not_found');
   const { revision } = await getDesignBasis({ projectId });
-  const stale = !row.result || row.result.basisRevision !== revision || row.result.inputVersion !== row.line.inputVersion || row.result.calcVersion !== CALCULATION_VERSION;
+  const stale = isResultStale(row.result, row.line, revision);
   return { ...row, stale };
 }
 
@@ -395,7 +392,7 @@ export async function pickDesign(o: { projectId: string; lineId: string; userId:
     const values = {
       lineId: o.lineId, projectId: o.projectId, thicknessMm: o.thicknessMm, layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
       source: manual ? 'manual' as const : 'recommended' as const, reason: o.reason?.trim() || null, belowCriterion: below.length ? below.join(',') : null,
-      needsRedecision: false, redecisionReason: null, decidedBy: o.userId, decidedAt: new Date(), version: (existing?.version ?? 0) + 1,
+      needsRedecision: false, redecisionReason: null, decidedBy: o.userId, decidedAt: new Date(), version: (existing?.version ?? row.line.lastDesignVersion) + 1,
     };
     if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
     else await tx.insert(lineDesigns).values(values);
@@ -405,29 +402,5 @@ export async function pickDesign(o: { projectId: string; lineId: string; userId:
       after: { thicknessMm: values.thicknessMm, source: values.source, reason: values.reason, belowCriterion: values.belowCriterion },
     }]);
     return { version: values.version, source: values.source, belowCriterion: values.belowCriterion };
-  });
-}
-
-/** Accepts the recommendation for every current (not stale) solved line matching the filter. */
-export async function acceptRecommendations(o: { projectId: string; userId: string; q?: string; area?: string }) {
-  const { revision } = await getDesignBasis({ projectId: o.projectId });
-  const where: SQL[] = [eq(lines.projectId, o.projectId), sql`${lineResults.recommendedMm} is not null`, eq(lineResults.basisRevision, revision), sql`${lineResults.inputVersion} = ${lines.inputVersion}`];
-  if (o.q) where.push(or(ilike(lines.tag, `%${o.q}%`), ilike(lines.service, `%${o.q}%`))!);
-  if (o.area) where.push(eq(lines.area, o.area));
-  return db.transaction(async (tx) => {
-    const r = await tx.execute(sql`
-      insert into line_designs (line_id, project_id, thickness_mm, layers, source, decided_by, decided_at, version)
-      select lines.id, lines.project_id, line_results.recommended_mm, line_results.layers, 'recommended', ${o.userId}, now(), 1
-      from lines join line_results on line_results.line_id = lines.id
-      where ${and(...where)}
-      on conflict (line_id) do update set thickness_mm = excluded.thickness_mm, layers = excluded.layers, source = 'recommended', reason = null,
-        below_criterion = null, needs_redecision = false, redecision_reason = null, decided_by = excluded.decided_by, decided_at = now(), version = line_designs.version + 1
-      returning line_id, thickness_mm`);
-    const name = await actorName(o.userId);
-    const tags = new Map((await tx.select({ id: lines.id, tag: lines.tag }).from(lines).where(eq(lines.projectId, o.projectId))).map((x) => [x.id, x.tag]));
-    await writeAudit(tx, (r.rows as { line_id: string; thickness_mm: number }[]).map((x) => ({
-      projectId: o.projectId, lineId: x.line_id, tag: tags.get(x.line_id) ?? null, actorId: o.userId, actorName: name, action: 'recommendation accepted', after: { thicknessMm: x.thickness_mm, source: 'recommended' },
-    })));
-    return { accepted: r.rowCount ?? 0 };
   });
 }

@@ -12,6 +12,7 @@ import { env } from '@/lib/env';
 import { composeMail, sendMail } from '@/lib/mail';
 import { CALCULATION_VERSION } from '@/lib/thermal';
 import { getDesignBasis, inputOf } from '@/lib/lines/store';
+import { isResultStale } from '@/lib/lines/stale';
 import { FLAG_LABEL, flagsForLine, type Flag, type FlagType } from './flags';
 
 export type Disposition = 'insulate' | 'guard' | 'warning-sign' | 'not-accessible' | 'returned';
@@ -40,7 +41,7 @@ export async function currentFlags({ projectId, area }: { projectId: string; are
     .where(area ? and(eq(lines.projectId, projectId), eq(lines.area, area)) : eq(lines.projectId, projectId)).orderBy(asc(lines.tag));
   const out: { lineId: string; tag: string; area: string; inputVersion: number; designVersion: number; flags: Flag[]; recommendedMm: number | null }[] = [];
   for (const { line, result, design } of rows) {
-    const stale = !result || result.basisRevision !== revision || result.inputVersion !== line.inputVersion || result.calcVersion !== CALCULATION_VERSION;
+    const stale = isResultStale(result, line, revision);
     const flags = flagsForLine(basis, {
       line: inputOf(line),
       design: design ? { layers: design.layers as { materialId: string; thicknessMm: number }[], belowCriterion: design.belowCriterion } : null,

@@ -64,11 +64,13 @@ export function projectAction<S extends z.ZodType, R>(permission: Action, schema
       const { user } = await validateRequest();
       if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
       const access = await getProjectAccess({ userId: user.id, projectId, action: permission });
-      const parsed = schema.safeParse(input);
+      // A schema's own messages are sentences for the user; where a schema has none, zod's wording
+      // (and the field path) is replaced by one plain sentence: the browser sent something we did not expect.
+      const parsed = schema.safeParse(input, { error: () => 'This request is not valid; reload the page and try again.' });
       if (!parsed.success) {
         const fields: Record<string, string[]> = {};
         for (const i of parsed.error.issues) (fields[i.path.join('.') || 'input'] ??= []).push(i.message);
-        throw new AppError('invalid', Object.entries(fields).map(([k, v]) => `${k}: ${v[0]}`).join('; '), fields);
+        throw new AppError('invalid', [...new Set(parsed.error.issues.map((i) => i.message))].join(' '), fields);
       }
       return { ok: true, data: await handler({ user, input: parsed.data, ...access }) };
     } catch (e) {

@@ -1,5 +1,5 @@
 import { expect, test, type Page, type Request } from '@playwright/test';
-import { demo, mailboxLink, signIn } from './helpers';
+import { createProjectWithLines, demo, lineRow, mailboxLink, signIn } from './helpers';
 
 /**
  * A server action is an endpoint anyone can POST to once they know its id and body. Capture the
@@ -109,4 +109,44 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   await page.getByLabel('Allowed e-mail domains').fill('korvane.example');
   await page.getByRole('button', { name: 'Save company sign-in' }).click();
   await expect(page.getByTestId(`domain-${domain}`)).toHaveCount(0);
+});
+
+test('a captured bulk accept replayed by a reviewer and a contractor is refused and changes nothing', async ({ page, browser, baseURL }) => {
+  test.slow(); // a project with an import, then three sessions
+  await signIn(page, demo('engineer').email, demo('engineer').password);
+  const projectId = await createProjectWithLines(page, 'E2E forged bulk accept', [lineRow('F-1', '4', 180, 'H,P'), lineRow('F-2', '2', 120, 'H,P')]);
+  const undecided = async () => (await (await page.request.get(`/api/v1/projects/${projectId}/lines?status=undecided`)).json()).total as number;
+  await expect(page.locator('tr[data-tag="F-2"]')).toBeVisible();
+  await page.getByRole('button', { name: 'Accept recommendation for the filtered lines' }).click();
+  const dialog = page.getByRole('dialog', { name: 'Accept the recommendation for the filtered lines?' });
+  await expect(dialog.locator('#bulk-accept-counts')).toHaveText('This changes 2 lines and leaves 0 lines alone.');
+  // Capture the confirmation's request (the preview has been answered already) without letting it through.
+  let captured: Request | null = null;
+  await page.route(`**/projects/${projectId}/lines`, async (route) => {
+    const r = route.request();
+    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+  });
+  await dialog.getByRole('button', { name: 'Accept for 2 lines' }).click();
+  await expect.poll(() => captured !== null).toBe(true);
+  await page.unroute(`**/projects/${projectId}/lines`);
+  const r = captured as unknown as Request;
+  const h = r.headers();
+  const req = { url: r.url(), body: r.postDataBuffer()!, headers: { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin } };
+  expect(await undecided()).toBe(2);
+
+  for (const key of ['contractor', 'reviewer'] as const) {
+    const ctx = await browser.newContext({ baseURL });
+    const p = await ctx.newPage();
+    await signIn(p, demo(key).email, demo(key).password);
+    const res = await p.request.post(req.url, { headers: req.headers, data: req.body });
+    expect(await res.text()).toContain('Your role in this organization does not allow that.');
+    await ctx.close();
+  }
+  expect(await undecided()).toBe(2);
+
+  // Control: the same bytes from the engineer's own session accept both lines.
+  const ok = await page.request.post(req.url, { headers: req.headers, data: req.body });
+  expect(ok.status()).toBe(200);
+  expect(await ok.text()).toContain('"accepted":2');
+  expect(await undecided()).toBe(0);
 });

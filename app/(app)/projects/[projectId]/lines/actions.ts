@@ -6,6 +6,7 @@ import { validateRequest } from '@/lib/auth/session';
 import { getProjectAccess } from '@/db/queries/projects';
 import { AppError, isAppError } from '@/lib/errors';
 import { FIELDS, MAX_UPLOAD_BYTES } from '@/lib/lines';
+import { lineFilterSchema } from '@/lib/lines/filter';
 import type { DraftSummary } from '@/lib/lines/store';
 import * as store from '@/lib/lines/store';
 import { logUnexpected } from '@/lib/log';
@@ -54,5 +55,22 @@ export const pickThicknessAction = projectAction('design.pick', z.object({
   lineId: z.uuid(), thicknessMm: z.number().min(0).max(2000), reason: z.string().max(500).optional(), expectedVersion: z.number().int().min(0),
 }), async ({ project, user, input }) => store.pickDesign({ projectId: project.id, userId: user.id, ...input }));
 
-export const acceptRecommendationsAction = projectAction('design.pick', z.object({ q: z.string().max(100).optional(), area: z.string().max(200).optional() }),
-  async ({ project, user, input }) => store.acceptRecommendations({ projectId: project.id, userId: user.id, q: input.q || undefined, area: input.area || undefined }));
+const bulkItems = z.array(z.object({ lineId: z.uuid(), version: z.number().int().min(0), thicknessMm: z.number().min(0) }), { error: 'The lines to accept are missing; press the button again.' })
+  .max(100_000, { error: 'Too many lines at once; narrow the filter.' });
+
+/** What "accept recommendation for the filtered lines" would change for the table's exact filter (reads only). */
+export const previewBulkAcceptAction = projectAction('design.pick', z.object({ filter: lineFilterSchema }),
+  async ({ project, input }) => store.previewBulkAccept({ projectId: project.id, filter: input.filter }));
+
+/** Applies exactly the lines the preview returned; refused when any of them moved since. */
+export const applyBulkAcceptAction = projectAction('design.pick', z.object({ filter: lineFilterSchema, items: bulkItems }), async ({ project, user, input }) => {
+  const r = await store.applyBulkAccept({ projectId: project.id, userId: user.id, filter: input.filter, items: input.items });
+  revalidatePath(`/projects/${project.id}/lines`);
+  return r;
+});
+
+export const undoBulkAcceptAction = projectAction('design.pick', z.object({ bulkAcceptId: z.uuid({ error: 'That bulk accept is not known; reload the page.' }) }), async ({ project, user, input }) => {
+  const r = await store.undoBulkAccept({ projectId: project.id, userId: user.id, bulkAcceptId: input.bulkAcceptId });
+  revalidatePath(`/projects/${project.id}/lines`);
+  return r;
+});

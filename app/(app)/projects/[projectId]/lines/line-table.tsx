@@ -1,9 +1,11 @@
 'use client';
 import Link from 'next/link';
-import { useMemo, useState, useTransition } from 'react';
+import { useEffect, useMemo, useRef, useState, useTransition } from 'react';
 import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
-import { acceptRecommendationsAction, pickThicknessAction, solveLinesAction } from './actions';
+import { applyBulkAcceptAction, pickThicknessAction, previewBulkAcceptAction, solveLinesAction, undoBulkAcceptAction } from './actions';
+import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } from '@/lib/lines/filter';
+import type { BulkPreview } from '@/lib/lines/bulk-accept';
 import { display, type UnitSystem } from '@/lib/lines/display';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 
@@ -29,6 +31,8 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
   const [area, setArea] = useState('');
   const [status, setStatus] = useState('');
   const [message, setMessage] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
+  const [bulkPreview, setBulkPreview] = useState<BulkPreview | null>(null);
+  const [undoable, setUndoable] = useState<string | null>(null); // the last bulk accept's id, while it can be undone
   const [pending, start] = useTransition();
   const size = 100;
   const sort = sorting[0] ?? { id: 'tag', desc: false };
@@ -55,12 +59,13 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
     ch.accessor('surfaceTempC', { header: `Surface ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
     ch.accessor('heatFlowPerUnit', { header: `Loss ${u.units.linearLoss}·${u.units.arealLoss}`, cell: (c) => <span className="num block">{isSurfaceGeometry(c.row.original.geometry) ? u.arealLoss(c.getValue()) : u.linearLoss(c.getValue())}</span> }),
     ch.display({ id: 'status', header: 'Status', cell: (c) => <Badges row={c.row.original} /> }),
-    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} unitSystem={unitSystem} /> }),
+    // Keyed by the design version: a bulk accept, an undo or someone else's save remounts the picker on the stored choice.
+    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell key={c.row.original.designVersion ?? 0} row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} unitSystem={unitSystem} /> }),
   ], [projectId, canPick, unitSystem]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const data = query.data?.rows ?? [];
   const table = useReactTable({
-    data, columns, getCoreRowModel: getCoreRowModel(), manualSorting: true, manualPagination: true,
+    data, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id, manualSorting: true, manualPagination: true,
     state: { sorting }, onSortingChange: (u) => { setSorting(u); setPage(0); }, enableSortingRemoval: false,
   });
   const total = query.data?.total ?? 0;
@@ -73,10 +78,38 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
       refresh();
     });
   }
-  function acceptAll() {
+  /** Step 1: the server counts what the button would do for exactly the filter on screen. */
+  function previewAccept() {
+    const filter: LineFilter = { q: q || undefined, area: area || undefined, status: (status || undefined) as LineStatus | undefined };
+    setMessage(null);
     start(async () => {
-      const r = await acceptRecommendationsAction(projectId, { q, area });
-      setMessage(r.ok ? { kind: 'ok', text: `Recommendation accepted for ${r.data.accepted} line${r.data.accepted === 1 ? '' : 's'}.` } : { kind: 'error', text: r.error });
+      const r = await previewBulkAcceptAction(projectId, { filter });
+      if (r.ok) setBulkPreview(r.data); else setMessage({ kind: 'error', text: r.error });
+    });
+  }
+  /** Step 2, after confirmation: exactly the previewed lines, or a refusal if any of them moved. */
+  function applyAccept(p: BulkPreview) {
+    start(async () => {
+      const r = await applyBulkAcceptAction(projectId, { filter: p.filter, items: p.items });
+      setBulkPreview(null);
+      if (r.ok) {
+        setUndoable(r.data.bulkAcceptId);
+        setMessage({ kind: 'ok', text: `Recommendation accepted for ${lineCount(r.data.accepted)}; ${lineCount(p.leftAloneTotal)} left alone.` });
+      } else setMessage({ kind: 'error', text: r.error });
+      refresh();
+    });
+  }
+  function undoAccept(bulkAcceptId: string) {
+    start(async () => {
+      const r = await undoBulkAcceptAction(projectId, { bulkAcceptId });
+      setUndoable(null);
+      if (r.ok) {
+        const kept = [
+          r.data.changedSince.length ? `${lineCount(r.data.changedSince.length)} decided again since ${r.data.changedSince.length === 1 ? 'was' : 'were'} left as ${r.data.changedSince.length === 1 ? 'it is' : 'they are'} (${r.data.changedSince.join(', ')}).` : '',
+          r.data.removed.length ? `${lineCount(r.data.removed.length)} no longer in the list (${r.data.removed.join(', ')}).` : '',
+        ].filter(Boolean).join(' ');
+        setMessage({ kind: 'ok', text: `Bulk accept undone: ${lineCount(r.data.restored)} ${r.data.restored === 1 ? 'has its' : 'have their'} previous decision back.${kept ? ` ${kept}` : ''}` });
+      } else setMessage({ kind: 'error', text: r.error });
       refresh();
     });
   }
@@ -91,14 +124,20 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
           </select></div>
         <div><label className="label" htmlFor="f-status">Status</label>
           <select id="f-status" className="input" value={status} onChange={(e) => { setStatus(e.target.value); setPage(0); }}>
-            <option value="">Any</option><option value="stale">Stale</option><option value="flagged">Flagged</option><option value="overridden">Manual pick</option><option value="undecided">Undecided</option><option value="redecide">Needs re-decision</option>
+            <option value="">Any</option>{LINE_STATUSES.map((s) => <option key={s} value={s}>{LINE_STATUS_LABEL[s]}</option>)}
           </select></div>
         <div className="ml-auto flex gap-2">
           {canSolve ? <button className="btn-quiet" onClick={solve} disabled={pending}>Solve stale lines</button> : null}
-          {canPick ? <button className="btn-primary" onClick={acceptAll} disabled={pending || !total}>Accept recommendation for the filtered lines</button> : null}
+          {canPick ? <button className="btn-primary" onClick={previewAccept} disabled={pending || !total}>Accept recommendation for the filtered lines</button> : null}
         </div>
       </div>
-      {message ? <p role={message.kind === 'error' ? 'alert' : 'status'} className={`mb-3 text-sm ${message.kind === 'error' ? 'text-alarm-700' : 'text-mineral-800'}`}>{message.text}</p> : null}
+      {message ? (
+        <div className="mb-3 flex items-center gap-3">
+          <p role={message.kind === 'error' ? 'alert' : 'status'} className={`text-sm ${message.kind === 'error' ? 'text-alarm-700' : 'text-mineral-800'}`}>{message.text}</p>
+          {undoable && message.kind === 'ok' ? <UndoButton onUndo={() => undoAccept(undoable)} disabled={pending} /> : null}
+        </div>
+      ) : null}
+      {bulkPreview ? <BulkAcceptDialog preview={bulkPreview} pending={pending} onConfirm={() => applyAccept(bulkPreview)} onCancel={() => setBulkPreview(null)} /> : null}
       {query.error ? <p role="alert" className="text-sm text-alarm-700">{(query.error as Error).message}</p> : null}
       <div className="panel overflow-x-auto">
         <table className="table-dense" aria-label="Line table">
@@ -123,6 +162,67 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
         <button className="btn-quiet py-0.5" disabled={page + 1 >= pages} onClick={() => setPage((p) => p + 1)}>Next</button>
       </div>
     </section>
+  );
+}
+
+const lineCount = (n: number) => `${n} line${n === 1 ? '' : 's'}`;
+
+/** Focused when it appears, so the keyboard user lands next to what just happened. */
+function UndoButton({ onUndo, disabled }: { onUndo: () => void; disabled: boolean }) {
+  const ref = useRef<HTMLButtonElement>(null);
+  const focused = useRef(false);
+  // It appears while the accept is still finishing (disabled): focus it once it can take focus.
+  useEffect(() => { if (!disabled && !focused.current) { ref.current?.focus(); focused.current = true; } }, [disabled]);
+  return <button ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>Undo</button>;
+}
+
+/** The confirmation: how many lines change and how many are left alone (and why), for the filter shown. */
+function BulkAcceptDialog({ preview: p, pending, onConfirm, onCancel }: { preview: BulkPreview; pending: boolean; onConfirm: () => void; onCancel: () => void }) {
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    const d = ref.current;
+    if (d && !d.open) d.showModal();
+    return () => d?.close();
+  }, []);
+  const f = p.filter;
+  const shown = [f.q ? `search "${f.q}"` : '', f.area ? `area ${f.area}` : '', f.status ? `status ${LINE_STATUS_LABEL[f.status]}` : ''].filter(Boolean);
+  const la = p.leftAlone;
+  const alone = [
+    la.manual ? `${la.manual} manual pick${la.manual === 1 ? '' : 's'}` : '',
+    la.redecide ? `${lineCount(la.redecide)} needing re-decision` : '',
+    la.stale ? `${lineCount(la.stale)} stale or not solved (solve first)` : '',
+    la.alreadyAccepted ? `${lineCount(la.alreadyAccepted)} already at the current recommendation` : '',
+    la.noRecommendation ? `${lineCount(la.noRecommendation)} without a recommendation` : '',
+  ].filter(Boolean);
+  return (
+    <dialog ref={ref} aria-labelledby="bulk-accept-title" aria-describedby="bulk-accept-counts" onCancel={(e) => { e.preventDefault(); if (!pending) onCancel(); }}
+      className="w-[32rem] max-w-[95vw] rounded-md border border-ink-300 bg-white p-5 text-ink-900 shadow-xl backdrop:bg-ink-900/40">
+      <h2 id="bulk-accept-title" className="mb-2 text-lg font-semibold">Accept the recommendation for the filtered lines?</h2>
+      <p className="mb-2 text-sm text-ink-700">Lines shown: {shown.length ? shown.join(', ') : 'all lines'}.</p>
+      <p id="bulk-accept-counts" className="mb-2 text-sm">
+        {p.change ? <>This changes <strong>{lineCount(p.change)}</strong> and leaves <strong>{lineCount(p.leftAloneTotal)}</strong> alone.</>
+          : !p.leftAloneTotal ? 'No line matches this filter.'
+            : p.leftAloneTotal === 1 ? 'Nothing would change: the 1 line shown is left alone.' : <>Nothing would change: all <strong>{lineCount(p.leftAloneTotal)}</strong> shown are left alone.</>}
+      </p>
+      {p.change ? (<>
+        <h3 id="bulk-accept-change" className="text-xs font-semibold text-ink-700">Lines that change</h3>
+        <ul className="mb-2 list-disc pl-5 text-sm" aria-labelledby="bulk-accept-change">
+          {p.newDecisions ? <li>{lineCount(p.newDecisions)} without a decision get the recommendation</li> : null}
+          {p.updated ? <li>{lineCount(p.updated)} with an earlier accepted recommendation get the current one</li> : null}
+        </ul>
+      </>) : null}
+      {alone.length ? (<>
+        <h3 id="bulk-accept-alone" className="text-xs font-semibold text-ink-700">Lines left alone</h3>
+        <ul className="mb-2 list-disc pl-5 text-sm" aria-labelledby="bulk-accept-alone">
+          {alone.map((text) => <li key={text}>{text}</li>)}
+        </ul>
+      </>) : null}
+      <p className="mb-4 text-xs text-ink-600">Manual picks and lines needing re-decision are never changed. You can undo the accept right after.</p>
+      <div className="flex justify-end gap-2">
+        <button className="btn-quiet" onClick={onCancel} disabled={pending}>{p.change ? 'Cancel' : 'Close'}</button>
+        {p.change ? <button className="btn-primary" onClick={onConfirm} disabled={pending} autoFocus>Accept for {lineCount(p.change)}</button> : null}
+      </div>
+    </dialog>
   );
 }
 

@@ -2,16 +2,14 @@ import { z } from 'zod';
 import { route, fieldsFromZod } from '@/lib/server/route';
 import { getProjectAccess } from '@/db/queries/projects';
 import { listLines } from '@/lib/lines/store';
+import { lineFilterSchema } from '@/lib/lines/filter';
 import { AppError } from '@/lib/errors';
 
-const querySchema = z.object({
+const querySchema = lineFilterSchema.extend({
   page: z.coerce.number().int().min(0).default(0),
   size: z.coerce.number().int().min(1).max(500).default(100),
   sort: z.enum(['tag', 'area', 'normalTempC', 'outsideDiameterMm', 'recommendedMm', 'heatFlowPerUnit', 'surfaceTempC', 'governing']).default('tag'),
   dir: z.enum(['asc', 'desc']).default('asc'),
-  q: z.string().max(100).optional(),
-  area: z.string().max(200).optional(),
-  status: z.enum(['stale', 'flagged', 'overridden', 'undecided', 'redecide']).optional(),
 });
 
 /** Server-side paginated, sorted and filtered line table. */
@@ -19,7 +17,7 @@ export const GET = route<{ projectId: string }>(async ({ req, user, params }) =>
   const { project } = await getProjectAccess({ userId: user.id, projectId: params.projectId, action: 'lines.read' });
   const q = querySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
   if (!q.success) throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
-  const r = await listLines({ projectId: project.id, ...q.data, q: q.data.q || undefined, area: q.data.area || undefined });
+  const r = await listLines({ projectId: project.id, ...q.data });
   // The candidate table is sent trimmed to what the inline pick shows.
   return Response.json({
     ...r,

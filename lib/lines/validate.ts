@@ -1,5 +1,5 @@
 import { pipeByDn, pipeByNps, parseNps } from '@/lib/thermal/pipes';
-import { FIELD_BY_KEY, PURPOSE_CODES, UNIT_CHOICES, VALUE_CHOICES, valueKey, type LineFieldKey, type LineGeometry, type Purpose, type ValueField } from './fields';
+import { FIELD_BY_KEY, PURPOSE_CODES, UNIT_CHOICES, valueKey, type LineFieldKey, type LineGeometry, type Purpose, type ValueField } from './fields';
 import type { ColumnMapping } from './mapping';
 import { columnLetter, type CellValue, type ParsedSheet } from './parse';
 
@@ -145,6 +145,11 @@ export function parseYesNo(v: CellValue): boolean | null {
   return null;
 }
 
+const VALUE_HINT: Record<ValueField, string> = {
+  location: 'indoor or outdoor', accessible: 'yes, no or a height', geometry: 'horizontal pipe, vertical pipe, vessel or flat',
+  purposes: 'H heat conservation, P personnel protection, C condensation control, T process control, F freeze protection',
+};
+
 /** Every field that must be mapped for a line to be read: one sentence naming those missing, or null. */
 export function missingRequired(mapping: ColumnMapping): string | null {
   const has = (k: LineFieldKey) => mapping.columns[k] !== undefined && mapping.columns[k] !== null;
@@ -190,7 +195,7 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
   }
   if (issues.length) return { lines, issues, errorCount: issues.length, warningCount: 0, unknownValues };
   if (sheet.rows.length === 0) {
-    issues.push({ row: sheet.headerRow, column: null, field: null, severity: 'error', message: `Sheet "${sheet.name}" has a header row (row ${sheet.headerRow}) but no lines below it.` });
+    issues.push({ row: sheet.headerRow, column: null, field: null, severity: 'error', message: `Sheet "${sheet.name}" has a header row but no lines below it (header on row ${sheet.headerRow}).` });
     return { lines, issues, errorCount: 1, warningCount: 0, unknownValues };
   }
   const decimalComma = sheet.decimalComma ?? false;
@@ -336,8 +341,7 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
   for (const u of unknown.values()) {
     const label = FIELD_BY_KEY[u.field].label;
     const where = u.count === 1 ? `row ${u.rows[0]}` : `${u.count} rows (${u.rows.join(', ')}${u.count > u.rows.length ? ', …' : ''})`;
-    const choices = VALUE_CHOICES[u.field].map((c) => c.label.toLowerCase()).join(', ');
-    issues.push({ row: u.rows[0], column: u.column, field: u.field, severity: 'error', message: `${label} "${u.value}" in ${where} is not a value Lagwise knows; answer what it means (${choices}) under "Values to answer".` });
+    issues.push({ row: u.rows[0], column: u.column, field: u.field, severity: 'error', message: `${label} "${u.value}" in ${where} is not a word Lagwise knows (${VALUE_HINT[u.field]}); say what it means under "Values to answer".` });
     unknownValues.push(u);
   }
   issues.sort((a, b) => a.row - b.row);

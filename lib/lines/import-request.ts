@@ -35,12 +35,14 @@ export function describeIssue(issue: z.core.$ZodIssue): string {
   if (top === 'draftId') return 'This upload is no longer available; upload the file again.';
   if (top === 'sheetName') return 'Choose the sheet that holds the line list.';
   if (top === 'headerRow') return 'The header row must be a row number of the sheet; choose the row with the column names.';
+  // zod reports keys outside the enum as one issue on the record, with the keys listed.
+  const stray = issue.code === 'unrecognized_keys' ? issue.keys.map((k) => `"${k}"`).join(', ') : null;
   if (top === 'mapping' && part === 'columns') {
-    if (issue.code === 'invalid_key' || !label(key)) return `"${String(key ?? issue.path.at(-1) ?? '')}" is not a field Lagwise reads; it was left out of the mapping — reload the page and map the columns again.`;
+    if (stray || !label(key)) return `${stray ?? `"${String(key ?? '')}"`} ${stray && issue.code === 'unrecognized_keys' && issue.keys.length > 1 ? 'are not fields' : 'is not a field'} Lagwise reads; it was left out of the mapping — reload the page and map the columns again.`;
     return `The column chosen for ${label(key)} is not a column of the sheet; choose one of the sheet's columns or "not in the file".`;
   }
   if (top === 'mapping' && part === 'units') {
-    if (!label(key)) return `Units were given for "${String(key ?? '')}", which is not a field Lagwise reads; reload the page and map the columns again.`;
+    if (stray || !label(key)) return `Units were given for ${stray ?? `"${String(key ?? '')}"`}, which Lagwise does not read; reload the page and map the columns again.`;
     return `The unit chosen for ${label(key)} is not one Lagwise knows; choose one from its list.`;
   }
   if (top === 'mapping' && part === 'values') {

@@ -126,7 +126,7 @@ export function parsePurposes(v: string): Purpose[] | null {
     }
     if (!any) return null;
   }
-  return [...out];
+  return out.size ? [...out] : null;
 }
 
 /** Indoor or outdoor from a word, in the languages above; null when the word is not one of ours. */

@@ -36,6 +36,10 @@ export function decodeText(bytes: Uint8Array): { text: string; encoding: TextEnc
   return { text, encoding };
 }
 
+export class CsvQuoteError extends Error {
+  constructor(readonly row: number) { super(`unclosed quote in row ${row}`); }
+}
+
 export type Delimiter = ',' | ';' | '\t' | '|';
 export const DELIMITER_NAME: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'vertical bar' };
 
@@ -46,8 +50,9 @@ export const DELIMITER_NAME: Record<Delimiter, string> = { ',': 'comma', ';': 's
  */
 export function splitCsv(text: string): { rows: string[][]; delimiter: Delimiter } {
   const r = Papa.parse<string[]>(text, { delimiter: '', delimitersToGuess: [',', ';', '\t', '|'], skipEmptyLines: false });
+  // An unclosed quote swallows the rest of the file into one cell: refuse it, naming the row.
   const fatal = r.errors.find((e) => e.type === 'Quotes');
-  if (fatal && r.data.length <= 1) throw new Error(`quotes: ${fatal.message}`);
+  if (fatal) throw new CsvQuoteError((fatal.row ?? 0) + 1);
   const delimiter = (r.meta.delimiter || ',') as Delimiter;
   return { rows: r.data.map((row) => row.map((c) => String(c ?? '').trim())), delimiter };
 }

@@ -1,5 +1,5 @@
 import ExcelJS from 'exceljs';
-import { decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
+import { CsvQuoteError, decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
 import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
 export type { CellValue, GridRow } from './header';
@@ -142,7 +142,10 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
     if (text.includes('\u0000')) throw new ParseError('This .csv file holds binary data, not text. Save the line list as CSV (or .xlsx) and upload again.');
     let read: ReturnType<typeof fromCsv>;
     try { read = fromCsv(text); }
-    catch { throw new ParseError('This CSV file could not be read: a quoted field is not closed. Check the quotes and upload again.'); }
+    catch (e) {
+      if (e instanceof CsvQuoteError) throw new ParseError(`This CSV file could not be read: a quoted field in row ${e.row} is not closed, so the rest of the file would run into one cell. Check the quotes in that row and upload again.`);
+      throw e;
+    }
     sheets = [read.sheet];
     csv = { encoding, delimiter: read.delimiter };
   } else if (lower.endsWith('.xls')) {

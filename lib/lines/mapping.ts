@@ -52,9 +52,16 @@ const PASSES: ((n: string, syn: string) => boolean)[] = [
 export function matchHeader(header: string): { key: LineFieldKey; pass: number } | null {
   const n = normalizeHeader(header);
   if (!n) return null;
-  for (let p = 0; p < PASSES.length; p++) for (const f of FIELDS) if (f.synonyms.some((s) => PASSES[p](n, s))) return { key: f.key, pass: p };
-  return null;
+  const hit = MATCH_CACHE.get(n);
+  if (hit !== undefined) return hit;
+  let found: { key: LineFieldKey; pass: number } | null = null;
+  for (let p = 0; p < PASSES.length && !found; p++) for (const f of FIELDS) if (f.synonyms.some((s) => PASSES[p](n, s))) { found = { key: f.key, pass: p }; break; }
+  if (MATCH_CACHE.size > 5000) MATCH_CACHE.clear();
+  MATCH_CACHE.set(n, found);
+  return found;
 }
+/** Header detection scores the same texts over and over (a merged title, repeated data words). */
+const MATCH_CACHE = new Map<string, { key: LineFieldKey; pass: number } | null>();
 
 /**
  * Suggests a mapping from header names: exact synonym, then synonym after removing unit words,

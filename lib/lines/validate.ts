@@ -140,7 +140,7 @@ export function parseLocation(v: string): 'indoor' | 'outdoor' | null {
 export function parseYesNo(v: CellValue): boolean | null {
   if (typeof v === 'boolean') return v;
   const s = foldWord(String(v));
-  if (/^(y|yes|true|1|x|accessible|ja|j|oui|si|s|sim|zuganglich|accesible|toegankelijk|wahr|vrai|verdadero)$/.test(s)) return true;
+  if (/^(y|yes|true|1|x|accessible|ja|j|oui|si|sim|zuganglich|accesible|toegankelijk|wahr|vrai|verdadero)$/.test(s)) return true;
   if (/^(n|no|false|0|-|not accessible|nein|non|nee|nao|falsch|faux|falso|nicht zuganglich|inaccessible)$/.test(s)) return false;
   return null;
 }

@@ -2,7 +2,7 @@
  * The line-list fields Lagwise understands, with the header words that usually name them in
  * engineering line lists (our own list of synonyms) and the units a column may be in.
  */
-export type FieldKind = 'text' | 'number' | 'integer' | 'geometry' | 'size' | 'purposes' | 'location' | 'accessible';
+export type FieldKind = 'text' | 'number' | 'integer' | 'geometry' | 'size' | 'purposes' | 'location' | 'accessible' | 'head';
 export type UnitKind = 'temperature' | 'length-mm' | 'length-m' | 'area' | 'pressure' | 'flow' | 'cp' | 'size' | 'none';
 
 export interface FieldDef {
@@ -15,7 +15,7 @@ export interface FieldDef {
 }
 
 export type LineFieldKey =
-  | 'tag' | 'service' | 'area' | 'geometry' | 'nps' | 'outsideDiameter' | 'length' | 'surfaceArea' | 'height'
+  | 'tag' | 'service' | 'area' | 'geometry' | 'nps' | 'outsideDiameter' | 'length' | 'surfaceArea' | 'height' | 'shellDiameter' | 'shellLength' | 'headType'
   | 'normalTemp' | 'maxTemp' | 'steamPressure' | 'flow' | 'fluidCp'
   | 'elbows' | 'tees' | 'valves' | 'flanges' | 'purposes' | 'location' | 'accessible' | 'jacket' | 'notes';
 
@@ -28,7 +28,10 @@ export const FIELDS: FieldDef[] = [
   { key: 'outsideDiameter', label: 'Outside diameter', kind: 'number', unit: 'length-mm', synonyms: ['od', 'outside diameter', 'outer diameter', 'diameter', 'o d', 'aussendurchmesser', 'da', 'diametre exterieur', 'diametro exterior', 'buitendiameter'] },
   { key: 'length', label: 'Length', kind: 'number', unit: 'length-m', synonyms: ['length', 'len', 'run length', 'pipe length', 'pipe run', 'laenge', 'lange', 'rohrlange', 'longueur', 'longitud', 'lengte'] },
   { key: 'surfaceArea', label: 'Surface area', kind: 'number', unit: 'area', synonyms: ['surface area', 'area m2', 'area ft2', 'surface', 'insulated area', 'flache', 'oberflache', 'surface m2', 'superficie', 'oppervlak', 'oppervlakte'] },
-  { key: 'height', label: 'Height', kind: 'number', unit: 'length-m', synonyms: ['height', 'elevation height', 'shell height', 'wall height', 'hohe', 'hauteur', 'altura', 'hoogte'] },
+  { key: 'height', label: 'Height', kind: 'number', unit: 'length-m', synonyms: ['height', 'elevation height', 'wall height', 'hohe', 'hauteur', 'altura', 'hoogte'] },
+  { key: 'shellDiameter', label: 'Vessel shell outside diameter', kind: 'number', unit: 'length-mm', synonyms: ['shell od', 'shell diameter', 'shell outside diameter', 'vessel od', 'vessel diameter', 'tank diameter', 'equipment diameter', 'od shell', 'shell o d', 'manteldurchmesser', 'behalterdurchmesser', 'diametre virole', 'diametro de la envolvente', 'manteldiameter'] },
+  { key: 'shellLength', label: 'Vessel shell length (tangent to tangent) or height', kind: 'number', unit: 'length-m', synonyms: ['tan tan', 'tan to tan', 'tangent to tangent', 't t', 'tt', 't t length', 'tt length', 'tangent length', 'shell length', 'shell height', 'tank height', 'vessel length', 'vessel height', 'mantellange', 'mantelhohe', 'longueur virole', 'hauteur virole', 'longitud entre tangentes', 'mantellengte'] },
+  { key: 'headType', label: 'Vessel head type', kind: 'head', unit: 'none', synonyms: ['head', 'heads', 'head type', 'ends', 'end type', 'roof', 'roof type', 'boden', 'bodenform', 'boden art', 'fond', 'fonds', 'type de fond', 'fondo', 'tipo de fondo', 'bodem', 'bodemtype'] },
   { key: 'normalTemp', label: 'Normal operating temperature', kind: 'number', unit: 'temperature', required: true, synonyms: ['normal temperature', 'operating temperature', 'op temp', 'temp', 'temperature', 'normal temp', 'design temp normal', 'not', 'operating temp', 'oper temp', 'operating temperature normal', 'normal operating temperature', 'betriebstemperatur', 'betriebstemp', 'betriebs temp', 'temperatur', 'temp normal', 'temperature de service', 'temperature', 'temperatura de operacion', 'temperatura', 'bedrijfstemperatuur', 'temperatuur'] },
   { key: 'maxTemp', label: 'Maximum operating temperature', kind: 'number', unit: 'temperature', synonyms: ['max temperature', 'maximum temperature', 'max temp', 'mot', 'max operating temperature', 'upset temperature', 'design temp', 'design temperature', 'max operating temp', 'max oper temp', 'maximaltemperatur', 'max temperatur', 'auslegungstemperatur', 'temperature maximale', 'temperatura maxima', 'maximale temperatuur'] },
   { key: 'steamPressure', label: 'Steam pressure (gauge)', kind: 'number', unit: 'pressure', synonyms: ['steam pressure', 'pressure', 'steam press', 'press', 'dampfdruck', 'druck', 'pression', 'presion', 'druk'] },
@@ -51,7 +54,7 @@ export const FIELD_BY_KEY = Object.fromEntries(FIELDS.map((f) => [f.key, f])) as
 export const UNIT_CHOICES: Record<UnitKind, string[]> = {
   temperature: ['°C', '°F'],
   'length-mm': ['mm', 'in'],
-  'length-m': ['m', 'ft'],
+  'length-m': ['m', 'ft', 'mm'],
   area: ['m²', 'ft²'],
   pressure: ['bar(g)', 'psig', 'kPa(g)'],
   flow: ['kg/s', 'kg/h', 't/h', 'lb/h'],
@@ -79,14 +82,18 @@ export const isSurfaceGeometry = (g: string) => g === 'vessel' || g === 'flat';
  * location "Pipe rack", a purpose "ET") is asked once in the mapping step and remembered with the
  * column mapping; the answers are keyed by the cell text in lower case, trimmed.
  */
-export type ValueField = 'location' | 'purposes' | 'geometry' | 'accessible';
-export const VALUE_FIELDS: ValueField[] = ['geometry', 'purposes', 'location', 'accessible'];
+export type ValueField = 'location' | 'purposes' | 'geometry' | 'accessible' | 'headType';
+export const VALUE_FIELDS: ValueField[] = ['geometry', 'headType', 'purposes', 'location', 'accessible'];
 export const VALUE_CHOICES: Record<ValueField, { value: string; label: string }[]> = {
   location: [{ value: 'outdoor', label: 'Outdoor' }, { value: 'indoor', label: 'Indoor' }],
   accessible: [{ value: 'yes', label: 'Accessible to people' }, { value: 'no', label: 'Out of reach' }],
   geometry: [
     { value: 'horizontal-pipe', label: 'Horizontal pipe' }, { value: 'vertical-pipe', label: 'Vertical pipe' },
     { value: 'vessel', label: 'Vessel' }, { value: 'flat', label: 'Flat surface' },
+  ],
+  headType: [
+    { value: 'ellipsoidal', label: '2:1 semi-ellipsoidal heads' }, { value: 'hemispherical', label: 'Hemispherical heads' },
+    { value: 'torispherical', label: 'Torispherical (F&D) heads' }, { value: 'flat', label: 'Flat ends' }, { value: 'cone-roof', label: 'Cone roof (tank)' },
   ],
   purposes: [
     { value: 'H', label: 'Heat conservation' }, { value: 'P', label: 'Personnel protection' }, { value: 'H,P', label: 'Heat conservation + personnel protection' },

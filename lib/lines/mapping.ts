@@ -9,9 +9,9 @@ export interface ColumnMapping {
   values?: ValueAnswers;
 }
 
-/** Lower-case words only, accents dropped: "Op. Temp [°F]" → "op temp f", "Länge" → "lange". */
+/** Lower-case words only, accents dropped: "Op. Temp [°F]" → "op temp f", "Länge" → "lange", "T/T" → "tt". */
 export function normalizeHeader(h: string): string {
-  return String(h ?? '').toLowerCase().replace(/°/g, ' ').replace(/[²]/g, '2').replace(/ß/g, 'ss')
+  return String(h ?? '').toLowerCase().replace(/\bt\s*[/-]\s*t\b/g, 'tt').replace(/°/g, ' ').replace(/[²]/g, '2').replace(/ß/g, 'ss')
     .normalize('NFD').replace(/[\u0300-\u036f]/g, '').replace(/[^a-z0-9]+/g, ' ').trim();
 }
 

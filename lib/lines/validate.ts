@@ -2,6 +2,7 @@ import { pipeByDn, pipeByNps, parseNps } from '@/lib/thermal/pipes';
 import { FIELD_BY_KEY, PURPOSE_CODES, UNIT_CHOICES, valueKey, type LineFieldKey, type LineGeometry, type Purpose, type ValueField } from './fields';
 import type { ColumnMapping } from './mapping';
 import { columnLetter, type CellValue, type ParsedSheet } from './parse';
+import { HEAD_LABEL, parseHeadType, vesselAreaM2, type HeadType } from './vessel-area';
 
 /** One line of the line list in canonical SI units. */
 export interface LineInput {
@@ -148,6 +149,7 @@ export function parseYesNo(v: CellValue): boolean | null {
 const VALUE_HINT: Record<ValueField, string> = {
   location: 'indoor or outdoor', accessible: 'yes, no or a height', geometry: 'horizontal pipe, vertical pipe, vessel or flat',
   purposes: 'H heat conservation, P personnel protection, C condensation control, T process control, F freeze protection',
+  headType: '2:1 semi-ellipsoidal, hemispherical, torispherical, flat or cone roof',
 };
 
 /** Every field that must be mapped for a line to be read: one sentence naming those missing, or null. */
@@ -156,7 +158,7 @@ export function missingRequired(mapping: ColumnMapping): string | null {
   const missing: string[] = [];
   if (!has('tag')) missing.push(`"${FIELD_BY_KEY.tag.label}"`);
   if (!has('normalTemp')) missing.push(`"${FIELD_BY_KEY.normalTemp.label}"`);
-  if (!has('nps') && !has('outsideDiameter') && !has('surfaceArea')) missing.push(`a size ("${FIELD_BY_KEY.nps.label}" or "${FIELD_BY_KEY.outsideDiameter.label}" for pipes, "${FIELD_BY_KEY.surfaceArea.label}" for vessels and flat surfaces)`);
+  if (!has('nps') && !has('outsideDiameter') && !has('surfaceArea') && !has('shellDiameter')) missing.push(`a size ("${FIELD_BY_KEY.nps.label}" or "${FIELD_BY_KEY.outsideDiameter.label}" for pipes, "${FIELD_BY_KEY.surfaceArea.label}" or "${FIELD_BY_KEY.shellDiameter.label}" for vessels, "${FIELD_BY_KEY.surfaceArea.label}" for flat surfaces)`);
   if (!missing.length) return null;
   const list = missing.length === 1 ? missing[0] : `${missing.slice(0, -1).join(', ')} and ${missing[missing.length - 1]}`;
   return `No column is mapped to ${list}, which ${missing.length === 1 ? 'is' : 'are'} required. Choose the column${missing.length === 1 ? '' : 's'} in the mapping.`;
@@ -190,7 +192,7 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
     if (!f || u === undefined || u === '' || f.unit === 'none') continue;
     if (!UNIT_CHOICES[f.unit].includes(u)) sheetError(k, `"${u}" is not a unit for "${f.label}"; use ${UNIT_CHOICES[f.unit].join(', ')}.`);
   }
-  if (col('length') === undefined && (col('nps') !== undefined || col('outsideDiameter') !== undefined) && col('surfaceArea') === undefined) {
+  if (col('length') === undefined && (col('nps') !== undefined || col('outsideDiameter') !== undefined) && col('surfaceArea') === undefined && col('shellDiameter') === undefined) {
     sheetError('length', `No column is mapped to "${FIELD_BY_KEY.length.label}"; pipes need their length. Choose the length column in the mapping.`);
   }
   if (issues.length) return { lines, issues, errorCount: issues.length, warningCount: 0, unknownValues };
@@ -210,6 +212,7 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
   };
 
   const seen = new Map<string, number>();
+  let headAssumed = false;
   for (const { row, cells } of sheet.rows) {
     let bad = false;
     const err = (k: LineFieldKey | null, message: string) => { bad = true; issues.push({ row, column: k && col(k) !== undefined ? columnLetter(col(k)!) : null, field: k, severity: 'error', message }); };
@@ -228,7 +231,8 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
       const n = parseNumber(v, decimalComma);
       if (n === 'invalid') { err(k, `${FIELD_BY_KEY[k].label} must be a number; the cell holds "${String(v)}".`); return null; }
       if (n === null) return null;
-      const si = convertToSI(n, mapping.units[k]);
+      // A length in metres may be written in millimetres (equipment lists give T/T lengths in mm).
+      const si = FIELD_BY_KEY[k].unit === 'length-m' && mapping.units[k] === 'mm' ? n / 1000 : convertToSI(n, mapping.units[k]);
       if (o.integer && !Number.isInteger(n)) { err(k, `${FIELD_BY_KEY[k].label} must be a whole number; the cell holds ${n}.`); return null; }
       if (o.min !== undefined && si < o.min) { err(k, `${FIELD_BY_KEY[k].label} ${n} ${mapping.units[k] ?? ''} is below the allowed minimum.`.replace(/ {2}/g, ' ')); return null; }
       if (o.max !== undefined && si > o.max) { err(k, `${FIELD_BY_KEY[k].label} ${n} ${mapping.units[k] ?? ''} is above the allowed maximum.`.replace(/ {2}/g, ' ')); return null; }
@@ -253,9 +257,37 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
     const npsText = text('nps');
     let od = num('outsideDiameter', { min: 5, max: 10000 });
     const lengthM = num('length', { min: 0, max: 100000 });
-    const surfaceAreaM2 = num('surfaceArea', { min: 0, max: 1e6 });
-    const heightM = num('height', { min: 0, max: 500 });
-    if (!gText) geometry = npsText || od !== null ? 'horizontal-pipe' : surfaceAreaM2 !== null ? (heightM !== null ? 'vessel' : 'flat') : null;
+    let surfaceAreaM2 = num('surfaceArea', { min: 0, max: 1e6 });
+    let heightM = num('height', { min: 0, max: 500 });
+    // Equipment given by its shell: outside diameter, length (tangent to tangent) or height, head type.
+    const shellMm = num('shellDiameter', { min: 50, max: 100000 });
+    if (shellMm !== null) {
+      const horizontal = geometry === 'horizontal-pipe';
+      if (geometry === 'flat') err('geometry', `"${gText}" is a flat surface, but the row gives a vessel shell diameter; clear one of them.`);
+      else if (geometry || !gText) geometry = 'vessel';
+      const shellL = num('shellLength', { min: 0, max: 500 });
+      const hText = text('headType');
+      let head: HeadType | null = null;
+      if (hText) {
+        head = (answer('headType', hText) as HeadType | undefined) ?? parseHeadType(hText);
+        if (!head) { bad = true; noteUnknown('headType', hText, row); }
+      } else {
+        head = 'ellipsoidal';
+        if (col('headType') !== undefined) warn('headType', 'No head type given; 2:1 semi-ellipsoidal heads assumed for the area.');
+        else if (!headAssumed) { headAssumed = true; issues.push({ row: sheet.headerRow, column: null, field: 'headType', severity: 'warning', message: 'No column gives the vessels\' head type; 2:1 semi-ellipsoidal heads are assumed for their areas.' }); }
+      }
+      if (shellL === null && raw('shellLength') === null) err(col('shellLength') === undefined ? 'shellDiameter' : 'shellLength', 'A vessel given by its shell diameter needs its shell length (tangent to tangent) or height.');
+      if (!bad && shellL !== null && head && geometry === 'vessel') {
+        const area = vesselAreaM2(shellMm / 1000, shellL, head);
+        if (surfaceAreaM2 !== null && Math.abs(surfaceAreaM2 - area) > 0.1 * area) warn('surfaceArea', `The area given (${surfaceAreaM2.toFixed(1)} m²) differs from the shell and ${HEAD_LABEL[head].toLowerCase()} ${head === 'cone-roof' ? '' : 'heads '}(${area.toFixed(1)} m²); the area given was used.`);
+        surfaceAreaM2 ??= area;
+        if (horizontal) {
+          heightM ??= shellMm / 1000;
+          warn('geometry', 'A horizontal vessel is solved as a vertical shell of the same outside area, as tall as its diameter (horizontal vessels are not a geometry of their own yet).');
+        } else heightM ??= shellL;
+      }
+    }
+    if (!gText && shellMm === null) geometry = npsText || od !== null ? 'horizontal-pipe' : surfaceAreaM2 !== null ? (heightM !== null ? 'vessel' : 'flat') : null;
     if (!geometry && !gText) err('geometry', 'Give the geometry, or a size (NPS or outside diameter) for a pipe, or an area for a vessel or flat surface.');
 
     let nps: string | null = null;
@@ -276,8 +308,8 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
     } else if (npsText === '' && raw('nps') === null && !Number.isNaN(parseNps(''))) { /* no size given */ }
     if (pipe && od === null && !bad) err(npsText ? 'nps' : 'outsideDiameter', 'A pipe needs its NPS or outside diameter.');
     if (pipe && lengthM === null && !bad) err('length', 'A pipe needs its length.');
-    if (!pipe && geometry && surfaceAreaM2 === null) err('surfaceArea', `A ${geometry === 'vessel' ? 'vessel' : 'flat surface'} needs its surface area.`);
-    if (geometry === 'vessel' && heightM === null) err('height', 'A vessel needs its height.');
+    if (!pipe && geometry && surfaceAreaM2 === null && shellMm === null) err('surfaceArea', `A ${geometry === 'vessel' ? 'vessel' : 'flat surface'} needs its surface area.`);
+    if (geometry === 'vessel' && heightM === null && shellMm === null) err('height', 'A vessel needs its height.');
 
     const pText = text('purposes');
     let purposes: Purpose[] = [];

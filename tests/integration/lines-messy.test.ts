@@ -11,7 +11,7 @@ import { columnMappings, importDrafts, lineListRevisions, lines, projects } from
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
 import { expectAppError } from '../support/errors';
-import { bomCommaCsv, problemsWorkbook, semicolon1252Csv, tabUtf16Csv, titleRowsWorkbook, unitsRowWorkbook } from '../fixtures/messy-lines';
+import { bomCommaCsv, equipmentWorkbook, problemsWorkbook, semicolon1252Csv, tabUtf16Csv, titleRowsWorkbook, unitsRowWorkbook } from '../fixtures/messy-lines';
 
 let userId = '', orgId = '';
 async function newProject(code: string) {
@@ -90,8 +90,27 @@ describe('a US client workbook with title rows, its own location words and an eq
     const s = d.sheets[0];
     // Row 2 (the revision row) as header: nothing maps, so the required fields are named.
     const p = await store.previewDraft({ projectId: pid, draftId: d.draftId, sheetName: s.name, headerRow: 2, mapping: { columns: {}, units: {} } });
-    expect(p.issues.map((i) => i.message)).toEqual(['No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size ("Nominal size (NPS or DN)" or "Outside diameter" for pipes, "Surface area" for vessels and flat surfaces), which are required. Choose the columns in the mapping.']);
+    expect(p.issues.map((i) => i.message)).toEqual(['No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size ("Nominal size (NPS or DN)" or "Outside diameter" for pipes, "Surface area" or "Vessel shell outside diameter" for vessels, "Surface area" for flat surfaces), which are required. Choose the columns in the mapping.']);
     await expectAppError(store.previewDraft({ projectId: pid, draftId: d.draftId, sheetName: s.name, headerRow: 3, mapping: s.suggested }), 'invalid', 'Row 3 of sheet "Line designation" is empty or beyond its end; choose a row with the column names as the header row.');
+  });
+});
+
+describe('an equipment list by shell dimensions', () => {
+  it('imports vessels and a tank with computed areas once the client\'s head word is answered, and solves them', async () => {
+    const pid = await newProject('MESSY-SHELL');
+    const d = await store.createDraft({ projectId: pid, userId, fileName: 'equipment.xlsx', bytes: await equipmentWorkbook() });
+    const s = d.sheets[0];
+    expect([s.headerRow, s.rowCount]).toEqual([3, 4]);
+    const choice = { projectId: pid, draftId: d.draftId, sheetName: s.name, headerRow: 3, mapping: s.suggested };
+    expect((await store.previewDraft(choice)).unknownValues.map((u) => [u.field, u.value])).toEqual([['headType', 'Dished']]);
+    await store.commitDraft({ ...choice, mapping: { ...s.suggested, values: { headType: { dished: 'torispherical' } } }, userId });
+    expect((await stored(pid)).map((l) => [l.tag, l.geometry, l.areaM2, l.heightM, l.tempC])).toEqual([
+      ['40-C-201', 'vessel', 40.841, 12, 180],
+      ['40-D-401', 'vessel', 18.325, 3, 150],
+      ['40-T-301', 'vessel', 330.02, 8, 80],
+      ['40-V-101', 'vessel', 46.371, 2, 120],
+    ]);
+    expect((await store.solveProject({ projectId: pid })).solved).toBe(4);
   });
 });
 

@@ -8,8 +8,9 @@ import { parseLocation, parseNumber, parsePurposes, parseYesNo, parseGeometry, v
 import { readImportRequest } from '@/lib/lines/import-request';
 import { checkLineList, parseArgs } from '@/lib/lines/check-cli';
 import { AppError } from '@/lib/errors';
+import { coneRoofAreaM2, ellipsoidalHeadAreaM2, hemisphericalHeadAreaM2, parseHeadType, torisphericalHeadAreaM2, vesselAreaM2 } from '@/lib/lines/vessel-area';
 import {
-  BOM_COMMA_TEXT, SEMICOLON_1252_TEXT, TAB_UTF16_TEXT, bomCommaCsv, problemsWorkbook, semicolon1252Csv, tabUtf16Csv, titleRowsWorkbook, unitsRowWorkbook,
+  equipmentWorkbook, BOM_COMMA_TEXT, SEMICOLON_1252_TEXT, TAB_UTF16_TEXT, bomCommaCsv, problemsWorkbook, semicolon1252Csv, tabUtf16Csv, titleRowsWorkbook, unitsRowWorkbook,
 } from '../fixtures/messy-lines';
 
 const sheetOf = async (name: string, bytes: Buffer, sheet?: string) => {
@@ -192,8 +193,49 @@ describe('partial mapping and the request sentences', () => {
     }
   });
   it('names the required fields that are not mapped, in one sentence', () => {
-    expect(missingRequired({ columns: { service: 1 }, units: {} })).toBe('No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size ("Nominal size (NPS or DN)" or "Outside diameter" for pipes, "Surface area" for vessels and flat surfaces), which are required. Choose the columns in the mapping.');
+    expect(missingRequired({ columns: { service: 1 }, units: {} })).toBe('No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size ("Nominal size (NPS or DN)" or "Outside diameter" for pipes, "Surface area" or "Vessel shell outside diameter" for vessels, "Surface area" for flat surfaces), which are required. Choose the columns in the mapping.');
     expect(missingRequired({ columns: { tag: 0, normalTemp: 1, surfaceArea: 2 }, units: {} })).toBeNull();
+  });
+});
+
+describe('equipment by shell dimensions', () => {
+  it('head and roof areas by their formulas (worked checks in vessel-area.ts)', () => {
+    expect(ellipsoidalHeadAreaM2(1)).toBeCloseTo(1.08399, 5); // [X] half oblate spheroid a = 0.5, b = 0.25
+    expect(hemisphericalHeadAreaM2(1)).toBeCloseTo(Math.PI / 2, 12);
+    expect(torisphericalHeadAreaM2(1)).toBeCloseTo(0.93058, 5); // [X] R = D, r = 0.06 D
+    expect(coneRoofAreaM2(10)).toBeCloseTo(78.693, 3); // [X] slope 1:16
+    // Limit: a crown of radius D/2 meets the knuckle at the equator, and the head is a hemisphere.
+    expect(torisphericalHeadAreaM2(1, 0.5, 0.06)).toBeCloseTo(Math.PI / 2, 9);
+    expect(vesselAreaM2(2, 6, 'ellipsoidal')).toBeCloseTo(Math.PI * 12 + 8 * 1.08399, 3);
+    expect(vesselAreaM2(1, 1, 'flat')).toBeCloseTo(Math.PI * 1.5, 12);
+    expect(['2:1 SE', '2:1 semi-ellipsoidal', 'Hemi', 'F&D', 'Klöpper', 'flat', 'Kegeldach', 'Dished'].map(parseHeadType))
+      .toEqual(['ellipsoidal', 'ellipsoidal', 'hemispherical', 'torispherical', 'torispherical', 'flat', 'cone-roof', null]);
+  });
+  it('an equipment list by shell OD, T/T length in mm, orientation and head type: areas computed, "Dished" asked', async () => {
+    const { sheet } = await sheetOf('eq.xlsx', await equipmentWorkbook());
+    const mapping = suggestMapping(sheet.headers);
+    expect(sheet.headerRow).toBe(3);
+    expect(mapping).toMatchObject({ columns: { tag: 0, service: 1, geometry: 2, shellDiameter: 3, shellLength: 4, headType: 5, normalTemp: 6, purposes: 7 }, units: { shellDiameter: 'mm', shellLength: 'mm' } });
+    expect(validateSheet(sheet, mapping).unknownValues.map((u) => [u.field, u.value, u.rows])).toEqual([['headType', 'Dished', [7]]]);
+    const v = validateSheet(sheet, { ...mapping, values: { headType: { dished: 'torispherical' } } });
+    expect(v.errorCount).toBe(0);
+    expect(v.lines.map((l) => [l.tag, l.geometry, +l.surfaceAreaM2!.toFixed(3), l.heightM])).toEqual([
+      ['40-V-101', 'vessel', 46.371, 2], // π·2·6 + 2 · 1.08399 · 2² ; horizontal: as tall as its diameter
+      ['40-C-201', 'vessel', 40.841, 12], // π·1·12 + π·1²
+      ['40-T-301', 'vessel', 330.02, 8], // π·10·8 + cone roof 78.693
+      ['40-D-401', 'vessel', 18.325, 3], // π·1.5·3 + 2 · 0.93058 · 1.5²
+    ]);
+    expect(v.issues).toEqual([{ row: 4, column: 'C', field: 'geometry', severity: 'warning', message: 'A horizontal vessel is solved as a vertical shell of the same outside area, as tall as its diameter (horizontal vessels are not a geometry of their own yet).' }]);
+  });
+  it('a shell without a length is refused with one sentence; a missing head type is assumed once', () => {
+    const s: ParsedSheet = { name: 'E', hidden: false, headerRow: 1, headers: ['Tag', 'Shell OD (mm)', 'Shell height (m)', 'Temp'], rows: [{ row: 2, cells: ['V-1', 1000, null, 100] }, { row: 3, cells: ['V-2', 1000, 4, 100] }], formulaCells: [], mergedCells: [] };
+    const v = validateSheet(s, suggestMapping(s.headers));
+    expect(v.issues.map((i) => `${i.row} ${i.column} ${i.severity}: ${i.message}`)).toEqual([
+      "1 null warning: No column gives the vessels' head type; 2:1 semi-ellipsoidal heads are assumed for their areas.",
+      '2 C error: A vessel given by its shell diameter needs its shell length (tangent to tangent) or height.',
+      '3 null warning: No purpose given; assumed heat conservation and personnel protection (hot line).',
+    ]);
+    expect(v.lines.map((l) => [l.tag, +l.surfaceAreaM2!.toFixed(4), l.heightM])).toEqual([['V-2', +(Math.PI * 4 + 2 * 1.0839853).toFixed(4), 4]]);
   });
 });
 

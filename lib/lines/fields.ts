@@ -76,6 +76,11 @@ export type LineGeometry = 'horizontal-pipe' | 'vertical-pipe' | 'vessel' | 'fla
 export const GEOMETRY_LABEL: Record<LineGeometry, string> = { 'horizontal-pipe': 'Horizontal pipe', 'vertical-pipe': 'Vertical pipe', vessel: 'Vessel', flat: 'Flat surface' };
 /** Vessels and flat surfaces: sized by area, heat loss per m², blanket or board rather than pipe sections. */
 export const isSurfaceGeometry = (g: string) => g === 'vessel' || g === 'flat';
+/**
+ * A pipe imported without its length (blank or "TBD" in the line list): solved per metre, left out
+ * of the heat-loss totals and of the bill until a revision gives the length. The one rule for it.
+ */
+export const isIncompleteLine = (l: { geometry: string; lengthM: number | null }) => !isSurfaceGeometry(l.geometry) && l.lengthM === null;
 
 /**
  * Fields whose cells hold words from a small vocabulary. A client's own word for one of them (a

@@ -256,7 +256,10 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
     if (gText && !geometry) { bad = true; noteUnknown('geometry', gText, row); }
     const npsText = text('nps');
     let od = num('outsideDiameter', { min: 5, max: 10000 });
-    const lengthM = num('length', { min: 0, max: 100000 });
+    // "TBD" and the like mean the length is not known yet: the line imports as incomplete.
+    const lenCell = col('length') === undefined ? null : cells[col('length')!] ?? null;
+    const lengthTbd = typeof lenCell === 'string' && /^(tbd|tba|tbc|n\/?a|\?+|-+|—|later|offen|a definir|à définir|a confirmar|por definir|nnb)$/i.test(lenCell.trim());
+    const lengthM = lengthTbd ? null : num('length', { min: 0, max: 100000 });
     let surfaceAreaM2 = num('surfaceArea', { min: 0, max: 1e6 });
     let heightM = num('height', { min: 0, max: 500 });
     // Equipment given by its shell: outside diameter, length (tangent to tangent) or height, head type.
@@ -307,7 +310,7 @@ export function validateSheet(sheet: ParsedSheet, mapping: ColumnMapping, jacket
       }
     } else if (npsText === '' && raw('nps') === null && !Number.isNaN(parseNps(''))) { /* no size given */ }
     if (pipe && od === null && !bad) err(npsText ? 'nps' : 'outsideDiameter', 'A pipe needs its NPS or outside diameter.');
-    if (pipe && lengthM === null && !bad) err('length', 'A pipe needs its length.');
+    if (pipe && lengthM === null && !bad) warn('length', `${lengthTbd ? `Length "${String(lenCell).trim()}"` : 'No length'}: the line imports as incomplete — solved per metre, left out of the heat-loss totals and the bill until a revision gives its length.`);
     if (!pipe && geometry && surfaceAreaM2 === null && shellMm === null) err('surfaceArea', `A ${geometry === 'vessel' ? 'vessel' : 'flat surface'} needs its surface area.`);
     if (geometry === 'vessel' && heightM === null && shellMm === null) err('height', 'A vessel needs its height.');
 

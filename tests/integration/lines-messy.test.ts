@@ -156,8 +156,34 @@ describe('CSV files as they come', () => {
   });
 });
 
+describe('a pipe without its length yet', () => {
+  it('imports as incomplete: solved per metre, left out of the budget totals and the bill', async () => {
+    const pid = await newProject('MESSY-TBD');
+    const csv = Buffer.from('Line,NPS,Length (m),Temp (°C),Purpose\nT-1,4,50,180,H\nT-2,4,TBD,180,H\nT-3,2,,180,H\n');
+    const d = await store.createDraft({ projectId: pid, userId, fileName: 'tbd.csv', bytes: csv });
+    const choice = { projectId: pid, draftId: d.draftId, sheetName: 'CSV', mapping: d.sheets[0].suggested };
+    const p = await store.previewDraft(choice);
+    expect(p.issues.map((i) => `${i.row} ${i.column} ${i.severity}: ${i.message}`)).toEqual([
+      '3 C warning: Length "TBD": the line imports as incomplete — solved per metre, left out of the heat-loss totals and the bill until a revision gives its length.',
+      '4 C warning: No length: the line imports as incomplete — solved per metre, left out of the heat-loss totals and the bill until a revision gives its length.',
+    ]);
+    await store.commitDraft({ ...choice, userId });
+    expect((await stored(pid)).map((l) => [l.tag, l.lengthM])).toEqual([['T-1', 50], ['T-2', null], ['T-3', null]]);
+    expect((await store.solveProject({ projectId: pid })).solved).toBe(3);
+    await store.acceptRecommendations({ projectId: pid, userId });
+    const { dashboard } = await import('@/lib/budget/store');
+    const dash = await dashboard({ projectId: pid });
+    expect([dash.lineCount, dash.incompleteCount]).toEqual([1, 2]);
+    const { collectBillLines } = await import('@/lib/boq/store');
+    const bill = await collectBillLines({ projectId: pid });
+    expect(bill.map((b) => [b.tag, b.status]).sort()).toEqual([
+      ['T-1', { counted: true }], ['T-2', { counted: false, reason: 'no length yet (incomplete line)' }], ['T-3', { counted: false, reason: 'no length yet (incomplete line)' }],
+    ]);
+  });
+});
+
 describe('refusals name row, column and value, and never half-write', () => {
-  it('reducer, blank temperature, duplicate tag and TBD length refuse the whole file', async () => {
+  it('reducer, blank temperature and duplicate tag refuse the whole file', async () => {
     const pid = await newProject('MESSY-BAD');
     const ok = await store.createDraft({ projectId: pid, userId, fileName: 'units.xlsx', bytes: await unitsRowWorkbook() });
     await store.commitDraft({ projectId: pid, draftId: ok.draftId, sheetName: 'Lines', mapping: ok.sheets[0].suggested, userId });
@@ -165,7 +191,7 @@ describe('refusals name row, column and value, and never half-write', () => {
     expect(before.map((l) => [l.tag, l.nps, l.lengthM, l.tempC])).toEqual([['U-1', '2', 30.48, 100], ['U-2', '6', 10, 200]]);
     const d = await store.createDraft({ projectId: pid, userId, fileName: 'problems.xlsx', bytes: await problemsWorkbook() });
     await expectAppError(store.commitDraft({ projectId: pid, draftId: d.draftId, sheetName: 'Lines', mapping: d.sheets[0].suggested, userId }), 'invalid',
-      'Nothing was imported: 4 problems to fix first (row 4, column B: "2x1" is a reducer (two sizes); give the line one size, or split it into a line per size.; row 5, column D: The normal operating temperature is empty.; row 7, column A: Duplicate tag "P-3": also in row 6.; row 8, column C: Length must be a number; the cell holds "TBD".).');
+      'Nothing was imported: 3 problems to fix first (row 4, column B: "2x1" is a reducer (two sizes); give the line one size, or split it into a line per size.; row 5, column D: The normal operating temperature is empty.; row 7, column A: Duplicate tag "P-3": also in row 6.).');
     expect(await stored(pid)).toEqual(before);
     expect(await db.select().from(lineListRevisions).where(eq(lineListRevisions.projectId, pid))).toHaveLength(1);
     const [draft] = await db.select().from(importDrafts).where(eq(importDrafts.id, d.draftId));

@@ -7,6 +7,7 @@ import { actorName, writeAudit } from '@/lib/audit';
 import { getDesignBasis } from '@/lib/lines/store';
 import { currentFlags } from '@/lib/review/store';
 import { catalogueOf } from '@/lib/lines/catalogue';
+import { isIncompleteLine } from '@/lib/lines/fields';
 import { billWorkbook } from './workbook';
 import { computeQuantities, quantityDelta, type BillQuantities, type BoqLine } from './quantities';
 
@@ -31,7 +32,8 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     const rv = review.get(line.id);
     const current = rv && rv.disposition && rv.line_input_version === line.inputVersion && rv.design_version === (design?.version ?? 0);
     let status: BoqLine['status'] = { counted: true };
-    if (!design) status = { counted: false, reason: 'no thickness chosen' };
+    if (isIncompleteLine(line)) status = { counted: false, reason: 'no length yet (incomplete line)' };
+    else if (!design) status = { counted: false, reason: 'no thickness chosen' };
     else if (design.needsRedecision) status = { counted: false, reason: 'needs re-decision after a line-list revision' };
     else if (flags.length && !(current && rv!.status === 'signed-off')) status = { counted: false, reason: 'awaiting safety sign-off' };
     const reviewStatus = !rv ? (flags.length ? 'flagged, not reviewed' : 'not flagged') : `${rv.status === 'signed-off' ? 'signed off' : 'in review'}${rv.disposition ? `: ${rv.disposition}` : ''}${current ? '' : ' (re-opened)'}`;

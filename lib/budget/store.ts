@@ -5,6 +5,7 @@ import { db } from '@/db/client';
 import { budgets, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { getDesignBasis } from '@/lib/lines/store';
+import { isIncompleteLine } from '@/lib/lines/fields';
 
 export const budgetSchema = z.object({
   totalKW: z.coerce.number({ error: 'Total budget must be a number (kW)' }).refine(Number.isFinite, { error: 'Total budget must be a number (kW)' }).min(0, { error: 'Total budget cannot be negative' }),
@@ -53,12 +54,14 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
   const price = whatIf.energyPricePerKWh ?? econ.energyPricePerKWh;
   const hours = whatIf.hoursPerYear ?? econ.hoursPerYear;
   const policy = whatIf.policy ?? 'chosen';
-  const rows = await db.select({ tag: lines.tag, area: lines.area, result: lineResults, chosenMm: lineDesigns.thicknessMm }).from(lines)
+  const rows = await db.select({ tag: lines.tag, area: lines.area, geometry: lines.geometry, lengthM: lines.lengthM, result: lineResults, chosenMm: lineDesigns.thicknessMm }).from(lines)
     .innerJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(eq(lines.projectId, projectId));
   const perArea = new Map<string, { bareKW: number; designedKW: number }>();
   const perLine: { tag: string; area: string; designedKW: number; bareKW: number; thicknessMm: number | null }[] = [];
-  let coldGainKW = 0;
-  for (const { tag, area, result, chosenMm } of rows) {
+  let coldGainKW = 0, incompleteCount = 0;
+  for (const { tag, area, geometry, lengthM, result, chosenMm } of rows) {
+    // A pipe without its length yet is solved per metre but counts in no total.
+    if (isIncompleteLine({ geometry, lengthM })) { incompleteCount++; continue; }
     const cands = result.candidates as Cand[];
     if (!cands.length) continue;
     const extent = cands[0][2] !== 0 ? result.bareHeatW / cands[0][2] : 0; // metres of pipe, or m² of surface
@@ -95,6 +98,6 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
   return {
     policy, price, hours,
     bare: totals(bareKW), designed, savings: totals(bareKW - designedKW), coldGainKW,
-    areas, top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20), budget, warnings, lineCount: perLine.length,
+    areas, top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20), budget, warnings, lineCount: perLine.length, incompleteCount,
   };
 }

@@ -1,8 +1,24 @@
 import ExcelJS from 'exceljs';
-import { Readable } from 'node:stream';
+import { CsvQuoteError, decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
+import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
-export type CellValue = string | number | boolean | null;
+export type { CellValue, GridRow } from './header';
 
+/** A sheet as read and stored in the draft: every non-empty row, and the header row found in it. */
+export interface StoredSheet {
+  name: string;
+  hidden: boolean;
+  /** Non-empty rows with their spreadsheet row numbers, title and notes rows included. */
+  grid: GridRow[];
+  /** The detected header row (1-based spreadsheet row). */
+  headerRow: number;
+  formulaCells: string[];
+  mergedCells: string[];
+  /** Numbers in text cells use a decimal comma ("12,5"); CSV only. */
+  decimalComma?: boolean;
+}
+
+/** A sheet seen from one header row: what mapping and validation work on. */
 export interface ParsedSheet {
   name: string;
   hidden: boolean;
@@ -14,9 +30,31 @@ export interface ParsedSheet {
   /** Cells whose value came from a formula's cached result, and merged cells: "B7". */
   formulaCells: string[];
   mergedCells: string[];
+  /** Rows of the header (two when a units row sits under the names). */
+  headerRows?: number[];
+  decimalComma?: boolean;
 }
 
-export interface ParsedFile { kind: 'xlsx' | 'csv'; sheets: ParsedSheet[] }
+export interface ParsedFile {
+  kind: 'xlsx' | 'csv';
+  sheets: StoredSheet[];
+  /** CSV only: the encoding and field separator found. */
+  encoding?: TextEncodingName;
+  delimiter?: Delimiter;
+}
+
+/** The sheet seen from `headerRow` (the detected one by default): header names and the data rows below. */
+export function viewSheet(s: StoredSheet, headerRow = s.headerRow): ParsedSheet {
+  const v = headerView(s.grid, headerRow);
+  return {
+    name: s.name, hidden: s.hidden, headerRow, headerRows: v.headerRows, headers: v.headers, rows: s.grid.slice(v.dataStart),
+    formulaCells: s.formulaCells, mergedCells: s.mergedCells, decimalComma: s.decimalComma,
+  };
+}
+
+export function describeCsv(f: ParsedFile): string | null {
+  return f.kind === 'csv' && f.encoding && f.delimiter ? `${f.encoding}, ${DELIMITER_NAME[f.delimiter]}-separated` : null;
+}
 
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
 export const MAX_ROWS = 50_000;
@@ -47,8 +85,8 @@ function plain(v: unknown): { value: CellValue; formula: boolean } {
   return { value: String(v), formula: false };
 }
 
-function fromWorksheet(ws: ExcelJS.Worksheet): ParsedSheet {
-  const grid: { row: number; cells: CellValue[] }[] = [];
+function fromWorksheet(ws: ExcelJS.Worksheet): StoredSheet {
+  const grid: GridRow[] = [];
   const formulaCells: string[] = [];
   const mergedCells: string[] = [];
   ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
@@ -62,16 +100,24 @@ function fromWorksheet(ws: ExcelJS.Worksheet): ParsedSheet {
     for (let i = 0; i < cells.length; i++) if (cells[i] === undefined) cells[i] = null;
     if (cells.some((c) => c !== null)) grid.push({ row: rowNumber, cells });
   });
-  const header = grid.shift();
   return {
     name: ws.name,
     hidden: ws.state === 'hidden' || ws.state === 'veryHidden',
-    headerRow: header?.row ?? 1,
-    headers: (header?.cells ?? []).map((c) => (c === null ? '' : String(c))),
-    rows: grid,
+    grid,
+    headerRow: detectHeaderRow(grid),
     formulaCells,
     mergedCells,
   };
+}
+
+function fromCsv(text: string): { sheet: StoredSheet; delimiter: Delimiter } {
+  const { rows, delimiter } = splitCsv(text);
+  const grid: GridRow[] = [];
+  rows.forEach((cells, i) => {
+    if (cells.some((c) => c !== '')) grid.push({ row: i + 1, cells: cells.map((c) => (c === '' ? null : c)) });
+  });
+  const sheet: StoredSheet = { name: 'CSV', hidden: false, grid, headerRow: detectHeaderRow(grid), formulaCells: [], mergedCells: [], decimalComma: usesDecimalComma(rows, delimiter) };
+  return { sheet, delimiter };
 }
 
 /** Reads an uploaded .xlsx or .csv into sheets of plain cell values; throws ParseError with a user message. */
@@ -81,7 +127,8 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
   const lower = fileName.toLowerCase();
   const isZip = bytes[0] === 0x50 && bytes[1] === 0x4b;
   const isOle = bytes[0] === 0xd0 && bytes[1] === 0xcf && bytes[2] === 0x11 && bytes[3] === 0xe0;
-  let sheets: ParsedSheet[];
+  let sheets: StoredSheet[];
+  let csv: Pick<ParsedFile, 'encoding' | 'delimiter'> = {};
   if (lower.endsWith('.xlsx') || lower.endsWith('.xlsm')) {
     if (isOle) throw new ParseError('This workbook is password-protected (encrypted) or in the old .xls format. Remove the password, or save it as .xlsx, and upload again.');
     if (!isZip) throw new ParseError('This file is not a valid .xlsx workbook (it may be corrupt or renamed). Open it in a spreadsheet program and save it as .xlsx.');
@@ -89,21 +136,24 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
     try { await wb.xlsx.load(bytes as unknown as ArrayBuffer); }
     catch { throw new ParseError('This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.'); }
     sheets = wb.worksheets.map(fromWorksheet);
-  } else if (lower.endsWith('.csv')) {
-    let text: string;
-    try { text = new TextDecoder('utf-8', { fatal: true }).decode(bytes); }
-    catch { throw new ParseError('This CSV file is not UTF-8 text. Save it as "CSV UTF-8" and upload again.'); }
-    if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-    const wb = new ExcelJS.Workbook();
-    try { await wb.csv.read(Readable.from([text]), { sheetName: 'CSV' } as never); }
-    catch { throw new ParseError('This CSV file could not be read: check the separators and quotes.'); }
-    sheets = wb.worksheets.map(fromWorksheet);
+  } else if (lower.endsWith('.csv') || lower.endsWith('.tsv')) {
+    if (isZip || isOle) throw new ParseError('This file is a spreadsheet workbook renamed to .csv. Upload it with its own extension (.xlsx), or save it as CSV.');
+    const { text, encoding } = decodeText(bytes);
+    if (text.includes('\u0000')) throw new ParseError('This .csv file holds binary data, not text. Save the line list as CSV (or .xlsx) and upload again.');
+    let read: ReturnType<typeof fromCsv>;
+    try { read = fromCsv(text); }
+    catch (e) {
+      if (e instanceof CsvQuoteError) throw new ParseError(`This CSV file could not be read: a quoted field in row ${e.row} is not closed, so the rest of the file would run into one cell. Check the quotes in that row and upload again.`);
+      throw e;
+    }
+    sheets = [read.sheet];
+    csv = { encoding, delimiter: read.delimiter };
   } else if (lower.endsWith('.xls')) {
     throw new ParseError('Old .xls workbooks are not read. Save the file as .xlsx (or CSV UTF-8) and upload again.');
   } else {
     throw new ParseError('Upload the line list as an .xlsx workbook or a .csv file.');
   }
-  if (sheets.length === 0 || sheets.every((s) => s.headers.length === 0)) throw new ParseError('The file has no sheet with data.');
-  for (const s of sheets) if (s.rows.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.rows.length} rows; the limit is ${MAX_ROWS}.`);
-  return { kind: lower.endsWith('.csv') ? 'csv' : 'xlsx', sheets };
+  if (sheets.length === 0 || sheets.every((s) => s.grid.length === 0)) throw new ParseError('The file has no sheet with data.');
+  for (const s of sheets) if (s.grid.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.grid.length} rows; the limit is ${MAX_ROWS}.`);
+  return { kind: csv.encoding ? 'csv' : 'xlsx', sheets, ...csv };
 }

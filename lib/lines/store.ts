@@ -12,9 +12,10 @@ import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis, type OwnJack
 import { catalogueOf, ownId } from './catalogue';
 import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from './diff';
 import { suggestMapping, type ColumnMapping } from './mapping';
-import { parseUpload, ParseError, type ParsedFile } from './parse';
+import { describeCsv, parseUpload, ParseError, viewSheet, type ParsedFile } from './parse';
+import { HEADER_SCAN_ROWS } from './header';
 import { inputHash, solveLine } from './solve-line';
-import { validateSheet, type LineInput, type RowIssue } from './validate';
+import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
 import type { LineFilter } from './filter';
 
@@ -164,12 +165,31 @@ async function jacketNames(projectId: string) {
   return m;
 }
 
+export interface DraftSheet {
+  name: string;
+  hidden: boolean;
+  /** The detected header row (1-based) and its names (a units row under it folded in). */
+  headerRow: number;
+  headers: string[];
+  /** Lines below the detected header. */
+  rowCount: number;
+  /** The first non-empty rows as text, so the user can pick another header row in the browser. */
+  topRows: { row: number; cells: (string | number | boolean | null)[] }[];
+  /** Non-empty rows in the sheet, title rows included (the row count for another header row is derived from it). */
+  gridRows: number;
+  suggested: ColumnMapping;
+}
+
 export interface DraftSummary {
   draftId: string;
   fileName: string;
-  sheets: { name: string; hidden: boolean; headers: string[]; rowCount: number; suggested: ColumnMapping }[];
+  sheets: DraftSheet[];
   /** The sheet to start on: the first visible one with data. */
   defaultSheet: string;
+  /** CSV only: "Windows-1252, semicolon-separated" — how the file was read. */
+  readAs: string | null;
+  /** The project's remembered mapping (by header text), so a changed header row is suggested the same way. */
+  remembered: { headers: string[]; mapping: ColumnMapping } | null;
 }
 
 export async function createDraft({ projectId, userId, fileName, bytes }: { projectId: string; userId: string; fileName: string; bytes: Buffer }): Promise<DraftSummary> {
@@ -179,9 +199,15 @@ export async function createDraft({ projectId, userId, fileName, bytes }: { proj
   const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
   const mem = remembered ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping } : undefined;
   const [draft] = await db.insert(importDrafts).values({ projectId, createdBy: userId, fileName, parsed }).returning({ id: importDrafts.id });
-  const sheets = parsed.sheets.map((s) => ({ name: s.name, hidden: s.hidden, headers: s.headers, rowCount: s.rows.length, suggested: suggestMapping(s.headers, mem) }));
+  const sheets = parsed.sheets.map((stored): DraftSheet => {
+    const s = viewSheet(stored);
+    return {
+      name: s.name, hidden: s.hidden, headerRow: s.headerRow, headers: s.headers, rowCount: s.rows.length,
+      topRows: stored.grid.slice(0, HEADER_SCAN_ROWS + 1), gridRows: stored.grid.length, suggested: suggestMapping(s.headers, mem),
+    };
+  });
   const visible = sheets.find((s) => !s.hidden && s.rowCount > 0) ?? sheets[0];
-  return { draftId: draft.id, fileName, sheets, defaultSheet: visible.name };
+  return { draftId: draft.id, fileName, sheets, defaultSheet: visible.name, readAs: describeCsv(parsed), remembered: mem ?? null };
 }
 
 async function loadDraft(projectId: string, draftId: string) {
@@ -191,10 +217,15 @@ async function loadDraft(projectId: string, draftId: string) {
   return d;
 }
 
-function sheetOf(parsed: ParsedFile, sheetName: string) {
+/** The sheet seen from the chosen header row (the detected one when none is given). */
+function sheetOf(parsed: ParsedFile, sheetName: string, headerRow?: number) {
+  if (!Array.isArray(parsed?.sheets) || parsed.sheets.some((x) => !Array.isArray(x.grid))) throw new AppError('not_found', 'This upload was read by an earlier version of Lagwise; upload the file again.');
   const s = parsed.sheets.find((x) => x.name === sheetName);
   if (!s) throw new AppError('invalid', `The workbook has no sheet "${sheetName}".`, { sheet: ['Choose one of the workbook\'s sheets.'] });
-  return s;
+  if (headerRow !== undefined && !s.grid.some((r) => r.row === headerRow)) {
+    throw new AppError('invalid', `Row ${headerRow} of sheet "${sheetName}" is empty or beyond its end; choose a row with the column names as the header row.`, { headerRow: ['Choose a row with the column names.'] });
+  }
+  return viewSheet(s, headerRow);
 }
 
 /** A stored line as the engine's and the diff's input. */
@@ -207,14 +238,23 @@ export function inputOf(l: Line): LineInput {
   };
 }
 
-export interface Preview { issues: RowIssue[]; errorCount: number; warningCount: number; lineCount: number; diff: LineListDiff; previousRevision: number }
+export interface Preview {
+  issues: RowIssue[]; errorCount: number; warningCount: number; lineCount: number; diff: LineListDiff; previousRevision: number;
+  /** Values the file uses that need an answer in the mapping step. */
+  unknownValues: UnknownValue[];
+}
 
-export async function previewDraft({ projectId, draftId, sheetName, mapping }: { projectId: string; draftId: string; sheetName: string; mapping: ColumnMapping }): Promise<Preview> {
+export interface DraftChoice { projectId: string; draftId: string; sheetName: string; headerRow?: number; mapping: ColumnMapping }
+
+export async function previewDraft({ projectId, draftId, sheetName, headerRow, mapping }: DraftChoice): Promise<Preview> {
   const d = await loadDraft(projectId, draftId);
-  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName), mapping, await jacketNames(projectId));
+  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName, headerRow), mapping, await jacketNames(projectId));
   const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
   const [rev] = await db.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
-  return { issues: v.issues, errorCount: v.errorCount, warningCount: v.warningCount, lineCount: v.lines.length, diff: diffLineLists(current.map(inputOf), v.lines), previousRevision: Number(rev.n) };
+  return {
+    issues: v.issues, errorCount: v.errorCount, warningCount: v.warningCount, lineCount: v.lines.length, diff: diffLineLists(current.map(inputOf), v.lines),
+    previousRevision: Number(rev.n), unknownValues: v.unknownValues,
+  };
 }
 
 const CHUNK = 1000;
@@ -224,10 +264,10 @@ const CHUNK = 1000;
  * a pick or decision survives unless a thermal input of its line changed, in which case the line
  * is marked for re-decision with the reason.
  */
-export async function commitDraft({ projectId, draftId, sheetName, mapping, userId }: { projectId: string; draftId: string; sheetName: string; mapping: ColumnMapping; userId: string }) {
+export async function commitDraft({ projectId, draftId, sheetName, headerRow, mapping, userId }: DraftChoice & { userId: string }) {
   const d = await loadDraft(projectId, draftId);
   if (d.importedRevision) throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
-  const sheet = sheetOf(d.parsed as ParsedFile, sheetName);
+  const sheet = sheetOf(d.parsed as ParsedFile, sheetName, headerRow);
   const v = validateSheet(sheet, mapping, await jacketNames(projectId));
   if (v.errorCount > 0) {
     const first = v.issues.filter((i) => i.severity === 'error').slice(0, 5).map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);

@@ -71,6 +71,8 @@ test('a file with errors is refused with row and column, and nothing is imported
   await signIn(page, u.email, u.password);
   await openDemoProject(page);
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
+  // Read the count once the table has loaded ("0 lines · loading…" before).
+  await expect(page.getByText(/^\d+ lines$/)).toBeVisible();
   const total = await page.getByText(/^\d+ lines/).innerText();
   const dir = mkdtempSync(join(tmpdir(), 'lagwise-e2e-'));
   const file = join(dir, 'broken.xlsx');

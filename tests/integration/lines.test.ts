@@ -137,14 +137,16 @@ describe('line-list import on PostgreSQL', () => {
 
 describe('bad files get a clear message and store nothing', () => {
   const tryUpload = (fileName: string, bytes: Buffer) => store.createDraft({ projectId, userId, fileName, bytes });
-  it('wrong type, corrupt, password-protected, old .xls, empty, non-UTF-8 CSV, too large', async () => {
+  it('wrong type, corrupt, password-protected, old .xls, empty, too large; a Latin-1 CSV is decoded, not refused', async () => {
     await expectAppError(tryUpload('list.pdf', Buffer.from('%PDF-1.4')), 'invalid', /as an \.xlsx workbook or a \.csv file/);
     await expectAppError(tryUpload('list.xlsx', Buffer.from('this is not a zip')), 'invalid', /not a valid \.xlsx workbook/);
     await expectAppError(tryUpload('list.xlsx', Buffer.concat([Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]), Buffer.alloc(512)])), 'invalid', /password-protected/);
     await expectAppError(tryUpload('list.xlsx', Buffer.concat([Buffer.from('PK\x03\x04'), Buffer.alloc(100)])), 'invalid', /could not be read/);
     await expectAppError(tryUpload('list.xls', Buffer.from('x')), 'invalid', /Old \.xls workbooks/);
     await expectAppError(tryUpload('list.csv', Buffer.alloc(0)), 'invalid', /empty/);
-    await expectAppError(tryUpload('list.csv', Buffer.from([0x54, 0x61, 0x67, 0x0a, 0x4c, 0x2d, 0xe9, 0x31, 0x0a])), 'invalid', /not UTF-8/);
+    const latin1 = await tryUpload('list.csv', Buffer.from([0x54, 0x61, 0x67, 0x0a, 0x4c, 0x2d, 0xe9, 0x31, 0x0a]));
+    expect(latin1.readAs).toBe('Windows-1252, comma-separated');
+    expect(latin1.sheets[0].topRows).toEqual([{ row: 1, cells: ['Tag'] }, { row: 2, cells: ['L-é1'] }]);
     await expectAppError(tryUpload('list.xlsx', Buffer.alloc(60 * 1024 * 1024)), 'invalid', /60\.0 MB; the limit is 20 MB/);
   });
   it('an empty workbook and a header-only sheet', async () => {

@@ -20,6 +20,7 @@ export default async function BudgetPage({ params }: { params: Promise<{ project
       <div className="mb-4"><ResultCautions /></div>
       {d.warnings.length ? <div role="alert" className="mb-4 rounded border border-alarm-500 bg-alarm-50 p-3 text-sm text-alarm-700"><strong>Over budget</strong><ul className="mt-1 list-disc pl-5">{d.warnings.map((w, i) => <li key={i}>{w}</li>)}</ul></div> : null}
       {d.lineCount === 0 ? <p className="mb-4 text-sm text-ink-500">No solved lines yet: import and solve the line list first.</p> : null}
+      {d.incompleteCount ? <p className="caution mb-4 text-sm">{d.incompleteCount} line{d.incompleteCount === 1 ? ' has' : 's have'} no length yet and {d.incompleteCount === 1 ? 'is' : 'are'} left out of these totals until a line-list revision gives {d.incompleteCount === 1 ? 'it' : 'them'}.</p> : null}
       <div className="grid gap-4 lg:grid-cols-2">
         <section className="panel p-4">
           <h2 className="mb-2">Plant totals</h2>

@@ -5,17 +5,16 @@ import { projectAction, type ActionResult } from '@/lib/server/action';
 import { validateRequest } from '@/lib/auth/session';
 import { getProjectAccess } from '@/db/queries/projects';
 import { AppError, isAppError } from '@/lib/errors';
-import { FIELDS, MAX_UPLOAD_BYTES } from '@/lib/lines';
+import { MAX_UPLOAD_BYTES } from '@/lib/lines';
 import { lineFilterSchema } from '@/lib/lines/filter';
+import { readImportRequest } from '@/lib/lines/import-request';
 import type { DraftSummary } from '@/lib/lines/store';
 import * as store from '@/lib/lines/store';
 import { logUnexpected } from '@/lib/log';
 
-const mappingSchema = z.object({
-  columns: z.record(z.enum(FIELDS.map((f) => f.key) as [string, ...string[]]), z.number().int().min(0)),
-  units: z.record(z.string(), z.string()),
-});
-const draftInput = z.object({ draftId: z.uuid(), sheetName: z.string().min(1), mapping: mappingSchema });
+// The mapping step's request is read by readImportRequest in the handler (after the session and
+// role checks), so every malformed part becomes a sentence about its field rather than schema text.
+const draftInput = z.unknown();
 
 /** Upload: FormData with `file`. Checked for size before parsing; nothing is stored but the parsed draft. */
 export async function uploadLineListAction(projectId: string, formData: FormData): Promise<ActionResult<DraftSummary>> {
@@ -36,10 +35,10 @@ export async function uploadLineListAction(projectId: string, formData: FormData
 }
 
 export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
-  store.previewDraft({ projectId: project.id, draftId: input.draftId, sheetName: input.sheetName, mapping: input.mapping }));
+  store.previewDraft({ projectId: project.id, ...readImportRequest(input) }));
 
 export const commitImportAction = projectAction('lines.edit', draftInput, async ({ project, user, input }) => {
-  const r = await store.commitDraft({ projectId: project.id, draftId: input.draftId, sheetName: input.sheetName, mapping: input.mapping, userId: user.id });
+  const r = await store.commitDraft({ projectId: project.id, ...readImportRequest(input), userId: user.id });
   const solved = await store.solveProject({ projectId: project.id });
   revalidatePath(`/projects/${project.id}/lines`);
   return { ...r, solved: solved.solved };

@@ -1,15 +1,26 @@
 'use client';
 import { useState, useTransition } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
-import { FIELDS, UNIT_CHOICES, type LineFieldKey } from '@/lib/lines/fields';
-import type { ColumnMapping } from '@/lib/lines/mapping';
+import { FIELD_BY_KEY, FIELDS, UNIT_CHOICES, VALUE_CHOICES, valueKey, type LineFieldKey, type ValueField } from '@/lib/lines/fields';
+import { suggestMapping, type ColumnMapping } from '@/lib/lines/mapping';
+import { headerView, rowPreview } from '@/lib/lines/header';
 import type { DraftSummary, Preview } from '@/lib/lines/store';
+import type { UnknownValue } from '@/lib/lines/validate';
 import { commitImportAction, previewImportAction, uploadLineListAction } from './actions';
 
 const MAX_BYTES = 20 * 1024 * 1024;
 const letter = (i: number) => { let s = '', n = i + 1; while (n > 0) { const m = (n - 1) % 26; s = String.fromCharCode(65 + m) + s; n = Math.floor((n - 1) / 26); } return s; };
 
-/** Upload → map columns → check → import, each step with its own messages. */
+type Sheet = DraftSummary['sheets'][number];
+
+/** Headers and line count of a sheet seen from a header row, worked out in the browser from its top rows. */
+function viewOf(s: Sheet, headerRow: number) {
+  const v = headerView(s.topRows, headerRow);
+  const at = s.topRows.findIndex((r) => r.row === headerRow);
+  return { headers: v.headers, headerRows: v.headerRows, rowCount: Math.max(0, s.gridRows - at - v.headerRows.length) };
+}
+
+/** Upload → header row → map columns → answer unknown values → check → import, each step with its own messages. */
 export function ImportPanel({ projectId }: { projectId: string }) {
   const qc = useQueryClient();
   const [pending, start] = useTransition();
@@ -17,11 +28,20 @@ export function ImportPanel({ projectId }: { projectId: string }) {
   const [error, setError] = useState<string | null>(null);
   const [draft, setDraft] = useState<DraftSummary | null>(null);
   const [sheet, setSheet] = useState('');
+  const [headerRow, setHeaderRow] = useState(1);
   const [mapping, setMapping] = useState<ColumnMapping>({ columns: {}, units: {} });
   const [preview, setPreview] = useState<Preview | null>(null);
+  const [questions, setQuestions] = useState<UnknownValue[]>([]);
   const [done, setDone] = useState<string | null>(null);
 
   const current = draft?.sheets.find((s) => s.name === sheet);
+  const view = current ? viewOf(current, headerRow) : null;
+
+  function startSheet(d: DraftSummary, name: string) {
+    const s = d.sheets.find((x) => x.name === name)!;
+    setSheet(name); setHeaderRow(s.headerRow); setPreview(null); setQuestions([]);
+    setMapping(s.suggested);
+  }
 
   function onFile(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -36,14 +56,28 @@ export function ImportPanel({ projectId }: { projectId: string }) {
       setStep('idle');
       if (!r.ok) { setError(r.error); return; }
       setDraft(r.data);
-      setSheet(r.data.defaultSheet);
-      setMapping(r.data.sheets.find((s) => s.name === r.data.defaultSheet)!.suggested);
+      startSheet(r.data, r.data.defaultSheet);
     });
   }
 
-  function chooseSheet(name: string) {
-    setSheet(name); setPreview(null);
-    setMapping(draft!.sheets.find((s) => s.name === name)!.suggested);
+  function chooseSheet(name: string) { startSheet(draft!, name); }
+
+  /** Another header row: the mapping is suggested again from its names; answers to value questions are kept. */
+  function chooseHeaderRow(row: number) {
+    setHeaderRow(row); setPreview(null); setQuestions([]);
+    const v = viewOf(current!, row);
+    setMapping((m) => ({ ...suggestMapping(v.headers, draft!.remembered ?? undefined), ...(m.values ? { values: m.values } : {}) }));
+  }
+
+  function answer(field: ValueField, raw: string, meaning: string) {
+    setPreview(null);
+    setMapping((m) => {
+      const values = { ...(m.values ?? {}) };
+      const forField = { ...(values[field] ?? {}) };
+      if (meaning === '') delete forField[valueKey(raw)]; else forField[valueKey(raw)] = meaning;
+      values[field] = forField;
+      return { ...m, values };
+    });
   }
 
   function setColumn(key: LineFieldKey, v: string) {
@@ -58,20 +92,26 @@ export function ImportPanel({ projectId }: { projectId: string }) {
   function check() {
     setError(null);
     start(async () => {
-      const r = await previewImportAction(projectId, { draftId: draft!.draftId, sheetName: sheet, mapping });
+      const r = await previewImportAction(projectId, { draftId: draft!.draftId, sheetName: sheet, headerRow, mapping });
       if (!r.ok) { setError(r.error); return; }
       setPreview(r.data);
+      // Questions stay on screen once asked (answered ones too), new ones are added.
+      setQuestions((q) => {
+        const key = (u: UnknownValue) => `${u.field}\u0000${valueKey(u.value)}`;
+        const seen = new Set(q.map(key));
+        return [...q, ...r.data.unknownValues.filter((u) => !seen.has(key(u)))];
+      });
     });
   }
 
   function commit() {
     setError(null); setStep('importing');
     start(async () => {
-      const r = await commitImportAction(projectId, { draftId: draft!.draftId, sheetName: sheet, mapping });
+      const r = await commitImportAction(projectId, { draftId: draft!.draftId, sheetName: sheet, headerRow, mapping });
       setStep('idle');
       if (!r.ok) { setError(r.error); return; }
       setDone(`Revision ${r.data.revision} imported: ${r.data.lineCount} lines (${r.data.diff.added.length} added, ${r.data.diff.changed.length} changed, ${r.data.diff.removed.length} removed); ${r.data.solved} solved.`);
-      setDraft(null); setPreview(null);
+      setDraft(null); setPreview(null); setQuestions([]);
       await qc.invalidateQueries({ queryKey: ['lines', projectId] });
     });
   }
@@ -82,7 +122,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
         <form onSubmit={onFile} className="flex flex-wrap items-end gap-3">
           <div>
             <label htmlFor="line-file" className="label">Line-list file (.xlsx or .csv, up to 20 MB)</label>
-            <input id="line-file" name="file" type="file" accept=".xlsx,.xlsm,.csv" className="text-sm" />
+            <input id="line-file" name="file" type="file" accept=".xlsx,.xlsm,.csv,.tsv" className="text-sm" />
           </div>
           <button className="btn-primary" disabled={pending}>Read file</button>
         </form>
@@ -97,8 +137,9 @@ export function ImportPanel({ projectId }: { projectId: string }) {
       {error ? <p role="alert" className="mt-3 rounded border border-alarm-500 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{error}</p> : null}
       {done ? <p role="status" className="mt-3 rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm text-mineral-900">{done}</p> : null}
 
-      {draft && current ? (
+      {draft && current && view ? (
         <div className="mt-4 space-y-4">
+          {draft.readAs ? <p className="text-xs text-ink-700" aria-label="How the file was read">Read as {draft.readAs}.</p> : null}
           <div className="flex flex-wrap items-end gap-4">
             <div>
               <label htmlFor="sheet" className="label">Sheet</label>
@@ -106,6 +147,15 @@ export function ImportPanel({ projectId }: { projectId: string }) {
                 {draft.sheets.map((s) => <option key={s.name} value={s.name}>{s.name}{s.hidden ? ' (hidden)' : ''} — {s.rowCount} rows</option>)}
               </select>
             </div>
+            <div>
+              <label htmlFor="header-row" className="label">Header row (the column names)</label>
+              <select id="header-row" className="input max-w-xl" value={headerRow} onChange={(e) => chooseHeaderRow(Number(e.target.value))}>
+                {current.topRows.slice(0, 30).map((r) => <option key={r.row} value={r.row}>Row {r.row}: {rowPreview(r.cells)}</option>)}
+              </select>
+            </div>
+            <p className="text-xs text-ink-700" aria-label="Rows to read">
+              {view.rowCount} rows below the header{view.headerRows.length > 1 ? ` (units read from row ${view.headerRows[1]})` : ''}{headerRow > (current.topRows[0]?.row ?? 1) ? `; rows above row ${headerRow} are not read` : ''}.
+            </p>
             {current.hidden ? <p className="caution text-xs">This sheet is hidden in the workbook. Make sure it is the line list you mean.</p> : null}
           </div>
           <div className="overflow-x-auto">
@@ -118,7 +168,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
                     <td>
                       <select aria-label={`Column for ${f.label}`} className="input py-1" value={mapping.columns[f.key] ?? ''} onChange={(e) => setColumn(f.key, e.target.value)}>
                         <option value="">— not in the file —</option>
-                        {current.headers.map((h, i) => <option key={i} value={i}>{letter(i)}: {h || '(no header)'}</option>)}
+                        {view.headers.map((h, i) => <option key={i} value={i}>{letter(i)}: {h || '(no header)'}</option>)}
                       </select>
                     </td>
                     <td>
@@ -133,11 +183,44 @@ export function ImportPanel({ projectId }: { projectId: string }) {
               </tbody>
             </table>
           </div>
-          <button className="btn-quiet" onClick={check} disabled={pending}>Check the rows</button>
+          {questions.length ? <ValueQuestions questions={questions} mapping={mapping} onAnswer={answer} /> : null}
+          <button className="btn-quiet" onClick={check} disabled={pending}>{questions.length && !preview ? 'Check the rows again' : 'Check the rows'}</button>
           {preview ? <PreviewView preview={preview} onCommit={commit} pending={pending} /> : null}
         </div>
       ) : null}
     </section>
+  );
+}
+
+/** Each distinct value the file uses that we do not know, asked once; the answer is remembered with the mapping. */
+function ValueQuestions({ questions, mapping, onAnswer }: { questions: UnknownValue[]; mapping: ColumnMapping; onAnswer: (f: ValueField, raw: string, meaning: string) => void }) {
+  const open = questions.filter((q) => !mapping.values?.[q.field]?.[valueKey(q.value)]).length;
+  return (
+    <div className="rounded border border-ochre-500 bg-ochre-50 p-3">
+      <h3 className="text-sm font-semibold">Values to answer</h3>
+      <p className="mb-2 text-xs text-ink-700">
+        The file uses {questions.length === 1 ? 'a word' : 'words'} Lagwise does not know. Say once what each means; the answers are kept with this
+        project&apos;s column mapping, so the next revision asks nothing. {open ? `${open} still open.` : 'All answered — check the rows again.'}
+      </p>
+      <table className="table-dense" aria-label="Values to answer">
+        <thead><tr><th>Field</th><th>Value in the file</th><th>Where</th><th>Means</th></tr></thead>
+        <tbody>
+          {questions.map((q) => (
+            <tr key={`${q.field}:${q.value}`}>
+              <td>{FIELD_BY_KEY[q.field].label}</td>
+              <td className="font-mono">{q.value}</td>
+              <td>column {q.column}, {q.count === 1 ? `row ${q.rows[0]}` : `${q.count} rows`}</td>
+              <td>
+                <select aria-label={`Meaning of ${q.value} (${FIELD_BY_KEY[q.field].label})`} className="input py-1" value={mapping.values?.[q.field]?.[valueKey(q.value)] ?? ''} onChange={(e) => onAnswer(q.field, q.value, e.target.value)}>
+                  <option value="">— choose —</option>
+                  {VALUE_CHOICES[q.field].map((c) => <option key={c.value} value={c.value}>{c.label}</option>)}
+                </select>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
   );
 }
 

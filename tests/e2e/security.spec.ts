@@ -1,6 +1,6 @@
 import { readFileSync, existsSync } from 'node:fs';
 import { expect, test, type APIResponse } from '@playwright/test';
-import { demo, openDemoProject, signIn } from './helpers';
+import { demo, mailboxLink, openDemoProject, signIn } from './helpers';
 import { SERVER_LOG } from '../../playwright.config';
 
 /** Runs against the production build (`next start`), as every end-to-end test does. */
@@ -81,6 +81,9 @@ test('one account under attack is throttled whatever X-Forwarded-For says; other
   await page.getByLabel('Password', { exact: true }).fill('granite-elbow-target');
   await page.getByLabel('Organization').fill('Target Works');
   await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByRole('status')).toContainText('Check your e-mail');
+  await page.goto(await mailboxLink(page, email, 'Create my account'));
+  await page.getByRole('button', { name: 'Create my account' }).click();
   await expect(page).toHaveURL(/\/projects$/);
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/sign-in$/);

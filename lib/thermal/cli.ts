@@ -2,18 +2,7 @@
  * `npm run --silent calc -- cases.json`: reads a JSON array of cases, prints a JSON array of
  * results in the same order and nothing else on stdout. Problems with the file go to stderr.
  */
-import { readFileSync } from 'node:fs';
+import { runJsonBatch } from '../cli-batch';
 import { runCase } from './case';
 
-function main(): number {
-  const file = process.argv[2];
-  if (!file) { process.stderr.write('usage: npm run --silent calc -- <cases.json>\n'); return 2; }
-  let cases: unknown;
-  try { cases = JSON.parse(readFileSync(file === '-' ? 0 : file, 'utf8')); }
-  catch (e) { process.stderr.write(`cannot read ${file}: ${(e as Error).message}\n`); return 2; }
-  if (!Array.isArray(cases)) { process.stderr.write('the file must hold a JSON array of cases\n'); return 2; }
-  process.stdout.write(JSON.stringify(cases.map(runCase), null, 2) + '\n');
-  return 0;
-}
-
-process.exitCode = main();
+process.exitCode = runJsonBatch('calc', runCase);

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { mailboxLink, signIn } from './helpers';
+import { mailboxLink, signIn, signUpConfirmed } from './helpers';
 
 test('sign up (confirmed from the mailed link) creates an organization; a password reset link arrives in the mailbox and works', async ({ page }) => {
   const email = `e2e.${Date.now()}@example.com`;
@@ -77,16 +77,7 @@ test('sign-up with an address that has an account answers exactly as for a new o
 
 test('a signed-in user changes the password: the current one is required, the other browser is signed out, a notice is mailed', async ({ page, browser }) => {
   const email = `pwchange.${Date.now()}@example.com`;
-  await page.goto('/sign-up');
-  await page.getByLabel('Your name').fill('Pia Change');
-  await page.getByLabel('Work e-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
-  await page.getByLabel('Organization').fill('Change Chemicals');
-  await page.getByRole('button', { name: 'Create account' }).click();
-  await expect(page.getByRole('status')).toBeVisible();
-  await page.goto(await mailboxLink(page, email, 'Create my account'));
-  await page.getByRole('button', { name: 'Create my account' }).click();
-  await expect(page).toHaveURL(/\/projects$/);
+  await signUpConfirmed(page, { name: 'Pia Change', email, password: 'granite-elbow-jacket', organization: 'Change Chemicals' });
 
   const other = await browser.newContext();
   const p2 = await other.newPage();

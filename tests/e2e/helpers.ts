@@ -84,3 +84,17 @@ export async function mailboxLink(_page: Page, to: string, linkName: string): Pr
     await new Promise((r) => setTimeout(r, 200));
   }
 }
+
+/** Signs up a new account through the mailed confirmation link and lands signed in on /projects. */
+export async function signUpConfirmed(page: Page, o: { name: string; email: string; password: string; organization: string }) {
+  await page.goto('/sign-up');
+  await page.getByLabel('Your name').fill(o.name);
+  await page.getByLabel('Work e-mail').fill(o.email);
+  await page.getByLabel('Password', { exact: true }).fill(o.password);
+  await page.getByLabel('Organization').fill(o.organization);
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByRole('status')).toContainText('Check your e-mail');
+  await page.goto(await mailboxLink(page, o.email, 'Create my account'));
+  await page.getByRole('button', { name: 'Create my account' }).click();
+  await expect(page).toHaveURL(/\/projects$/);
+}

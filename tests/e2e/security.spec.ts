@@ -1,6 +1,6 @@
 import { readFileSync, existsSync } from 'node:fs';
 import { expect, test, type APIResponse } from '@playwright/test';
-import { demo, mailboxLink, openDemoProject, signIn } from './helpers';
+import { demo, openDemoProject, signIn, signUpConfirmed } from './helpers';
 import { SERVER_LOG } from '../../playwright.config';
 
 /** Runs against the production build (`next start`), as every end-to-end test does. */
@@ -75,16 +75,7 @@ test('sign-off and bill pages cannot be framed by another site', async ({ page }
 test('one account under attack is throttled whatever X-Forwarded-For says; other accounts still sign in', async ({ page, playwright, baseURL }) => {
   // A fresh account, so no demo account is locked for the other tests.
   const email = `target.${Date.now()}@example.com`;
-  await page.goto('/sign-up');
-  await page.getByLabel('Your name').fill('Tess Target');
-  await page.getByLabel('Work e-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill('granite-elbow-target');
-  await page.getByLabel('Organization').fill('Target Works');
-  await page.getByRole('button', { name: 'Create account' }).click();
-  await expect(page.getByRole('status')).toContainText('Check your e-mail');
-  await page.goto(await mailboxLink(page, email, 'Create my account'));
-  await page.getByRole('button', { name: 'Create my account' }).click();
-  await expect(page).toHaveURL(/\/projects$/);
+  await signUpConfirmed(page, { name: 'Tess Target', email, password: 'granite-elbow-target', organization: 'Target Works' });
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/sign-in$/);
 

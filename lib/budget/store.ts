@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { db } from '@/db/client';
 import { budgets, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
+import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import { getDesignBasis } from '@/lib/lines/store';
 import { isIncompleteLine } from '@/lib/lines/fields';
 
@@ -54,12 +55,15 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
   const price = whatIf.energyPricePerKWh ?? econ.energyPricePerKWh;
   const hours = whatIf.hoursPerYear ?? econ.hoursPerYear;
   const policy = whatIf.policy ?? 'chosen';
-  const rows = await db.select({ tag: lines.tag, area: lines.area, geometry: lines.geometry, lengthM: lines.lengthM, result: lineResults, chosenMm: lineDesigns.thicknessMm }).from(lines)
+  const rows = await db.select({
+    tag: lines.tag, area: lines.area, geometry: lines.geometry, lengthM: lines.lengthM, elbows: lines.elbows, tees: lines.tees, valves: lines.valves, flanges: lines.flanges,
+    result: lineResults, chosenMm: lineDesigns.thicknessMm,
+  }).from(lines)
     .innerJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(eq(lines.projectId, projectId));
   const perArea = new Map<string, { bareKW: number; designedKW: number }>();
-  const perLine: { tag: string; area: string; designedKW: number; bareKW: number; thicknessMm: number | null }[] = [];
-  let coldGainKW = 0, incompleteCount = 0;
-  for (const { tag, area, geometry, lengthM, result, chosenMm } of rows) {
+  const perLine: { tag: string; area: string; designedKW: number; bareKW: number; fittingsKW: number; thicknessMm: number | null }[] = [];
+  let coldGainKW = 0, incompleteCount = 0, fittingsKW = 0, bareFittingsKW = 0;
+  for (const { tag, area, geometry, lengthM, elbows, tees, valves, flanges, result, chosenMm } of rows) {
     // A pipe without its length yet is solved per metre but counts in no total.
     if (isIncompleteLine({ geometry, lengthM })) { incompleteCount++; continue; }
     const cands = result.candidates as Cand[];
@@ -73,12 +77,17 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
       mm = i >= 0 ? cands[Math.min(cands.length - 1, i + 1)][0] : result.recommendedMm;
     }
     const c = cands.find((x) => x[0] === mm) ?? cands[0];
-    const designedW = c[2] * extent, bareW = result.bareHeatW;
+    // Fittings and supports as equivalent lengths (lib/lines/fittings-heat.ts), bare fittings on a bare line.
+    const counts = { geometry, lengthM, elbows, tees, valves, flanges };
+    const fitW = lineFittingsW(basis, counts, c[2], cands[0][2], c[0] === 0);
+    const bareFitW = lineFittingsW(basis, counts, cands[0][2], cands[0][2], true);
+    const designedW = c[2] * extent + fitW, bareW = result.bareHeatW + bareFitW;
     if (bareW < 0) { coldGainKW += -designedW / 1000; continue; }
+    fittingsKW += fitW / 1000; bareFittingsKW += bareFitW / 1000;
     const a = perArea.get(area) ?? { bareKW: 0, designedKW: 0 };
     a.bareKW += bareW / 1000; a.designedKW += designedW / 1000;
     perArea.set(area, a);
-    perLine.push({ tag, area, designedKW: designedW / 1000, bareKW: bareW / 1000, thicknessMm: mm });
+    perLine.push({ tag, area, designedKW: designedW / 1000, bareKW: bareW / 1000, fittingsKW: fitW / 1000, thicknessMm: mm });
   }
   const budget = await getBudget({ projectId });
   const totals = (kW: number) => {
@@ -98,6 +107,8 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
   return {
     policy, price, hours,
     bare: totals(bareKW), designed, savings: totals(bareKW - designedKW), coldGainKW,
+    /** Of the designed total: straight runs and fittings/supports (equivalent lengths); of the bare total, the bare fittings. */
+    straightKW: designedKW - fittingsKW, fittingsKW, bareFittingsKW,
     areas, top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20), budget, warnings, lineCount: perLine.length, incompleteCount,
   };
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { DEFAULT_COOLING, DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/thermal/economics';
+import { DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal/fittings';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 
@@ -82,6 +83,20 @@ export const designBasisObject = z.object({
   systems: z.array(systemBandSchema).min(1, { error: 'Give at least one material system' }),
   ownMaterials: z.array(ownMaterialSchema).max(50, { error: 'At most 50 project materials' }).default([]),
   ownJackets: z.array(ownJacketSchema).max(30, { error: 'At most 30 project jackets' }).default([]),
+  /** An energy code whose minimum pipe insulation is a hard criterion. */
+  energyCode: z.enum(['none', 'ashrae-90.1'], { error: 'Choose no energy code or ASHRAE 90.1' }).default('none'),
+  /** Fittings and supports added to each pipe's heat loss as equivalent lengths (lib/thermal/fittings.ts). */
+  fittings: z.object({
+    elbowM: num('Elbow, metres of insulated pipe').min(0).max(20),
+    teeM: num('Tee, metres of insulated pipe').min(0).max(20),
+    valveM: num('Insulated valve, metres of insulated pipe').min(0).max(20),
+    flangePairM: num('Insulated flange pair, metres of insulated pipe').min(0).max(20),
+    supportM: num('Support, metres of insulated pipe').min(0).max(20),
+    bareValveM: num('Bare valve, metres of bare pipe').min(0).max(20),
+    bareFlangePairM: num('Bare flange pair, metres of bare pipe').min(0).max(20),
+    supportsPerM: num('Supports per metre').min(0).max(5),
+    valvesBare: z.coerce.boolean().default(false),
+  }).default({ ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false }),
   economics: z.object({
     energyPricePerKWh: num('Energy price').min(0).max(10),
     efficiency: num('Heat-generation efficiency').gt(0).max(10),
@@ -167,6 +182,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ],
   ownMaterials: [],
   ownJackets: [],
+  energyCode: 'none',
+  fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
   economics: { ...DEFAULT_ECONOMICS, cooling: { ...DEFAULT_COOLING }, economicChoice: 'optimum', flatRangePct: 2 },
   prices: { ...DEFAULT_PRICES, labourByNps: DEFAULT_PRICES.labourByNps!.map((b) => ({ ...b })), jacketPerM2ById: { ...DEFAULT_PRICES.jacketPerM2ById! }, accessoriesPerM: DEFAULT_PRICES.accessoriesPerM!, accessoriesPerM2: DEFAULT_PRICES.accessoriesPerM2!, fittingItem: { ...DEFAULT_PRICES.fittingItem! } },
 };
@@ -179,6 +196,8 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
   co2KgPerKWh: 'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
   freeze: 'Stagnant water by the ISO 12241 method: cooling to 0 °C, then freezing the allowed fraction of the water (latent heat 334 kJ/kg). 25 % ice by the required time is common practice for water lines; set 0 to require the water stay above 0 °C.',
+  fittings: 'Each fitting adds the heat loss of so many metres of the same pipe (the simplified thermal-bridge approach of ISO 12241; VDI 2055 Part 1 and ASTM C1129 give values of this kind). The defaults are common-practice estimates recalled from design guides, not read from those standards: put the project specification\'s own. Supports: one every 3 m by default (common practice).',
+  energyCode: 'ASHRAE 90.1 Table 6.8.3-1 minimum pipe insulation (2016 and later editions; the IECC carries the same table), corrected for the insulation\'s conductivity by the table\'s footnote; a hard criterion for every heating and cooling pipe when chosen.',
   cooling: 'Cold lines gain heat that a chiller removes: priced as electricity ÷ COP with the grid\'s CO₂ factor (COP 3 is a common-practice estimate; set the plant\'s own).',
   flatRange: 'Annual-cost curves are flat near the optimum; the range within this percentage is shown, and the project may take its thinnest thickness (common practice leans to the thinner).',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',

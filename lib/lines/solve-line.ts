@@ -41,6 +41,7 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
     heatLossLimitWPerM: basis.heatLossLimitWPerM,
     maxProcessDropK: basis.maxProcessDropK,
     freeze: basis.freeze,
+    energyCode: basis.energyCode === 'ashrae-90.1' ? 'ashrae-90.1' : undefined,
     economics: basis.economics,
     prices: { ...basis.prices },
   };

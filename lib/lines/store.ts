@@ -6,7 +6,7 @@ import { and, asc, count, desc, eq, getTableColumns, inArray, sql } from 'drizzl
 import { db, type Tx } from '@/db/client';
 import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
 import { AppError } from '@/lib/errors';
-import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
+import { CALCULATION_VERSION, HARD_CRITERIA, type MaterialSystem } from '@/lib/thermal';
 import { actorName, writeAudit } from '@/lib/audit';
 import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis, type OwnJacket, type OwnMaterial } from './design-basis';
 import { catalogueOf, ownId } from './catalogue';
@@ -409,7 +409,7 @@ export async function listRevisions({ projectId }: { projectId: string }) {
 // ---------- design picks ----------
 
 type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean];
-const HARD = new Set(['personnel', 'condensation', 'heatLossLimit', 'processDrop', 'freeze']);
+const HARD: ReadonlySet<string> = HARD_CRITERIA;
 
 /**
  * Saves the chosen thickness for a line. `expectedVersion` is the design version the user saw

@@ -3,7 +3,7 @@
  * (recommend.ts), the review flags (lib/review/flags.ts) and the line page, so they cannot disagree.
  */
 import { condensationThresholdC } from './psychro';
-import type { ConditionSet, Purpose } from './recommend';
+import type { ConditionSet, CriterionId, Purpose } from './recommend';
 
 /**
  * Lines colder than this are checked for sweating even when the line list does not ask for
@@ -36,3 +36,6 @@ export function condensationControlApplies(o: { purposes: readonly Purpose[]; co
   const asked = o.purposes.includes('condensationControl') || o.coldestC < ALWAYS_CHECK_CONDENSATION_BELOW_C;
   return asked && o.coldestC < condensationLimit(condensation, marginK).needC;
 }
+
+/** Criteria a pick may not go below without a stated reason (it then stays flagged for review); the economic one is advice. */
+export const HARD_CRITERIA: ReadonlySet<CriterionId> = new Set<CriterionId>(['personnel', 'condensation', 'heatLossLimit', 'processDrop', 'freeze', 'energyCode']);

@@ -90,8 +90,12 @@ describe('heat-loss budget', () => {
     const d = await budget.dashboard({ projectId, whatIf: { policy: 'recommended' } });
     const results = await db.select().from(lineResults).where(eq(lineResults.projectId, projectId));
     const sumKW = results.reduce((s, r) => s + (r.totalHeatW ?? 0), 0) / 1000;
-    expect(d.designed.kW).toBeCloseTo(sumKW, 6);
-    expect(d.bare.kW).toBeCloseTo(results.reduce((s, r) => s + r.bareHeatW, 0) / 1000, 6);
+    // Straight runs are the saved results; fittings and supports come on top (equivalent lengths).
+    expect(d.straightKW).toBeCloseTo(sumKW, 6);
+    expect(d.fittingsKW).toBeGreaterThan(0);
+    expect(d.designed.kW).toBeCloseTo(sumKW + d.fittingsKW, 6);
+    expect(d.bare.kW).toBeCloseTo(results.reduce((s, r) => s + r.bareHeatW, 0) / 1000 + d.bareFittingsKW, 6);
+    expect(d.bareFittingsKW).toBeGreaterThan(d.fittingsKW);
     expect(d.savings.kW).toBeCloseTo(d.bare.kW - d.designed.kW, 9);
     expect(d.designed.mwhPerYear).toBeCloseTo((d.designed.kW * d.hours) / 1000, 9);
     expect(d.areas.map((a) => a.area)).toEqual(['North', 'South']);

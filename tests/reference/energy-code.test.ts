@@ -56,3 +56,24 @@ describe('ASHRAE 90.1 Table 6.8.3-1', () => {
     expect(none.criteria.energyCode).toBeUndefined();
   });
 });
+
+describe('the project setting', () => {
+  it('a design basis with ASHRAE 90.1 makes it a hard criterion for its pipes', async () => {
+    const { DEFAULT_DESIGN_BASIS } = await import('@/lib/lines/design-basis');
+    const { solveLine } = await import('@/lib/lines/solve-line');
+    const { HARD_CRITERIA } = await import('@/lib/thermal');
+    const line = {
+      tag: 'HW-9', service: 'hot water', area: 'A', geometry: 'horizontal-pipe', nps: '2', outsideDiameterMm: 60.3, lengthM: 20, surfaceAreaM2: null, heightM: null,
+      normalTempC: 120, maxTempC: null, steamPressureBarG: null, flowKgPerS: null, fluidCpKJPerKgK: null, elbows: 0, tees: 0, valves: 0, flanges: 0,
+      purposes: ['personnelProtection'], outdoor: true, accessible: true, accessHeightM: null, jacketId: null, notes: '',
+    } as const;
+    const off = solveLine(DEFAULT_DESIGN_BASIS, { ...line, purposes: [...line.purposes] });
+    expect(off.recommendation.outcomes.find((o) => o.id === 'energyCode')).toBeUndefined();
+    const on = solveLine({ ...DEFAULT_DESIGN_BASIS, energyCode: 'ashrae-90.1' }, { ...line, purposes: [...line.purposes] });
+    const e = on.recommendation.outcomes.find((o) => o.id === 'energyCode')!;
+    expect(e.tableMm).toBeCloseTo(63.5, 9); // 248 °F, NPS 2: 2.5 in
+    expect(on.recommendation.recommendedMm!).toBeGreaterThanOrEqual(e.requiredMm!);
+    expect(on.recommendation.governing).toBe('energyCode');
+    expect(HARD_CRITERIA.has('energyCode')).toBe(true);
+  });
+});

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { FREEZE_PROPERTIES, fittingsHeatLoss, freezeTimeHours, heatTracingDuty, iceFractionHours, DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal';
 import { runRecommendCase, type RecommendResult } from '@/lib/lines/recommend-case';
+import { lineFittingsW } from '@/lib/lines/fittings-heat';
+import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
 
 describe('freeze protection with ice (ISO 12241 method, hand calculation [X])', () => {
   // NPS 2 (60.3 mm OD, 3.91 mm wall), constant resistance R′ = 4 K·m/W, air −15 °C, water from 10 °C.
@@ -52,5 +54,17 @@ describe('fittings as equivalent lengths and heat-tracing duty', () => {
     expect(r.heatTracing!.requiredWPerM).toBeGreaterThan(r.heatTracing!.heatLossWPerM * 1.2);
     expect(r.heatTracing!.heatLossWPerM).toBeGreaterThan(r.heatLossWPerM!); // −20 °C and 10 m/s against the 10 °C annual air
     expect(r.totalHeatLossW!).toBeCloseTo(r.heatLossWPerM! * 50 + r.fittingsHeatLossW!, 6);
+  });
+});
+
+describe('a line\'s fittings with the project\'s equivalent lengths', () => {
+  it('pipes only; counts × lengths at the insulated loss, all bare on a bare line [X]', () => {
+    const basis = { ...DEFAULT_DESIGN_BASIS, fittings: { ...DEFAULT_DESIGN_BASIS.fittings, supportsPerM: 0.5, valvesBare: true } };
+    const L = basis.fittings;
+    const line = { geometry: 'horizontal-pipe', lengthM: 40, elbows: 4, tees: 1, valves: 2, flanges: 3 };
+    expect(lineFittingsW(basis, line, 20, 300)).toBeCloseTo((4 * L.elbowM + 1 * L.teeM + 0.5 * 40 * L.supportM) * 20 + (2 * L.bareValveM + 3 * L.bareFlangePairM) * 300, 9);
+    expect(lineFittingsW(basis, line, 300, 300, true)).toBeCloseTo((4 * L.elbowM + L.teeM + 2 * L.valveM + 3 * L.flangePairM + 20 * L.supportM) * 300, 9);
+    expect(lineFittingsW(basis, { ...line, geometry: 'vessel' }, 20, 300)).toBe(0);
+    expect(lineFittingsW(basis, { ...line, lengthM: null }, 20, 300)).toBe(0);
   });
 });

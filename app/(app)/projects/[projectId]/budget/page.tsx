@@ -25,6 +25,7 @@ export default async function BudgetPage({ params }: { params: Promise<{ project
         <section className="panel p-4">
           <h2 className="mb-2">Plant totals</h2>
           <TotalsTable bare={d.bare} designed={d.designed} savings={d.savings} />
+          <p className="mt-2 text-sm" data-testid="fittings-split">Designed: {n(d.straightKW)} kW straight runs + {n(d.fittingsKW)} kW fittings and supports = {n(d.designed.kW)} kW (bare fittings {n(d.bareFittingsKW)} kW of the bare total).</p>
           <p className="mt-2 text-xs text-ink-500">At {d.hours} h/yr and {d.price} per kWh of fuel; cold lines gain {n(d.coldGainKW)} kW (refrigeration load, not in these totals).{d.budget ? ` Budget: ${n(d.budget.totalKW)} kW, ${n(d.budget.totalMWhPerYear, 0)} MWh/yr.` : ' No budget set yet.'}</p>
         </section>
         <section className="panel p-4"><h2 className="mb-2">By area</h2><AreaChart areas={d.areas} />

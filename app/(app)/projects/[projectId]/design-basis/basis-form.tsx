@@ -111,6 +111,26 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         <p className="mt-1 text-xs text-ink-500">{notes.systems}</p>
       </fieldset>
       <div className="grid gap-4 md:grid-cols-4">
+        <div>
+          <label htmlFor="db-energyCode" className="label">Energy code</label>
+          <select id="db-energyCode" name="energyCode" defaultValue={basis.energyCode ?? 'none'} disabled={!canEdit} className="input">
+            <option value="none">None</option>
+            <option value="ashrae-90.1">ASHRAE 90.1 minimum pipe insulation</option>
+          </select>
+          <p className="mt-1 text-xs text-ink-600">{notes.energyCode}</p>
+        </div>
+        <Num name="fittings.elbowM" label="Elbow: metres of insulated pipe" hint={notes.fittings} />
+        <Num name="fittings.teeM" label="Tee: metres of insulated pipe" />
+        <Num name="fittings.valveM" label="Covered valve: metres of insulated pipe" />
+        <Num name="fittings.flangePairM" label="Covered flange pair: metres of insulated pipe" />
+        <Num name="fittings.bareValveM" label="Bare valve: metres of bare pipe" />
+        <Num name="fittings.bareFlangePairM" label="Bare flange pair: metres of bare pipe" />
+        <Num name="fittings.supportM" label="Support: metres of insulated pipe" />
+        <Num name="fittings.supportsPerM" label="Supports per metre of pipe" />
+        <div className="flex items-end gap-2 pb-2">
+          <input id="db-valvesBare" type="checkbox" name="fittings.valvesBare" defaultChecked={basis.fittings?.valvesBare ?? false} disabled={!canEdit} />
+          <label htmlFor="db-valvesBare" className="text-sm">Valves and flanges are left bare</label>
+        </div>
         <Num name="economics.energyPricePerKWh" label="Energy price per kWh" hint={notes.economics} />
         <Num name="economics.efficiency" label="Heat-generation efficiency" />
         <Num name="economics.hoursPerYear" label="Operating hours per year" />

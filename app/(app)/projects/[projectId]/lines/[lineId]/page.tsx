@@ -8,6 +8,7 @@ import { catalogueOf } from '@/lib/lines/catalogue';
 import { CostChart } from './cost-chart';
 import { auditForLine } from '@/lib/review/store';
 import { economicsView } from '@/lib/lines/economics-view';
+import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import type { LineInput } from '@/lib/lines/validate';
 
 export const metadata = { title: 'Line' };
@@ -30,6 +31,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
   const surface = isSurfaceGeometry(line.geometry);
+  const fittingsW = result && result.heatFlowPerUnit !== null ? lineFittingsW(basis, line, result.heatFlowPerUnit, cands[0]?.[2] ?? 0, result.recommendedMm === 0) : 0;
   const unit = surface ? 'W/m²' : 'W/m';
   return (
     <>
@@ -110,6 +112,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
             <h2 className="mb-2">At the recommendation (heat-loss conditions)</h2>
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
               <dt className="text-ink-500">Heat loss</dt><dd>{f(result.heatFlowPerUnit)} {unit}{line.geometry === 'vessel' ? ' (mean over the outside area)' : ''} · {f((result.totalHeatW ?? 0) / 1000, 2)} kW for the line (bare {f(result.bareHeatW / 1000, 2)} kW)</dd>
+              {fittingsW ? <><dt className="text-ink-500">Straight run + fittings</dt><dd data-testid="fittings-heat">{f((result.totalHeatW ?? 0) / 1000, 2)} kW + {f(fittingsW / 1000, 2)} kW ({line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges, supports as equivalent lengths{basis.fittings.valvesBare ? '; valves and flanges bare' : ''}) = {f(((result.totalHeatW ?? 0) + fittingsW) / 1000, 2)} kW</dd></> : null}
               <dt className="text-ink-500">Surface temperature</dt><dd>{f(result.surfaceTempC)} °C (personnel check {f(result.personnelSurfaceC)} °C)</dd>
               <dt className="text-ink-500">Annual energy / cost / CO₂</dt><dd>{f(result.annualMWh)} MWh · {f(result.annualCost, 0)} · {f(result.co2Tonnes, 2)} t</dd>
               {result.condensateKgPerH !== null ? <><dt className="text-ink-500">Condensate</dt><dd>{f(result.condensateKgPerH, 2)} kg/h</dd></> : null}

@@ -151,12 +151,12 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         </div>
         <Num name="prices.defaultMaterialPerM3" label="Material price per m³ (default)" />
         <Num name="prices.wasteFraction" label="Waste allowance (fraction)" />
-        <Num name="prices.labourPerMPerLayer" label="Labour per metre per layer" />
+        <Num name="prices.labourPerMPerLayer" label="Labour per metre per layer (a pipe of unknown size)" />
         <Num name="prices.labourPerM2PerLayer" label="Labour per m² per layer" />
         <Num name="prices.jacketPerM2" label="Jacket price per m²" />
         <Num name="prices.fittingsAllowanceFraction" label="Fittings allowance when a line has no counts (fraction)" />
         {basis.prices.labourByNps?.map((b, i) => (
-          <Num key={`lab${i}`} name={`prices.labourByNps[${i}].perMPerLayer`} label={`Pipe labour per metre per layer, ${i === 0 ? 'up to' : 'over the last, up to'} NPS ${b.maxNps >= 1000 ? 'any' : b.maxNps}`} />
+          <Num key={`lab${i}`} name={`prices.labourByNps[${i}].perMPerLayer`} label={`Pipe labour per metre per layer, ${i === 0 ? `up to NPS ${b.maxNps}` : b.maxNps >= 1000 ? `over NPS ${basis.prices.labourByNps![i - 1].maxNps}` : `NPS ${basis.prices.labourByNps![i - 1].maxNps}–${b.maxNps}`}`} />
         ))}
         {basis.prices.labourByNps?.map((b, i) => <input key={`labn${i}`} type="hidden" name={`prices.labourByNps[${i}].maxNps`} value={b.maxNps} />)}
         <Num name="prices.accessoriesPerM" label="Accessories per metre of pipe" />

@@ -43,6 +43,7 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
     freeze: basis.freeze,
     economics: basis.economics,
     prices: { ...basis.prices },
+    sweepAllCandidates: true,
   };
 }
 

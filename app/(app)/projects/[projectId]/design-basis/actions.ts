@@ -10,6 +10,7 @@ import { checkBandRanges, designBasisObject, designBasisSchema, fieldName } from
 import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis, updateOwnJacket, updateOwnMaterial } from '@/lib/lines/store';
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 import { logUnexpected } from '@/lib/log';
+import { formDataToSi } from '@/lib/format/basis-units';
 
 // Material prices per m³, jacketing rates by jacket and the project's own materials and jackets are
 // kept from the stored basis (they are not on this form).
@@ -18,7 +19,9 @@ const formSchema = designBasisObject.omit({ ownMaterials: true, ownJackets: true
 
 type Reply = SubmissionResult<string[]> & { revision?: number };
 
-export async function saveDesignBasisAction(_prev: unknown, formData: FormData): Promise<Reply> {
+export async function saveDesignBasisAction(_prev: unknown, shownData: FormData): Promise<Reply> {
+  // The form shows the project's units (shownUnits); the schema and the store speak SI.
+  const formData = formDataToSi(shownData, shownData.get('shownUnits') === 'US' ? 'US' : 'SI');
   const submission = parseWithZod(formData, { schema: formSchema });
   const { user } = await validateRequest();
   if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });

@@ -268,3 +268,19 @@ export function describeChanges(before: unknown, after: unknown): string[] {
   if (!out.length && after !== null && after !== undefined && typeof after !== 'object') out.push(readableValue(after));
   return out;
 }
+
+/**
+ * An engine or rule message (written in SI) in the project's units: "Surface ≤ 60 °C at 35 °C" →
+ * "Surface ≤ 140.0 °F at 95.0 °F"; W/m, W/m², K differences and mm thicknesses likewise. SI
+ * projects get the text with float noise removed.
+ */
+export function localizeMessage(text: string, u: Formatter): string {
+  const n = '(-?\\d+(?:\\.\\d+)?)';
+  return text
+    .replace(new RegExp(`${n} ?°C`, 'g'), (_, v) => u.temp(Number(v)))
+    .replace(new RegExp(`${n} ?W/m²`, 'g'), (_, v) => u.arealLoss(Number(v)))
+    .replace(new RegExp(`${n} ?W/m\\b`, 'g'), (_, v) => u.linearLoss(Number(v)))
+    .replace(new RegExp(`\\+ ?${n} ?K\\b`, 'g'), (_, v) => `+ ${u.tempDelta(Number(v)).replace(/^\+/, '')}`)
+    .replace(new RegExp(`${n} ?K\\b`, 'g'), (_, v) => u.tempDelta(Number(v)).replace(/^\+/, ''))
+    .replace(new RegExp(`${n} ?mm\\b`, 'g'), (_, v) => u.thickness(Number(v)));
+}

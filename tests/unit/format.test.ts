@@ -112,3 +112,14 @@ describe('readable audit changes', () => {
     expect(describeChanges({ a: { bC: 1.10000000000002 } }, { a: { bC: 2 } })).toEqual(['a › b (°C): 1.1 → 2']);
   });
 });
+
+describe('engine messages in the project units', () => {
+  it('rewrites SI quantities of a message', async () => {
+    const { localizeMessage } = await import('@/lib/format');
+    const us = formatter({ unitSystem: 'US', thicknessSeries: 'inch' });
+    expect(localizeMessage('Surface ≤ 60 °C at 35 °C still air (metal jacket limit).', us)).toBe('Surface ≤ 140.0 °F at 95.0 °F still air (metal jacket limit).');
+    expect(localizeMessage('Heat flow ≤ 50 W/m.', us)).toBe('Heat flow ≤ 52 Btu/h·ft.');
+    expect(localizeMessage('dew point 20.0 °C + 2 K margin; 38.1 mm', us)).toBe('dew point 68.0 °F + 3.6 °F margin; 1-1/2"');
+    expect(localizeMessage('Heat flow ≤ 165.10000000000002 W/m²', formatter({ unitSystem: 'SI' }))).toBe('Heat flow ≤ 165 W/m²');
+  });
+});

@@ -215,7 +215,7 @@ export const lineDesigns = pgTable('line_designs', {
 }, (t) => [index('line_designs_project_idx').on(t.projectId)]);
 
 export const roundStatusEnum = pgEnum('review_round_status', ['open', 'signed-off']);
-export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned']);
+export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned', 'vapour-retarder-repair', 'drip-protection']);
 
 /** A set of flagged lines an engineer asks the safety reviewer to decide on. */
 export const reviewRounds = pgTable('review_rounds', {
@@ -250,6 +250,8 @@ export const reviewItems = pgTable('review_items', {
   comment: text('comment'),
   decidedBy: text('decided_by').references(() => users.id),
   decidedAt: timestamp('decided_at', { withTimezone: true }),
+  /** The signed-off round this decision was carried over from (the line's inputs, design and flags unchanged since). */
+  carriedFromRound: integer('carried_from_round'),
 }, (t) => [index('review_items_round_idx').on(t.roundId), index('review_items_line_idx').on(t.lineId)]);
 
 /**

@@ -275,9 +275,12 @@ export function describeChanges(before: unknown, after: unknown): string[] {
  * projects get the text with float noise removed.
  */
 export function localizeMessage(text: string, u: Formatter): string {
+  // SI text is already in the project's units: only float noise is removed.
+  if (u.system === 'SI' && u.series === 'mm') return text.replace(/-?\d+\.\d{7,}/g, (v) => sig(Number(v), 6));
   const n = '(-?\\d+(?:\\.\\d+)?)';
   return text
     .replace(new RegExp(`${n} ?°C`, 'g'), (_, v) => u.temp(Number(v)))
+    .replace(new RegExp(`${n} ?kW\\b`, 'g'), (_, v) => u.power(Number(v) * 1000))
     .replace(new RegExp(`${n} ?W/m²`, 'g'), (_, v) => u.arealLoss(Number(v)))
     .replace(new RegExp(`${n} ?W/m\\b`, 'g'), (_, v) => u.linearLoss(Number(v)))
     .replace(new RegExp(`\\+ ?${n} ?K\\b`, 'g'), (_, v) => `+ ${u.tempDelta(Number(v)).replace(/^\+/, '')}`)

@@ -62,11 +62,14 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
       onSubmit={(e) => { e.preventDefault(); const fd = new FormData(e.currentTarget); startTransition(() => action(fd)); }}
     >
       <input type="hidden" name="projectId" value={projectId} />
-      <input type="hidden" name="shownUnits" value={sys} />
 
       {result?.status === 'success' ? <p role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm">Saved as design-basis revision {(result as { revision?: number }).revision}. Lines solved under the earlier revision are now marked stale.</p> : null}
       {result?.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">{result.error[''].join(' ')}</p> : null}
       {result?.status === 'error' && !result.error?.[''] ? <p role="alert" className="text-sm text-alarm-700">Some values are not valid; see the fields marked below. Nothing was saved.</p> : null}
+      {/* Keyed on the unit system: after a change of units every field is shown anew in the new units
+          (uncontrolled inputs keep their first values otherwise), and shownUnits names the units they are in. */}
+      <div key={sys} className="space-y-5">
+      <input type="hidden" name="shownUnits" value={sys} />
       <div className="max-w-xs">
         <label htmlFor="db-unitSystem" className="label">Units for display</label>
         <select id="db-unitSystem" name="unitSystem" defaultValue={basis.unitSystem} disabled={!canEdit} className="input">
@@ -159,6 +162,7 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         <Num name="prices.fittingItem.tee" label="Insulating a tee, per layer" />
         <Num name="prices.fittingItem.valve" label="Insulating a valve (removable cover), per layer" />
         <Num name="prices.fittingItem.flangePair" label="Insulating a flange pair, per layer" />
+      </div>
       </div>
       {canEdit ? <button className="btn-primary" disabled={pending}>{pending ? 'Saving…' : 'Save design basis'}</button> : <p className="text-sm text-ink-500">Only owners and engineers change the design basis.</p>}
     </form>

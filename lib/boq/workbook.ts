@@ -67,11 +67,11 @@ export async function billWorkbook(q: BillQuantities, meta: BillMeta, delta: Qua
     ['Waste allowance', f.wasteFraction], ['Jacket overlap allowance', f.jacketOverlapFraction],
     [`Equivalent length per elbow (${LU})`, len(f.equivalentLengthM.elbow)], [`Equivalent length per tee (${LU})`, len(f.equivalentLengthM.tee)],
     [`Equivalent length per valve (${LU})`, len(f.equivalentLengthM.valve)], [`Equivalent length per flange pair (${LU})`, len(f.equivalentLengthM.flangePair)],
-    ['Units', us ? 'US customary: ft, ft², ft³ (1 ft = 0.3048 m exactly); thicknesses in mm and in.' : 'SI: m, m², m³; thicknesses in mm.'],
-    ...(priced ? [['Currency', `${meta.currency} (ISO 4217): material prices per m³ from the design basis, waste included; labour, jacketing and accessories are not in this column.`]] : []),
     ['Basis of factors', 'Allowances and fitting equivalents are common-practice estimates set for the project; confirm them against the installation specification.'],
     ['Caution', 'Thicknesses come from engineering estimates by published methods with typical material data (verify with the manufacturer). Personnel-protection and condensation decisions follow local codes and a qualified person.'],
     ['Pending lines', 'Lines not yet decided, needing re-decision, or awaiting safety sign-off are listed in the line schedule as pending and are not in the quantities.'],
+    ['Units', us ? 'US customary: ft, ft², ft³ (1 ft = 0.3048 m exactly); thicknesses in mm and in.' : 'SI: m, m², m³; thicknesses in mm.'],
+    ...(priced ? [['Currency', `${meta.currency} (ISO 4217): material prices per m³ from the design basis, waste included; labour, jacketing and accessories are not in this column.`]] : []),
   ].forEach((r) => notes.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v))));
   notes.getColumn(1).width = 36; notes.getColumn(2).width = 110;
   notes.getColumn(1).font = { bold: true };

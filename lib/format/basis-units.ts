@@ -44,32 +44,40 @@ export function kindUnit(kind: FieldKind, system: UnitSystem): string {
   }
 }
 
-// Ten significant figures both ways: a value shown and saved unchanged comes back to the same SI
-// number (the save then changes nothing and the revision stays).
-const tidy = (v: number) => Number(v.toPrecision(10));
+// Shown to six significant figures (16.9901 per ft³, not 16.99010796); a field sent back as it was
+// shown keeps its stored SI value exactly (formDataToSi), so saving an unchanged form changes nothing.
+const shownPrecision = (v: number) => Number(v.toPrecision(6));
 
 /** An SI value as the form shows it in `system`. */
 export function toFormValue(kind: FieldKind, system: UnitSystem, si: number): number {
-  return system === 'US' ? tidy(TO_US[kind](si)) : si;
+  return system === 'US' && kind !== 'none' ? shownPrecision(TO_US[kind](si)) : si;
 }
 
-/** A value typed in `system` back to SI. */
+/** A value typed in `system` back to SI (twelve significant figures: no float noise from the factors). */
 export function fromFormValue(kind: FieldKind, system: UnitSystem, shown: number): number {
-  return system === 'US' ? tidy(FROM_US[kind](shown)) : shown;
+  return system === 'US' ? Number(FROM_US[kind](shown).toPrecision(12)) : shown;
+}
+
+function valueAt(o: unknown, name: string): unknown {
+  return name.replace(/\[(\d+)\]/g, '.$1').split('.').reduce<unknown>((a, k) => (a && typeof a === 'object' ? (a as Record<string, unknown>)[k] : undefined), o);
 }
 
 /**
- * Converts the numeric fields of a submitted form from the units it was shown in to SI, in place on
- * a copy: only non-empty fields whose text is a finite number are converted; the rest pass through
- * for the schema to judge (its messages name the field).
+ * Converts the numeric fields of a submitted form from the units it was shown in to SI, on a copy:
+ * only non-empty fields whose text is a finite number are converted; the rest pass through for the
+ * schema to judge (its messages name the field). A field whose text is what the form showed for
+ * the stored value (`current`) keeps the stored SI value.
  */
-export function formDataToSi(fd: FormData, shownIn: UnitSystem): FormData {
+export function formDataToSi(fd: FormData, shownIn: UnitSystem, current?: unknown): FormData {
   if (shownIn === 'SI') return fd;
   const out = new FormData();
   for (const [k, v] of fd.entries()) {
     const kind = fieldKind(k);
-    if (typeof v === 'string' && kind !== 'none' && v.trim() !== '' && Number.isFinite(Number(v))) out.append(k, String(fromFormValue(kind, shownIn, Number(v))));
-    else out.append(k, v);
+    if (typeof v === 'string' && kind !== 'none' && v.trim() !== '' && Number.isFinite(Number(v))) {
+      const stored = valueAt(current, k);
+      const unchanged = typeof stored === 'number' && Number(v) === toFormValue(kind, shownIn, stored);
+      out.append(k, String(unchanged ? stored : fromFormValue(kind, shownIn, Number(v))));
+    } else out.append(k, v);
   }
   return out;
 }

@@ -20,18 +20,20 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   const id = await createProjectWithLines(page, 'US units walk', [lineRow('US-1', '4', 220, 'H,P'), lineRow('US-2', '2', 160, 'H,P')]);
 
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Design basis' }).click();
+  const rev0 = Number((await page.getByTestId('basis-revision').innerText()).replace(/\D/g, ''));
   await page.getByLabel('Units for display').selectOption('US');
   await page.getByLabel('Nominal thicknesses').selectOption('inch');
   await page.getByLabel('Currency').selectOption('USD');
   await page.getByRole('button', { name: 'Save design basis' }).click();
-  await expect(page.getByRole('status').filter({ hasText: 'Saved as design-basis revision 2' })).toBeVisible();
+  await expect(page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` })).toBeVisible();
   // The form now speaks the project's units: 60 °C shows as 140 °F, the 2 K dew-point margin as 3.6 °F.
   await page.reload();
   await expect(page.getByLabel('Touch limit, metal jacket °F')).toHaveValue('140');
   await expect(page.getByLabel('Dew-point margin °F')).toHaveValue('3.6');
   // Saving unchanged values converts back to the same SI numbers: no new revision.
   await page.getByRole('button', { name: 'Save design basis' }).click();
-  await expect(page.getByRole('status').filter({ hasText: 'Saved as design-basis revision 2' })).toBeVisible();
+  await expect(page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` })).toBeVisible();
+  await expect(page.getByTestId('basis-revision')).toHaveText(`Revision ${rev0 + 1}`);
 
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
   await page.getByRole('button', { name: 'Solve stale lines' }).click();
@@ -123,14 +125,14 @@ test('dispositions fit the hazard and a second review round carries over unchang
   await rp.goto(m1.url);
   await expect(rp.getByRole('heading', { level: 1, name: 'Review round 1' })).toBeVisible();
   // Sweating lines get the sweat list; a warning sign is not offered.
-  await rp.getByLabel('Flag').selectOption('sweating');
+  await rp.getByLabel('Flag', { exact: true }).selectOption('sweating');
   const disp = rp.getByLabel('Disposition', { exact: true });
   await expect(disp.locator('option')).toHaveText(['Choose…', 'Insulate for protection (back to the engineer with the thickness)', 'Repair or seal the vapour retarder', 'Accepted with drip protection (drip tray or drain)', 'Returned to the engineer']);
   await disp.selectOption('drip-protection');
   await rp.getByLabel('Comment (required to accept or return)').fill('Drip tray under the chiller header');
   await rp.getByRole('button', { name: 'Apply to all 1 shown' }).click();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 1 open · 1 decided · 0 re-opened');
-  await rp.getByLabel('Flag').selectOption('hot-surface');
+  await rp.getByLabel('Flag', { exact: true }).selectOption('hot-surface');
   await expect(disp.locator('option')).toHaveText(['Choose…', 'Insulate for protection (back to the engineer with the thickness)', 'Guard or cage (stand-off shield)', 'Warning sign and restricted access', 'Accepted as not accessible (out of reach in operation)', 'Returned to the engineer']);
   await disp.selectOption('guard');
   await rp.getByLabel('Comment (required to accept or return)').fill('Mesh guard at the walkway');

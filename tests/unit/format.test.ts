@@ -124,3 +124,34 @@ describe('engine messages in the project units', () => {
     expect(localizeMessage('U30: 12.5 kW designed', us)).toBe('U30: 42,652 Btu/h designed'); // 12.5 kW × 3412.142 Btu/h per kW = 42 651.8 [X]
   });
 });
+
+describe('the design-basis form in US units', () => {
+  it('shows each field in its unit and a form saved unchanged comes back to the same SI basis', async () => {
+    const { fieldKind, kindUnit, toFormValue, formDataToSi } = await import('@/lib/format/basis-units');
+    const { DEFAULT_DESIGN_BASIS } = await import('@/lib/lines/design-basis');
+    expect(fieldKind('conditions.personnel.outdoor.airC')).toBe('temp');
+    expect(fieldKind('systems[2].toC')).toBe('temp');
+    expect(fieldKind('dewPointMarginK')).toBe('tempDelta');
+    expect(fieldKind('prices.labourByNps[0].perMPerLayer')).toBe('moneyPerM');
+    expect(fieldKind('economics.energyPricePerKWh')).toBe('none');
+    expect(kindUnit('wind', 'US')).toBe('mph');
+    expect(toFormValue('temp', 'US', 60)).toBe(140);
+    expect(toFormValue('wind', 'US', 5)).toBe(11.1847); // 5 / 0.44704 = 11.18468 mph (1 mph = 0.44704 m/s exactly)
+    expect(toFormValue('moneyPerM3', 'US', 600)).toBe(16.9901); // 600 × 0.3048³ [X]
+    const fd = new FormData();
+    const walk = (o: unknown, path: string) => {
+      if (typeof o === 'number') fd.append(path, String(toFormValue(fieldKind(path), 'US', o)));
+      else if (Array.isArray(o)) o.forEach((x, i) => walk(x, `${path}[${i}]`));
+      else if (o && typeof o === 'object') for (const [k, v] of Object.entries(o)) walk(v, path ? `${path}.${k}` : k);
+    };
+    walk(DEFAULT_DESIGN_BASIS, '');
+    const back = formDataToSi(fd, 'US', DEFAULT_DESIGN_BASIS);
+    for (const [k, v] of back.entries()) {
+      const si = k.replace(/\[(\d+)\]/g, '.$1').split('.').reduce<unknown>((a, p) => (a as Record<string, unknown>)[p], DEFAULT_DESIGN_BASIS);
+      expect([k, Number(v)]).toEqual([k, si]);
+    }
+    // A changed field is converted: 150 °F = 65.5556 °C.
+    const one = new FormData(); one.append('touchLimitMetalC', '150');
+    expect(Number(formDataToSi(one, 'US', DEFAULT_DESIGN_BASIS).get('touchLimitMetalC'))).toBeCloseTo(65.5556, 4);
+  });
+});

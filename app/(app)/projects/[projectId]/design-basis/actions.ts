@@ -20,10 +20,19 @@ const formSchema = designBasisObject.omit({ ownMaterials: true, ownJackets: true
 type Reply = SubmissionResult<string[]> & { revision?: number };
 
 export async function saveDesignBasisAction(_prev: unknown, shownData: FormData): Promise<Reply> {
-  // The form shows the project's units (shownUnits); the schema and the store speak SI.
-  const formData = formDataToSi(shownData, shownData.get('shownUnits') === 'US' ? 'US' : 'SI');
-  const submission = parseWithZod(formData, { schema: formSchema });
   const { user } = await validateRequest();
+  // The form shows the project's units (shownUnits); the schema and the store speak SI. Fields sent
+  // back as shown keep the stored value (read only for a signed-in user with access to the project).
+  const shownIn = shownData.get('shownUnits') === 'US' ? 'US' : 'SI';
+  let stored: unknown;
+  if (user && shownIn === 'US') {
+    try {
+      const { project } = await getProjectAccess({ userId: user.id, projectId: String(shownData.get('projectId') ?? ''), action: 'designBasis.edit' });
+      stored = (await getDesignBasis({ projectId: project.id })).basis;
+    } catch { stored = undefined; /* refused below with the usual answer */ }
+  }
+  const formData = formDataToSi(shownData, shownIn, stored);
+  const submission = parseWithZod(formData, { schema: formSchema });
   if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
   if (submission.status !== 'success') return submission.reply();
   try {

@@ -27,13 +27,14 @@ export const NEEDS_COMMENT: Disposition[] = ['guard', 'warning-sign', 'not-acces
 
 /**
  * The dispositions that fit an item with these flag types: the burn list for a hot surface, the sweat
- * list for a sweating one (only what fits both when it has both), insulation alone for the other
- * flags; returning to the engineer always fits.
+ * list for a sweating one (only what fits both when it has both); returning to the engineer always
+ * fits. An item with neither hazard (missing data, a pick below a criterion, a layer over its
+ * service temperature) names no hazard to fit, so every disposition stays open to the reviewer.
  */
 export function dispositionsFor(flagTypes: readonly string[]): Disposition[] {
   let allowed: Disposition[] | null = null;
   const meet = (list: Disposition[]) => { allowed = allowed ? allowed.filter((d) => list.includes(d)) : [...list]; };
   if (flagTypes.includes('hot-surface')) meet(BURN_DISPOSITIONS);
   if (flagTypes.includes('sweating')) meet(SWEAT_DISPOSITIONS);
-  return [...(allowed ?? ['insulate' as Disposition]), 'returned'];
+  return allowed ? [...(allowed as Disposition[]), 'returned'] : [...DISPOSITIONS];
 }

@@ -42,7 +42,10 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
 
   const r101 = page.locator('tr[data-tag="E-101"]');
   await expect(r101).toBeVisible();
-  const rec = Number(await r101.locator('td').nth(5).innerText());
+  // The thickness carries its unit (SI project, millimetre series): "50 mm".
+  const recText = await r101.locator('td').nth(5).innerText();
+  expect(recText).toMatch(/^\d+ mm$/);
+  const rec = parseFloat(recText);
   expect(rec).toBeGreaterThanOrEqual(40);
   await expect(page.locator('tr[data-tag="E-103"] td').nth(6)).toHaveText('Condensation');
 

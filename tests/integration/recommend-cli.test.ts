@@ -86,8 +86,12 @@ describe('npm run --silent recommend -- <file.json>', () => {
     expect(runRecommendCase({ id: 'x', geometry: 'horizontal-vessel', pipeOuterDiameterMm: 3000, normalTempC: 90, purposes: ['personnelProtection'] })).toEqual({ id: 'x', error: 'lengthM: a horizontal-vessel needs its lengthM' });
 
     const f = runRecommendCase({ id: 'f', geometry: 'horizontal-pipe', nps: '2', normalTempC: 10, purposes: ['freezeProtection'], pipeWallMm: 3.91 }) as RecommendResult;
-    expect(f.criteria.freeze!.hoursToFreezingPoint!).toBeGreaterThanOrEqual(8);
+    // The requirement is met when the allowed ice fraction (25 % by default) has frozen, not when the
+    // water reaches 0 °C (ISO 12241 method, since the ice-fraction change): cooling comes first.
     expect(f.criteria.freeze!.requiredHours).toBe(8);
+    expect(f.criteria.freeze!.iceFractionPct).toBe(25);
+    expect((f.criteria.freeze as { hoursToIceFraction: number }).hoursToIceFraction).toBeGreaterThanOrEqual(8);
+    expect(f.criteria.freeze!.hoursToFreezingPoint!).toBeLessThan((f.criteria.freeze as { hoursToIceFraction: number }).hoursToIceFraction);
 
     const calc = runCase({ geometry: 'horizontal-pipe', pipeOuterDiameterMm: 60.3, processTempC: -30, ambientTempC: -5, relativeHumidityPct: 90, windSpeedMs: 0, surfaceEmittance: 0.9, layers: [] }) as { dewPointC: number; frostPointC: number; warnings: string[] };
     psychrolib.SetUnitSystem(psychrolib.SI);

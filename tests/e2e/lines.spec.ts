@@ -64,7 +64,9 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
   // The line detail shows the choice and the overall coefficient with its reference areas.
   await page.locator('tr[data-tag="E-101"] a').click();
   await expect(page.getByText('(manual pick)')).toBeVisible();
-  await expect(page.getByText('Reason: One size up for the wind at the jetty')).toBeVisible();
+  await expect(page.getByText('Reason: One size up for the wind at the jetty', { exact: true })).toBeVisible();
+  // The record reads as changes, not JSON.
+  await expect(page.getByRole('table', { name: 'Audit trail' })).toContainText('reason: One size up for the wind at the jetty');
   await expect(page.getByText('U referred to the outer surface')).toBeVisible();
   await expect(page.getByRole('img', { name: 'Heat loss and annual cost against thickness' })).toBeVisible();
 });

@@ -241,7 +241,7 @@ export const bulkAccepts = pgTable('bulk_accepts', {
 }, (t) => [index('bulk_accepts_project_idx').on(t.projectId, t.acceptedAt)]);
 
 export const roundStatusEnum = pgEnum('review_round_status', ['open', 'signed-off']);
-export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned']);
+export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned', 'vapour-retarder-repair', 'drip-protection']);
 
 /** A set of flagged lines an engineer asks the safety reviewer to decide on. */
 export const reviewRounds = pgTable('review_rounds', {
@@ -276,6 +276,8 @@ export const reviewItems = pgTable('review_items', {
   comment: text('comment'),
   decidedBy: text('decided_by').references(() => users.id),
   decidedAt: timestamp('decided_at', { withTimezone: true }),
+  /** The signed-off round this decision was carried over from (the line's inputs, design and flags unchanged since). */
+  carriedFromRound: integer('carried_from_round'),
 }, (t) => [index('review_items_round_idx').on(t.roundId), index('review_items_line_idx').on(t.lineId)]);
 
 /**

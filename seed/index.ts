@@ -101,13 +101,17 @@ async function seedReview(db: ReturnType<typeof drizzle<typeof schema>>, project
   const comments: Record<string, string> = { guard: 'Mesh guard on the platform side', 'warning-sign': 'Hot-surface signs at both ladders', 'not-accessible': 'Above the pipe rack, no platform' };
   for (const [i, item] of r1.items.entries()) {
     const d = (['not-accessible', 'guard', 'warning-sign'] as const)[i % 3];
-    await reviewStore.dispose({ projectId, roundId: first.round.id, itemIds: [item.id], disposition: item.flags.some((f) => f.type === 'hot-surface') ? d : 'not-accessible', comment: comments[d], userId: reviewer.id });
+    await reviewStore.dispose({ projectId, roundId: first.round.id, itemIds: [item.id], disposition: item.flags.some((f) => f.type === 'hot-surface') ? d : item.flags.some((f) => f.type === 'sweating') ? 'drip-protection' : 'not-accessible', comment: item.flags.some((f) => f.type === 'sweating') && !item.flags.some((f) => f.type === 'hot-surface') ? 'Drip tray below, drains to the bund' : comments[d], userId: reviewer.id });
   }
   await reviewStore.signOff({ projectId, roundId: first.round.id, userId: reviewer.id });
   const second = await reviewStore.requestReview({ projectId, userId: engineerId, note: 'Whole site after the revision 1 picks' });
   const r2 = await reviewStore.getRound({ projectId, roundId: second.round.id });
   const some = r2.items.slice(0, Math.ceil(r2.items.length / 3));
-  if (some.length) await reviewStore.dispose({ projectId, roundId: second.round.id, itemIds: some.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs and barrier tape until the guards arrive', userId: reviewer.id });
+  // Each hazard gets its own remedy: signs for the hot surfaces, drip trays for the sweating ones.
+  const sweating = some.filter((i) => i.flags.some((f) => f.type === 'sweating'));
+  const rest = some.filter((i) => !sweating.includes(i));
+  if (rest.length) await reviewStore.dispose({ projectId, roundId: second.round.id, itemIds: rest.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs and barrier tape until the guards arrive', userId: reviewer.id });
+  if (sweating.length) await reviewStore.dispose({ projectId, roundId: second.round.id, itemIds: sweating.map((i) => i.id), disposition: 'drip-protection', comment: 'Drip trays under the flanges until the lagging is redone', userId: reviewer.id });
   console.error(`[seed] review: round ${first.round.number} signed off (${r1.items.length} lines), round ${second.round.number} open (${some.length} of ${r2.items.length} decided)`);
 }
 

@@ -8,6 +8,7 @@ import { getDesignBasis } from '@/lib/lines/store';
 import { currentFlags } from '@/lib/review/store';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { isIncompleteLine } from '@/lib/lines/fields';
+import type { DesignBasis } from '@/lib/lines/design-basis';
 import { billWorkbook } from './workbook';
 import { computeQuantities, quantityDelta, type BillQuantities, type BoqLine } from './quantities';
 
@@ -80,6 +81,13 @@ export async function getIssue({ projectId, number }: { projectId: string; numbe
   return { issue, quantities: q, delta: quantityDelta(prev ? (prev.quantities as BillQuantities) : null, q) };
 }
 
+/** Material price per m³ by material name (the bill's rows carry names): the project's price, else the default. */
+export function materialPricesByName(basis: DesignBasis): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const m of catalogueOf(basis).materials.values()) out[m.name] = basis.prices.materialPerM3[m.id] ?? basis.prices.defaultMaterialPerM3;
+  return out;
+}
+
 export async function issueWorkbook({ projectId, number }: { projectId: string; number: number }) {
   const { issue, quantities, delta } = await getIssue({ projectId, number });
   const [p] = await db.select({ project: projects, org: organizations.name }).from(projects).innerJoin(organizations, eq(organizations.id, projects.organizationId)).where(eq(projects.id, projectId));
@@ -88,6 +96,7 @@ export async function issueWorkbook({ projectId, number }: { projectId: string; 
     projectCode: p.project.code, projectName: p.project.name, site: p.project.site, organization: p.org, issueNumber: issue.number, issuedAt: issue.issuedAt,
     issuedBy: await actorName(issue.issuedBy), basisRevision: issue.basisRevision, lineListRevision: issue.lineListRevision,
     inches: basis.thicknessSeries === 'inch' || basis.unitSystem === 'US',
+    unitSystem: basis.unitSystem, currency: basis.currency, materialPricePerM3: materialPricesByName(basis),
   }, delta);
   return { buf, fileName: `${p.project.code}-bill-of-quantities-issue-${issue.number}.xlsx` };
 }

@@ -3,6 +3,7 @@ import { DEFAULT_COOLING, DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/therma
 import { DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal/fittings';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
+import { isCurrencyCode } from '@/lib/format';
 
 /**
  * The project's design basis: the conditions each criterion is checked under, the limits, the
@@ -68,6 +69,9 @@ export const designBasisObject = z.object({
   unitSystem: z.enum(['SI', 'US']),
   /** Nominal thicknesses offered: the millimetre series or the inch series of each product. */
   thicknessSeries: z.enum(['mm', 'inch'], { error: 'Choose the millimetre or the inch series' }).default('mm'),
+  /** ISO 4217 code of every price and cost of the project (display only: no result depends on it). */
+  currency: z.string({ error: 'Currency: choose a currency' }).trim().toUpperCase()
+    .refine(isCurrencyCode, { error: 'Currency must be a three-letter ISO 4217 code such as EUR or USD' }).default('EUR'),
   conditions: z.object({
     heatLoss: z.object({ outdoor: cond, indoor: cond }),
     personnel: z.object({ outdoor: cond, indoor: cond }),
@@ -162,6 +166,7 @@ const C = DEFAULT_CRITERIA.conditions;
 export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   unitSystem: 'SI',
   thicknessSeries: 'mm',
+  currency: 'EUR',
   conditions: {
     // Outdoor conditions and the limits are the engine's defaults; indoor ones are set here.
     heatLoss: { outdoor: { airC: C.heatLoss.airC, windMs: C.heatLoss.windMs }, indoor: { airC: 20, windMs: 0 } },
@@ -202,6 +207,7 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   flatRange: 'Annual-cost curves are flat near the optimum; the range within this percentage is shown, and the project may take its thinnest thickness (common practice leans to the thinner).',
   economics: 'Energy price, efficiency, hours and rates are placeholders: set the plant\'s own figures.',
   systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification. Vessels and flat surfaces take blanket or board where a band names one (pipe sections do not fit them).',
+  currency: 'Every price on the design basis and every cost shown (budget, bill, economics) is in this currency (ISO 4217 code). Changing it relabels; it converts nothing.',
   thicknessSeries: 'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };

@@ -44,6 +44,7 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
     energyCode: basis.energyCode === 'ashrae-90.1' ? 'ashrae-90.1' : undefined,
     economics: basis.economics,
     prices: { ...basis.prices },
+    sweepAllCandidates: true,
   };
 }
 

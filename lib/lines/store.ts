@@ -61,12 +61,12 @@ export async function saveDesignBasis({ projectId, userId, basis }: { projectId:
   const canon = (v: unknown): unknown => (Array.isArray(v) ? v.map(canon) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canon((v as Record<string, unknown>)[k])])) : v);
   const json = (v: unknown) => JSON.stringify(canon(v));
   return withLockedBasis(projectId, async (tx, row, current) => {
-    // What changed, by section; the display unit system changes no result, so it alone keeps the
-    // revision (nothing goes stale).
+    // What changed, by section; the display unit system and the currency label change no result, so
+    // they alone keep the revision (nothing goes stale).
     const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])]
       .filter((k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]));
     if (!changed.length) return { revision: row.revision };
-    const revision = await writeBasis(tx, projectId, userId, basis, changed.some((k) => k !== 'unitSystem'));
+    const revision = await writeBasis(tx, projectId, userId, basis, changed.some((k) => k !== 'unitSystem' && k !== 'currency'));
     await writeAudit(tx, [{
       projectId, actorId: userId, actorName: await actorName(userId), action: 'design basis saved',
       before: { revision: row.revision, ...Object.fromEntries(changed.map((k) => [k, (current as Record<string, unknown>)[k]])) },
@@ -334,8 +334,9 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
       lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basisJson, input),
       recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: systemLabelOf(s.system, r.layers), jacketId: s.system.jacket.id,
       outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
-      // Compact cost curve and candidate table: [mm, layers, heat flow, surface °C (heat-loss), surface °C (personnel), annual cost, limits ok]
-      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 6), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk]),
+      // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
+      // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
+      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 6), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk, c.condensation ? round(c.condensation.surfaceC, 2) : null]),
       design: r.design ? { profileC: r.design.profileC, overall: r.design.overall, convective: r.design.convectiveWPerM2K, radiative: r.design.radiativeWPerM2K } : null,
       heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null, totalHeatW: s.totalHeatW, bareHeatW: s.bareHeatW, surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
       personnelSurfaceC: chosen?.personnel?.surfaceC ?? null, annualMWh: r.annual?.energyMWh ?? null, annualCost: r.annual?.cost ?? null, co2Tonnes: r.annual?.co2Tonnes ?? null,
@@ -375,7 +376,7 @@ export async function listLines(o: LineQuery) {
     id: lines.id, tag: lines.tag, service: lines.service, area: lines.area, geometry: lines.geometry, nps: lines.nps, outsideDiameterMm: lines.outsideDiameterMm,
     lengthM: lines.lengthM, surfaceAreaM2: lines.surfaceAreaM2, normalTempC: lines.normalTempC, maxTempC: lines.maxTempC, purposes: lines.purposes, outdoor: lines.outdoor, accessible: lines.accessible,
     recommendedMm: lineResults.recommendedMm, governing: lineResults.governing, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC,
-    personnelSurfaceC: lineResults.personnelSurfaceC, unmet: lineResults.unmet, candidates: lineResults.candidates,
+    personnelSurfaceC: lineResults.personnelSurfaceC, unmet: lineResults.unmet, candidates: lineResults.candidates, jacketId: lineResults.jacketId,
     chosenMm: lineDesigns.thicknessMm, source: lineDesigns.source, belowCriterion: lineDesigns.belowCriterion, needsRedecision: lineDesigns.needsRedecision, designVersion: lineDesigns.version,
     stale,
   }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where));
@@ -408,7 +409,7 @@ export async function listRevisions({ projectId }: { projectId: string }) {
 
 // ---------- design picks ----------
 
-type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean];
+type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean, (number | null)?];
 const HARD: ReadonlySet<string> = HARD_CRITERIA;
 
 /**

@@ -15,16 +15,18 @@ import { getDesignBasis, inputOf } from '@/lib/lines/store';
 import { isResultStale } from '@/lib/lines/stale';
 import { FLAG_LABEL, flagsForLine, type Flag, type FlagType } from './flags';
 
-export type Disposition = 'insulate' | 'guard' | 'warning-sign' | 'not-accessible' | 'returned';
-export const DISPOSITION_LABEL: Record<Disposition, string> = {
-  insulate: 'Insulate for protection (back to the engineer with the thickness)',
-  guard: 'Guard or cage',
-  'warning-sign': 'Warning sign and restricted access',
-  'not-accessible': 'Accepted as not accessible',
-  returned: 'Returned to the engineer',
-};
-/** Dispositions that accept a surface as it is: each needs a comment. Returning one needs one too. */
-const NEEDS_COMMENT: Disposition[] = ['guard', 'warning-sign', 'not-accessible', 'returned'];
+import { DISPOSITION_LABEL, NEEDS_COMMENT, dispositionsFor, type Disposition } from './dispositions';
+export { DISPOSITION_LABEL, type Disposition };
+
+/**
+ * Two flag lists are the same finding when they name the same types with the same numbers and
+ * conditions (values compared to 0.01 K; the wording may change between versions).
+ */
+export function sameFlags(a: Flag[], b: Flag[]): boolean {
+  const key = (f: Flag) => JSON.stringify([f.type, f.valueC === undefined ? null : Math.round(f.valueC * 100), f.limitC === undefined ? null : Math.round(f.limitC * 100), f.conditions ?? null]);
+  const ka = a.map(key).sort(), kb = b.map(key).sort();
+  return ka.length === kb.length && ka.every((k, i) => k === kb[i]);
+}
 
 
 
@@ -70,15 +72,36 @@ export async function requestReview({ projectId, userId, area, note = '' }: { pr
   if (flagged.length === 0) throw new AppError('invalid', 'No line is flagged; there is nothing to review.');
   const { revision } = await getDesignBasis({ projectId });
   const name = await actorName(userId);
-  const round = await db.transaction(async (tx) => {
+  const { round, carried } = await db.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'review' + projectId}))`);
     const [open] = await tx.select().from(reviewRounds).where(and(eq(reviewRounds.projectId, projectId), eq(reviewRounds.status, 'open')));
     if (open) throw new AppError('conflict', `Review round ${open.number} is still open; the reviewer signs it off before a new one is requested.`);
     const [{ n }] = await tx.select({ n: sql<number>`coalesce(max(${reviewRounds.number}), 0)` }).from(reviewRounds).where(eq(reviewRounds.projectId, projectId));
     const [r] = await tx.insert(reviewRounds).values({ projectId, number: Number(n) + 1, note, requestedBy: userId, calcVersion: CALCULATION_VERSION, basisRevision: revision }).returning();
-    await tx.insert(reviewItems).values(flagged.map((f) => ({ roundId: r.id, projectId, lineId: f.lineId, tag: f.tag, area: f.area, flags: f.flags, lineInputVersion: f.inputVersion, designVersion: f.designVersion })));
-    await writeAudit(tx, [{ projectId, actorId: userId, actorName: name, action: `review round ${r.number} requested`, after: { lines: flagged.length, counts: countByType(flagged), area: area ?? null } }]);
-    return r;
+    // Carry-over: each line's latest decision in a signed-off round stands when the line's inputs,
+    // its chosen design and its flags are what they were then. The decision is copied into a new
+    // row of the new round (rows of signed-off rounds never change: migration 0007).
+    const previous = await tx.selectDistinctOn([reviewItems.lineId], { item: reviewItems, number: reviewRounds.number })
+      .from(reviewItems).innerJoin(reviewRounds, eq(reviewRounds.id, reviewItems.roundId))
+      .where(and(eq(reviewRounds.projectId, projectId), eq(reviewRounds.status, 'signed-off'), inArray(reviewItems.lineId, flagged.map((f) => f.lineId))))
+      .orderBy(reviewItems.lineId, desc(reviewRounds.number));
+    const prevByLine = new Map(previous.map((p) => [p.item.lineId, p]));
+    let carriedCount = 0;
+    const rows = flagged.map((f) => {
+      const base = { roundId: r.id, projectId, lineId: f.lineId, tag: f.tag, area: f.area, flags: f.flags, lineInputVersion: f.inputVersion, designVersion: f.designVersion };
+      const p = prevByLine.get(f.lineId);
+      const d = p?.item.disposition as Disposition | null | undefined;
+      if (!p || !d || d === 'returned' || p.item.lineInputVersion !== f.inputVersion || p.item.designVersion !== f.designVersion
+        || !sameFlags(p.item.flags as Flag[], f.flags) || !dispositionsFor(f.flags.map((x) => x.type)).includes(d)) return base;
+      carriedCount++;
+      return { ...base, disposition: d, comment: p.item.comment, requiredMm: p.item.requiredMm, decidedBy: p.item.decidedBy, decidedAt: p.item.decidedAt, carriedFromRound: p.number };
+    });
+    await tx.insert(reviewItems).values(rows);
+    await writeAudit(tx, [
+      { projectId, actorId: userId, actorName: name, action: `review round ${r.number} requested`, after: { lines: flagged.length, counts: countByType(flagged), carriedOver: carriedCount, area: area ?? null } },
+      ...rows.filter((x) => 'carriedFromRound' in x).map((x) => ({ projectId, lineId: x.lineId, tag: x.tag, actorId: userId, actorName: name, action: `decision carried over to round ${r.number}`, after: { disposition: (x as { disposition: string }).disposition, fromRound: (x as { carriedFromRound: number }).carriedFromRound } })),
+    ]);
+    return { round: r, carried: carriedCount };
   });
   const counts = countByType(flagged);
   const [project] = await db.select().from(projects).where(eq(projects.id, projectId));
@@ -87,12 +110,13 @@ export async function requestReview({ projectId, userId, area, note = '' }: { pr
     await sendMail(composeMail({
       to: rv.email,
       subject: `Safety review requested: ${project.code} round ${round.number} (${flagged.length} lines)`,
-      lines: [`${name} asks you to review ${flagged.length} flagged surfaces of ${project.name}.`, ...Object.entries(counts).map(([t, c]) => `${FLAG_LABEL[t as FlagType]}: ${c}`), note ? `Note: ${note}` : ''].filter(Boolean),
-      link: { label: 'Open the review', url: `${env.appUrl()}/projects/${projectId}/review` },
+      lines: [`${name} asks you to review ${flagged.length} flagged surfaces of ${project.name} in round ${round.number}.`, ...Object.entries(counts).map(([t, c]) => `${FLAG_LABEL[t as FlagType]}: ${c}`),
+        carried ? `${carried} decision${carried === 1 ? '' : 's'} carried over from earlier signed-off rounds (line, design and flags unchanged); ${flagged.length - carried} to decide.` : '', note ? `Note: ${note}` : ''].filter(Boolean),
+      link: { label: `Open review round ${round.number}`, url: `${env.appUrl()}/projects/${projectId}/review/${round.id}` },
       footer: 'Results are estimates by published methods; burn thresholds depend on material and contact time; decisions follow local codes and a qualified person.',
     }));
   }
-  return { round, lines: flagged.length, counts, notified: reviewers.length };
+  return { round, lines: flagged.length, counts, carried, notified: reviewers.length };
 }
 
 export type ItemStatus = 'open' | 'decided' | 'reopened';
@@ -113,7 +137,7 @@ export async function getRound({ projectId, roundId }: { projectId: string; roun
       else if (inputVersion !== item.lineInputVersion) { status = 'reopened'; why = 'The line\'s inputs changed after the decision.'; }
       else if ((designVersion ?? 0) !== item.designVersion) { status = 'reopened'; why = 'The line\'s chosen design changed after the decision.'; }
     }
-    return { ...item, flags: item.flags as Flag[], status, reopenReason: why, deciderName: decider };
+    return { ...item, flags: item.flags as Flag[], status, reopenReason: why, deciderName: decider, allowed: dispositionsFor((item.flags as Flag[]).map((f) => f.type)) };
   });
   const { revision } = await getDesignBasis({ projectId });
   const stale = round.calcVersion !== CALCULATION_VERSION || round.basisRevision !== revision;
@@ -139,11 +163,16 @@ export async function dispose(o: { projectId: string; roundId: string; itemIds: 
       .from(reviewItems).leftJoin(lines, eq(lines.id, reviewItems.lineId)).leftJoin(lineDesigns, eq(lineDesigns.lineId, reviewItems.lineId)).leftJoin(lineResults, eq(lineResults.lineId, reviewItems.lineId))
       .where(and(eq(reviewItems.roundId, round.id), inArray(reviewItems.id, o.itemIds)));
     if (items.length !== new Set(o.itemIds).size) throw new AppError('not_found', 'Some lines are not part of this round.');
+    const misfit = items.filter(({ item }) => !dispositionsFor((item.flags as Flag[]).map((f) => f.type)).includes(o.disposition));
+    if (misfit.length) {
+      const tags = misfit.slice(0, 5).map(({ item }) => item.tag).join(', ') + (misfit.length > 5 ? ', …' : '');
+      throw new AppError('invalid', `Disposition: "${DISPOSITION_LABEL[o.disposition]}" does not fit the flags of ${misfit.length === 1 ? 'line' : `${misfit.length} lines`} ${tags}; choose one for ${misfit.some(({ item }) => (item.flags as Flag[]).some((f) => f.type === 'sweating')) ? 'a sweating surface' : 'a hot surface'}.`, { disposition: ['Choose a disposition that fits the flag.'] });
+    }
     const now = new Date();
     const audit = [];
     for (const { item, inputVersion, designVersion, recommendedMm } of items) {
       const after = { disposition: o.disposition, comment: comment || null, requiredMm: o.disposition === 'insulate' ? o.requiredMm ?? recommendedMm ?? null : null };
-      await tx.update(reviewItems).set({ ...after, decidedBy: o.userId, decidedAt: now, lineInputVersion: inputVersion ?? item.lineInputVersion, designVersion: designVersion ?? 0 }).where(eq(reviewItems.id, item.id));
+      await tx.update(reviewItems).set({ ...after, carriedFromRound: null, decidedBy: o.userId, decidedAt: now, lineInputVersion: inputVersion ?? item.lineInputVersion, designVersion: designVersion ?? 0 }).where(eq(reviewItems.id, item.id));
       audit.push({ projectId: o.projectId, lineId: item.lineId, tag: item.tag, actorId: o.userId, actorName: name, action: `disposition (round ${round.number})`, before: item.disposition ? { disposition: item.disposition, comment: item.comment } : null, after });
     }
     await writeAudit(tx, audit);

@@ -59,6 +59,12 @@ export interface Criteria {
   prices?: PriceModel;
   /** An energy code whose minimum pipe insulation is a hard criterion (energy-code.ts). */
   energyCode?: 'ashrae-90.1';
+  /**
+   * Solve every candidate under the personnel and condensation conditions, not only up to the first
+   * that meets the criterion (the product shows each candidate's numbers; the benchmark and the
+   * CLI leave it off). The recommendation is the same either way.
+   */
+  sweepAllCandidates?: boolean;
 }
 
 export interface MaterialSystem { outer: InsulationMaterial; inner?: InsulationMaterial; jacket: Jacket; series?: Partial<SeriesOptions> }
@@ -437,8 +443,9 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     for (let i = 0; i < n; i++) {
       const r = solveInSweep(lc, i, maxC, i === 0 ? bare : a, sweep);
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
+      if (idx !== null) continue; // past the requirement: for display only, decides nothing
       if (!r.limitOk) results[i].serviceLimitOk = false;
-      if (r.Ts <= limit) { idx = i; break; }
+      if (r.Ts <= limit) { idx = i; if (!crit.sweepAllCandidates) break; }
     }
     outcomes.push({ id: 'personnel', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
@@ -456,7 +463,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     for (let i = 0; i < n; i++) {
       const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? bare : a, sweep);
       results[i].condensation = { surfaceC: r.Ts };
-      if (r.Ts >= need) { idx = i; break; }
+      if (idx !== null) continue;
+      if (r.Ts >= need) { idx = i; if (!crit.sweepAllCandidates) break; }
     }
     outcomes.push({ id: 'condensation', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`

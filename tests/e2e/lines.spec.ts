@@ -42,7 +42,10 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
 
   const r101 = page.locator('tr[data-tag="E-101"]');
   await expect(r101).toBeVisible();
-  const rec = Number(await r101.locator('td').nth(5).innerText());
+  // The thickness carries its unit (SI project, millimetre series): "50 mm".
+  const recText = await r101.locator('td').nth(5).innerText();
+  expect(recText).toMatch(/^\d+ mm$/);
+  const rec = parseFloat(recText);
   expect(rec).toBeGreaterThanOrEqual(40);
   await expect(page.locator('tr[data-tag="E-103"] td').nth(6)).toHaveText('Condensation');
 
@@ -61,7 +64,9 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
   // The line detail shows the choice and the overall coefficient with its reference areas.
   await page.locator('tr[data-tag="E-101"] a').click();
   await expect(page.getByText('(manual pick)')).toBeVisible();
-  await expect(page.getByText('Reason: One size up for the wind at the jetty')).toBeVisible();
+  await expect(page.getByText('Reason: One size up for the wind at the jetty', { exact: true })).toBeVisible();
+  // The record reads as changes, not JSON.
+  await expect(page.getByRole('table', { name: 'Audit trail' })).toContainText('reason: One size up for the wind at the jetty');
   await expect(page.getByText('U referred to the outer surface')).toBeVisible();
   await expect(page.getByRole('img', { name: 'Heat loss and annual cost against thickness' })).toBeVisible();
 });

@@ -19,10 +19,12 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   const rp = await ctx.newPage();
   const rev = demo('reviewer');
   await signIn(rp, rev.email, rev.password);
-  const mail = await mailLink(rev.email, /Safety review requested: .* round 1 \(2 lines\)/, 'Open the review', { after: requestedAt });
+  // The e-mail links to the round itself.
+  const mail = await mailLink(rev.email, /Safety review requested: .* round 1 \(2 lines\)/, 'Open review round 1', { after: requestedAt });
   expect(mail.text).toContain('Surface over the touch limit: 2');
+  expect(mail.url).toMatch(new RegExp(`/projects/${id}/review/[0-9a-f-]{36}$`));
   await rp.goto(mail.url);
-  await rp.getByRole('link', { name: 'Round 1', exact: true }).click();
+  await expect(rp.getByRole('heading', { level: 1, name: 'Review round 1' })).toBeVisible();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 2 open · 0 decided · 0 re-opened');
   await expect(rp.locator('tr[data-tag="RW-1"]')).toContainText(/Surface \d+\.\d °C over the 60 °C touch limit \(bare\)/);
 

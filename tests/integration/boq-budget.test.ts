@@ -49,7 +49,7 @@ describe('bill of quantities on PostgreSQL', () => {
     const wb1 = await readBook(1);
     expect(wb1.worksheets.map((w) => w.name)).toEqual(['Summary', 'Fittings', 'Jacketing', 'Vessels and flat', 'Line schedule', 'Change from previous', 'Notes']);
     const sum1 = wb1.getWorksheet('Summary')!;
-    expect(sum1.getRow(1).values).toEqual([undefined, 'Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)']);
+    expect(sum1.getRow(1).values).toEqual([undefined, 'Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)', 'Material at design-basis price (EUR)']);
     expect(sum1.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
     expect(sum1.autoFilter).toBeTruthy();
     const lengths1 = sum1.getColumn(6).values.slice(2) as number[];

@@ -91,6 +91,9 @@ describe('npm run --silent recommend -- <file.json>', () => {
     expect(f.criteria.freeze!.hoursToFreezingPoint!).toBeLessThan(f.criteria.freeze!.hoursToIceFraction!);
     expect(f.criteria.freeze!.iceFractionPct).toBe(25);
     expect(f.criteria.freeze!.requiredHours).toBe(8);
+    expect(f.criteria.freeze!.iceFractionPct).toBe(25);
+    expect((f.criteria.freeze as { hoursToIceFraction: number }).hoursToIceFraction).toBeGreaterThanOrEqual(8);
+    expect(f.criteria.freeze!.hoursToFreezingPoint!).toBeLessThan((f.criteria.freeze as { hoursToIceFraction: number }).hoursToIceFraction);
 
     const calc = runCase({ geometry: 'horizontal-pipe', pipeOuterDiameterMm: 60.3, processTempC: -30, ambientTempC: -5, relativeHumidityPct: 90, windSpeedMs: 0, surfaceEmittance: 0.9, layers: [] }) as { dewPointC: number; frostPointC: number; warnings: string[] };
     psychrolib.SetUnitSystem(psychrolib.SI);

@@ -110,7 +110,7 @@ describe('review round on PostgreSQL', () => {
     const current = (await lineStore.getDesignBasis({ projectId })).basis;
     await lineStore.saveDesignBasis({ projectId, userId: engineerId, basis: { ...current, dewPointMarginK: current.dewPointMarginK + 1 } });
     const { items } = await review.getRound({ projectId, roundId: r.round.id });
-    await review.dispose({ projectId, roundId: r.round.id, itemIds: items.map((i) => i.id), disposition: 'warning-sign', comment: 'Signs', userId: reviewerId });
+    await review.dispose({ projectId, roundId: r.round.id, itemIds: items.map((i) => i.id), disposition: 'insulate', comment: 'Insulate all' /* fits burn and sweat flags alike */, userId: reviewerId });
     await expectAppError(review.signOff({ projectId, roundId: r.round.id, userId: reviewerId }), 'conflict', /design basis changed/);
   });
 });

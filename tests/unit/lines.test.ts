@@ -99,16 +99,16 @@ describe('revision diff', () => {
 });
 
 describe('display in the project unit system', () => {
-  it('shows US customary from SI values (conversions as in lib/thermal/units)', async () => {
-    const { display } = await import('@/lib/lines/display');
-    const us = display('US'), si = display('SI');
-    expect(us.temp(100)).toBe('212');
-    expect(us.thickness(50.8)).toBe('2');
-    expect(us.thickness(9.525)).toBe('0.375'); // ⅜ in elastomeric tube keeps its size
-    expect(us.thickness(50)).toBe('1.969'); // a millimetre size is not rounded to an inch size
-    expect(us.linearLoss(100)).toBe('104.0'); // 1 W/m = 1.04007 Btu/(h·ft)
+  it('shows US customary from SI values (exact factors, lib/format)', async () => {
+    const { formatter } = await import('@/lib/format');
+    const us = formatter({ unitSystem: 'US' }), usInch = formatter({ unitSystem: 'US', thicknessSeries: 'inch' }), si = formatter({ unitSystem: 'SI' });
+    expect(us.temp(100)).toBe('212.0 °F');
+    expect(usInch.thickness(50.8)).toBe('2"');
+    expect(usInch.thickness(9.525)).toBe('3/8"'); // ⅜ in elastomeric tube keeps its size
+    expect(us.thickness(50)).toBe('1.97 in'); // a millimetre size is not rounded to an inch size
+    expect(us.linearLoss(100)).toBe('104 Btu/h·ft'); // 1 W/m = 1.04007 Btu/(h·ft) [X]
     expect(us.units).toMatchObject({ temp: '°F', thickness: 'in' });
-    expect(si.temp(100)).toBe('100.0');
+    expect(si.temp(100)).toBe('100.0 °C');
     expect(si.thickness(0)).toBe('bare');
   });
 });

@@ -1,11 +1,12 @@
 import { loadProject } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
-import { getIssue, listIssues, previewBill } from '@/lib/boq/store';
+import { getIssue, listIssues, materialPricesByName, previewBill } from '@/lib/boq/store';
+import { getDesignBasis } from '@/lib/lines/store';
+import { fixed, formatterFor } from '@/lib/format';
 import { IssueButton } from './issue-button';
 
 export const metadata = { title: 'Bill of quantities' };
-const n = (v: number, d = 1) => v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
 
 export default async function BoqPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
@@ -15,6 +16,12 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
   const canIssue = can(role, 'boq.issue');
   const preview = canIssue ? await previewBill({ projectId: project.id }) : null;
   const latest = issues[0] ? await getIssue({ projectId: project.id, number: issues[0].number }) : null;
+  const { basis } = await getDesignBasis({ projectId: project.id });
+  const u = formatterFor(basis);
+  const us = u.system === 'US';
+  const prices = materialPricesByName(basis);
+  const vol = (m3: number) => (us ? `${fixed(m3 / (0.3048 * 0.3048 * 0.3048), 2)} ft³` : `${fixed(m3, 3)} m³`);
+  const materialCost = latest ? latest.quantities.materials.reduce((a, m) => a + (prices[m.material] ?? 0) * m.volumeM3, 0) : 0;
   return (
     <>
       <h1 className="mb-3">Bill of quantities</h1>
@@ -38,20 +45,21 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
         <section aria-label="Latest issue summary">
           <h2 className="mb-2">Issue {latest.issue.number}: summary</h2>
           <table className="table-dense panel mb-4" aria-label="Material summary">
-            <thead><tr><th>Material</th><th>Layer</th><th>Size</th><th>Thickness mm</th><th className="text-right">Length m</th><th className="text-right">Volume m³</th></tr></thead>
+            <thead><tr><th>Material</th><th>Layer</th><th>Size</th><th>Thickness</th><th className="text-right">Length</th><th className="text-right">Volume</th><th className="text-right">Material at design-basis price</th></tr></thead>
             <tbody>{latest.quantities.materials.map((m, i) => (
-              <tr key={i}><td>{m.material}</td><td className="num">{m.layer}</td><td>{m.size}</td><td className="num">{m.thicknessMm}</td><td className="num">{n(m.lengthM)}</td><td className="num">{n(m.volumeM3, 3)}</td></tr>
+              <tr key={i}><td>{m.material}</td><td className="num">{m.layer}</td><td>{m.size}</td><td className="num">{u.thickness(m.thicknessMm)}</td><td className="num">{u.length(m.lengthM)}</td><td className="num">{vol(m.volumeM3)}</td><td className="num">{u.money((prices[m.material] ?? 0) * m.volumeM3)}</td></tr>
             ))}</tbody>
           </table>
+          <p className="mb-4 text-sm" data-testid="bill-material-cost">Material at the design basis&apos;s prices (waste included; labour, jacketing and accessories not included): <strong>{u.money(materialCost)}</strong></p>
           <div className="grid gap-4 md:grid-cols-2">
             <table className="table-dense panel" aria-label="Jacketing">
-              <thead><tr><th>Jacket</th><th>OD over insulation</th><th className="text-right">Area m²</th></tr></thead>
-              <tbody>{latest.quantities.jackets.map((j, i) => <tr key={i}><td>{j.jacket}</td><td>{j.outsideDiameterMm === null ? 'flat / vessel' : `${j.outsideDiameterMm} mm`}</td><td className="num">{n(j.areaM2)}</td></tr>)}</tbody>
+              <thead><tr><th>Jacket</th><th>OD over insulation</th><th className="text-right">Area</th></tr></thead>
+              <tbody>{latest.quantities.jackets.map((j, i) => <tr key={i}><td>{j.jacket}</td><td>{j.outsideDiameterMm === null ? 'flat / vessel' : u.diameter(j.outsideDiameterMm)}</td><td className="num">{u.area(j.areaM2)}</td></tr>)}</tbody>
             </table>
             <div className="panel p-3">
               <h3 className="mb-1 text-sm font-semibold">Change from issue {latest.issue.number - 1 || '—'}</h3>
               {latest.issue.number === 1 ? <p className="text-sm text-ink-500">First issue.</p> : latest.delta.length === 0 ? <p className="text-sm">No change in quantities.</p> : (
-                <ul className="max-h-64 overflow-auto text-sm" aria-label="Quantity changes">{latest.delta.map((d, i) => <li key={i}>{d.key} — {d.quantity}: {n(d.before, 2)} → {n(d.after, 2)} ({d.change > 0 ? '+' : ''}{n(d.change, 2)})</li>)}</ul>
+                <ul className="max-h-64 overflow-auto text-sm" aria-label="Quantity changes">{latest.delta.map((d, i) => <li key={i}>{d.key} — {d.quantity}: {fixed(d.before, 2)} → {fixed(d.after, 2)} ({d.change > 0 ? '+' : ''}{fixed(d.change, 2)})</li>)}</ul>
               )}
             </div>
           </div>

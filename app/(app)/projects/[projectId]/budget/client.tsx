@@ -3,19 +3,25 @@ import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { saveBudgetAction, whatIfAction } from './actions';
+import { convert, formatter, sig, type FormatOptions } from '@/lib/format';
 
 interface Totals { kW: number; mwhPerYear: number; costPerYear: number; co2TonnesPerYear: number }
 const n = (v: number, d = 1) => v.toLocaleString('en-GB', { maximumFractionDigits: d, minimumFractionDigits: d });
 
-export function AreaChart({ areas }: { areas: { area: string; bareKW: number; designedKW: number; allocationKW: number | null }[] }) {
+export function AreaChart({ areas, format }: { areas: { area: string; bareKW: number; designedKW: number; allocationKW: number | null }[]; format: FormatOptions }) {
+  // US customary: thousands of Btu/h (MBH), as US plant rooms size heat.
+  const us = format.unitSystem === 'US';
+  const p = (kw: number) => (us ? convert.wToBtuPerH(kw * 1000) / 1000 : kw);
+  const unit = us ? 'MBH (1000 Btu/h)' : 'kW';
+  areas = areas.map((a) => ({ ...a, bareKW: p(a.bareKW), designedKW: p(a.designedKW), allocationKW: a.allocationKW === null ? null : p(a.allocationKW) }));
   return (
     <div className="h-80" role="img" aria-label="Heat loss per area against allocation">
       <ResponsiveContainer>
         <BarChart data={areas.map((a) => ({ ...a, allocation: a.allocationKW ?? 0 }))} margin={{ top: 10, right: 20, left: 10, bottom: 40 }}>
           <CartesianGrid stroke="#d5d9df" strokeDasharray="3 3" />
           <XAxis dataKey="area" tick={{ fontSize: 11 }} angle={-15} textAnchor="end" interval={0} />
-          <YAxis tick={{ fontSize: 11 }} label={{ value: 'kW', angle: -90, position: 'insideLeft' }} />
-          <Tooltip formatter={(v) => (typeof v === 'number' ? `${v.toFixed(1)} kW` : String(v))} />
+          <YAxis tick={{ fontSize: 11 }} tickFormatter={(v: number) => sig(v, 3)} label={{ value: unit, angle: -90, position: 'insideLeft' }} />
+          <Tooltip formatter={(v) => (typeof v === 'number' ? `${sig(v, 3)} ${us ? 'MBH' : 'kW'}` : String(v))} />
           <Legend verticalAlign="top" height={24} />
           <Bar dataKey="designedKW" name="Designed" fill="#257a74" isAnimationActive={false} />
           <Bar dataKey="allocation" name="Allocation" fill="#eec062" isAnimationActive={false} />
@@ -25,20 +31,21 @@ export function AreaChart({ areas }: { areas: { area: string; bareKW: number; de
   );
 }
 
-export function TotalsTable({ bare, designed, savings, label = 'Totals' }: { bare: Totals; designed: Totals; savings: Totals; label?: string }) {
+export function TotalsTable({ bare, designed, savings, label = 'Totals', format }: { bare: Totals; designed: Totals; savings: Totals; label?: string; format: FormatOptions }) {
+  const u = formatter(format);
   return (
     <table className="table-dense" aria-label={label}>
-      <thead><tr><th></th><th className="text-right">kW</th><th className="text-right">MWh/yr</th><th className="text-right">Cost/yr</th><th className="text-right">t CO₂/yr</th></tr></thead>
+      <thead><tr><th></th><th className="text-right">Heat loss</th><th className="text-right">Energy per year</th><th className="text-right">Cost per year ({u.currency})</th><th className="text-right">t CO₂/yr</th></tr></thead>
       <tbody>
         {([['Bare', bare], ['Designed', designed], ['Saved by insulation', savings]] as const).map(([k, t]) => (
-          <tr key={k}><td>{k}</td><td className="num">{n(t.kW)}</td><td className="num">{n(t.mwhPerYear, 0)}</td><td className="num">{n(t.costPerYear, 0)}</td><td className="num">{n(t.co2TonnesPerYear)}</td></tr>
+          <tr key={k}><td>{k}</td><td className="num">{u.power(t.kW * 1000)}</td><td className="num">{u.energy(t.mwhPerYear)}</td><td className="num">{u.money(t.costPerYear)}</td><td className="num">{n(t.co2TonnesPerYear)}</td></tr>
         ))}
       </tbody>
     </table>
   );
 }
 
-export function WhatIfPanel({ projectId, price, hours }: { projectId: string; price: number; hours: number }) {
+export function WhatIfPanel({ projectId, price, hours, format }: { projectId: string; price: number; hours: number; format: FormatOptions }) {
   const [p, setP] = useState(String(price));
   const [h, setH] = useState(String(hours));
   const [policy, setPolicy] = useState('chosen');
@@ -50,7 +57,7 @@ export function WhatIfPanel({ projectId, price, hours }: { projectId: string; pr
       <h2 className="mb-2">What if</h2>
       <p className="mb-3 text-xs text-ink-500">Shows the totals a different price, operating time or thickness policy would give. Nothing is saved.</p>
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <div><label className="label" htmlFor="wi-price">Energy price per kWh</label><input id="wi-price" className="input w-28" value={p} onChange={(e) => setP(e.target.value)} /></div>
+        <div><label className="label" htmlFor="wi-price">Energy price per kWh ({format.currency ?? 'EUR'})</label><input id="wi-price" className="input w-28" value={p} onChange={(e) => setP(e.target.value)} /></div>
         <div><label className="label" htmlFor="wi-hours">Hours per year</label><input id="wi-hours" className="input w-28" value={h} onChange={(e) => setH(e.target.value)} /></div>
         <div><label className="label" htmlFor="wi-policy">Thickness policy</label>
           <select id="wi-policy" className="input" value={policy} onChange={(e) => setPolicy(e.target.value)}>
@@ -63,7 +70,7 @@ export function WhatIfPanel({ projectId, price, hours }: { projectId: string; pr
         }); }}>Show totals</button>
       </div>
       {error ? <p role="alert" className="text-sm text-alarm-700">{error}</p> : null}
-      {result ? <><TotalsTable bare={result.bare} designed={result.designed} savings={result.savings} label="What-if totals" />{result.warnings.map((w, i) => <p key={i} className="mt-1 text-xs text-alarm-700">{w}</p>)}</> : null}
+      {result ? <><TotalsTable bare={result.bare} designed={result.designed} savings={result.savings} label="What-if totals" format={format} />{result.warnings.map((w, i) => <p key={i} className="mt-1 text-xs text-alarm-700">{w}</p>)}</> : null}
     </section>
   );
 }

@@ -10,6 +10,7 @@ import { checkBandRanges, designBasisObject, designBasisSchema, fieldName } from
 import { addOwnJacket, addOwnMaterial, getDesignBasis, removeOwnEntry, saveDesignBasis, updateOwnJacket, updateOwnMaterial } from '@/lib/lines/store';
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 import { logUnexpected } from '@/lib/log';
+import { formDataToSi } from '@/lib/format/basis-units';
 
 // Material prices per m³, jacketing rates by jacket and the project's own materials and jackets are
 // kept from the stored basis (they are not on this form).
@@ -18,9 +19,20 @@ const formSchema = designBasisObject.omit({ ownMaterials: true, ownJackets: true
 
 type Reply = SubmissionResult<string[]> & { revision?: number };
 
-export async function saveDesignBasisAction(_prev: unknown, formData: FormData): Promise<Reply> {
-  const submission = parseWithZod(formData, { schema: formSchema });
+export async function saveDesignBasisAction(_prev: unknown, shownData: FormData): Promise<Reply> {
   const { user } = await validateRequest();
+  // The form shows the project's units (shownUnits); the schema and the store speak SI. Fields sent
+  // back as shown keep the stored value (read only for a signed-in user with access to the project).
+  const shownIn = shownData.get('shownUnits') === 'US' ? 'US' : 'SI';
+  let stored: unknown;
+  if (user && shownIn === 'US') {
+    try {
+      const { project } = await getProjectAccess({ userId: user.id, projectId: String(shownData.get('projectId') ?? ''), action: 'designBasis.edit' });
+      stored = (await getDesignBasis({ projectId: project.id })).basis;
+    } catch { stored = undefined; /* refused below with the usual answer */ }
+  }
+  const formData = formDataToSi(shownData, shownIn, stored);
+  const submission = parseWithZod(formData, { schema: formSchema });
   if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
   if (submission.status !== 'success') return submission.reply();
   try {

@@ -6,15 +6,17 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type So
 import { applyBulkAcceptAction, pickThicknessAction, previewBulkAcceptAction, solveLinesAction, undoBulkAcceptAction } from './actions';
 import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } from '@/lib/lines/filter';
 import type { BulkPreview } from '@/lib/lines/bulk-accept';
-import { display, type UnitSystem } from '@/lib/lines/display';
+import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 
-interface Candidate { mm: number; heatFlow: number; surfaceC: number; personnelC: number | null; ok: boolean }
+interface Candidate { mm: number; heatFlow: number; surfaceC: number; personnelC: number | null; condensationC: number | null; ok: boolean }
+interface Limits { personnelLimitC: number | null; condensationNeedC: number | null; dewPointC: number | null; dewBasis: string | null }
+interface Margin { criterion: 'personnel' | 'condensation'; marginK: number }
 interface Row {
   id: string; tag: string; service: string; area: string; geometry: string; nps: string | null; outsideDiameterMm: number | null;
   normalTempC: number; recommendedMm: number | null; governing: string | null; heatFlowPerUnit: number | null; surfaceTempC: number | null;
   unmet: string[] | null; chosenMm: number | null; source: 'recommended' | 'manual' | null; belowCriterion: string | null; needsRedecision: boolean | null;
-  designVersion: number | null; stale: boolean; candidates: Candidate[];
+  designVersion: number | null; stale: boolean; candidates: Candidate[]; limits: Limits; worstMargin: Margin | null;
 }
 interface Page { rows: Row[]; total: number; page: number; size: number }
 
@@ -22,8 +24,9 @@ const GOV: Record<string, string> = { personnel: 'Personnel', condensation: 'Con
 const f1 = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(1));
 const ch = createColumnHelper<Row>();
 
-export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'SI' }: { projectId: string; areas: string[]; canPick: boolean; canSolve: boolean; unitSystem?: UnitSystem }) {
-  const u = display(unitSystem);
+export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'SI', format }: { projectId: string; areas: string[]; canPick: boolean; canSolve: boolean; unitSystem?: UnitSystem; format?: FormatOptions }) {
+  const fmt = format ?? { unitSystem };
+  const u = formatter(fmt);
   const qc = useQueryClient();
   const [page, setPage] = useState(0);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'tag', desc: false }]);
@@ -53,15 +56,17 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
     ch.accessor('service', { header: 'Service', enableSorting: false }),
     ch.accessor('area', { header: 'Area' }),
     ch.accessor('outsideDiameterMm', { header: 'Size', cell: (c) => c.row.original.nps ? `NPS ${c.row.original.nps}` : c.row.original.geometry === 'vessel' ? 'Vessel' : c.row.original.geometry === 'flat' ? 'Flat' : u.diameter(c.getValue()) }),
-    ch.accessor('normalTempC', { header: `T ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
-    ch.accessor('recommendedMm', { header: `Rec. ${u.units.thickness}`, cell: (c) => <span className="num block">{c.getValue() === null ? '—' : u.thickness(c.getValue())}</span> }),
+    ch.accessor('normalTempC', { header: `T ${u.units.temp}`, cell: (c) => <span className="num block">{u.tempValue(c.getValue())}</span> }),
+    ch.accessor('recommendedMm', { header: 'Rec. thickness', cell: (c) => <span className="num block">{u.thickness(c.getValue())}</span> }),
     ch.accessor('governing', { header: 'Governs', cell: (c) => (c.getValue() ? GOV[c.getValue()!] ?? c.getValue() : '—') }),
-    ch.accessor('surfaceTempC', { header: `Surface ${u.units.temp}`, cell: (c) => <span className="num block">{u.temp(c.getValue())}</span> }),
-    ch.accessor('heatFlowPerUnit', { header: `Loss ${u.units.linearLoss}·${u.units.arealLoss}`, cell: (c) => <span className="num block">{isSurfaceGeometry(c.row.original.geometry) ? u.arealLoss(c.getValue()) : u.linearLoss(c.getValue())}</span> }),
+    ch.accessor('surfaceTempC', { header: `Surface ${u.units.temp}`, cell: (c) => <span className="num block">{u.tempValue(c.getValue())}</span> }),
+    // Each cell carries its own unit: pipes in per-length, vessels and flat surfaces in per-area.
+    ch.accessor('heatFlowPerUnit', { header: 'Heat loss', cell: (c) => <span className="num block whitespace-nowrap">{u.heatFlowPerUnit(c.getValue(), isSurfaceGeometry(c.row.original.geometry))}</span> }),
+    ch.display({ id: 'margin', header: 'Worst margin', cell: (c) => <MarginCell m={c.row.original.worstMargin} u={u} /> }),
     ch.display({ id: 'status', header: 'Status', cell: (c) => <Badges row={c.row.original} /> }),
     // Keyed by the design version: a bulk accept, an undo or someone else's save remounts the picker on the stored choice.
-    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell key={c.row.original.designVersion ?? 0} row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} unitSystem={unitSystem} /> }),
-  ], [projectId, canPick, unitSystem]); // eslint-disable-line react-hooks/exhaustive-deps
+    ch.display({ id: 'pick', header: 'Chosen thickness', cell: (c) => <PickCell key={c.row.original.designVersion ?? 0} row={c.row.original} projectId={projectId} canPick={canPick} onSaved={refresh} u={u} /> }),
+  ], [projectId, canPick, fmt.unitSystem, fmt.thicknessSeries, fmt.currency]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const data = query.data?.rows ?? [];
   const table = useReactTable({
@@ -239,17 +244,31 @@ function Badges({ row }: { row: Row }) {
   );
 }
 
-function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; projectId: string; canPick: boolean; onSaved: () => void; unitSystem: UnitSystem }) {
-  const u = display(unitSystem);
+/** The smallest margin to a temperature limit at the chosen thickness (the recommendation while undecided). */
+function MarginCell({ m, u }: { m: Margin | null; u: Formatter }) {
+  if (!m) return <span className="text-ink-400">—</span>;
+  return <span className={`num block whitespace-nowrap ${m.marginK < 0 ? 'font-semibold text-alarm-700' : ''}`} title={m.criterion === 'personnel' ? 'Touch limit minus the personnel surface temperature' : 'Condensation surface temperature minus dew point + margin'}>{u.tempDelta(m.marginK)} {m.criterion}</span>;
+}
+
+/** A candidate's deciding numbers in one line: heat-loss surface and loss, then each applicable criterion with its limit. */
+function candidateText(c: Candidate, row: Row, u: Formatter): string {
+  const parts = [`heat loss ${u.temp(c.surfaceC)}, ${u.heatFlowPerUnit(c.heatFlow, isSurfaceGeometry(row.geometry))}`];
+  if (row.limits.personnelLimitC !== null) parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.limits.personnelLimitC)})`);
+  if (row.limits.condensationNeedC !== null) parts.push(`condensation ${u.temp(c.condensationC)} (min ${u.temp(row.limits.condensationNeedC)})`);
+  return parts.join(' · ');
+}
+
+function PickCell({ row, projectId, canPick, onSaved, u }: { row: Row; projectId: string; canPick: boolean; onSaved: () => void; u: Formatter }) {
   const [value, setValue] = useState<string>(row.chosenMm !== null ? String(row.chosenMm) : '');
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
-  if (!canPick) return <span className="num block">{row.chosenMm === null ? '—' : `${u.thickness(row.chosenMm)} ${u.units.thickness}`}</span>;
+  if (!canPick) return <span className="num block">{u.thickness(row.chosenMm)}</span>;
   if (!row.candidates.length) return <span className="text-xs text-ink-500">solve first</span>;
   const picked = value === '' ? null : Number(value);
   const needsReason = picked !== null && picked !== row.recommendedMm;
   const dirty = picked !== null && picked !== row.chosenMm;
+  const shownCand = row.candidates.find((c) => c.mm === (picked ?? row.recommendedMm));
   function save() {
     setError(null);
     start(async () => {
@@ -265,12 +284,13 @@ function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; 
           <option value="">—</option>
           {row.candidates.map((c) => (
             <option key={c.mm} value={c.mm} disabled={!c.ok}>
-              {c.mm === 0 ? 'bare' : `${u.thickness(c.mm)} ${u.units.thickness}`}{c.mm === row.recommendedMm ? ' ★' : ''} · {u.temp(c.surfaceC)} {u.units.temp} · {isSurfaceGeometry(row.geometry) ? u.arealLoss(c.heatFlow) : u.linearLoss(c.heatFlow)}{!c.ok ? ' · over limit' : ''}
+              {u.thickness(c.mm)}{c.mm === row.recommendedMm ? ' ★' : ''} · {candidateText(c, row, u)}{!c.ok ? ' · layer over its service limit' : ''}
             </option>
           ))}
         </select>
         {dirty ? <button className="btn-primary px-2 py-0.5 text-xs" onClick={save} disabled={pending || (needsReason && !reason.trim())}>Save</button> : null}
       </div>
+      {shownCand ? <p className="text-xs text-ink-600" data-testid={`deciding-${row.tag}`}>{u.thickness(shownCand.mm)}: {candidateText(shownCand, row, u)}</p> : null}
       {dirty && needsReason ? <input aria-label={`Reason for ${row.tag}`} className="input py-0.5 text-xs" placeholder="Reason for this pick (required)" value={reason} onChange={(e) => setReason(e.target.value)} /> : null}
       {error ? <p role="alert" className="text-xs text-alarm-700">{error}</p> : null}
     </div>

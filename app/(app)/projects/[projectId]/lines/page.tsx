@@ -24,7 +24,7 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
       </div>
       <div className="mb-4"><ResultCautions /></div>
       {canEdit ? <ImportPanel projectId={project.id} /> : null}
-      <LineTable projectId={project.id} areas={areas} canPick={can(role, 'design.pick')} canSolve={canEdit} unitSystem={basis.basis.unitSystem} />
+      <LineTable projectId={project.id} areas={areas} canPick={can(role, 'design.pick')} canSolve={canEdit} unitSystem={basis.basis.unitSystem} format={{ unitSystem: basis.basis.unitSystem, thicknessSeries: basis.basis.thicknessSeries, currency: basis.basis.currency }} />
       {revisions.length ? (
         <section className="mt-6">
           <h2 className="mb-2">Revisions</h2>

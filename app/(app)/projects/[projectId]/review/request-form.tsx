@@ -18,7 +18,7 @@ export function RequestReviewForm({ projectId, areas, openRound }: { projectId: 
       start(async () => {
         const r = await requestReviewAction(projectId, { area: String(fd.get('area') ?? ''), note: String(fd.get('note') ?? '') });
         if (!r.ok) { setMsg({ ok: false, text: r.error }); return; }
-        setMsg({ ok: true, text: `Round ${r.data.number} requested for ${r.data.lines} lines; ${r.data.notified} reviewer${r.data.notified === 1 ? '' : 's'} notified by e-mail.` });
+        setMsg({ ok: true, text: `Round ${r.data.number} requested for ${r.data.lines} lines${r.data.carried ? ` (${r.data.carried} decision${r.data.carried === 1 ? '' : 's'} carried over: line, design and flags unchanged)` : ''}; ${r.data.notified} reviewer${r.data.notified === 1 ? '' : 's'} notified by e-mail.` });
         router.refresh();
       });
     }}>

@@ -2,14 +2,14 @@
 import { useRouter } from 'next/navigation';
 import { useMemo, useState, useTransition } from 'react';
 import { disposeAction, signOffAction } from '../actions';
+import { DISPOSITIONS, DISPOSITION_LABEL, dispositionsFor, type Disposition } from '@/lib/review/dispositions';
 
 interface Flag { type: string; message: string; valueC?: number; limitC?: number; conditions?: string }
-export interface QueueItem { id: string; tag: string; area: string; flags: Flag[]; status: 'open' | 'decided' | 'reopened'; reopenReason: string | null; disposition: string | null; comment: string | null; requiredMm: number | null; deciderName: string | null }
+export interface QueueItem { id: string; tag: string; area: string; flags: Flag[]; status: 'open' | 'decided' | 'reopened'; reopenReason: string | null; disposition: string | null; comment: string | null; requiredMm: number | null; requiredText?: string | null; deciderName: string | null; carriedFromRound: number | null }
 
-const DISPOSITIONS: [string, string][] = [
-  ['insulate', 'Insulate for protection'], ['guard', 'Guard or cage'], ['warning-sign', 'Warning sign, restricted access'], ['not-accessible', 'Accepted as not accessible'], ['returned', 'Return to the engineer'],
-];
-const LABEL = Object.fromEntries(DISPOSITIONS);
+const LABEL = DISPOSITION_LABEL as Record<string, string>;
+/** Dispositions that fit every one of these items (each hazard has its own list). */
+const fitting = (items: QueueItem[]) => DISPOSITIONS.filter((d) => items.every((i) => dispositionsFor(i.flags.map((f) => f.type)).includes(d)));
 
 export function ReviewQueue({ projectId, roundId, items, flagLabels, canDispose, open }: { projectId: string; roundId: string; items: QueueItem[]; flagLabels: Record<string, string>; canDispose: boolean; open: boolean }) {
   const router = useRouter();
@@ -23,6 +23,8 @@ export function ReviewQueue({ projectId, roundId, items, flagLabels, canDispose,
   const [pending, start] = useTransition();
   const areas = [...new Set(items.map((i) => i.area))].sort();
   const shown = useMemo(() => items.filter((i) => (!type || i.flags.some((f) => f.type === type)) && (!area || i.area === area) && (!status || i.status === status)), [items, type, area, status]);
+  const targets = selected.size ? items.filter((i) => selected.has(i.id)) : shown;
+  const options: Disposition[] = targets.length ? fitting(targets) : [];
   const counts = { open: items.filter((i) => i.status === 'open').length, decided: items.filter((i) => i.status === 'decided').length, reopened: items.filter((i) => i.status === 'reopened').length };
 
   function apply(ids: string[]) {
@@ -55,10 +57,11 @@ export function ReviewQueue({ projectId, roundId, items, flagLabels, canDispose,
       </div>
       {canDispose && open ? (
         <div className="panel mb-3 flex flex-wrap items-end gap-3 p-3" aria-label="Decide on lines">
-          <div><label className="label" htmlFor="d-disp">Disposition</label><select id="d-disp" className="input" value={disposition} onChange={(e) => setDisposition(e.target.value)}><option value="">Choose…</option>{DISPOSITIONS.map(([k, v]) => <option key={k} value={k}>{v}</option>)}</select></div>
+          <div><label className="label" htmlFor="d-disp">Disposition</label><select id="d-disp" className="input" value={options.includes(disposition as Disposition) ? disposition : ''} onChange={(e) => setDisposition(e.target.value)}><option value="">Choose…</option>{options.map((k) => <option key={k} value={k}>{LABEL[k]}</option>)}</select>
+            <p className="mt-1 text-xs text-ink-500">{type === 'hot-surface' ? 'Burn hazard: insulate, guard, sign or out of reach.' : type === 'sweating' ? 'Sweating: insulate, repair the vapour retarder, or accept with drip protection.' : 'Only dispositions that fit every selected (or shown) line are offered; filter by flag to decide burn and sweat lines apart.'}</p></div>
           <div className="min-w-[18rem] flex-1"><label className="label" htmlFor="d-comment">Comment (required to accept or return)</label><input id="d-comment" className="input" value={comment} onChange={(e) => setComment(e.target.value)} /></div>
-          <button className="btn-primary" disabled={pending || !disposition || selected.size === 0} onClick={() => apply([...selected])}>Apply to {selected.size} selected</button>
-          <button className="btn-quiet" disabled={pending || !disposition || shown.length === 0} onClick={() => apply(shown.map((i) => i.id))}>Apply to all {shown.length} shown</button>
+          <button className="btn-primary" disabled={pending || !options.includes(disposition as Disposition) || selected.size === 0} onClick={() => apply([...selected])}>Apply to {selected.size} selected</button>
+          <button className="btn-quiet" disabled={pending || !options.includes(disposition as Disposition) || shown.length === 0} onClick={() => apply(shown.map((i) => i.id))}>Apply to all {shown.length} shown</button>
           <button className="btn-quiet ml-auto" disabled={pending} onClick={signOff}>Sign off the round</button>
         </div>
       ) : null}
@@ -74,7 +77,7 @@ export function ReviewQueue({ projectId, roundId, items, flagLabels, canDispose,
                 <td>{i.area}</td>
                 <td><ul className="space-y-0.5">{i.flags.map((f, k) => <li key={k}><strong>{flagLabels[f.type]}</strong>: {f.message}{f.conditions ? <span className="text-xs text-ink-500"> ({f.conditions})</span> : null}</li>)}</ul></td>
                 <td>{i.status === 'open' ? <span className="badge bg-ink-100">open</span> : i.status === 'decided' ? <span className="badge bg-mineral-100 text-mineral-900">decided</span> : <span className="badge bg-ochre-100 text-ochre-900" title={i.reopenReason ?? ''}>re-opened</span>}{i.reopenReason ? <p className="text-xs text-ochre-700">{i.reopenReason}</p> : null}</td>
-                <td>{i.disposition ? <>{LABEL[i.disposition]}{i.requiredMm !== null ? ` (${i.requiredMm} mm)` : ''}{i.comment ? <p className="text-xs text-ink-600">“{i.comment}” — {i.deciderName}</p> : null}</> : '—'}</td>
+                <td>{i.disposition ? <>{LABEL[i.disposition]}{i.requiredText ? ` (${i.requiredText})` : ''}{i.comment ? <p className="text-xs text-ink-600">“{i.comment}” — {i.deciderName}</p> : null}{i.carriedFromRound !== null ? <p className="text-xs text-mineral-800" data-testid={`carried-${i.tag}`}>Carried over from round {i.carriedFromRound}: line, design and flags unchanged.</p> : null}</> : '—'}</td>
               </tr>
             ))}
           </tbody>

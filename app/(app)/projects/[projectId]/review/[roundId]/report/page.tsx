@@ -4,6 +4,8 @@ import { getRound } from '@/lib/review/store';
 import { DISPOSITION_LABEL, type Disposition } from '@/lib/review/store';
 import { FLAG_LABEL, type Flag } from '@/lib/review/flags';
 import { PrintButton } from './print-button';
+import { getDesignBasis } from '@/lib/lines/store';
+import { formatterFor, localizeMessage } from '@/lib/format';
 
 export const metadata = { title: 'Review report' };
 
@@ -13,6 +15,7 @@ export default async function ReportPage({ params }: { params: Promise<{ project
   if (!allowed) return <Denied what="The safety review" />;
   const data = await orNotFound(getRound({ projectId: project.id, roundId }));
   const { round, items } = data;
+  const u = formatterFor((await getDesignBasis({ projectId: project.id })).basis);
   const snap = round.snapshot as { signedBy: string; items: { tag: string; area: string; flags: Flag[]; disposition: Disposition; comment: string | null; requiredMm: number | null; decidedBy: string | null }[] } | null;
   // A signed-off round prints exactly what was signed; an open one prints the current state.
   const rows = snap ? snap.items : items.map((i) => ({ tag: i.tag, area: i.area, flags: i.flags, disposition: i.disposition as Disposition | null, comment: i.comment, requiredMm: i.requiredMm, decidedBy: i.deciderName }));
@@ -30,9 +33,9 @@ export default async function ReportPage({ params }: { params: Promise<{ project
           {rows.flatMap((r) => r.flags.map((f, k) => (
             <tr key={`${r.tag}-${k}`} data-tag={r.tag}>
               <td className="font-mono">{k === 0 ? r.tag : ''}</td><td>{k === 0 ? r.area : ''}</td><td>{FLAG_LABEL[f.type]}</td>
-              <td className="num">{f.valueC !== undefined ? `${f.valueC.toFixed(1)} °C` : '—'}</td><td className="num">{f.limitC !== undefined ? `${f.limitC.toFixed(1)} °C` : '—'}</td>
-              <td className="text-xs">{f.conditions ?? f.message}</td>
-              <td>{k === 0 ? (r.disposition ? `${DISPOSITION_LABEL[r.disposition]}${r.requiredMm !== null ? ` — ${r.requiredMm} mm` : ''}` : 'undecided') : ''}</td>
+              <td className="num">{u.temp(f.valueC)}</td><td className="num">{u.temp(f.limitC)}</td>
+              <td className="text-xs">{localizeMessage(f.conditions ?? f.message, u)}</td>
+              <td>{k === 0 ? (r.disposition ? `${DISPOSITION_LABEL[r.disposition]}${r.requiredMm !== null ? ` — ${u.thickness(r.requiredMm)}` : ''}` : 'undecided') : ''}</td>
               <td className="text-xs">{k === 0 ? `${r.comment ?? ''}${r.decidedBy ? ` (${r.decidedBy})` : ''}` : ''}</td>
             </tr>
           )))}

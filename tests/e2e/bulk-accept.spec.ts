@@ -11,7 +11,8 @@ test('engineer: bulk accept states its counts for the filter shown, leaves a man
   ]);
   await page.reload(); // the area filter lists the imported areas
   const row = (tag: string) => page.locator(`tr[data-tag="${tag}"]`);
-  const recommended = async (tag: string) => row(tag).locator('td').nth(5).innerText();
+  // The cell shows the thickness with its unit ("80 mm"); the picker's option values are millimetres.
+  const recommended = async (tag: string) => String(parseFloat(await row(tag).locator('td').nth(5).innerText()));
 
   // A manual pick on N-102: one size up, with its reason.
   const picker = page.getByLabel('Thickness for N-102');

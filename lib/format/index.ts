@@ -285,5 +285,7 @@ export function localizeMessage(text: string, u: Formatter): string {
     .replace(new RegExp(`${n} ?W/m\\b`, 'g'), (_, v) => u.linearLoss(Number(v)))
     .replace(new RegExp(`\\+ ?${n} ?K\\b`, 'g'), (_, v) => `+ ${u.tempDelta(Number(v)).replace(/^\+/, '')}`)
     .replace(new RegExp(`${n} ?K\\b`, 'g'), (_, v) => u.tempDelta(Number(v)).replace(/^\+/, ''))
+    // A range of thicknesses names its unit once ("from 100 to 125 mm", "100–125 mm").
+    .replace(new RegExp(`${n}( to |–|-)${n} ?mm\\b`, 'g'), (_, a, sep, b) => `${u.thickness(Number(a))}${sep === ' to ' ? ' to ' : ' – '}${u.thickness(Number(b))}`)
     .replace(new RegExp(`${n} ?mm\\b`, 'g'), (_, v) => u.thickness(Number(v)));
 }

@@ -120,6 +120,7 @@ describe('engine messages in the project units', () => {
     expect(localizeMessage('Surface ≤ 60 °C at 35 °C still air (metal jacket limit).', us)).toBe('Surface ≤ 140.0 °F at 95.0 °F still air (metal jacket limit).');
     expect(localizeMessage('Heat flow ≤ 50 W/m.', us)).toBe('Heat flow ≤ 52 Btu/h·ft.');
     expect(localizeMessage('dew point 20.0 °C + 2 K margin; 38.1 mm', us)).toBe('dew point 68.0 °F + 3.6 °F margin; 1-1/2"');
+    expect(localizeMessage('Within 2 % of the minimum from 76.2 to 101.6 mm (optimum 101.6 mm).', us)).toBe('Within 2 % of the minimum from 3" to 4" (optimum 4").');
     expect(localizeMessage('Heat flow ≤ 165.10000000000002 W/m² over 60 °C', formatter({ unitSystem: 'SI' }))).toBe('Heat flow ≤ 165.1 W/m² over 60 °C');
     expect(localizeMessage('U30: 12.5 kW designed', us)).toBe('U30: 42,652 Btu/h designed'); // 12.5 kW × 3412.142 Btu/h per kW = 42 651.8 [X]
   });

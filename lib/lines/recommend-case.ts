@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import {
-  condensationLimit, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
+  condensationLimit, describeIssues, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
   type Ambient, type ConditionSet, type Criteria, type CriterionId, type InsulationMaterial, type Jacket,
   type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity,
 } from '@/lib/thermal';
@@ -160,10 +160,6 @@ export interface RecommendResult {
 }
 
 export type RecommendOutput = RecommendResult | { id?: string | number; error: string };
-
-function describeIssues(e: z.ZodError): string {
-  return e.issues.map((i) => `${i.path.length ? i.path.join('.') : '(case)'}: ${i.message}`).join('; ');
-}
 
 const merge = (base: ConditionSet, over?: Partial<ConditionSet>): ConditionSet => (over ? { ...base, ...over } : base);
 

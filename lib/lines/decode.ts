@@ -43,18 +43,47 @@ export class CsvQuoteError extends Error {
 export type Delimiter = ',' | ';' | '\t' | '|';
 export const DELIMITER_NAME: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'vertical bar' };
 
+/** Refused before the whole file is split: a row count or a row width over the limit. */
+export class CsvLimitError extends Error {
+  constructor(readonly kind: 'rows' | 'columns', readonly row: number, readonly count: number) { super(`${kind} limit at row ${row}`); }
+}
+
+export interface CsvLimits { maxRows: number; maxColumns: number }
+
 /**
  * Splits CSV text into rows of trimmed strings with papaparse (quotes, doubled quotes, line breaks
  * inside quotes). The delimiter is the one papaparse's guess settles on among comma, semicolon, tab
  * and bar; papaparse guesses from the whole sample, so a title line above the header does not mislead it.
+ * With limits, rows are read one at a time and the split stops at the first row past a limit
+ * (non-empty rows, fields in a row ignoring empty ones at its end), so an over-wide or endless
+ * file costs no more than the rows before it.
  */
-export function splitCsv(text: string): { rows: string[][]; delimiter: Delimiter } {
-  const r = Papa.parse<string[]>(text, { delimiter: '', delimitersToGuess: [',', ';', '\t', '|'], skipEmptyLines: false });
+export function splitCsv(text: string, limits?: CsvLimits): { rows: string[][]; delimiter: Delimiter } {
+  const rows: string[][] = [];
+  let quoteRow = 0, index = 0, nonEmpty = 0;
+  let limit: CsvLimitError | null = null;
+  let found = '';
+  Papa.parse<string[]>(text, {
+    delimiter: '', delimitersToGuess: [',', ';', '\t', '|'], skipEmptyLines: false,
+    step: (res, parser) => {
+      index++;
+      if (!found && res.meta.delimiter) found = res.meta.delimiter;
+      if (!quoteRow && res.errors.some((e) => e.type === 'Quotes')) quoteRow = index;
+      const row = res.data.map((c) => String(c ?? '').trim());
+      if (limits) {
+        let width = row.length;
+        while (width > 0 && row[width - 1] === '') width--;
+        if (width > limits.maxColumns) { limit = new CsvLimitError('columns', index, width); parser.abort(); return; }
+        if (width > 0 && ++nonEmpty > limits.maxRows) { limit = new CsvLimitError('rows', index, nonEmpty); parser.abort(); return; }
+      }
+      rows.push(row);
+    },
+  });
+  if (limit) throw limit;
   // An unclosed quote swallows the rest of the file into one cell: refuse it, naming the row.
-  const fatal = r.errors.find((e) => e.type === 'Quotes');
-  if (fatal) throw new CsvQuoteError((fatal.row ?? 0) + 1);
-  const delimiter = (r.meta.delimiter || ',') as Delimiter;
-  return { rows: r.data.map((row) => row.map((c) => String(c ?? '').trim())), delimiter };
+  if (quoteRow) throw new CsvQuoteError(quoteRow);
+  const delimiter = (found || ',') as Delimiter;
+  return { rows, delimiter };
 }
 
 /**

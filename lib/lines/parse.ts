@@ -1,5 +1,6 @@
 import ExcelJS from 'exceljs';
-import { CsvQuoteError, decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
+import { CsvLimitError, CsvQuoteError, decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
+import { checkWorkbookZip, SHEET_LIMITS, ZipLimitError } from './zip-guard';
 import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
 export type { CellValue, GridRow } from './header';
@@ -57,7 +58,8 @@ export function describeCsv(f: ParsedFile): string | null {
 }
 
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
-export const MAX_ROWS = 50_000;
+export const MAX_ROWS = SHEET_LIMITS.maxRows;
+export const MAX_COLUMNS = SHEET_LIMITS.maxColumns;
 
 export class ParseError extends Error {}
 
@@ -111,7 +113,7 @@ function fromWorksheet(ws: ExcelJS.Worksheet): StoredSheet {
 }
 
 function fromCsv(text: string): { sheet: StoredSheet; delimiter: Delimiter } {
-  const { rows, delimiter } = splitCsv(text);
+  const { rows, delimiter } = splitCsv(text, { maxRows: MAX_ROWS, maxColumns: MAX_COLUMNS });
   const grid: GridRow[] = [];
   rows.forEach((cells, i) => {
     if (cells.some((c) => c !== '')) grid.push({ row: i + 1, cells: cells.map((c) => (c === '' ? null : c)) });
@@ -132,6 +134,10 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
   if (lower.endsWith('.xlsx') || lower.endsWith('.xlsm')) {
     if (isOle) throw new ParseError('This workbook is password-protected (encrypted) or in the old .xls format. Remove the password, or save it as .xlsx, and upload again.');
     if (!isZip) throw new ParseError('This file is not a valid .xlsx workbook (it may be corrupt or renamed). Open it in a spreadsheet program and save it as .xlsx.');
+    // The zip directory and a streaming count of rows and columns first: nothing is held in
+    // memory beyond a 16 KB step until the limits are known to hold.
+    try { await checkWorkbookZip(bytes); }
+    catch (e) { if (e instanceof ZipLimitError) throw new ParseError(e.message); throw e; }
     const wb = new ExcelJS.Workbook();
     try { await wb.xlsx.load(bytes as unknown as ArrayBuffer); }
     catch { throw new ParseError('This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.'); }
@@ -143,6 +149,11 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
     let read: ReturnType<typeof fromCsv>;
     try { read = fromCsv(text); }
     catch (e) {
+      if (e instanceof CsvLimitError) {
+        throw new ParseError(e.kind === 'columns'
+          ? `This CSV file has ${e.count.toLocaleString('en')} fields in row ${e.row}; the limit is ${MAX_COLUMNS} columns. Delete the unused columns on the right (or check the field separator) and upload again.`
+          : `This CSV file has more than ${MAX_ROWS.toLocaleString('en')} rows with data (row ${e.row.toLocaleString('en')} is past the limit); the limit is ${MAX_ROWS.toLocaleString('en')} rows. Split the line list into files of at most that many rows.`);
+      }
       if (e instanceof CsvQuoteError) throw new ParseError(`This CSV file could not be read: a quoted field in row ${e.row} is not closed, so the rest of the file would run into one cell. Check the quotes in that row and upload again.`);
       throw e;
     }
@@ -154,6 +165,6 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
     throw new ParseError('Upload the line list as an .xlsx workbook or a .csv file.');
   }
   if (sheets.length === 0 || sheets.every((s) => s.grid.length === 0)) throw new ParseError('The file has no sheet with data.');
-  for (const s of sheets) if (s.grid.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.grid.length} rows; the limit is ${MAX_ROWS}.`);
+  for (const s of sheets) if (s.grid.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.grid.length.toLocaleString('en')} rows; the limit is ${MAX_ROWS.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`);
   return { kind: csv.encoding ? 'csv' : 'xlsx', sheets, ...csv };
 }

@@ -71,6 +71,10 @@ async function main() {
   times.sort((a, b) => a - b);
   const pct = (q: number) => times[Math.min(times.length - 1, Math.floor(q * times.length))].toFixed(1);
   console.log(`line table, 60 pages of 100 (sort + filter): p50 ${pct(0.5)} ms, p95 ${pct(0.95)} ms, max ${times[times.length - 1].toFixed(1)} ms (goal p95 ≤ 150 ms)`);
+  const first = await store.listLines({ projectId: p.id, page: 0, size: 100, sort: 'tag', dir: 'asc' });
+  const picker = await store.getLineCandidates({ projectId: p.id, lineId: first.rows[0].id });
+  const kb = (v: unknown) => (Buffer.byteLength(JSON.stringify(v)) / 1024).toFixed(1);
+  console.log(`line table payload: ${kb(first)} KB per 100 rows (goal ≤ 60 KB); one picker's options ${kb({ candidates: picker })} KB, read when it opens`);
 }
 
 /** Reading a client-style workbook as the mapping step does: parse, find the header, suggest, validate with the value answers. */

@@ -83,7 +83,7 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
   const picks = page.rows.filter((l) => l.recommendedMm && l.recommendedMm >= 50 && l.designVersion).slice(0, 3);
   const reasons = ['Match the adjacent header, already lagged at this thickness', 'Congested rack: outside diameter limited by clearance to the cable tray', 'Spec minimum for this service class'];
   for (const [i, l] of picks.entries()) {
-    const cands = (l.candidates as [number][]).map((c) => c[0]);
+    const cands = (await lineStore.getLineCandidates({ projectId: project.id, lineId: l.id })).map((c) => c.mm);
     const idx = cands.indexOf(l.recommendedMm!);
     const mm = i === 1 ? cands[Math.max(1, idx - 2)] : cands[Math.min(cands.length - 1, idx + 1)];
     await lineStore.pickDesign({ projectId: project.id, lineId: l.id, userId: engineer.id, thicknessMm: mm, reason: reasons[i], expectedVersion: l.designVersion! });

@@ -371,11 +371,13 @@ export async function listLines(o: LineQuery) {
     tag: lines.tag, area: lines.area, normalTempC: lines.normalTempC, outsideDiameterMm: lines.outsideDiameterMm,
     recommendedMm: lineResults.recommendedMm, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC, governing: lineResults.governing,
   }[o.sort];
+  // Only the columns the table shows: the candidate table (the bulk of a result) is read by
+  // `getLineCandidates` when a picker opens.
   const base = db.select({
     id: lines.id, tag: lines.tag, service: lines.service, area: lines.area, geometry: lines.geometry, nps: lines.nps, outsideDiameterMm: lines.outsideDiameterMm,
-    lengthM: lines.lengthM, surfaceAreaM2: lines.surfaceAreaM2, normalTempC: lines.normalTempC, maxTempC: lines.maxTempC, purposes: lines.purposes, outdoor: lines.outdoor, accessible: lines.accessible,
+    normalTempC: lines.normalTempC,
     recommendedMm: lineResults.recommendedMm, governing: lineResults.governing, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC,
-    personnelSurfaceC: lineResults.personnelSurfaceC, unmet: lineResults.unmet, candidates: lineResults.candidates,
+    unmet: lineResults.unmet, solved: sql<boolean>`${lineResults.lineId} is not null`,
     chosenMm: lineDesigns.thicknessMm, source: lineDesigns.source, belowCriterion: lineDesigns.belowCriterion, needsRedecision: lineDesigns.needsRedecision, designVersion: lineDesigns.version,
     stale,
   }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where));
@@ -384,6 +386,17 @@ export async function listLines(o: LineQuery) {
     db.select({ total: count() }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where)),
   ]);
   return { rows, total, page: o.page, size: o.size };
+}
+
+export interface CandidateView { mm: number; heatFlow: number; surfaceC: number; personnelC: number | null; ok: boolean }
+
+/** The thickness options of one line's picker: every candidate with what the option label shows. */
+export async function getLineCandidates({ projectId, lineId }: { projectId: string; lineId: string }): Promise<CandidateView[]> {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(lineId)) throw new AppError('not_found');
+  const [row] = await db.select({ id: lines.id, candidates: lineResults.candidates }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));
+  if (!row) throw new AppError('not_found');
+  return ((row.candidates ?? []) as CandidateRow[]).map((c) => ({ mm: c[0], heatFlow: c[2], surfaceC: c[3], personnelC: c[4], ok: c[6] }));
 }
 
 export async function listAreas({ projectId }: { projectId: string }) {

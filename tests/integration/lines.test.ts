@@ -122,7 +122,7 @@ describe('line-list import on PostgreSQL', () => {
   it('picks: a reason for a manual pick, flagged below a hard criterion, and the second of two concurrent saves refused', async () => {
     const { rows } = await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
     const l = rows.find((r) => r.tag === 'L-100')!;
-    const cands = (l.candidates as [number][]).map((c) => c[0]);
+    const cands = (await store.getLineCandidates({ projectId, lineId: l.id })).map((c) => c.mm);
     const v = l.designVersion ?? 0;
     await expectAppError(store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: cands[1], expectedVersion: v }), 'invalid', /give a reason/);
     await expectAppError(store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: 33, reason: 'odd', expectedVersion: v }), 'invalid', /not a candidate/);

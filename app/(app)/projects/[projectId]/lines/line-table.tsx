@@ -14,7 +14,7 @@ interface Row {
   id: string; tag: string; service: string; area: string; geometry: string; nps: string | null; outsideDiameterMm: number | null;
   normalTempC: number; recommendedMm: number | null; governing: string | null; heatFlowPerUnit: number | null; surfaceTempC: number | null;
   unmet: string[] | null; chosenMm: number | null; source: 'recommended' | 'manual' | null; belowCriterion: string | null; needsRedecision: boolean | null;
-  designVersion: number | null; stale: boolean; candidates: Candidate[];
+  designVersion: number | null; stale: boolean; solved: boolean;
 }
 interface Page { rows: Row[]; total: number; page: number; size: number }
 
@@ -245,8 +245,20 @@ function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; 
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
+  // The thickness options arrive when the picker is opened (focus, pointer or key), not with the table.
+  const [opened, setOpened] = useState(false);
+  const options = useQuery({
+    queryKey: ['lines', projectId, 'candidates', row.id],
+    queryFn: async (): Promise<Candidate[]> => {
+      const r = await fetch(`/api/v1/projects/${projectId}/lines/${row.id}/candidates`);
+      if (!r.ok) throw new Error((await r.json()).error?.message ?? 'The thickness options could not be loaded.');
+      return (await r.json()).candidates;
+    },
+    enabled: opened && canPick && row.solved,
+    staleTime: 60_000,
+  });
   if (!canPick) return <span className="num block">{row.chosenMm === null ? '—' : `${u.thickness(row.chosenMm)} ${u.units.thickness}`}</span>;
-  if (!row.candidates.length) return <span className="text-xs text-ink-500">solve first</span>;
+  if (!row.solved) return <span className="text-xs text-ink-500">solve first</span>;
   const picked = value === '' ? null : Number(value);
   const needsReason = picked !== null && picked !== row.recommendedMm;
   const dirty = picked !== null && picked !== row.chosenMm;
@@ -261,9 +273,13 @@ function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; 
   return (
     <div className="min-w-[15rem] space-y-1">
       <div className="flex gap-1">
-        <select aria-label={`Thickness for ${row.tag}`} className="input py-0.5 text-xs" value={value} onChange={(e) => setValue(e.target.value)}>
+        <select aria-label={`Thickness for ${row.tag}`} className="input py-0.5 text-xs" value={value} onChange={(e) => setValue(e.target.value)}
+          onFocus={() => setOpened(true)} onPointerDown={() => setOpened(true)} onKeyDown={() => setOpened(true)} aria-busy={options.isFetching}>
           <option value="">—</option>
-          {row.candidates.map((c) => (
+          {!options.data ? [row.chosenMm, row.recommendedMm].filter((mm, i, a): mm is number => mm !== null && a.indexOf(mm) === i).map((mm) => (
+            <option key={mm} value={mm}>{mm === 0 ? 'bare' : `${u.thickness(mm)} ${u.units.thickness}`}{mm === row.recommendedMm ? ' ★' : ''}</option>
+          )) : null}
+          {(options.data ?? []).map((c) => (
             <option key={c.mm} value={c.mm} disabled={!c.ok}>
               {c.mm === 0 ? 'bare' : `${u.thickness(c.mm)} ${u.units.thickness}`}{c.mm === row.recommendedMm ? ' ★' : ''} · {u.temp(c.surfaceC)} {u.units.temp} · {isSurfaceGeometry(row.geometry) ? u.arealLoss(c.heatFlow) : u.linearLoss(c.heatFlow)}{!c.ok ? ' · over limit' : ''}
             </option>
@@ -273,6 +289,7 @@ function PickCell({ row, projectId, canPick, onSaved, unitSystem }: { row: Row; 
       </div>
       {dirty && needsReason ? <input aria-label={`Reason for ${row.tag}`} className="input py-0.5 text-xs" placeholder="Reason for this pick (required)" value={reason} onChange={(e) => setReason(e.target.value)} /> : null}
       {error ? <p role="alert" className="text-xs text-alarm-700">{error}</p> : null}
+      {options.error ? <p role="alert" className="text-xs text-alarm-700">{(options.error as Error).message}</p> : null}
     </div>
   );
 }

@@ -17,13 +17,6 @@ export const GET = route<{ projectId: string }>(async ({ req, user, params }) =>
   const { project } = await getProjectAccess({ userId: user.id, projectId: params.projectId, action: 'lines.read' });
   const q = querySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
   if (!q.success) throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
-  const r = await listLines({ projectId: project.id, ...q.data });
-  // The candidate table is sent trimmed to what the inline pick shows.
-  return Response.json({
-    ...r,
-    rows: r.rows.map(({ candidates, ...row }) => ({
-      ...row,
-      candidates: ((candidates ?? []) as [number, unknown, number, number, number | null, number | null, boolean][]).map((c) => ({ mm: c[0], heatFlow: c[2], surfaceC: c[3], personnelC: c[4], ok: c[6] })),
-    })),
-  });
+  // The table's columns only; a picker's thickness options come from ./[lineId]/candidates.
+  return Response.json(await listLines({ projectId: project.id, ...q.data }));
 });

@@ -74,8 +74,8 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
   function solve() {
     start(async () => {
       const r = await solveLinesAction(projectId, { all: false });
-      setMessage(r.ok ? { kind: 'ok', text: `${r.data.solved} stale line${r.data.solved === 1 ? '' : 's'} solved in ${r.data.solveMs} ms.` } : { kind: 'error', text: r.error });
-      refresh();
+      setMessage(r.ok ? { kind: 'ok', text: 'Solving the stale lines in the background; the progress is shown above the table.' } : { kind: 'error', text: r.error });
+      qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
     });
   }
   /** Step 1: the server counts what the button would do for exactly the filter on screen. */

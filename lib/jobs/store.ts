@@ -1,4 +1,3 @@
-import 'server-only';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { jobs, type Job } from '@/db/schema';

@@ -28,7 +28,7 @@ export async function runJob(jobId: string): Promise<void> {
     // The result and the job's "done" commit in the same transaction. A second runner of the same
     // job (pg-boss hands an expired job out again) waits on the job's lock, then sees it done.
     await db.transaction(async (tx) => {
-      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'job:' + jobId}))`);
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job:${jobId}`}))`);
       const [now] = await tx.select({ state: jobs.state }).from(jobs).where(eq(jobs.id, jobId));
       if (now?.state !== 'running') return;
       let result: Record<string, unknown>;

@@ -79,7 +79,6 @@ const GOV: Record<string, string> = {
   freeze: 'Freeze',
   economic: 'Economic',
 };
-const f1 = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(1));
 const ch = createColumnHelper<Row>();
 
 export function LineTable({
@@ -131,6 +130,7 @@ export function LineTable({
   });
   const refresh = () => qc.invalidateQueries({ queryKey: ['lines', projectId] });
 
+  // biome-ignore lint/correctness/useExhaustiveDependencies: the columns change with the project, the role and the display units only; the row callbacks read current state through the query
   const columns = useMemo(
     () => [
       ch.accessor('tag', {
@@ -202,7 +202,7 @@ export function LineTable({
       }),
     ],
     [projectId, canPick, fmt.unitSystem, fmt.thicknessSeries, fmt.currency],
-  ); // eslint-disable-line react-hooks/exhaustive-deps
+  );
 
   const data = query.data?.rows ?? [];
   const table = useReactTable({
@@ -348,12 +348,17 @@ export function LineTable({
         </div>
         <div className="ml-auto flex gap-2">
           {canSolve ? (
-            <button className="btn-quiet" onClick={solve} disabled={pending}>
+            <button type="button" className="btn-quiet" onClick={solve} disabled={pending}>
               Solve stale lines
             </button>
           ) : null}
           {canPick ? (
-            <button className="btn-primary" onClick={previewAccept} disabled={pending || !total}>
+            <button
+              type="button"
+              className="btn-primary"
+              onClick={previewAccept}
+              disabled={pending || !total}
+            >
               Accept recommendation for the filtered lines
             </button>
           ) : null}
@@ -402,7 +407,11 @@ export function LineTable({
                     }
                   >
                     {h.column.getCanSort() ? (
-                      <button className="uppercase" onClick={h.column.getToggleSortingHandler()}>
+                      <button
+                        type="button"
+                        className="uppercase"
+                        onClick={h.column.getToggleSortingHandler()}
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         {h.column.getIsSorted() === 'asc'
                           ? ' ▲'
@@ -440,13 +449,19 @@ export function LineTable({
         <span>
           {total} lines{query.isFetching ? ' · loading…' : ''}
         </span>
-        <button className="btn-quiet py-0.5" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>
+        <button
+          type="button"
+          className="btn-quiet py-0.5"
+          disabled={page === 0}
+          onClick={() => setPage((p) => p - 1)}
+        >
           Previous
         </button>
         <span>
           Page {page + 1} of {pages}
         </span>
         <button
+          type="button"
           className="btn-quiet py-0.5"
           disabled={page + 1 >= pages}
           onClick={() => setPage((p) => p + 1)}
@@ -472,7 +487,7 @@ function UndoButton({ onUndo, disabled }: { onUndo: () => void; disabled: boolea
     }
   }, [disabled]);
   return (
-    <button ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>
+    <button type="button" ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>
       Undo
     </button>
   );
@@ -574,11 +589,12 @@ function BulkAcceptDialog({
         Manual picks and lines needing re-decision are never changed. You can undo the accept right after.
       </p>
       <div className="flex justify-end gap-2">
-        <button className="btn-quiet" onClick={onCancel} disabled={pending}>
+        <button type="button" className="btn-quiet" onClick={onCancel} disabled={pending}>
           {p.change ? 'Cancel' : 'Close'}
         </button>
         {p.change ? (
-          <button className="btn-primary" onClick={onConfirm} disabled={pending} autoFocus>
+          // biome-ignore lint/a11y/noAutofocus: the confirmation opens on the user's own press; focus goes to its action
+          <button type="button" className="btn-primary" onClick={onConfirm} disabled={pending} autoFocus>
             Accept for {lineCount(p.change)}
           </button>
         ) : null}
@@ -726,6 +742,7 @@ function PickCell({
         </select>
         {dirty ? (
           <button
+            type="button"
             className="btn-primary px-2 py-0.5 text-xs"
             onClick={save}
             disabled={pending || (needsReason && !reason.trim())}

@@ -110,6 +110,10 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
     .getByRole('link', { name: 'Bill of quantities' })
     .click();
   await page.getByRole('button', { name: 'Issue revision 1' }).click();
+  // Issued by a background job; the page follows it and then shows the issue.
+  await expect(
+    page.getByRole('status').filter({ hasText: /^Issue 1 issued: \d+ lines counted, \d+ pending\.$/ }),
+  ).toBeVisible({ timeout: 60_000 });
   const summary = page.getByRole('table', { name: 'Material summary' });
   await expect(summary).toContainText(`${rec}`);
   await expect(summary).toContainText(/[\d,]+ ft/);

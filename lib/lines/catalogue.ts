@@ -32,7 +32,7 @@ export function catalogueOf(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJacket
   if (c) return c;
   const materials = new Map(LIBRARY_MATERIALS), jackets = new Map(LIBRARY_JACKETS), own = new Set<string>();
   for (const m of basis.ownMaterials ?? []) { materials.set(m.id, ownMaterialToLibraryForm(m)); own.add(m.id); }
-  for (const j of basis.ownJackets ?? []) { jackets.set(j.id, { id: j.id, name: j.name, emittance: j.emittance, metal: j.metal, source: `Project data: ${j.source}` }); own.add(j.id); }
+  for (const j of basis.ownJackets ?? []) { jackets.set(j.id, { id: j.id, name: j.name, emittance: j.emittance, metal: j.metal, ...(j.touchSurface ? { touchSurface: j.touchSurface } : {}), source: `Project data: ${j.source}` }); own.add(j.id); }
   c = { materials, jackets, own };
   cache.set(basis, c);
   return c;

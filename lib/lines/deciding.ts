@@ -4,7 +4,7 @@
  * the worst margin to a limit. Whether a criterion applies comes from lib/thermal/rules.ts, the
  * one home of those rules. Server-side (the engine solves candidates the sweep did not reach).
  */
-import { compileConductivity, condensationControlApplies, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient } from '@/lib/thermal';
+import { compileConductivity, condensationControlApplies, touchLimitFor, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -34,12 +34,11 @@ type LineFacts = Pick<LineInput, 'outdoor' | 'accessible' | 'normalTempC' | 'max
 export function decidingLimits(basis: DesignBasis, line: LineFacts, jacketId: string | null): DecidingLimits {
   const crit = criteriaFor(basis, line.outdoor);
   const jacket = jacketId ? catalogueOf(basis).jackets.get(jacketId) : undefined;
-  const metal = jacket ? jacket.metal : true;
   const hot = personnelProtectionApplies({ accessible: line.accessible, hottestC: line.maxTempC ?? line.normalTempC }, crit.conditions.personnel);
   const cold = condensationControlApplies({ purposes: line.purposes, coldestC: line.normalTempC }, crit.conditions.condensation, crit.dewPointMarginK);
   const th = cold ? condensationLimit(crit.conditions.condensation, crit.dewPointMarginK) : null;
   return {
-    personnelLimitC: hot ? (metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC) : null,
+    personnelLimitC: hot ? touchLimitFor(crit, jacket ?? { metal: true }).limitC : null,
     condensationNeedC: th ? th.needC : null, dewPointC: th ? th.valueC : null, dewBasis: th ? th.basis : null,
   };
 }

@@ -4,6 +4,7 @@ import { DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal/fittings';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 import { isCurrencyCode } from '@/lib/format';
+import { DEFAULT_CONTACT_SECONDS } from '@/lib/thermal/touch';
 
 /**
  * The project's design basis: the conditions each criterion is checked under, the limits, the
@@ -50,6 +51,8 @@ export const ownJacketSchema = z.object({
   name: z.string({ error: 'Give the jacket a name' }).trim().min(2, { error: 'Give the jacket a name (2 characters or more)' }).max(80, { error: 'Name: at most 80 characters' }),
   emittance: num('Emittance').gt(0, { error: 'Emittance must be above 0' }).max(1, { error: 'Emittance is at most 1' }),
   metal: z.boolean(),
+  /** What a hand touches (ISO 13732-1 class); unset: metal → bare metal, else plastics. */
+  touchSurface: z.enum(['bare-metal', 'coated-metal', 'ceramic-glass-stone', 'plastic', 'wood'], { error: 'Touch surface: choose bare metal, coated metal, ceramics/glass/stone, plastics or wood' }).optional(),
   source: z.string({ error: 'Say where the emittance comes from' }).trim().min(3, { error: 'Say where the emittance comes from' }).max(300, { error: 'Source: at most 300 characters' }),
 });
 export type OwnJacket = z.output<typeof ownJacketSchema>;
@@ -78,6 +81,13 @@ export const designBasisObject = z.object({
     condensation: z.object({ outdoor: condRh, indoor: condRh }),
     freeze: cond,
   }),
+  /**
+   * How the touch limit is set: from a contact time and the jacket's surface (ISO 13732-1), or the two
+   * fixed numbers below as an explicit override. Bases saved before this choice existed keep their
+   * fixed numbers (they were designed with them); new projects start from the contact time.
+   */
+  touchLimitMode: z.enum(['contact-time', 'fixed'], { error: 'Touch limit: choose by contact time or fixed numbers' }).default('fixed'),
+  touchContactSeconds: num('Contact time').min(1, { error: 'Contact time must be at least 1 s (the shortest ISO 13732-1 band read)' }).max(28800, { error: 'Contact time: at most 28 800 s (8 h; the threshold stays 43 °C beyond)' }).default(DEFAULT_CONTACT_SECONDS),
   touchLimitMetalC: num('Touch limit (metal jacket)').min(30).max(120),
   touchLimitNonMetalC: num('Touch limit (non-metal jacket)').min(30).max(120),
   dewPointMarginK: num('Dew-point margin').min(0).max(10),
@@ -174,6 +184,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
     condensation: { outdoor: { airC: C.condensation.airC, windMs: C.condensation.windMs, relativeHumidityPct: C.condensation.relativeHumidityPct! }, indoor: { airC: 25, windMs: 0, relativeHumidityPct: 70 } },
     freeze: { airC: C.freeze.airC, windMs: C.freeze.windMs },
   },
+  touchLimitMode: 'contact-time',
+  touchContactSeconds: DEFAULT_CONTACT_SECONDS,
   touchLimitMetalC: DEFAULT_CRITERIA.touchLimitMetalC,
   touchLimitNonMetalC: DEFAULT_CRITERIA.touchLimitNonMetalC,
   dewPointMarginK: DEFAULT_CRITERIA.dewPointMarginK,
@@ -194,6 +206,7 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
 };
 
 export const DEFAULT_BASIS_NOTES: Record<string, string> = {
+  touchLimit: 'By contact time (default): the limit is the ISO 13732-1 burn threshold of the surface a hand touches — bare metal, coated metal, plastics and other non-metal finishes — for the contact time chosen here (5 s: common practice for industrial workers after ASTM C1055; the lower end of each published band is used). ISO 13732-1 gives thresholds for healthy adult skin, not limit values: where children, the elderly or people who cannot withdraw may touch, or a local code sets a value, use a longer contact time or fixed numbers, and follow the code and a qualified person. Fixed numbers: the two limits below apply to every line instead.',
   touchLimitMetalC: '60 °C for metal jackets: industry convention (common practice), consistent with ASTM C1055 guidance for 5 s industrial contact; not a value the standard mandates.',
   touchLimitNonMetalC: 'Non-metal finishes conduct less heat into skin, so a higher surface temperature gives the same contact temperature (ASTM C1055, ISO 13732-1); 65 °C is a starting point to confirm.',
   dewPointMarginK: '2 K above the dew point: common practice margin for condensation control.',

@@ -6,9 +6,9 @@
  */
 import { z } from 'zod';
 import {
-  condensationLimit, describeIssues, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
+  DEFAULT_CRITERIA, condensationLimit, describeIssues, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
   type Ambient, type ConditionSet, type Criteria, type CriterionId, type InsulationMaterial, type Jacket,
-  type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity,
+  type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity, touchLimitFor,
 } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS } from './design-basis';
 import { criteriaFor, systemForLine, vesselDiameterM } from './solve-line';
@@ -56,6 +56,7 @@ export const recommendCaseSchema = z.object({
     condensation: conditionSchema.optional(), freeze: conditionSchema.optional(),
   }, { error: 'conditions must be an object with heatLoss, personnel, condensation and/or freeze' }).optional(),
   touchLimitC: temperature('touchLimitC').optional(),
+  touchContactSeconds: num('touchContactSeconds').refine((v) => v >= 1 && v <= 28800, { error: 'touchContactSeconds must be between 1 and 28800 (8 h)' }).optional(),
   dewPointMarginK: num('dewPointMarginK').refine((v) => v >= 0 && v <= 20, { error: 'dewPointMarginK must be between 0 and 20' }).optional(),
   freeze: z.object({
     initialWaterTempC: temperature('freeze.initialWaterTempC').refine((v) => v > 0 && v <= 90, { error: 'freeze.initialWaterTempC must be above 0 and at most 90 °C' }).optional(),
@@ -131,6 +132,12 @@ export interface CriterionResult {
   tableMm?: number;
   minimumMm?: number;
   annualCostPerUnit?: number;
+  /** Personnel: the surface class touched, the contact time (when the limit follows one) and the standard the limit follows. */
+  touchSurface?: string;
+  contactSeconds?: number;
+  touchBasis?: string;
+  /** The condition set the criterion is judged under (heatLoss, personnel, condensation, freeze; none for a table minimum). */
+  conditionSet?: string;
 }
 
 export interface RecommendResult {
@@ -199,8 +206,11 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
     },
     freeze: { ...crit0.freeze!, ...(c.freeze ?? {}) },
     energyCode: c.energyCode,
-    touchLimitMetalC: c.touchLimitC ?? crit0.touchLimitMetalC,
-    touchLimitNonMetalC: c.touchLimitC ?? crit0.touchLimitNonMetalC,
+    // The documented batch defaults stay 60 °C metal / 65 °C non-metal; a case's touchContactSeconds
+    // makes the limit follow the surface (ISO 13732-1), a touchLimitC fixes it for every surface.
+    touchLimitMetalC: c.touchLimitC ?? DEFAULT_CRITERIA.touchLimitMetalC,
+    touchLimitNonMetalC: c.touchLimitC ?? DEFAULT_CRITERIA.touchLimitNonMetalC,
+    touchContactSeconds: c.touchLimitC === undefined ? c.touchContactSeconds : undefined,
     dewPointMarginK: c.dewPointMarginK ?? crit0.dewPointMarginK,
   };
 
@@ -264,10 +274,13 @@ function criteriaOf(r: Recommendation, line: LineCase, system: MaterialSystem, c
   for (const o of r.outcomes) {
     const cand = at(o.requiredMm);
     const res: CriterionResult = { requiredMm: o.requiredMm, surfaceTempC: null, message: o.message };
+    if (o.conditionSet) res.conditionSet = o.conditionSet;
     if (evaluatedMm !== undefined) res.met = o.requiredMm !== null && evaluatedMm >= o.requiredMm;
     switch (o.id) {
       case 'personnel': {
-        res.limitC = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+        const tl = touchLimitFor(crit, system.jacket);
+        res.limitC = tl.limitC; res.touchSurface = tl.surface; res.touchBasis = tl.basis;
+        if (Number.isFinite(tl.contactSeconds)) res.contactSeconds = tl.contactSeconds;
         res.surfaceTempC = cand?.personnel?.surfaceC ?? null;
         break;
       }

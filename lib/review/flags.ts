@@ -1,4 +1,4 @@
-import { compileConductivity, condensationControlApplies, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import { compileConductivity, condensationControlApplies, touchLimitFor, TOUCH_SURFACE_LABEL, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -32,9 +32,9 @@ const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compi
 
 /**
  * The flags of one line under the design basis, each with the numbers behind it. Personnel
- * protection uses the hottest air in still air; a surface exactly at the limit passes. Bare metal
- * and metal jackets use the metal limit, other finishes the non-metal limit (contact-burn
- * thresholds depend on material and contact time: ASTM C1055, ISO 13732-1).
+ * protection uses the hottest air in still air; a surface exactly at the limit passes. The limit
+ * follows the touched surface (bare lines: bare steel) — the ISO 13732-1 burn threshold at the
+ * project's contact time, or the project's fixed numbers (lib/thermal/touch.ts).
  */
 export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const flags: Flag[] = [];
@@ -57,7 +57,6 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   });
   const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
-  const metal = jacket ? jacket.metal : true;
   const D = (c.pipeOuterDiameterMm ?? 0) / 1000, H = c.heightM ?? 1;
   /** Outside surface temperature (the worst part of a vessel: shell, top or bottom head) and the solver's warnings. */
   const surface = (processC: number, ambient: Ambient) => {
@@ -72,9 +71,11 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const pc = crit.conditions.personnel;
   if (personnelProtectionApplies({ accessible: l.accessible, hottestC: hotC }, pc)) {
     const r = surface(hotC, { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance });
-    const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
+    // Bare lines are bare steel; the limit follows the surface (touch.ts, one rule with the recommendation).
+    const tl = touchLimitFor(crit, jacket ?? { metal: true, touchSurface: 'bare-metal' });
+    const limit = tl.limitC, shown = Math.round(limit * 10) / 10;
     if (r.surfaceC > limit) {
-      flags.push({ type: 'hot-surface', valueC: r.surfaceC, limitC: limit, conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`, message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.` });
+      flags.push({ type: 'hot-surface', valueC: r.surfaceC, limitC: limit, conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact (ISO 13732-1)` : ' (fixed limit)'}, ε ${emittance}`, message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${shown} °C touch limit${layers.length ? '' : ' (bare)'}.` });
     }
     if (r.warnings.some((w) => w.includes('service temperature'))) {
       flags.push({ type: 'interface-limit', message: r.warnings.filter((w) => w.includes('service temperature')).join('; ') });

@@ -16,6 +16,7 @@ export * from './solve';
 export * from './steam';
 export * from './surface';
 export * from './thickness';
+export * from './touch';
 export * from './units';
 export const CALCULATION_VERSION = '2026.12-3'; // 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review
 export * from './defaults';

@@ -1,4 +1,5 @@
 import type { ConductivitySpec } from './conductivity';
+import type { TouchSurface } from './touch';
 
 /**
  * Generic insulation types with TYPICAL properties. Every value here is a typical or
@@ -110,6 +111,8 @@ export interface Jacket {
   name: string;
   emittance: number;
   metal: boolean;
+  /** What a hand touches, for the ISO 13732-1 burn threshold (touch.ts); unset: metal → bare metal, else plastics. */
+  touchSurface?: TouchSurface;
   source: string;
 }
 
@@ -120,7 +123,7 @@ export const JACKETS: Jacket[] = [
   { id: 'stainless-steel', name: 'Stainless steel', emittance: 0.15, metal: true, source: 'typical [recalled]' },
   { id: 'galvanised-steel', name: 'Galvanised steel, new', emittance: 0.26, metal: true, source: 'typical [recalled]' },
   { id: 'galvanised-steel-dusty', name: 'Galvanised steel, dusty', emittance: 0.44, metal: true, source: 'typical [recalled]' },
-  { id: 'painted-metal', name: 'Painted metal', emittance: 0.9, metal: true, source: 'typical [recalled]' },
+  { id: 'painted-metal', name: 'Painted metal', emittance: 0.9, metal: true, touchSurface: 'coated-metal', source: 'typical [recalled]' },
   { id: 'pvc', name: 'PVC sheet', emittance: 0.9, metal: false, source: 'typical [recalled]' },
   { id: 'mastic-cloth', name: 'Mastic or cloth', emittance: 0.9, metal: false, source: 'typical [recalled]' },
   { id: 'bare-steel', name: 'Bare steel, oxidised', emittance: 0.8, metal: true, source: 'typical [recalled]; used for bare lines' },

@@ -8,6 +8,7 @@ import { isPipe, type Ambient, type Geometry } from './surface';
 import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
 import { pipeByOutsideDiameter } from './pipes';
 import { energyCodeMinimum } from './energy-code';
+import { TOUCH_SURFACE_LABEL, touchLimitFor, type TouchSurface } from './touch';
 
 export interface ConditionSet { airC: number; surroundingsC?: number; windMs: number; relativeHumidityPct?: number }
 
@@ -47,8 +48,14 @@ export interface LineCase {
 
 export interface Criteria {
   conditions: { heatLoss: ConditionSet; personnel: ConditionSet; condensation: ConditionSet; freeze: ConditionSet };
+  /** Fixed touch limits (an explicit override): used only when `touchContactSeconds` is not set. */
   touchLimitMetalC: number;
   touchLimitNonMetalC: number;
+  /**
+   * Contact time (s) the touch limit follows from: the ISO 13732-1 burn threshold of the jacket's
+   * surface (touch.ts). Unset: the fixed numbers above.
+   */
+  touchContactSeconds?: number;
   dewPointMarginK: number;
   heatLossLimitWPerM?: number;
   heatLossLimitWPerM2?: number;
@@ -95,7 +102,16 @@ export interface CriterionOutcome {
   /** Energy code: the table thickness and the minimum after the conductivity correction, mm. */
   tableMm?: number;
   minimumMm?: number;
+  /** Personnel: the touch limit held to, the surface class and the standard it follows (touch.ts). */
+  limitC?: number;
+  touchSurface?: TouchSurface;
+  touchBasis?: string;
+  /** The condition set the criterion is judged under (`none` for a table minimum). */
+  conditionSet?: ConditionSetId | 'none';
 }
+
+/** The design basis's condition sets: annual heat loss, personnel (hottest air), condensation, coldest design air. */
+export type ConditionSetId = 'heatLoss' | 'personnel' | 'condensation' | 'freeze';
 
 export interface Recommendation {
   recommendedMm: number | null;
@@ -274,6 +290,8 @@ function solveInSweep(lc: LineChains, i: number, processC: number, a: Ambient, s
   return r;
 }
 
+/** Bare steel as a touch surface: uncoated metal. */
+const BARE_STEEL_SURFACE = { metal: true, touchSurface: 'bare-metal' as const };
 const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({ airC: c.airC, surroundingsC: c.surroundingsC ?? c.airC, windMs: c.windMs, emittance });
 
 function layersOf(c: Candidate): SolidLayer[] {
@@ -436,7 +454,10 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
 
   // Personnel protection (rules.ts: every accessible surface hotter than the air): hottest air, still air, the actual jacket emittance.
   if (personnelProtectionApplies({ accessible: line.accessible, hottestC: maxC }, crit.conditions.personnel)) {
-    const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+    // The limit follows the jacket's surface (ISO 13732-1 at the project's contact time, or the fixed
+    // override); the bare candidate is bare steel whatever the system's jacket.
+    const tl = touchLimitFor(crit, system.jacket);
+    const limit = tl.limitC, bareLimit = touchLimitFor(crit, BARE_STEEL_SURFACE).limitC;
     const a = ambientOf(crit.conditions.personnel, emittance), bare = ambientOf(crit.conditions.personnel, bareEps);
     const sweep = newSweep();
     let idx: number | null = null;
@@ -445,11 +466,12 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
       if (idx !== null) continue; // past the requirement: for display only, decides nothing
       if (!r.limitOk) results[i].serviceLimitOk = false;
-      if (r.Ts <= limit) { idx = i; if (!crit.sweepAllCandidates) break; }
+      if (r.Ts <= (i === 0 ? bareLimit : limit)) { idx = i; if (!crit.sweepAllCandidates) break; }
     }
-    outcomes.push({ id: 'personnel', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
-      ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
-      : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).` });
+    const shown = Math.round(limit * 10) / 10;
+    outcomes.push({ id: 'personnel', conditionSet: 'personnel', limitC: limit, touchSurface: tl.surface, touchBasis: tl.basis, requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
+      ? `No standard thickness keeps the surface at or under ${shown} °C; consider a guard or cage.`
+      : `Surface ≤ ${shown} °C at ${crit.conditions.personnel.airC} °C still air (touch limit for ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact, ISO 13732-1` : ', fixed by the project'}).` });
   }
 
   // Condensation control (rules.ts): surface at or above the dew (frost) point plus margin under the condensation conditions.
@@ -466,7 +488,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       if (idx !== null) continue;
       if (r.Ts >= need) { idx = i; if (!crit.sweepAllCandidates) break; }
     }
-    outcomes.push({ id: 'condensation', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
+    outcomes.push({ id: 'condensation', conditionSet: 'condensation', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
       : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.` });
   }
@@ -476,7 +498,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (limit !== undefined && (purposes.includes('heatConservation') || purposes.includes('processControl'))) {
     let idx: number | null = null;
     for (let i = 0; i < n; i++) if (Math.abs(hlQ[i]) <= limit) { idx = i; break; }
-    outcomes.push({ id: 'heatLossLimit', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
+    outcomes.push({ id: 'heatLossLimit', conditionSet: 'heatLoss', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
       : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.` });
   }
@@ -498,7 +520,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     let idx: number | null = null;
     for (let i = 0; i < n; i++) if (drop(i) <= crit.maxProcessDropK) { idx = i; break; }
     const where = `${pc.airC} °C air, ${pc.windMs} m/s (${cold ? 'hottest' : 'coldest'} design conditions)`;
-    outcomes.push({ id: 'processDrop', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
+    outcomes.push({ id: 'processDrop', conditionSet: cold ? 'personnel' : 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, message: idx === null
       ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K at ${where}.`
       : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K at ${where}).` });
   }
@@ -518,7 +540,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       if (t >= f.requiredHours) { idx = i; zeroH = z; iceH = t; break; }
     }
     const what = ice > 0 ? `${ice} % of the water has frozen` : 'freezing starts';
-    outcomes.push({ id: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, hours: idx === null ? undefined : zeroH, iceHours: idx === null || ice === 0 ? undefined : iceH, message: idx === null
+    outcomes.push({ id: 'freeze', conditionSet: 'freeze', requiredMm: idx === null ? null : results[idx].totalMm, hours: idx === null ? undefined : zeroH, iceHours: idx === null || ice === 0 ? undefined : iceH, message: idx === null
       ? `No standard thickness gives ${f.requiredHours} h before ${what} at ${fc.airC} °C; consider heat tracing or draining.`
       : `Stagnant water from ${f.initialWaterTempC} °C at ${fc.airC} °C air: ${zeroH.toFixed(1)} h to 0 °C${ice > 0 ? `, ${iceH.toFixed(1)} h to ${ice} % ice` : ''} (≥ ${f.requiredHours} h required, ISO 12241 method).` });
   }
@@ -530,7 +552,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     if (m) {
       let idx: number | null = null;
       for (let i = 0; i < n; i++) if (results[i].totalMm >= m.minimumMm - 1e-6) { idx = i; break; }
-      outcomes.push({ id: 'energyCode', requiredMm: idx === null ? null : results[idx].totalMm, tableMm: m.tableMm, minimumMm: m.minimumMm, message: idx === null
+      outcomes.push({ id: 'energyCode', conditionSet: 'none', requiredMm: idx === null ? null : results[idx].totalMm, tableMm: m.tableMm, minimumMm: m.minimumMm, message: idx === null
         ? `No standard thickness reaches the ASHRAE 90.1 minimum of ${m.minimumMm.toFixed(1)} mm.`
         : `ASHRAE 90.1 Table 6.8.3-1: ${(m.tableMm / 25.4).toFixed(1)} in (${m.tableMm.toFixed(1)} mm)${m.corrected ? `, ${m.minimumMm.toFixed(1)} mm for this insulation's conductivity (footnote formula)` : ''}.` });
     }
@@ -562,7 +584,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       if (econ.economicChoice === 'thinnest-within-range') econIdx = lo;
     }
     const rangeText = econRange ? ` Within ${econ.flatRangePct ?? 2} % of the minimum from ${econRange.fromMm} to ${econRange.toMm} mm (optimum ${econRange.optimumMm} mm)${econ.economicChoice === 'thinnest-within-range' ? '; the thinnest of that range is taken' : ''}.` : '';
-    outcomes.push({ id: 'economic', requiredMm: econIdx === null ? null : results[econIdx].totalMm, range: econRange, message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr${cold && econ.cooling ? `, cooling at COP ${econ.cooling.cop}` : ''}).${rangeText}` });
+    outcomes.push({ id: 'economic', conditionSet: 'heatLoss', requiredMm: econIdx === null ? null : results[econIdx].totalMm, range: econRange, message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr${cold && econ.cooling ? `, cooling at COP ${econ.cooling.cop}` : ''}).${rangeText}` });
   }
 
   // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.

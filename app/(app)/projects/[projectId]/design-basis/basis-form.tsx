@@ -4,6 +4,9 @@ import type { DesignBasis } from '@/lib/lines/design-basis';
 import { saveDesignBasisAction } from './actions';
 import { fieldKind, kindUnit, toFormValue } from '@/lib/format/basis-units';
 import { CURRENCIES } from '@/lib/format';
+import { TOUCH_SURFACE_LABEL, burnThresholdC, type TouchSurface } from '@/lib/thermal/touch';
+
+const TOUCH_SURFACES = Object.keys(TOUCH_SURFACE_LABEL) as TouchSurface[];
 
 interface Option { id: string; name: string }
 
@@ -96,9 +99,34 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
         {condition('personnel', 'Personnel protection (hottest, still air)', false)}
         {condition('condensation', 'Condensation control (design humidity)', true)}
       </div>
+      <fieldset className="panel p-3">
+        <legend className="px-1 text-sm font-semibold">Touch limit (personnel protection)</legend>
+        <div className="grid gap-4 md:grid-cols-4">
+          <div>
+            <label htmlFor="db-touchLimitMode" className="label">Touch limit set by</label>
+            <select id="db-touchLimitMode" name="touchLimitMode" defaultValue={basis.touchLimitMode} disabled={!canEdit} className="input">
+              <option value="contact-time">Contact time and surface (ISO 13732-1)</option>
+              <option value="fixed">Fixed numbers (override)</option>
+            </select>
+            {errors.touchLimitMode ? <p className="field-error">{errors.touchLimitMode.join(' ')}</p> : null}
+          </div>
+          <Num name="touchContactSeconds" label="Contact time, s" />
+          <Num name="touchLimitMetalC" label="Fixed limit, metal jacket" hint={notes.touchLimitMetalC} />
+          <Num name="touchLimitNonMetalC" label="Fixed limit, non-metal" hint={notes.touchLimitNonMetalC} />
+        </div>
+        <table className="table-dense mt-2" aria-label="Touch limit by surface">
+          <caption className="text-left text-xs text-ink-600">Limits by surface at the saved contact time of {basis.touchContactSeconds} s (ISO 13732-1 burn thresholds, lower end of each band){basis.touchLimitMode === 'fixed' ? ' — not in use while fixed numbers are chosen' : ''}</caption>
+          <thead><tr><th>Surface touched</th><th>Limit {kindUnit('temp', sys)}</th><th>Published band {kindUnit('temp', sys)}</th></tr></thead>
+          <tbody>
+            {TOUCH_SURFACES.map((sf) => {
+              const t = burnThresholdC(sf, basis.touchContactSeconds);
+              return <tr key={sf}><td>{TOUCH_SURFACE_LABEL[sf]}</td><td>{toFormValue('temp', sys, Math.round(t.limitC * 10) / 10)}</td><td>{t.bandC ? `${toFormValue('temp', sys, t.bandC[0])} – ${toFormValue('temp', sys, t.bandC[1])}` : '—'}</td></tr>;
+            })}
+          </tbody>
+        </table>
+        <p className="mt-1 text-xs text-ink-500">{notes.touchLimit}</p>
+      </fieldset>
       <div className="grid gap-4 md:grid-cols-4">
-        <Num name="touchLimitMetalC" label="Touch limit, metal jacket" hint={notes.touchLimitMetalC} />
-        <Num name="touchLimitNonMetalC" label="Touch limit, non-metal" hint={notes.touchLimitNonMetalC} />
         <Num name="dewPointMarginK" label="Dew-point margin" hint={notes.dewPointMarginK} />
         <Num name="heatLossLimitWPerM" label="Heat-loss limit (optional)" />
         <Num name="maxProcessDropK" label="Allowed process temperature change" />

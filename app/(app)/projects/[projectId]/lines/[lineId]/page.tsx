@@ -12,6 +12,9 @@ import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import type { LineInput } from '@/lib/lines/validate';
 import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
+import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
+import { criteriaFor } from '@/lib/lines/solve-line';
+import type { ConditionSetId } from '@/lib/thermal';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
 export const metadata = { title: 'Line' };
@@ -38,7 +41,9 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const limits = decidingLimits(basis, line as unknown as LineInput, result?.jacketId ?? null);
   const nums = result ? candidateNumbers(basis, inputOf(line), result.jacketId, cands, limits) : [];
   const atMm = design?.thicknessMm ?? result?.recommendedMm ?? null;
-  const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
+  const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string; conditionSet?: ConditionSetId | 'none'; limitC?: number; touchBasis?: string }[] | undefined) ?? [];
+  const crit = criteriaFor(basis, line.outdoor);
+  const wind = (ms: number) => (u.system === 'US' ? `${sig(ms / 0.44704, 2)} mph` : `${ms} m/s`);
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
   const surface = isSurfaceGeometry(line.geometry);
@@ -77,7 +82,13 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
               <p className="text-2xl font-semibold" data-testid="recommended">{result.recommendedMm === null ? 'none' : u.thickness(result.recommendedMm)}</p>
               <p className="mb-2 text-sm text-ink-600">{(result.layers as { materialId: string; thicknessMm: number }[]).map((l) => `${u.thickness(l.thicknessMm)} ${cat.materials.get(l.materialId)?.name ?? l.materialId}`).join(' + ') || 'no insulation'}</p>
               <ul className="space-y-1 text-sm">
-                {econ.map((o) => <li key={o.id}><strong>{o.id === result.governing ? '▶ ' : ''}{CRITERION[o.id] ?? o.id}</strong>: {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}</li>)}
+                {econ.map((o) => (
+                  <li key={o.id} data-testid={`criterion-${o.id}`}>
+                    <strong>{o.id === result.governing ? '▶ ' : ''}{CRITERION[o.id] ?? o.id}</strong>: {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}
+                    <span className="block text-xs text-ink-500" data-testid={`criterion-${o.id}-conditions`}>Judged under {describeConditionSet(conditionSetOf(o, line.normalTempC < crit.conditions.heatLoss.airC), crit.conditions, u.temp, wind)}.</span>
+                    {o.id === 'personnel' && o.touchBasis ? <span className="block text-xs text-ink-500" data-testid="touch-basis">Touch limit {u.temp(o.limitC ?? null)}: {msg(o.touchBasis)} A burn threshold for healthy adult skin; follow local codes and a qualified person where others may touch.</span> : null}
+                  </li>
+                ))}
               </ul>
               {(result.warnings as string[]).length ? <ul className="mt-2 space-y-1 text-xs text-alarm-700">{(result.warnings as string[]).map((w, i) => <li key={i}>{msg(w)}</li>)}</ul> : null}
             </>

@@ -4,7 +4,7 @@
  * the worst margin to a limit. Whether a criterion applies comes from lib/thermal/rules.ts, the
  * one home of those rules. Server-side (the engine solves candidates the sweep did not reach).
  */
-import { compileConductivity, condensationControlApplies, touchLimitFor, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient } from '@/lib/thermal';
+import { compileConductivity, designConductivitySpec, condensationControlApplies, touchLimitFor, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -71,7 +71,7 @@ function surfaceSolver(basis: DesignBasis, l: LineInput, jacketId: string | null
   return (kind: 'personnel' | 'condensation', layerRows: [string, number][]): number | null => {
     const mats = layerRows.map(([id, mm]) => ({ m: cat.materials.get(id), mm }));
     if (mats.some((x) => !x.m)) return null;
-    const layers = mats.map(({ m, mm }) => ({ thicknessM: mm / 1000, conductivity: compileConductivity(m!.conductivity), name: m!.name, minServiceC: m!.minServiceC, maxServiceC: m!.maxServiceC }));
+    const layers = mats.map(({ m, mm }) => ({ thicknessM: mm / 1000, conductivity: compileConductivity(designConductivitySpec(m!)), name: m!.name, minServiceC: m!.minServiceC, maxServiceC: m!.maxServiceC }));
     const jacket = layers.length ? cat.jackets.get(jacketId ?? '') : undefined;
     const cond = kind === 'personnel' ? crit.conditions.personnel : crit.conditions.condensation;
     const processC = kind === 'personnel' ? l.maxTempC ?? l.normalTempC : l.normalTempC;

@@ -57,6 +57,15 @@ export const ownJacketSchema = z.object({
 });
 export type OwnJacket = z.output<typeof ownJacketSchema>;
 
+/** EN ISO 23993 conversion factors for one material, with where they come from. */
+const factor = (what: string) => num(what).min(1, { error: `${what} must be 1 or more (a design value is not better than the declared one)` }).max(3, { error: `${what}: at most 3` });
+export const designFactorsSchema = z.object({
+  ageing: factor('Ageing factor'),
+  moisture: factor('Moisture factor'),
+  installation: factor('Installation factor'),
+  source: z.string().trim().max(300, { error: 'Source of the factors: at most 300 characters' }).default(''),
+});
+
 export const systemBandSchema = z.object({
   /** Lines whose normal temperature is in [fromC, toC) use this system. */
   fromC: num('From').min(-273).max(1200),
@@ -97,6 +106,11 @@ export const designBasisObject = z.object({
   systems: z.array(systemBandSchema).min(1, { error: 'Give at least one material system' }),
   ownMaterials: z.array(ownMaterialSchema).max(50, { error: 'At most 50 project materials' }).default([]),
   ownJackets: z.array(ownJacketSchema).max(30, { error: 'At most 30 project jackets' }).default([]),
+  /**
+   * Design conductivity (EN ISO 23993): conversion factors per material id (library or project); the
+   * thickness is chosen on the declared curve × their product. Materials not named keep factor 1.
+   */
+  designConductivity: z.record(z.string(), designFactorsSchema).default({}),
   /** An energy code whose minimum pipe insulation is a hard criterion. */
   energyCode: z.enum(['none', 'ashrae-90.1'], { error: 'Choose no energy code or ASHRAE 90.1' }).default('none'),
   /** Fittings and supports added to each pipe's heat loss as equivalent lengths (lib/thermal/fittings.ts). */
@@ -153,9 +167,12 @@ export function checkBandRanges(b: { systems: { fromC: number; toC: number }[] }
   b.systems.forEach((s, i) => { if (!(s.toC > s.fromC)) ctx.addIssue({ code: 'custom', path: ['systems', i, 'toC'], message: '"To" must be above "From"' }); });
 }
 
-export function checkBands(b: { systems: { fromC: number; toC: number; outerId: string; innerId?: string; flatOuterId?: string; jacketId: string }[]; ownMaterials?: { id: string }[]; ownJackets?: { id: string }[] }, ctx: z.RefinementCtx) {
+export function checkBands(b: { systems: { fromC: number; toC: number; outerId: string; innerId?: string; flatOuterId?: string; jacketId: string }[]; ownMaterials?: { id: string }[]; ownJackets?: { id: string }[]; designConductivity?: Record<string, unknown> }, ctx: z.RefinementCtx) {
   checkBandRanges(b, ctx);
   const materials = new Set([...LIBRARY_MATERIAL_IDS, ...(b.ownMaterials ?? []).map((m) => m.id)]);
+  for (const id of Object.keys(b.designConductivity ?? {})) {
+    if (!materials.has(id)) ctx.addIssue({ code: 'custom', path: ['designConductivity', id], message: `Design conductivity: "${id}" is not in the library or the project's materials` });
+  }
   const jackets = new Set([...LIBRARY_JACKET_IDS, ...(b.ownJackets ?? []).map((j) => j.id)]);
   b.systems.forEach((s, i) => {
     for (const field of ['outerId', 'flatOuterId', 'innerId'] as const) {
@@ -199,6 +216,7 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ],
   ownMaterials: [],
   ownJackets: [],
+  designConductivity: {},
   energyCode: 'none',
   fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
   economics: { ...DEFAULT_ECONOMICS, cooling: { ...DEFAULT_COOLING }, economicChoice: 'optimum', flatRangePct: 2 },
@@ -222,6 +240,7 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   systems: 'Material systems per normal-temperature band: a generic starting specification (common practice), to be replaced by the project specification. Vessels and flat surfaces take blanket or board where a band names one (pipe sections do not fit them).',
   currency: 'Every price on the design basis and every cost shown (budget, bill, economics) is in this currency (ISO 4217 code). Changing it relabels; it converts nothing.',
   thicknessSeries: 'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
+  designConductivity: 'Design conductivity after EN ISO 23993: the declared curve (λ against mean temperature) is kept and shown; the thickness is chosen on the declared curve times the ageing, moisture and installation factors set here per material. ISO 23993 gives the method, not the numbers: take them from the manufacturer (ageing of foams, for example), the project specification or the contractor\'s installation practice, and say where. 1.00 (no allowance) until set.',
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };
 

@@ -8,7 +8,7 @@ import { z } from 'zod';
 import {
   DEFAULT_CRITERIA, condensationLimit, describeIssues, fittingsHeatLoss, heatTracingDuty, materialById, pipeByNps, recommendLine, solveSteady, solveVessel,
   type Ambient, type ConditionSet, type Criteria, type CriterionId, type InsulationMaterial, type Jacket,
-  type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity, touchLimitFor,
+  type LineCase, type MaterialSystem, type Purpose, type Recommendation, compileConductivity, designConductivitySpec, touchLimitFor,
 } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS } from './design-basis';
 import { criteriaFor, systemForLine, vesselDiameterM } from './solve-line';
@@ -83,6 +83,12 @@ export const recommendCaseSchema = z.object({
     conductivity: conductivitySchema.optional(),
     thicknessesMm: z.array(positive('thickness'), { error: 'thicknessesMm must be an array of millimetres' }).min(1, { error: 'give at least one thickness' }).max(100, { error: 'at most 100 thicknesses' }).optional(),
     surfaceEmittance: num('surfaceEmittance').refine((v) => v >= 0 && v <= 1, { error: 'surfaceEmittance must be between 0 and 1' }).optional(),
+    /** EN ISO 23993 conversion factors applied to the declared conductivity (each ≥ 1). */
+    designFactors: z.object({
+      ageing: num('insulation.designFactors.ageing').refine((v) => v >= 1 && v <= 3, { error: 'insulation.designFactors.ageing must be between 1 and 3' }).optional(),
+      moisture: num('insulation.designFactors.moisture').refine((v) => v >= 1 && v <= 3, { error: 'insulation.designFactors.moisture must be between 1 and 3' }).optional(),
+      installation: num('insulation.designFactors.installation').refine((v) => v >= 1 && v <= 3, { error: 'insulation.designFactors.installation must be between 1 and 3' }).optional(),
+    }, { error: 'insulation.designFactors must be an object { ageing, moisture, installation }' }).optional(),
   }, { error: 'insulation must be an object' }).optional(),
 }, { error: 'a case must be a JSON object' }).superRefine((c, ctx) => {
   const pipe = c.geometry.endsWith('pipe'), vessel = c.geometry.endsWith('vessel');
@@ -226,6 +232,11 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
     };
     inner = undefined;
   }
+  if (ins?.designFactors) {
+    const f = { ageing: ins.designFactors.ageing ?? 1, moisture: ins.designFactors.moisture ?? 1, installation: ins.designFactors.installation ?? 1, source: 'the case' };
+    outer = { ...outer, designFactors: f };
+    if (inner) inner = { ...inner, designFactors: f };
+  }
   let jacket: Jacket = band.jacket;
   if (ins?.surfaceEmittance !== undefined) {
     // A given emittance replaces the jacket; low emittance means bright metal (touch limit for metal).
@@ -257,7 +268,7 @@ function solveAt(line: LineCase, system: MaterialSystem, layers: { materialId: s
   const ambient: Ambient = { airC: cs.airC, surroundingsC: cs.surroundingsC ?? cs.airC, windMs: cs.windMs, emittance: bare ? 0.8 : system.jacket.emittance };
   const solid = layers.map((l) => {
     const m = l.materialId === system.outer.id ? system.outer : l.materialId === system.inner?.id ? system.inner! : materialById(l.materialId)!;
-    return { thicknessM: l.thicknessMm / 1000, conductivity: compileConductivity(m.conductivity), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
+    return { thicknessM: l.thicknessMm / 1000, conductivity: compileConductivity(designConductivitySpec(m)), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
   });
   const D = (line.pipeOuterDiameterMm ?? 0) / 1000;
   if (line.geometry === 'vessel') {

@@ -1,4 +1,4 @@
-import { compileConductivity, condensationControlApplies, touchLimitFor, TOUCH_SURFACE_LABEL, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import { compileConductivity, designConductivitySpec, condensationControlApplies, touchLimitFor, TOUCH_SURFACE_LABEL, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -28,7 +28,7 @@ export interface FlagInput {
 
 // Compiled per material object: a project's own entry may be replaced under the same id.
 const conds = new WeakMap<InsulationMaterial, Conductivity>();
-const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compileConductivity(m.conductivity); conds.set(m, c); } return c; };
+const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compileConductivity(designConductivitySpec(m)); conds.set(m, c); } return c; };
 
 /**
  * The flags of one line under the design basis, each with the numbers behind it. Personnel

@@ -1,5 +1,6 @@
 import type { ConductivitySpec } from './conductivity';
 import type { TouchSurface } from './touch';
+import type { DesignFactors } from './design-conductivity';
 
 /**
  * Generic insulation types with TYPICAL properties. Every value here is a typical or
@@ -10,8 +11,13 @@ import type { TouchSurface } from './touch';
 export interface InsulationMaterial {
   id: string;
   name: string;
-  /** Conductivity against mean temperature, °C → W/(m·K). */
+  /** Declared conductivity against mean temperature, °C → W/(m·K) (kept as declared). */
   conductivity: ConductivitySpec;
+  /**
+   * EN ISO 23993 conversion factors (ageing, moisture, installation) the project applies: the engine
+   * chooses thickness on the design curve, the declared curve × their product (design-conductivity.ts).
+   */
+  designFactors?: DesignFactors;
   minServiceC: number;
   maxServiceC: number;
   densityKgPerM3: number;

@@ -1,4 +1,5 @@
 import { compileConductivity, type Conductivity } from './conductivity';
+import { designConductivitySpec } from './design-conductivity';
 import { capitalRecoveryFactor, energyTerms, labourPerMFor, levelisingFactor, DEFAULT_ECONOMICS, DEFAULT_PRICES, type Economics, type PriceModel } from './economics';
 import type { InsulationMaterial, Jacket } from './materials';
 import { condensationControlApplies, condensationLimit, personnelProtectionApplies } from './rules';
@@ -132,7 +133,7 @@ const NO_INTERFACES: number[] = [];
 const compiled = new WeakMap<InsulationMaterial, Conductivity>();
 function cond(m: InsulationMaterial): Conductivity {
   let c = compiled.get(m);
-  if (!c) { c = compileConductivity(m.conductivity); compiled.set(m, c); }
+  if (!c) { c = compileConductivity(designConductivitySpec(m)); compiled.set(m, c); }
   return c;
 }
 

@@ -59,6 +59,8 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
       {notes[key] ? <p className="text-xs text-ink-500">{notes[key]}</p> : null}
     </fieldset>
   );
+  // Materials the bands use, and any with factors already set (kept when the form is saved).
+  const designMaterials = [...new Set([...basis.systems.flatMap((s) => [s.outerId, s.innerId, s.flatOuterId]).filter((x): x is string => !!x), ...Object.keys(basis.designConductivity ?? {})])];
   return (
     <form
       className="space-y-5"
@@ -154,6 +156,31 @@ export function BasisForm({ projectId, basis, materials, jackets, canEdit, notes
           </tbody>
         </table>
         <p className="mt-1 text-xs text-ink-500">{notes.systems}</p>
+      </fieldset>
+      <fieldset className="panel p-3">
+        <legend className="px-1 text-sm font-semibold">Design conductivity (EN ISO 23993)</legend>
+        <table className="table-dense" aria-label="Design conductivity factors">
+          <thead><tr><th>Material</th><th>Ageing</th><th>Moisture</th><th>Installation</th><th>Product</th><th>Source of the factors</th></tr></thead>
+          <tbody>
+            {designMaterials.map((id) => {
+              const f = basis.designConductivity?.[id] ?? { ageing: 1, moisture: 1, installation: 1, source: '' };
+              const name = materials.find((m) => m.id === id)?.name ?? id;
+              const cell = (k: 'ageing' | 'moisture' | 'installation') => {
+                const field = `designConductivity.${id}.${k}`;
+                return <td><input aria-label={`${name} ${k} factor`} name={field} type="number" step="any" min="1" defaultValue={f[k]} disabled={!canEdit} className="input w-20" />{errors[field] ? <p className="field-error">{errors[field]!.join(' ')}</p> : null}</td>;
+              };
+              return (
+                <tr key={id}>
+                  <td>{name}</td>{cell('ageing')}{cell('moisture')}{cell('installation')}
+                  <td className="font-mono">{(f.ageing * f.moisture * f.installation).toFixed(3)}</td>
+                  <td><input aria-label={`${name} factors source`} name={`designConductivity.${id}.source`} defaultValue={f.source} disabled={!canEdit} className="input" /></td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {errors.designConductivity ? <p className="field-error">{errors.designConductivity.join(' ')}</p> : null}
+        <p className="mt-1 text-xs text-ink-500">{notes.designConductivity}</p>
       </fieldset>
       <div className="grid gap-4 md:grid-cols-4">
         <div>

@@ -14,7 +14,7 @@ import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
 import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
 import { criteriaFor } from '@/lib/lines/solve-line';
-import type { ConditionSetId } from '@/lib/thermal';
+import { designFactor, type ConditionSetId } from '@/lib/thermal';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
 export const metadata = { title: 'Line' };
@@ -43,6 +43,7 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const atMm = design?.thicknessMm ?? result?.recommendedMm ?? null;
   const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string; conditionSet?: ConditionSetId | 'none'; limitC?: number; touchBasis?: string }[] | undefined) ?? [];
   const crit = criteriaFor(basis, line.outdoor);
+  const layerMaterials = [...new Set(((result?.layers ?? []) as { materialId: string }[]).map((l) => l.materialId))].map((id) => cat.materials.get(id)).filter((m) => m !== undefined);
   const wind = (ms: number) => (u.system === 'US' ? `${sig(ms / 0.44704, 2)} mph` : `${ms} m/s`);
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
@@ -187,6 +188,27 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
               );
             })}</tbody>
           </table>
+        </section>
+      ) : null}
+      {layerMaterials.length ? (
+        <section className="panel mt-4 overflow-x-auto p-4" aria-labelledby="lambda-h">
+          <h2 id="lambda-h" className="mb-1">Conductivity: declared and design (EN ISO 23993)</h2>
+          <p className="mb-2 text-xs text-ink-600">The thickness is chosen on the design curve: the declared curve times the project&apos;s ageing, moisture and installation factors (design basis). The declared values are kept as given by their source.</p>
+          {layerMaterials.map((m) => {
+            const F = designFactor(m.designFactors);
+            const declared = m.conductivity.type === 'table' ? m.conductivity.points : null;
+            return (
+              <div key={m.id} className="mb-3" data-testid={`lambda-${m.id}`}>
+                <p className="text-sm"><strong>{m.name}</strong> — design factor {F.toFixed(3)}{m.designFactors ? ` (ageing ${m.designFactors.ageing}, moisture ${m.designFactors.moisture}, installation ${m.designFactors.installation}${m.designFactors.source ? `; ${m.designFactors.source}` : ''})` : ' (no factors set: design = declared)'}. Declared data: {m.source}</p>
+                {declared ? (
+                  <table className="table-dense" aria-label={`${m.name} conductivity`}>
+                    <thead><tr><th>Mean temperature</th><th className="text-right">Declared</th><th className="text-right">Design</th></tr></thead>
+                    <tbody>{declared.map(([t, k]) => <tr key={t}><td>{u.temp(t)}</td><td className="num">{u.conductivity(k)}</td><td className="num">{u.conductivity(k * F)}</td></tr>)}</tbody>
+                  </table>
+                ) : null}
+              </div>
+            );
+          })}
         </section>
       ) : null}
       <section className="panel mt-4 p-4">

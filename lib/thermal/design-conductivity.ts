@@ -34,14 +34,21 @@ export function designFactor(f: DesignFactors | undefined): number {
 }
 
 /** The design curve: the declared curve scaled by the product of the factors (the same object when it is 1). */
-export function designConductivitySpec(m: { conductivity: ConductivitySpec; designFactors?: DesignFactors }): ConductivitySpec {
+export function designConductivitySpec(m: {
+  conductivity: ConductivitySpec;
+  designFactors?: DesignFactors;
+}): ConductivitySpec {
   const F = designFactor(m.designFactors);
   if (F === 1) return m.conductivity;
   const c = m.conductivity;
   switch (c.type) {
-    case 'constant': return { type: 'constant', k: c.k * F };
-    case 'linear': return { type: 'linear', a: c.a * F, b: c.b * F };
-    case 'table': return { type: 'table', points: c.points.map(([t, k]) => [t, k * F] as [number, number]) };
-    case 'polynomial': return { type: 'polynomial', coefficients: c.coefficients.map((x) => x * F) };
+    case 'constant':
+      return { type: 'constant', k: c.k * F };
+    case 'linear':
+      return { type: 'linear', a: c.a * F, b: c.b * F };
+    case 'table':
+      return { type: 'table', points: c.points.map(([t, k]) => [t, k * F] as [number, number]) };
+    case 'polynomial':
+      return { type: 'polynomial', coefficients: c.coefficients.map((x) => x * F) };
   }
 }

@@ -36,19 +36,44 @@ export const TOUCH_SURFACE_LABEL: Record<TouchSurface, string> = {
 };
 
 /** A threshold point: contact time (s), threshold (°C, lower end of the band), upper end where a band was read, and how sure we are. */
-interface ThresholdPoint { s: number; c: number; upper?: number; note: 'C2' | 'R' }
+interface ThresholdPoint {
+  s: number;
+  c: number;
+  upper?: number;
+  note: 'C2' | 'R';
+}
 const METAL: ThresholdPoint[] = [
-  { s: 1, c: 62, upper: 65, note: 'C2' }, { s: 2, c: 60, upper: 64, note: 'C2' }, { s: 5, c: 56, upper: 61, note: 'C2' },
-  { s: 10, c: 55, note: 'R' }, { s: 60, c: 51, note: 'C2' }, { s: 600, c: 48, note: 'C2' }, { s: 28800, c: 43, note: 'C2' },
+  { s: 1, c: 62, upper: 65, note: 'C2' },
+  { s: 2, c: 60, upper: 64, note: 'C2' },
+  { s: 5, c: 56, upper: 61, note: 'C2' },
+  { s: 10, c: 55, note: 'R' },
+  { s: 60, c: 51, note: 'C2' },
+  { s: 600, c: 48, note: 'C2' },
+  { s: 28800, c: 43, note: 'C2' },
 ];
 export const BURN_THRESHOLDS: Record<TouchSurface, ThresholdPoint[]> = {
   'bare-metal': METAL,
   'coated-metal': METAL,
-  'ceramic-glass-stone': [{ s: 10, c: 66, note: 'C2' }, { s: 60, c: 56, note: 'C2' }, { s: 600, c: 48, note: 'C2' }, { s: 28800, c: 43, note: 'C2' }],
-  plastic: [{ s: 10, c: 71, note: 'C2' }, { s: 60, c: 60, note: 'C2' }, { s: 600, c: 48, note: 'C2' }, { s: 28800, c: 43, note: 'C2' }],
+  'ceramic-glass-stone': [
+    { s: 10, c: 66, note: 'C2' },
+    { s: 60, c: 56, note: 'C2' },
+    { s: 600, c: 48, note: 'C2' },
+    { s: 28800, c: 43, note: 'C2' },
+  ],
+  plastic: [
+    { s: 10, c: 71, note: 'C2' },
+    { s: 60, c: 60, note: 'C2' },
+    { s: 600, c: 48, note: 'C2' },
+    { s: 28800, c: 43, note: 'C2' },
+  ],
   wood: [
-    { s: 1, c: 110, upper: 135, note: 'C2' }, { s: 2, c: 104, upper: 126, note: 'C2' }, { s: 5, c: 92, upper: 112, note: 'C2' },
-    { s: 10, c: 89, note: 'C2' }, { s: 60, c: 60, note: 'C2' }, { s: 600, c: 48, note: 'C2' }, { s: 28800, c: 43, note: 'C2' },
+    { s: 1, c: 110, upper: 135, note: 'C2' },
+    { s: 2, c: 104, upper: 126, note: 'C2' },
+    { s: 5, c: 92, upper: 112, note: 'C2' },
+    { s: 10, c: 89, note: 'C2' },
+    { s: 60, c: 60, note: 'C2' },
+    { s: 600, c: 48, note: 'C2' },
+    { s: 28800, c: 43, note: 'C2' },
   ],
 };
 
@@ -69,20 +94,37 @@ export interface TouchLimit {
 
 /** Burn threshold (°C) for a surface and contact time, ISO 13732-1 (see the module note). */
 export function burnThresholdC(surface: TouchSurface, contactSeconds: number): TouchLimit {
-  if (!(contactSeconds >= CONTACT_SECONDS_RANGE.min)) throw new RangeError(`Contact time must be at least ${CONTACT_SECONDS_RANGE.min} s (is ${contactSeconds})`);
+  if (!(contactSeconds >= CONTACT_SECONDS_RANGE.min))
+    throw new RangeError(
+      `Contact time must be at least ${CONTACT_SECONDS_RANGE.min} s (is ${contactSeconds})`,
+    );
   const pts = BURN_THRESHOLDS[surface];
   const t = Math.min(contactSeconds, CONTACT_SECONDS_RANGE.max);
-  let limitC: number, bandC: [number, number] | null = null, how: string;
+  let limitC: number,
+    bandC: [number, number] | null = null,
+    how: string;
   if (t <= pts[0].s) {
     limitC = pts[0].c;
     if (pts[0].upper !== undefined && t === pts[0].s) bandC = [pts[0].c, pts[0].upper];
-    how = t < pts[0].s ? `the ${pts[0].s} s threshold (short-contact band not read; thresholds fall with contact time, so this is on the safe side)` : 'the lower end of the band';
+    how =
+      t < pts[0].s
+        ? `the ${pts[0].s} s threshold (short-contact band not read; thresholds fall with contact time, so this is on the safe side)`
+        : 'the lower end of the band';
   } else {
     let i = 1;
     while (i < pts.length - 1 && pts[i].s < t) i++;
-    const a = pts[i - 1], b = pts[i];
-    if (t >= b.s) { limitC = b.c; if (b.upper !== undefined) bandC = [b.c, b.upper]; how = b.upper !== undefined ? 'the lower end of the band' : b.note === 'R' ? 'the threshold [recalled from the figure]' : 'the tabulated threshold'; }
-    else {
+    const a = pts[i - 1],
+      b = pts[i];
+    if (t >= b.s) {
+      limitC = b.c;
+      if (b.upper !== undefined) bandC = [b.c, b.upper];
+      how =
+        b.upper !== undefined
+          ? 'the lower end of the band'
+          : b.note === 'R'
+            ? 'the threshold [recalled from the figure]'
+            : 'the tabulated threshold';
+    } else {
       const f = Math.log(t / a.s) / Math.log(b.s / a.s);
       limitC = a.c + (b.c - a.c) * f;
       how = `interpolated in log(time) between ${a.s} s and ${b.s} s`;
@@ -90,7 +132,10 @@ export function burnThresholdC(surface: TouchSurface, contactSeconds: number): T
   }
   const clause = t >= 60 ? 'Table 1' : 'clause 4 figures';
   return {
-    limitC, surface, contactSeconds, bandC,
+    limitC,
+    surface,
+    contactSeconds,
+    bandC,
     basis: `ISO 13732-1 burn threshold (${clause}) for ${TOUCH_SURFACE_LABEL[surface]} at ${contactSeconds} s contact: ${how}${bandC ? ` (band ${bandC[0]}–${bandC[1]} °C)` : ''}.`,
   };
 }
@@ -112,9 +157,18 @@ export interface TouchCriterion {
  * The touch limit a surface is held to — one rule for the recommendation, the review flags and the
  * line page. Fixed numbers: metal jackets (and bare steel) the metal limit, others the non-metal one.
  */
-export function touchLimitFor(c: TouchCriterion, jacket: { metal: boolean; touchSurface?: TouchSurface }): TouchLimit {
+export function touchLimitFor(
+  c: TouchCriterion,
+  jacket: { metal: boolean; touchSurface?: TouchSurface },
+): TouchLimit {
   const surface = touchSurfaceOf(jacket);
   if (c.touchContactSeconds !== undefined) return burnThresholdC(surface, c.touchContactSeconds);
   const limitC = jacket.metal ? c.touchLimitMetalC : c.touchLimitNonMetalC;
-  return { limitC, surface, contactSeconds: NaN, bandC: null, basis: `Project's fixed touch limit for ${jacket.metal ? 'metal' : 'non-metal'} surfaces (${limitC} °C), set in place of the ISO 13732-1 contact-time threshold.` };
+  return {
+    limitC,
+    surface,
+    contactSeconds: NaN,
+    bandC: null,
+    basis: `Project's fixed touch limit for ${jacket.metal ? 'metal' : 'non-metal'} surfaces (${limitC} °C), set in place of the ISO 13732-1 contact-time threshold.`,
+  };
 }

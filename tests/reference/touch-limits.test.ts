@@ -5,8 +5,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
-  DEFAULT_CRITERIA, burnThresholdC, jacketById, materialById, recommendLine, touchLimitFor,
-  type LineCase, type MaterialSystem,
+  DEFAULT_CRITERIA,
+  burnThresholdC,
+  jacketById,
+  materialById,
+  recommendLine,
+  touchLimitFor,
+  type LineCase,
+  type MaterialSystem,
 } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS, type DesignBasis } from '@/lib/lines/design-basis';
 import { criteriaFor, solveLine } from '@/lib/lines/solve-line';
@@ -16,10 +22,18 @@ import type { LineInput } from '@/lib/lines/validate';
 
 describe('ISO 13732-1 burn thresholds (Table 1, contact ≥ 1 min; reprinted in Czech regulation 361/2007 Sb. [C2])', () => {
   it.each([
-    ['bare-metal', 60, 51], ['bare-metal', 600, 48], ['bare-metal', 28800, 43],
-    ['ceramic-glass-stone', 60, 56], ['ceramic-glass-stone', 600, 48], ['ceramic-glass-stone', 28800, 43],
-    ['plastic', 60, 60], ['plastic', 600, 48], ['plastic', 28800, 43],
-    ['wood', 60, 60], ['wood', 600, 48], ['wood', 28800, 43],
+    ['bare-metal', 60, 51],
+    ['bare-metal', 600, 48],
+    ['bare-metal', 28800, 43],
+    ['ceramic-glass-stone', 60, 56],
+    ['ceramic-glass-stone', 600, 48],
+    ['ceramic-glass-stone', 28800, 43],
+    ['plastic', 60, 60],
+    ['plastic', 600, 48],
+    ['plastic', 28800, 43],
+    ['wood', 60, 60],
+    ['wood', 600, 48],
+    ['wood', 28800, 43],
   ] as const)('%s at %i s: %i °C', (surface, s, c) => {
     expect(burnThresholdC(surface, s).limitC).toBe(c);
   });
@@ -67,8 +81,14 @@ describe('ISO 13732-1 burn thresholds (Table 1, contact ≥ 1 min; reprinted in 
 describe('the limit follows the jacket', () => {
   const crit = { touchLimitMetalC: 60, touchLimitNonMetalC: 65, touchContactSeconds: 5 };
   it('aluminium → bare metal 56 °C, painted metal → coated metal 56 °C, PVC → plastics 71 °C at 5 s', () => {
-    expect(touchLimitFor(crit, jacketById('aluminium-oxidised')!)).toMatchObject({ limitC: 56, surface: 'bare-metal' });
-    expect(touchLimitFor(crit, jacketById('painted-metal')!)).toMatchObject({ limitC: 56, surface: 'coated-metal' });
+    expect(touchLimitFor(crit, jacketById('aluminium-oxidised')!)).toMatchObject({
+      limitC: 56,
+      surface: 'bare-metal',
+    });
+    expect(touchLimitFor(crit, jacketById('painted-metal')!)).toMatchObject({
+      limitC: 56,
+      surface: 'coated-metal',
+    });
     expect(touchLimitFor(crit, jacketById('pvc')!)).toMatchObject({ limitC: 71, surface: 'plastic' });
   });
   it('fixed numbers stay as an explicit override', () => {
@@ -79,39 +99,94 @@ describe('the limit follows the jacket', () => {
 });
 
 describe('recommendation, review flag and line page agree on the contact-time limit', () => {
-  const line: LineCase = { geometry: 'horizontal-pipe', pipeOuterDiameterMm: 114.3, lengthM: 50, normalTempC: 180, purposes: ['personnelProtection'], accessible: true };
-  const system: MaterialSystem = { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
+  const line: LineCase = {
+    geometry: 'horizontal-pipe',
+    pipeOuterDiameterMm: 114.3,
+    lengthM: 50,
+    normalTempC: 180,
+    purposes: ['personnelProtection'],
+    accessible: true,
+  };
+  const system: MaterialSystem = {
+    outer: materialById('mineral-wool-pipe')!,
+    jacket: jacketById('aluminium-oxidised')!,
+  };
   it('a 5 s contact on aluminium holds the surface to 56 °C and names ISO 13732-1; the fixed 60 °C needs no more', () => {
-    const timed = recommendLine(line, system, { ...DEFAULT_CRITERIA, touchContactSeconds: 5, sweepAllCandidates: true });
+    const timed = recommendLine(line, system, {
+      ...DEFAULT_CRITERIA,
+      touchContactSeconds: 5,
+      sweepAllCandidates: true,
+    });
     const fixed = recommendLine(line, system, { ...DEFAULT_CRITERIA, sweepAllCandidates: true });
     const p = timed.outcomes.find((o) => o.id === 'personnel')!;
     expect(p.limitC).toBe(56);
     expect(p.touchSurface).toBe('bare-metal');
-    expect(p.touchBasis).toMatch(/ISO 13732-1 burn threshold \(clause 4 figures\) for bare \(uncoated\) metal at 5 s contact/);
-    expect(p.message).toMatch(/Surface ≤ 56 °C at 35 °C still air \(touch limit for bare \(uncoated\) metal, 5 s contact, ISO 13732-1\)/);
+    expect(p.touchBasis).toMatch(
+      /ISO 13732-1 burn threshold \(clause 4 figures\) for bare \(uncoated\) metal at 5 s contact/,
+    );
+    expect(p.message).toMatch(
+      /Surface ≤ 56 °C at 35 °C still air \(touch limit for bare \(uncoated\) metal, 5 s contact, ISO 13732-1\)/,
+    );
     expect(p.conditionSet).toBe('personnel');
     const at = timed.candidates.find((c) => c.totalMm === p.requiredMm)!;
     const before = timed.candidates[timed.candidates.indexOf(at) - 1];
     expect(at.personnel!.surfaceC).toBeLessThanOrEqual(56);
     expect(before.personnel!.surfaceC).toBeGreaterThan(56);
-    expect(p.requiredMm!).toBeGreaterThanOrEqual(fixed.outcomes.find((o) => o.id === 'personnel')!.requiredMm!);
+    expect(p.requiredMm!).toBeGreaterThanOrEqual(
+      fixed.outcomes.find((o) => o.id === 'personnel')!.requiredMm!,
+    );
   });
   it('new projects start from 5 s contact; the flag and the deciding limit use the same number', () => {
     expect(DEFAULT_DESIGN_BASIS.touchLimitMode).toBe('contact-time');
     expect(DEFAULT_DESIGN_BASIS.touchContactSeconds).toBe(5);
     expect(criteriaFor(DEFAULT_DESIGN_BASIS, true).touchContactSeconds).toBe(5);
     const l: LineInput = {
-      tag: 'T-1', service: '', area: 'A', geometry: 'horizontal-pipe', nps: '4', outsideDiameterMm: 114.3, lengthM: 20, surfaceAreaM2: null, heightM: null,
-      normalTempC: 180, maxTempC: 180, steamPressureBarG: null, flowKgPerS: null, fluidCpKJPerKgK: null, elbows: 0, tees: 0, valves: 0, flanges: 0,
-      purposes: ['personnelProtection'], outdoor: true, accessible: true, accessHeightM: null, jacketId: null, notes: '',
+      tag: 'T-1',
+      service: '',
+      area: 'A',
+      geometry: 'horizontal-pipe',
+      nps: '4',
+      outsideDiameterMm: 114.3,
+      lengthM: 20,
+      surfaceAreaM2: null,
+      heightM: null,
+      normalTempC: 180,
+      maxTempC: 180,
+      steamPressureBarG: null,
+      flowKgPerS: null,
+      fluidCpKJPerKgK: null,
+      elbows: 0,
+      tees: 0,
+      valves: 0,
+      flanges: 0,
+      purposes: ['personnelProtection'],
+      outdoor: true,
+      accessible: true,
+      accessHeightM: null,
+      jacketId: null,
+      notes: '',
     };
     const s = solveLine(DEFAULT_DESIGN_BASIS, l);
     expect(decidingLimits(DEFAULT_DESIGN_BASIS, l, s.system.jacket.id).personnelLimitC).toBe(56);
-    const bare = flagsForLine(DEFAULT_DESIGN_BASIS, { line: l, design: null, jacketId: null, solved: true, stale: false, unmet: [] }).find((f) => f.type === 'hot-surface')!;
+    const bare = flagsForLine(DEFAULT_DESIGN_BASIS, {
+      line: l,
+      design: null,
+      jacketId: null,
+      solved: true,
+      stale: false,
+      unmet: [],
+    }).find((f) => f.type === 'hot-surface')!;
     expect(bare.limitC).toBe(56);
     expect(bare.conditions).toMatch(/bare \(uncoated\) metal, 5 s contact \(ISO 13732-1\)/);
     // PVC-jacketed line: plastics, 71 °C at 5 s.
-    const pvc = flagsForLine(DEFAULT_DESIGN_BASIS, { line: l, design: { layers: [{ materialId: 'mineral-wool-pipe', thicknessMm: 20 }], belowCriterion: null }, jacketId: 'pvc', solved: true, stale: false, unmet: [] });
+    const pvc = flagsForLine(DEFAULT_DESIGN_BASIS, {
+      line: l,
+      design: { layers: [{ materialId: 'mineral-wool-pipe', thicknessMm: 20 }], belowCriterion: null },
+      jacketId: 'pvc',
+      solved: true,
+      stale: false,
+      unmet: [],
+    });
     const hot = pvc.find((f) => f.type === 'hot-surface');
     if (hot) expect(hot.limitC).toBe(71);
   });

@@ -185,6 +185,36 @@ export const designBasisObject = z.object({
    * thickness is chosen on the declared curve × their product. Materials not named keep factor 1.
    */
   designConductivity: z.record(z.string(), designFactorsSchema).default({}),
+  /**
+   * Corrosion-under-insulation screening (lib/thermal/cui.ts): the metals the lines are made of,
+   * whether lines stand idle at ambient, what the specification requires of screened lines, and
+   * whether a screened line is flagged for review. Bases saved before screening existed raise no
+   * new flag until the project turns it on (the screening is shown on the line page either way).
+   */
+  cui: z
+    .object({
+      metals: z.preprocess(
+        (v) => (typeof v === 'string' ? [v] : v),
+        z
+          .array(
+            z.enum(['carbon-steel', 'austenitic-stainless'], {
+              error: 'Metals screened: carbon steel or austenitic stainless',
+            }),
+          )
+          .default(['carbon-steel']),
+      ),
+      screenIdle: z.coerce.boolean().default(false),
+      requireCoatingNote: z.coerce.boolean().default(false),
+      requireChlorideFree: z.coerce.boolean().default(false),
+      reviewFlag: z.coerce.boolean().default(false),
+    })
+    .default({
+      metals: ['carbon-steel'],
+      screenIdle: false,
+      requireCoatingNote: false,
+      requireChlorideFree: false,
+      reviewFlag: false,
+    }),
   /** An energy code whose minimum pipe insulation is a hard criterion. */
   energyCode: z
     .enum(['none', 'ashrae-90.1'], { error: 'Choose no energy code or ASHRAE 90.1' })
@@ -380,6 +410,13 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ownMaterials: [],
   ownJackets: [],
   designConductivity: {},
+  cui: {
+    metals: ['carbon-steel'],
+    screenIdle: false,
+    requireCoatingNote: false,
+    requireChlorideFree: false,
+    reviewFlag: true,
+  },
   energyCode: 'none',
   fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
   economics: {
@@ -429,6 +466,7 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
     'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
   designConductivity:
     "Design conductivity after EN ISO 23993: the declared curve (λ against mean temperature) is kept and shown; the thickness is chosen on the declared curve times the ageing, moisture and installation factors set here per material. ISO 23993 gives the method, not the numbers: take them from the manufacturer (ageing of foams, for example), the project specification or the contractor's installation practice, and say where. 1.00 (no allowance) until set.",
+  cui: "Corrosion-under-insulation screen: a line whose operating temperature, the range it cycles through (normal to maximum) or, when lines stand idle, the ambient air falls in the carbon-steel or austenitic-stainless window of AMPP/NACE SP0198 or API RP 583 is named with the window and the document (windows as recalled: verify against the edition your specification cites). The line list does not give the pipe metal: choose the metals the project uses. A coating note and chloride-free insulation to ASTM C795 (for austenitic stainless) can be required of screened lines; the screen is no substitute for the owner's inspection programme.",
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };
 

@@ -29,6 +29,8 @@ import {
   compileConductivity,
   designConductivitySpec,
   touchLimitFor,
+  screenCui,
+  type CuiScreen,
 } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS } from './design-basis';
 import { criteriaFor, systemForLine, vesselDiameterM } from './solve-line';
@@ -171,6 +173,31 @@ export const recommendCaseSchema = z
               .optional(),
           },
           { error: 'heatTracing must be an object { maintainTempC, minAmbientC, windMs, safetyFactor }' },
+        )
+        .optional(),
+      cui: z
+        .object(
+          {
+            metals: z
+              .array(
+                z.enum(['carbon-steel', 'austenitic-stainless'], {
+                  error: 'cui.metals: each must be "carbon-steel" or "austenitic-stainless"',
+                }),
+                { error: 'cui.metals must be an array' },
+              )
+              .min(1, { error: 'cui.metals: give at least one metal' })
+              .optional(),
+            idleTempC: temperature('cui.idleTempC').optional(),
+            requireCoatingNote: z
+              .boolean({ error: 'cui.requireCoatingNote must be true or false' })
+              .optional(),
+            requireChlorideFree: z
+              .boolean({ error: 'cui.requireChlorideFree must be true or false' })
+              .optional(),
+          },
+          {
+            error: 'cui must be an object { metals?, idleTempC?, requireCoatingNote?, requireChlorideFree? }',
+          },
         )
         .optional(),
       fittings: z
@@ -356,6 +383,8 @@ export interface RecommendResult {
   /** With fittings: their extra heat flow (equivalent lengths, lib/thermal/fittings.ts) and the run's total, W. */
   fittingsHeatLossW?: number;
   totalHeatLossW?: number;
+  /** With cui: the corrosion-under-insulation screen (windows, their sources, what the specification then requires). */
+  cui?: CuiScreen;
   unmet: CriterionId[];
   warnings: string[];
 }
@@ -716,6 +745,19 @@ export function runRecommendCase(input: unknown): RecommendOutput {
       criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
       ...(tracing ? { heatTracing: tracing } : {}),
       ...(fittingsW !== undefined ? { fittingsHeatLossW: fittingsW, totalHeatLossW: totalW } : {}),
+      ...(c.cui
+        ? {
+            cui: screenCui(
+              { normalC: c.normalTempC, maxC: c.maxTempC, idleC: c.cui.idleTempC },
+              {
+                metals: c.cui.metals ?? ['carbon-steel'],
+                screenIdle: c.cui.idleTempC !== undefined,
+                requireCoatingNote: c.cui.requireCoatingNote ?? false,
+                requireChlorideFree: c.cui.requireChlorideFree ?? false,
+              },
+            ),
+          }
+        : {}),
       unmet: r.unmet,
       warnings,
     };

@@ -1,4 +1,5 @@
 import {
+  describeCuiFinding,
   compileConductivity,
   designConductivitySpec,
   condensationControlApplies,
@@ -13,17 +14,19 @@ import {
   type InsulationMaterial,
 } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
+import { cuiScreenFor } from '@/lib/lines/cui';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import type { LineInput } from '@/lib/lines/validate';
 
-export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked';
+export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked' | 'cui';
 export const FLAG_LABEL: Record<FlagType, string> = {
   'hot-surface': 'Surface over the touch limit',
   sweating: 'Surface under the dew point + margin',
   'interface-limit': 'Layer over its service temperature',
   'below-criterion': 'Pick below a hard criterion',
   blocked: 'Missing data blocks a decision',
+  cui: 'Corrosion-under-insulation window',
 };
 
 export interface Flag {
@@ -80,6 +83,16 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
       message: `The chosen thickness is below what ${f.design.belowCriterion} requires.`,
     });
 
+  // Corrosion under insulation (lib/lines/cui.ts): a screen for the reviewer, when the project asks for the flag.
+  if (basis.cui?.reviewFlag) {
+    const screen = cuiScreenFor(basis, l);
+    if (screen.inWindow) {
+      flags.push({
+        type: 'cui',
+        message: `In a corrosion-under-insulation window: ${screen.findings.map(describeCuiFinding).join('; ')}.${screen.coatingNote ? ' Coating required under the insulation.' : ''}${screen.chlorideFreeInsulation ? ' Chloride-free insulation (ASTM C795) required.' : ''}`,
+      });
+    }
+  }
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);

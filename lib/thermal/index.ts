@@ -4,6 +4,7 @@ export * from './case';
 export * from './conductivity';
 export * from './constants';
 export * from './correlations';
+export * from './cui';
 export * from './design-conductivity';
 export * from './economics';
 export * from './materials';

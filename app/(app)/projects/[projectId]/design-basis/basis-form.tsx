@@ -363,6 +363,60 @@ export function BasisForm({
           <p className="mt-1 text-xs text-ink-500">{notes.systems}</p>
         </fieldset>
         <fieldset className="panel p-3">
+          <legend className="px-1 text-sm font-semibold">
+            Corrosion under insulation (AMPP/NACE SP0198, API RP 583)
+          </legend>
+          <div className="flex flex-wrap gap-4 text-sm">
+            {(
+              [
+                [
+                  'cui.metals',
+                  'carbon-steel',
+                  'Lines of carbon or low-alloy steel',
+                  basis.cui.metals.includes('carbon-steel'),
+                ],
+                [
+                  'cui.metals',
+                  'austenitic-stainless',
+                  'Lines of austenitic stainless steel',
+                  basis.cui.metals.includes('austenitic-stainless'),
+                ],
+                ['cui.screenIdle', 'on', 'Lines stand idle at ambient air', basis.cui.screenIdle],
+                [
+                  'cui.requireCoatingNote',
+                  'on',
+                  'Screened lines: coating under the insulation',
+                  basis.cui.requireCoatingNote,
+                ],
+                [
+                  'cui.requireChlorideFree',
+                  'on',
+                  'Screened stainless lines: chloride-free insulation (ASTM C795)',
+                  basis.cui.requireChlorideFree,
+                ],
+                ['cui.reviewFlag', 'on', 'Flag screened lines for review', basis.cui.reviewFlag],
+              ] as const
+            ).map(([name, value, label, checked]) => {
+              const id = `db-${name.replace('.', '-')}-${value}`;
+              return (
+                <span key={id} className="flex items-center gap-1">
+                  <input
+                    id={id}
+                    type="checkbox"
+                    name={name}
+                    value={value}
+                    defaultChecked={checked}
+                    disabled={!canEdit}
+                  />
+                  <label htmlFor={id}>{label}</label>
+                </span>
+              );
+            })}
+          </div>
+          {errors['cui.metals'] ? <p className="field-error">{errors['cui.metals'].join(' ')}</p> : null}
+          <p className="mt-1 text-xs text-ink-500">{notes.cui}</p>
+        </fieldset>
+        <fieldset className="panel p-3">
           <legend className="px-1 text-sm font-semibold">Design conductivity (EN ISO 23993)</legend>
           <table className="table-dense" aria-label="Design conductivity factors">
             <thead>

@@ -14,7 +14,8 @@ import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
 import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
 import { criteriaFor } from '@/lib/lines/solve-line';
-import { designFactor, type ConditionSetId } from '@/lib/thermal';
+import { CUI_METAL_LABEL, describeCuiFinding, designFactor, type ConditionSetId } from '@/lib/thermal';
+import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
 export const metadata = { title: 'Line' };
@@ -73,6 +74,7 @@ export default async function LinePage({
         }[]
       | undefined) ?? [];
   const crit = criteriaFor(basis, line.outdoor);
+  const cui = cuiScreenFor(basis, inputOf(line));
   const layerMaterials = [
     ...new Set(((result?.layers ?? []) as { materialId: string }[]).map((l) => l.materialId)),
   ]
@@ -519,6 +521,35 @@ export default async function LinePage({
           </table>
         </section>
       ) : null}
+      <section className="panel mt-4 p-4" aria-labelledby="cui-h" data-testid="cui">
+        <h2 id="cui-h" className="mb-1">
+          Corrosion under insulation (screen)
+        </h2>
+        {cui.inWindow ? (
+          <>
+            <ul className="space-y-0.5 text-sm">
+              {cui.findings.map((f, i) => (
+                <li key={i}>{msg(describeCuiFinding(f))}</li>
+              ))}
+            </ul>
+            {cui.coatingNote ? <p className="mt-1 text-sm">Specification: {cui.coatingNote}</p> : null}
+            {cui.chlorideFreeInsulation ? (
+              <p className="mt-1 text-sm">
+                Specification: chloride-free insulation to ASTM C795 on this stainless line.
+              </p>
+            ) : null}
+          </>
+        ) : (
+          <p className="text-sm">
+            Outside the screened windows ({basis.cui.metals.map((m) => CUI_METAL_LABEL[m]).join(', ')}
+            {basis.cui.screenIdle ? '; idle at ambient included' : ''}).
+          </p>
+        )}
+        <p className="mt-1 text-xs text-ink-500">
+          A screen by temperature only (windows as recalled from the documents named; verify against the
+          edition your specification cites). It does not replace the owner&apos;s inspection programme.
+        </p>
+      </section>
       {layerMaterials.length ? (
         <section className="panel mt-4 overflow-x-auto p-4" aria-labelledby="lambda-h">
           <h2 id="lambda-h" className="mb-1">

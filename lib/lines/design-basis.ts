@@ -241,13 +241,24 @@ export const designBasisObject = z.object({
     lifeYears: num('Life').int().min(1).max(60),
     escalationRate: num('Price escalation').min(-0.5).max(1),
     co2KgPerKWh: num('CO₂ factor').min(0).max(2),
+    /** What makes up the heat lost; names the emission scope (efficiency and CO₂ factor above are the project's figures for it). */
+    heatSource: z
+      .enum(['natural-gas', 'fuel-oil', 'heavy-fuel-oil', 'lpg', 'coal', 'electricity', 'district-heat'], {
+        error: 'Heat source: choose one of the listed energy sources',
+      })
+      .default('natural-gas'),
     cooling: z
       .object({
         electricityPricePerKWh: num('Electricity price for cooling').min(0).max(10),
         cop: num('Chiller COP').gt(0).max(20),
         co2KgPerKWh: num('CO₂ factor of electricity').min(0).max(2),
+        source: z
+          .enum(['electric-chiller', 'district-cooling'], {
+            error: 'Cooling source: choose an electric chiller or district cooling',
+          })
+          .default('electric-chiller'),
       })
-      .default(DEFAULT_COOLING),
+      .default({ ...DEFAULT_COOLING, source: 'electric-chiller' }),
     economicChoice: z
       .enum(['optimum', 'thinnest-within-range'], {
         error: 'Choose the optimum or the thinnest within the range',
@@ -421,7 +432,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
   economics: {
     ...DEFAULT_ECONOMICS,
-    cooling: { ...DEFAULT_COOLING },
+    heatSource: 'natural-gas',
+    cooling: { ...DEFAULT_COOLING, source: 'electric-chiller' },
     economicChoice: 'optimum',
     flatRangePct: 2,
   },
@@ -447,6 +459,8 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
   co2KgPerKWh:
     'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
+  heatSource:
+    "CO₂ = energy lost ÷ efficiency (or ÷ COP for cooling) × the factor of the energy bought. Fuel burnt in the plant's own boilers is Scope 1, bought electricity, heat, steam and cooling Scope 2 (GHG Protocol Corporate Standard). Choosing a source does not change the figures typed here: the table gives each source's default factor and efficiency with its source; electricity and district energy have no universal factor — use the supplier's or grid's for the site and year.",
   freeze:
     'Stagnant water by the ISO 12241 method: cooling to 0 °C, then freezing the allowed fraction of the water (latent heat 334 kJ/kg). 25 % ice by the required time is common practice for water lines; set 0 to require the water stay above 0 °C.',
   fittings:

@@ -167,7 +167,14 @@ export interface Recommendation {
   candidates: CandidateResult[];
   /** The solved design at the recommendation, under the heat-loss conditions. */
   design?: SteadyResult;
-  annual?: { energyMWh: number; cost: number; co2Tonnes: number };
+  /** Annual energy lost, its cost and CO₂ (energy bought × the source's factor), with the source and its emission scope. */
+  annual?: {
+    energyMWh: number;
+    cost: number;
+    co2Tonnes: number;
+    source: string;
+    scope: 'Scope 1' | 'Scope 2';
+  };
   condensateKgPerHour?: number;
   warnings: string[];
 }
@@ -1052,6 +1059,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       energyMWh: heatMWh,
       cost: boughtMWh * 1000 * et.pricePerKWh,
       co2Tonnes: (boughtMWh * 1000 * et.co2KgPerKWh) / 1000,
+      source: et.source,
+      scope: et.scope,
     };
   }
   const unmet: CriterionId[] = [];

@@ -5,6 +5,7 @@ import { saveDesignBasisAction } from './actions';
 import { fieldKind, kindUnit, toFormValue } from '@/lib/format/basis-units';
 import { CURRENCIES } from '@/lib/format';
 import { TOUCH_SURFACE_LABEL, burnThresholdC, type TouchSurface } from '@/lib/thermal/touch';
+import { COOLING_SOURCES, HEAT_SOURCES } from '@/lib/thermal/economics';
 
 const TOUCH_SURFACES = Object.keys(TOUCH_SURFACE_LABEL) as TouchSurface[];
 
@@ -525,7 +526,46 @@ export function BasisForm({
           <Num name="economics.discountRate" label="Discount rate (fraction)" />
           <Num name="economics.lifeYears" label="Life, years" step="1" />
           <Num name="economics.escalationRate" label="Energy price escalation (fraction)" />
+          <div>
+            <label htmlFor="db-heatSource" className="label">
+              Heat source (hot lines)
+            </label>
+            <select
+              id="db-heatSource"
+              name="economics.heatSource"
+              defaultValue={basis.economics.heatSource}
+              disabled={!canEdit}
+              className="input"
+            >
+              {(Object.keys(HEAT_SOURCES) as (keyof typeof HEAT_SOURCES)[]).map((k) => (
+                <option key={k} value={k}>
+                  {HEAT_SOURCES[k].label} — {HEAT_SOURCES[k].scope}
+                </option>
+              ))}
+            </select>
+            {errors['economics.heatSource'] ? (
+              <p className="field-error">{errors['economics.heatSource'].join(' ')}</p>
+            ) : null}
+          </div>
           <Num name="economics.co2KgPerKWh" label="CO₂ kg per kWh" hint={notes.co2KgPerKWh} />
+          <div>
+            <label htmlFor="db-coolingSource" className="label">
+              Cooling source (cold lines)
+            </label>
+            <select
+              id="db-coolingSource"
+              name="economics.cooling.source"
+              defaultValue={basis.economics.cooling.source}
+              disabled={!canEdit}
+              className="input"
+            >
+              {(Object.keys(COOLING_SOURCES) as (keyof typeof COOLING_SOURCES)[]).map((k) => (
+                <option key={k} value={k}>
+                  {COOLING_SOURCES[k].label} — {COOLING_SOURCES[k].scope}
+                </option>
+              ))}
+            </select>
+          </div>
           <Num
             name="economics.cooling.electricityPricePerKWh"
             label="Cold lines: electricity per kWh"
@@ -533,6 +573,36 @@ export function BasisForm({
           />
           <Num name="economics.cooling.cop" label="Cold lines: chiller COP" />
           <Num name="economics.cooling.co2KgPerKWh" label="Cold lines: CO₂ kg per kWh of electricity" />
+          <div className="md:col-span-4">
+            <table className="table-dense" aria-label="Energy sources: default factors">
+              <caption className="text-left text-xs text-ink-600">
+                Defaults per energy source (type the project&apos;s own figures in the fields above)
+              </caption>
+              <thead>
+                <tr>
+                  <th>Source</th>
+                  <th>Scope</th>
+                  <th className="text-right">kg CO₂/kWh bought</th>
+                  <th>Factor from</th>
+                  <th className="text-right">Efficiency / COP</th>
+                  <th>From</th>
+                </tr>
+              </thead>
+              <tbody>
+                {[...Object.values(HEAT_SOURCES), ...Object.values(COOLING_SOURCES)].map((s) => (
+                  <tr key={s.label}>
+                    <td>{s.label}</td>
+                    <td>{s.scope}</td>
+                    <td className="num">{s.co2KgPerKWh.toFixed(3)}</td>
+                    <td className="text-xs">{s.co2Source}</td>
+                    <td className="num">{s.efficiency}</td>
+                    <td className="text-xs">{s.efficiencySource}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+            <p className="mt-1 text-xs text-ink-500">{notes.heatSource}</p>
+          </div>
           <Num
             name="economics.flatRangePct"
             label="Flat range around the optimum, %"

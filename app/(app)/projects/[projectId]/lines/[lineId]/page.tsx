@@ -14,7 +14,13 @@ import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
 import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
 import { criteriaFor } from '@/lib/lines/solve-line';
-import { CUI_METAL_LABEL, describeCuiFinding, designFactor, type ConditionSetId } from '@/lib/thermal';
+import {
+  CUI_METAL_LABEL,
+  describeCuiFinding,
+  designFactor,
+  energyTerms,
+  type ConditionSetId,
+} from '@/lib/thermal';
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
@@ -75,6 +81,8 @@ export default async function LinePage({
       | undefined) ?? [];
   const crit = criteriaFor(basis, line.outdoor);
   const cui = cuiScreenFor(basis, inputOf(line));
+  const cold = line.normalTempC < crit.conditions.heatLoss.airC;
+  const energy = energyTerms(basis.economics, cold);
   const layerMaterials = [
     ...new Set(((result?.layers ?? []) as { materialId: string }[]).map((l) => l.materialId)),
   ]
@@ -378,6 +386,13 @@ export default async function LinePage({
               <dt className="text-ink-500">Annual energy / cost / CO₂</dt>
               <dd>
                 {u.energy(result.annualMWh)} · {u.money(result.annualCost)} · {sig(result.co2Tonnes, 3)} t
+                <span className="block text-xs text-ink-500" data-testid="co2-scope">
+                  CO₂ {energy.scope} ({energy.source}): energy {cold ? 'gained' : 'lost'} ÷{' '}
+                  {cold
+                    ? `COP ${sig(1 / energy.boughtPerHeat, 3)}`
+                    : `efficiency ${sig(100 / energy.boughtPerHeat, 3)} %`}{' '}
+                  × {sig(energy.co2KgPerKWh, 3)} kg CO₂ per kWh bought.
+                </span>
               </dd>
               {result.condensateKgPerH !== null ? (
                 <>

@@ -359,6 +359,8 @@ export interface CriterionResult {
   touchBasis?: string;
   /** The condition set the criterion is judged under (heatLoss, personnel, condensation, freeze; none for a table minimum). */
   conditionSet?: string;
+  /** Vessels, surface criteria: the thickness each part needs by its own surface. */
+  parts?: { shell: number | null; top: number | null; bottom: number | null };
 }
 
 export interface RecommendResult {
@@ -383,6 +385,8 @@ export interface RecommendResult {
   /** With fittings: their extra heat flow (equivalent lengths, lib/thermal/fittings.ts) and the run's total, W. */
   fittingsHeatLossW?: number;
   totalHeatLossW?: number;
+  /** Vessels: shell and heads decided per part (each meeting its criteria), with each part's heat flux and the vessel's mean flux at those thicknesses. */
+  vesselParts?: Recommendation['vesselParts'];
   /** With cui: the corrosion-under-insulation screen (windows, their sources, what the specification then requires). */
   cui?: CuiScreen;
   unmet: CriterionId[];
@@ -614,6 +618,7 @@ function criteriaOf(
     const cand = at(o.requiredMm);
     const res: CriterionResult = { requiredMm: o.requiredMm, surfaceTempC: null, message: o.message };
     if (o.conditionSet) res.conditionSet = o.conditionSet;
+    if (o.parts) res.parts = o.parts;
     if (evaluatedMm !== undefined) res.met = o.requiredMm !== null && evaluatedMm >= o.requiredMm;
     switch (o.id) {
       case 'personnel': {
@@ -745,6 +750,7 @@ export function runRecommendCase(input: unknown): RecommendOutput {
       criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
       ...(tracing ? { heatTracing: tracing } : {}),
       ...(fittingsW !== undefined ? { fittingsHeatLossW: fittingsW, totalHeatLossW: totalW } : {}),
+      ...(r.vesselParts ? { vesselParts: r.vesselParts } : {}),
       ...(c.cui
         ? {
             cui: screenCui(

@@ -19,12 +19,16 @@ import {
   describeCuiFinding,
   designFactor,
   energyTerms,
+  vesselPartDecisions,
   type ConditionSetId,
+  type CriterionOutcome,
 } from '@/lib/thermal';
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
 export const metadata = { title: 'Line' };
+
+const PART_LABEL = { shell: 'Shell', top: 'Top head', bottom: 'Bottom head' } as const;
 
 const CRITERION: Record<string, string> = {
   personnel: 'Personnel protection',
@@ -81,6 +85,14 @@ export default async function LinePage({
       | undefined) ?? [];
   const crit = criteriaFor(basis, line.outdoor);
   const cui = cuiScreenFor(basis, inputOf(line));
+  // A vessel's parts from the stored outcomes and candidates (the engine's own rule, vesselPartDecisions).
+  const partDecisions =
+    result && line.geometry === 'vessel' && (result.outcomes as { parts?: unknown }[]).some((o) => o.parts)
+      ? vesselPartDecisions(
+          result.outcomes as CriterionOutcome[],
+          cands.map((c) => ({ totalMm: c[0], serviceLimitOk: c[6] })),
+        )
+      : null;
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
   const energy = energyTerms(basis.economics, cold);
   const layerMaterials = [
@@ -532,6 +544,46 @@ export default async function LinePage({
                   </tr>
                 );
               })}
+            </tbody>
+          </table>
+        </section>
+      ) : null}
+      {partDecisions ? (
+        <section className="panel mt-4 p-4" aria-labelledby="parts-h">
+          <h2 id="parts-h" className="mb-1">
+            Vessel parts decided per part
+          </h2>
+          <p className="mb-2 text-xs text-ink-600">
+            The touch and condensation criteria are judged on each part&apos;s own surface (heads as flat
+            discs); the other criteria as the whole vessel&apos;s. The recommendation above is the thickest
+            part; a part may take its own thickness, or a guard where none meets the touch limit.
+          </p>
+          <table className="table-dense" aria-label="Vessel parts">
+            <thead>
+              <tr>
+                <th>Part</th>
+                <th>Thickness</th>
+                <th>Governing</th>
+                <th>Not met on this part</th>
+              </tr>
+            </thead>
+            <tbody>
+              {(['shell', 'top', 'bottom'] as const).map((p) => (
+                <tr key={p} data-part={p}>
+                  <td>{PART_LABEL[p]}</td>
+                  <td>
+                    {partDecisions[p].recommendedMm === null
+                      ? 'none'
+                      : u.thickness(partDecisions[p].recommendedMm)}
+                  </td>
+                  <td>{partDecisions[p].governing ? CRITERION[partDecisions[p].governing!] : '—'}</td>
+                  <td>
+                    {partDecisions[p].unmet.length
+                      ? `${partDecisions[p].unmet.map((x: string) => CRITERION[x] ?? x).join(', ')}: guard or another system for this part`
+                      : '—'}
+                  </td>
+                </tr>
+              ))}
             </tbody>
           </table>
         </section>

@@ -396,6 +396,45 @@ export const pendingLinks = pgTable('pending_links', {
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
 });
 
+/**
+ * Personal access tokens for scripts. Each belongs to one person in one organization; its scopes
+ * were allowed by that person's role when it was made and are checked against the current role at
+ * every use. Only the SHA-256 of the token is kept (lib/auth/api-tokens.ts says why that is enough).
+ */
+export const apiTokens = pgTable('api_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  /** The first characters of the token, shown in lists so a person can tell their tokens apart. */
+  prefix: text('prefix').notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  scopes: text('scopes').array().notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
+  revokedBy: text('revoked_by').references(() => users.id, { onDelete: 'set null' }),
+}, (t) => [index('api_tokens_user_idx').on(t.userId), index('api_tokens_org_idx').on(t.organizationId)]);
+
+/**
+ * Append-only record of every token event: made, revoked, used (with the answer's status) and
+ * refused (expired, revoked, missing scope). The application may only read and insert (db/migrate.ts).
+ */
+export const apiTokenEvents = pgTable('api_token_events', {
+  id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+  tokenId: uuid('token_id').notNull(),
+  organizationId: uuid('organization_id').notNull(),
+  userId: text('user_id'),
+  actorName: text('actor_name').notNull(),
+  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  action: text('action', { enum: ['created', 'revoked', 'used', 'refused'] }).notNull(),
+  method: text('method'),
+  path: text('path'),
+  status: integer('status'),
+  detail: jsonb('detail').$type<Record<string, unknown>>(),
+}, (t) => [index('api_token_events_token_idx').on(t.tokenId, t.at), index('api_token_events_org_idx').on(t.organizationId, t.at)]);
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships), projects: many(projects),
@@ -417,3 +456,4 @@ export type Invitation = typeof invitations.$inferSelect;
 export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
+export type ApiToken = typeof apiTokens.$inferSelect;

@@ -416,7 +416,7 @@ const HARD: ReadonlySet<string> = HARD_CRITERIA;
  * Saves the chosen thickness for a line. `expectedVersion` is the design version the user saw
  * (0 when there was none); a different stored version means someone else saved first.
  */
-export async function pickDesign(o: { projectId: string; lineId: string; userId: string; thicknessMm: number; reason?: string; expectedVersion: number }) {
+export async function pickDesign(o: { projectId: string; lineId: string; userId: string; thicknessMm: number; reason?: string; expectedVersion: number; via?: string }) {
   return db.transaction(async (tx) => {
     const [row] = await tx.select({ line: lines, result: lineResults }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
       .where(and(eq(lines.id, o.lineId), eq(lines.projectId, o.projectId))).for('update', { of: lines });
@@ -440,7 +440,7 @@ export async function pickDesign(o: { projectId: string; lineId: string; userId:
     await writeAudit(tx, [{
       projectId: o.projectId, lineId: o.lineId, tag: row.line.tag, actorId: o.userId, actorName: await actorName(o.userId), action: 'design pick',
       before: existing ? { thicknessMm: existing.thicknessMm, source: existing.source, reason: existing.reason } : null,
-      after: { thicknessMm: values.thicknessMm, source: values.source, reason: values.reason, belowCriterion: values.belowCriterion },
+      after: { thicknessMm: values.thicknessMm, source: values.source, reason: values.reason, belowCriterion: values.belowCriterion, ...(o.via ? { via: o.via } : {}) },
     }]);
     return { version: values.version, source: values.source, belowCriterion: values.belowCriterion };
   });

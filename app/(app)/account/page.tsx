@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { requireUser } from '@/lib/auth/session';
 import { SimpleForm } from '@/components/simple-form';
 import { changePasswordAction, signOutOtherSessionsAction } from './actions';
@@ -25,6 +26,11 @@ export default async function AccountPage() {
           <p className="mb-3 text-sm text-ink-600">Signed in on another computer or browser you no longer use? End those sessions; this one stays.</p>
           <SimpleForm action={signOutOtherSessionsAction} schema="empty" submitLabel="Sign out other sessions" fields={[]}
             successMessage="Every other session was signed out." />
+        </section>
+        <section className="panel p-5">
+          <h2 className="mb-3">API tokens</h2>
+          <p className="mb-3 text-sm text-ink-600">Scripts call the calculation, recommendation and line APIs with a personal access token.</p>
+          <Link href="/account/tokens" className="btn-quiet">Manage API tokens</Link>
         </section>
       </div>
     </main>

@@ -1,6 +1,5 @@
 import { z } from 'zod';
-import { route, fieldsFromZod } from '@/lib/server/route';
-import { getProjectAccess } from '@/db/queries/projects';
+import { projectAccess, route, fieldsFromZod } from '@/lib/server/route';
 import { getDesignBasis, getLine, inputOf, listLines } from '@/lib/lines/store';
 import { lineFilterSchema } from '@/lib/lines/filter';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
@@ -15,8 +14,9 @@ const querySchema = lineFilterSchema.extend({
 });
 
 /** Server-side paginated, sorted and filtered line table. */
-export const GET = route<{ projectId: string }>(async ({ req, user, params }) => {
-  const { project } = await getProjectAccess({ userId: user.id, projectId: params.projectId, action: 'lines.read' });
+export const GET = route<{ projectId: string }>(async (ctx) => {
+  const { req, params } = ctx;
+  const { project } = await projectAccess(ctx, params.projectId, 'lines.read');
   const q = querySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
   if (!q.success) throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
   const r = await listLines({ projectId: project.id, ...q.data });
@@ -35,5 +35,6 @@ export const GET = route<{ projectId: string }>(async ({ req, user, params }) =>
     const at = nums.find((c) => c.mm === (row.chosenMm ?? row.recommendedMm));
     return { ...row, limits, worstMargin: at ? worstMargin(at, limits) : null, candidates: nums.map((c) => ({ mm: c.mm, heatFlow: c.heatFlow, surfaceC: c.heatLossC, personnelC: c.personnelC, condensationC: c.condensationC, ok: c.ok })) };
   }));
+  ctx.note({ rows: rows.length });
   return Response.json({ ...r, rows });
-});
+}, { scope: 'lines:read' });

@@ -34,7 +34,8 @@ ALTER TABLE "api_tokens" ADD CONSTRAINT "api_tokens_revoked_by_users_id_fk" FORE
 CREATE INDEX "api_token_events_token_idx" ON "api_token_events" USING btree ("token_id","at");--> statement-breakpoint
 CREATE INDEX "api_token_events_org_idx" ON "api_token_events" USING btree ("organization_id","at");--> statement-breakpoint
 CREATE INDEX "api_tokens_user_idx" ON "api_tokens" USING btree ("user_id");--> statement-breakpoint
-CREATE INDEX "api_tokens_org_idx" ON "api_tokens" USING btree ("organization_id");--> statement-breakpoint
+CREATE INDEX "api_tokens_org_idx" ON "api_tokens" USING btree ("organization_id");
+--> statement-breakpoint
 CREATE FUNCTION api_token_events_are_append_only() RETURNS trigger LANGUAGE plpgsql AS $$
 BEGIN
   RAISE EXCEPTION 'api_token_events is append-only: % is not allowed', TG_OP;

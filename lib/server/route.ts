@@ -11,9 +11,16 @@ import type { Action, TokenScope } from '@/lib/auth/permissions';
 import { getProjectAccess, listOrganizationsForUser } from '@/db/queries/projects';
 
 export function errorResponse(e: unknown) {
-  if (isAppError(e)) return NextResponse.json({ error: { code: e.code, message: e.message, fields: e.fields } }, { status: e.status });
+  if (isAppError(e))
+    return NextResponse.json(
+      { error: { code: e.code, message: e.message, fields: e.fields } },
+      { status: e.status },
+    );
   logUnexpected('route', e);
-  return NextResponse.json({ error: { code: 'internal', message: 'Something went wrong on our side.' } }, { status: 500 });
+  return NextResponse.json(
+    { error: { code: 'internal', message: 'Something went wrong on our side.' } },
+    { status: 500 },
+  );
 }
 
 /** Mutating requests from a browser must come from our own origin; every mutating request carries JSON. */
@@ -25,9 +32,14 @@ function checkMutation(req: NextRequest, bearer: boolean) {
     if (origin) {
       // "null" (sandboxed frames, file: pages, some redirects) and anything unparsable is not our origin.
       let originHost: string | null = null;
-      try { originHost = new URL(origin).host; } catch { originHost = null; }
+      try {
+        originHost = new URL(origin).host;
+      } catch {
+        originHost = null;
+      }
       const allowed = new Set([host, new URL(env.appUrl()).host]);
-      if (!originHost || !allowed.has(originHost)) throw new AppError('forbidden', 'Cross-site request refused.');
+      if (!originHost || !allowed.has(originHost))
+        throw new AppError('forbidden', 'Cross-site request refused.');
     } else if (req.headers.get('sec-fetch-site') === 'cross-site') {
       throw new AppError('forbidden', 'Cross-site request refused.');
     }
@@ -60,19 +72,29 @@ export interface RouteCtx<P> {
  * checked against its maker's current role. Every request that came with a known token is recorded
  * in `api_token_events` with its answer's status.
  */
-export function route<P>(handler: (ctx: RouteCtx<P>) => Promise<Response>, opts: { scope?: TokenScope } = {}) {
+export function route<P>(
+  handler: (ctx: RouteCtx<P>) => Promise<Response>,
+  opts: { scope?: TokenScope } = {},
+) {
   return async (req: NextRequest, context: { params: Promise<P> }) => {
     const mutating = !['GET', 'HEAD', 'OPTIONS'].includes(req.method);
     const detail: Record<string, unknown> = {};
-    const note = (d: Record<string, unknown>) => { Object.assign(detail, d); };
+    const note = (d: Record<string, unknown>) => {
+      Object.assign(detail, d);
+    };
     let token: { auth: TokenAuth; user: User } | null = null;
     let res: Response;
     try {
       const authorization = req.headers.get('authorization');
       if (authorization !== null) {
         const m = /^Bearer[ ]+([^\s]+)[ ]*$/i.exec(authorization);
-        if (!m) throw new AppError('unauthenticated', 'Send the API token as "Authorization: Bearer <token>".');
-        if (!opts.scope) throw new AppError('unauthenticated', 'This address does not accept API tokens; it serves the signed-in browser.');
+        if (!m)
+          throw new AppError('unauthenticated', 'Send the API token as "Authorization: Bearer <token>".');
+        if (!opts.scope)
+          throw new AppError(
+            'unauthenticated',
+            'This address does not accept API tokens; it serves the signed-in browser.',
+          );
         token = await authenticateApiToken(m[1], { method: req.method, path: req.nextUrl.pathname });
         const problem = scopeProblem(token.auth, opts.scope);
         if (problem) throw new AppError('forbidden', problem);
@@ -90,8 +112,14 @@ export function route<P>(handler: (ctx: RouteCtx<P>) => Promise<Response>, opts:
     if (token) {
       const refused = res.status === 401 || res.status === 403;
       await recordTokenUse({
-        tokenId: token.auth.tokenId, organizationId: token.auth.organizationId, userId: token.user.id,
-        action: refused ? 'refused' : 'used', method: req.method, path: req.nextUrl.pathname, status: res.status, detail,
+        tokenId: token.auth.tokenId,
+        organizationId: token.auth.organizationId,
+        userId: token.user.id,
+        action: refused ? 'refused' : 'used',
+        method: req.method,
+        path: req.nextUrl.pathname,
+        status: res.status,
+        detail,
       }).catch((e) => logUnexpected('token audit', e));
     }
     return res;
@@ -102,9 +130,14 @@ export function route<P>(handler: (ctx: RouteCtx<P>) => Promise<Response>, opts:
  * The project and the caller's role, as `getProjectAccess`; a token reaches only projects of the
  * organization it was made in (any other is not found, like a stranger's).
  */
-export async function projectAccess(ctx: { user: User; token: TokenAuth | null }, projectId: string, action?: Action) {
+export async function projectAccess(
+  ctx: { user: User; token: TokenAuth | null },
+  projectId: string,
+  action?: Action,
+) {
   const access = await getProjectAccess({ userId: ctx.user.id, projectId, action });
-  if (ctx.token && access.project.organizationId !== ctx.token.organizationId) throw new AppError('not_found');
+  if (ctx.token && access.project.organizationId !== ctx.token.organizationId)
+    throw new AppError('not_found');
   return access;
 }
 
@@ -116,11 +149,17 @@ export async function callerOrganizations(ctx: { user: User; token: TokenAuth | 
 
 export async function readJson<S extends z.ZodType>(req: NextRequest, schema: S): Promise<z.infer<S>> {
   let body: unknown;
-  try { body = await req.json(); } catch { throw new AppError('invalid', 'The body is not valid JSON.'); }
+  try {
+    body = await req.json();
+  } catch {
+    throw new AppError('invalid', 'The body is not valid JSON.');
+  }
   const r = schema.safeParse(body);
   if (!r.success) {
     const fields = fieldsFromZod(r.error);
-    const said = Object.entries(fields).map(([k, m]) => (k === '(body)' ? m.join('; ') : `${k}: ${m.join('; ')}`));
+    const said = Object.entries(fields).map(([k, m]) =>
+      k === '(body)' ? m.join('; ') : `${k}: ${m.join('; ')}`,
+    );
     throw new AppError('invalid', `${said.join('; ')}.`, fields);
   }
   return r.data;

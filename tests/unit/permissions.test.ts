@@ -52,6 +52,11 @@ describe('token scopes by role', () => {
     expect(scopesForRole(null)).toEqual([]);
   });
   it('maps each scope to the action the role must still hold at use', () => {
-    expect(SCOPE_ACTION).toEqual({ calc: 'calc.run', recommend: 'calc.run', 'lines:read': 'lines.read', 'lines:write': 'design.pick' });
+    expect(SCOPE_ACTION).toEqual({
+      calc: 'calc.run',
+      recommend: 'calc.run',
+      'lines:read': 'lines.read',
+      'lines:write': 'design.pick',
+    });
   });
 });

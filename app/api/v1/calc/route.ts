@@ -9,6 +9,7 @@ export const POST = batchRoute({
   scope: 'calc',
   maxCost: MAX_REQUEST_COST,
   cost: caseCost,
-  tooHeavy: (cost) => `This request is too heavy to run at once (${cost} work units; the limit is ${MAX_REQUEST_COST}, about ${MAX_REQUEST_COST / 5} insulated pipes with four layers). Split it into smaller requests.`,
+  tooHeavy: (cost) =>
+    `This request is too heavy to run at once (${cost} work units; the limit is ${MAX_REQUEST_COST}, about ${MAX_REQUEST_COST / 5} insulated pipes with four layers). Split it into smaller requests.`,
   answer: runCase,
 });

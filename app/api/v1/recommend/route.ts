@@ -9,6 +9,7 @@ export const POST = batchRoute({
   scope: 'recommend',
   maxCost: MAX_REQUEST_COST,
   cost: recommendCaseCost,
-  tooHeavy: (cost) => `This request is too heavy to run at once (${cost} work units; the limit is ${MAX_REQUEST_COST}: a pipe counts 1, a vessel 3). Split it into smaller requests.`,
+  tooHeavy: (cost) =>
+    `This request is too heavy to run at once (${cost} work units; the limit is ${MAX_REQUEST_COST}: a pipe counts 1, a vessel 3). Split it into smaller requests.`,
   answer: runRecommendCase,
 });

@@ -1,4 +1,8 @@
 'use client';
 export function PrintButton() {
-  return <button className="btn-quiet" onClick={() => window.print()}>Print or save as PDF</button>;
+  return (
+    <button className="btn-quiet" onClick={() => window.print()}>
+      Print or save as PDF
+    </button>
+  );
 }

@@ -104,16 +104,14 @@ export async function createApiToken(o: {
         expiresAt,
       })
       .returning();
-    await tx
-      .insert(apiTokenEvents)
-      .values({
-        tokenId: t.id,
-        organizationId: o.organizationId,
-        userId: o.userId,
-        actorName,
-        action: 'created',
-        detail: { name, scopes: ordered, expiresAt: expiresAt.toISOString() },
-      });
+    await tx.insert(apiTokenEvents).values({
+      tokenId: t.id,
+      organizationId: o.organizationId,
+      userId: o.userId,
+      actorName,
+      action: 'created',
+      detail: { name, scopes: ordered, expiresAt: expiresAt.toISOString() },
+    });
     return t;
   });
   return { id: row.id, token, prefix, name, scopes: ordered, expiresAt };
@@ -155,16 +153,14 @@ export async function revokeApiToken({ userId, tokenId }: { userId: string; toke
       .set({ revokedAt: new Date(), revokedBy: userId })
       .where(eq(apiTokens.id, t.id))
       .returning();
-    await tx
-      .insert(apiTokenEvents)
-      .values({
-        tokenId: t.id,
-        organizationId: t.organizationId,
-        userId,
-        actorName,
-        action: 'revoked',
-        detail: { name: t.name },
-      });
+    await tx.insert(apiTokenEvents).values({
+      tokenId: t.id,
+      organizationId: t.organizationId,
+      userId,
+      actorName,
+      action: 'revoked',
+      detail: { name: t.name },
+    });
     return { revokedAt: r.revokedAt! };
   });
 }
@@ -214,19 +210,17 @@ export async function recordTokenUse(o: {
 }) {
   const actorName = await nameOf(o.userId);
   await db.transaction(async (tx) => {
-    await tx
-      .insert(apiTokenEvents)
-      .values({
-        tokenId: o.tokenId,
-        organizationId: o.organizationId,
-        userId: o.userId,
-        actorName,
-        action: o.action,
-        method: o.method,
-        path: o.path,
-        status: o.status,
-        detail: o.detail ?? null,
-      });
+    await tx.insert(apiTokenEvents).values({
+      tokenId: o.tokenId,
+      organizationId: o.organizationId,
+      userId: o.userId,
+      actorName,
+      action: o.action,
+      method: o.method,
+      path: o.path,
+      status: o.status,
+      detail: o.detail ?? null,
+    });
     await tx.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, o.tokenId));
   });
 }

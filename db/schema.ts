@@ -166,6 +166,10 @@ export const importDrafts = pgTable('import_drafts', {
   fileName: text('file_name').notNull(),
   parsed: jsonb('parsed').notNull(),
   importedRevision: integer('imported_revision'),
+    /** The uploaded file as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+    originalKey: text('original_key'),
+    originalSha256: text('original_sha256'),
+    originalBytes: integer('original_bytes'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -182,6 +186,10 @@ export const lineListRevisions = pgTable(
     lineCount: integer('line_count').notNull(),
     diff: jsonb('diff').notNull(),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    /** The uploaded file this revision was imported from, as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+    originalKey: text('original_key'),
+    originalSha256: text('original_sha256'),
+    originalBytes: integer('original_bytes'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('line_list_revisions_number_key').on(t.projectId, t.number)],
@@ -442,6 +450,10 @@ export const boqIssues = pgTable(
     quantities: jsonb('quantities').notNull(),
     counted: integer('counted').notNull(),
     pending: integer('pending').notNull(),
+    /** The workbook as issued (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+    documentKey: text('document_key'),
+    documentSha256: text('document_sha256'),
+    documentBytes: integer('document_bytes'),
   },
   (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)],
 );

@@ -79,6 +79,11 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
                   <a href={`/api/v1/projects/${project.id}/boq/${i.number}`} download>
                     Download issue {i.number} (.xlsx)
                   </a>
+                  {i.documentSha256 ? (
+                    <span className="ml-2 text-xs text-ink-500" title={`SHA-256 ${i.documentSha256}`}>
+                      kept as issued · SHA-256 {i.documentSha256.slice(0, 12)}…
+                    </span>
+                  ) : null}
                 </td>
               </tr>
             ))}

@@ -25,16 +25,17 @@ test('an engineer makes a token that is shown once, a script uses it, and revoki
   await page.getByRole('link', { name: 'Manage API tokens' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'API tokens' })).toBeVisible();
 
-  const form = page.getByRole('form', { name: 'Make an API token' });
+  const korvane = page.getByRole('region', { name: 'Tokens in Korvane Polymers' });
+  const form = korvane.getByRole('form', { name: 'Make an API token' });
   await form.getByRole('button', { name: 'Make token' }).click();
-  await expect(page.getByRole('alert')).toHaveText('Give the token a name.');
+  await expect(korvane.getByRole('alert')).toHaveText('Give the token a name.');
 
   const name = `e2e script ${Date.now()}`;
   await form.getByLabel('Token name').fill(name);
   await form.getByRole('checkbox', { name: /^recommend/ }).check();
   await form.getByLabel('Expires after').selectOption('30');
   await form.getByRole('button', { name: 'Make token' }).click();
-  await expect(page.getByRole('status')).toContainText(
+  await expect(korvane.getByRole('status')).toContainText(
     `Token “${name}” made. Copy it now: it is shown only this once.`,
   );
   const token = await page.getByLabel('New API token').inputValue();

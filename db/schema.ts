@@ -458,6 +458,20 @@ export const boqIssues = pgTable(
   (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)],
 );
 
+/**
+ * The project's own bill factors (accessory spacings, laps, coverages), each with its source; what a
+ * project leaves out comes from the defaults in lib/boq/quantities.ts. Changing them changes the next
+ * issue only — issued bills keep the factors they were issued with.
+ */
+export const billFactors = pgTable('bill_factors', {
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  factors: jsonb('factors').$type<Record<string, { value: number; source: string }>>().notNull(),
+  updatedBy: text('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 /** The plant's heat-loss budget and its allocation by area. */
 export const budgets = pgTable('budgets', {
   projectId: uuid('project_id')

@@ -413,10 +413,22 @@ export function computeQuantities(
   };
 }
 
-/** True when two bills would give the contractor the same quantities and line schedule. */
+/** JSON with object keys sorted (a bill read back from jsonb has its keys in another order). */
+function canonical(v: unknown): string {
+  if (Array.isArray(v)) return `[${v.map(canonical).join(',')}]`;
+  if (v && typeof v === 'object')
+    return `{${Object.keys(v)
+      .filter((k) => (v as Record<string, unknown>)[k] !== undefined)
+      .sort()
+      .map((k) => `${JSON.stringify(k)}:${canonical((v as Record<string, unknown>)[k])}`)
+      .join(',')}}`;
+  return JSON.stringify(v);
+}
+
+/** True when two bills would give the contractor the same quantities, line schedule and factors. */
 export function sameBill(a: BillQuantities, b: BillQuantities): boolean {
   const pick = (q: BillQuantities) =>
-    JSON.stringify([
+    canonical([
       q.materials,
       q.fittings,
       q.jackets,

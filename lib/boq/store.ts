@@ -22,7 +22,19 @@ import type { DesignBasis } from '@/lib/lines/design-basis';
 import { billWorkbook } from './workbook';
 import { getDocument, putDocument, safeFileName } from '@/lib/storage/documents';
 import { randomUUID } from 'node:crypto';
-import { computeQuantities, quantityDelta, type BillQuantities, type BoqLine } from './quantities';
+import {
+  computeQuantities,
+  DEFAULT_ACCESSORY_FACTORS,
+  DEFAULT_BOQ_FACTORS,
+  quantityDelta,
+  sameBill,
+  type BillQuantities,
+  type BoqFactors,
+  type BoqLine,
+} from './quantities';
+import { condensationControlApplies, type Purpose } from '@/lib/thermal';
+import { criteriaFor } from '@/lib/lines/solve-line';
+import { getOwnBillFactors } from './factors';
 
 const SAFETY: string[] = ['hot-surface', 'sweating', 'interface-limit', 'below-criterion'];
 
@@ -53,7 +65,8 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     where i.project_id = ${projectId} and i.line_id is not null
     order by i.line_id, r.number desc`);
   const review = new Map(decided.rows.map((r) => [r.line_id, r]));
-  const cat = catalogueOf((await getDesignBasis({ projectId })).basis);
+  const { basis } = await getDesignBasis({ projectId });
+  const cat = catalogueOf(basis);
   return rows.map(({ line, design, jacketId }) => {
     const flags = flagged.get(line.id) ?? [];
     const rv = review.get(line.id);
@@ -97,16 +110,62 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
       jacketName: jacket?.name ?? '—',
       status,
       reviewStatus,
+      heightM: line.heightM,
+      // The same rule the review and the recommendation use: cold service gets a vapour retarder.
+      coldService: condensationControlApplies(
+        { purposes: line.purposes as Purpose[], coldestC: line.normalTempC },
+        criteriaFor(basis, line.outdoor).conditions.condensation,
+        basis.dewPointMarginK,
+      ),
     };
   });
 }
 
+/** The project's bill factors: the defaults, valves left bare when the design basis says so, and the project's own values. */
+export async function billFactors({ projectId }: { projectId: string }): Promise<BoqFactors> {
+  const { basis } = await getDesignBasis({ projectId });
+  const own = await getOwnBillFactors({ projectId });
+  return {
+    ...DEFAULT_BOQ_FACTORS,
+    removableCovers: !basis.fittings.valvesBare,
+    accessories: { ...DEFAULT_ACCESSORY_FACTORS, ...(own ?? {}) },
+  };
+}
+
 export async function previewBill({ projectId }: { projectId: string }) {
-  return computeQuantities(await collectBillLines({ projectId }));
+  return computeQuantities(await collectBillLines({ projectId }), await billFactors({ projectId }));
+}
+
+/** The last issue when the bill now would be identical to it (the page warns before issuing it again). */
+export async function unchangedSince({
+  projectId,
+  preview,
+}: {
+  projectId: string;
+  preview?: BillQuantities;
+}) {
+  const [last] = await db
+    .select({ number: boqIssues.number, quantities: boqIssues.quantities })
+    .from(boqIssues)
+    .where(eq(boqIssues.projectId, projectId))
+    .orderBy(desc(boqIssues.number))
+    .limit(1);
+  if (!last) return null;
+  const now = preview ?? (await previewBill({ projectId }));
+  return sameBill(now, last.quantities as BillQuantities) ? last.number : null;
 }
 
 /** Issues the next revision of the bill; refused when no line can be counted. */
-export async function issueBill({ projectId, userId }: { projectId: string; userId: string }) {
+export async function issueBill({
+  projectId,
+  userId,
+  evenIfUnchanged = false,
+}: {
+  projectId: string;
+  userId: string;
+  /** Issue even when nothing changed since the last issue (the user confirmed the warning). */
+  evenIfUnchanged?: boolean;
+}) {
   const q = await previewBill({ projectId });
   if (q.counted === 0)
     throw new AppError(
@@ -133,6 +192,11 @@ export async function issueBill({ projectId, userId }: { projectId: string; user
             .from(boqIssues)
             .where(and(eq(boqIssues.projectId, projectId), eq(boqIssues.number, number - 1)))
         : [];
+    if (prev && !evenIfUnchanged && sameBill(q, prev.quantities as BillQuantities))
+      throw new AppError(
+        'conflict',
+        `Nothing changed since issue ${number - 1}: this revision would be identical. Confirm to issue it anyway.`,
+      );
     // The workbook is made once, now, and kept byte for byte: every later download is this file.
     // It is stored before the issue row is written; if storing fails nothing is issued.
     const id = randomUUID();

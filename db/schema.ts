@@ -203,6 +203,8 @@ export const lines = pgTable(
       .notNull()
       .references(() => projects.id, { onDelete: 'cascade' }),
     tag: text('tag').notNull(),
+    /** The tag with each run of digits zero-padded (migration 0015's natural_sort_key): 1", 1-½", 2", 10" sort in that order. */
+    tagKey: text('tag_key').generatedAlwaysAs(sql`natural_sort_key(tag)`),
     service: text('service').notNull().default(''),
     area: text('area').notNull().default(''),
     geometry: geometryEnum('geometry').notNull(),
@@ -239,6 +241,7 @@ export const lines = pgTable(
   (t) => [
     uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag),
     index('lines_project_area_idx').on(t.projectId, t.area),
+    index('lines_project_tag_sort_idx').on(t.projectId, sql`${t.tagKey} collate "C"`),
   ],
 );
 

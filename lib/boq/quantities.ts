@@ -1,3 +1,5 @@
+import { compareTags } from '@/lib/lines/natural-sort';
+
 /**
  * Bill-of-quantities arithmetic from the saved design (pure). Allowances and fitting equivalents
  * are project factors — the defaults below are common-practice estimates, stated in the workbook.
@@ -406,7 +408,7 @@ export function computeQuantities(
           a.unit.localeCompare(b.unit),
       ),
     ),
-    schedule: schedule.sort((a, b) => a.tag.localeCompare(b.tag)),
+    schedule: schedule.sort((a, b) => compareTags(a.tag, b.tag)),
     counted,
     pending,
     factors,

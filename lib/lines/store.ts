@@ -868,7 +868,7 @@ export async function listLines(o: LineQuery) {
   const stale = staleSql(revision);
   const where = [lineFilterSql(o.projectId, o, revision)];
   const sortCol = {
-    tag: lines.tag,
+    tag: sql`${lines.tagKey} collate "C"`,
     area: lines.area,
     normalTempC: lines.normalTempC,
     outsideDiameterMm: lines.outsideDiameterMm,
@@ -919,7 +919,7 @@ export async function listLines(o: LineQuery) {
     base
       .orderBy(
         o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
-        asc(lines.tag),
+        sql`${lines.tagKey} collate "C" asc`,
       )
       .limit(o.size)
       .offset(o.page * o.size),

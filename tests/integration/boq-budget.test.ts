@@ -8,6 +8,7 @@ import * as auth from '@/lib/auth/service';
 import * as lineStore from '@/lib/lines/store';
 import * as boq from '@/lib/boq/store';
 import { currentBillFactors, saveBillFactors } from '@/lib/boq/factors';
+import { projectProgress } from '@/lib/lines/progress';
 import * as budget from '@/lib/budget/store';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -160,6 +161,16 @@ describe('bill of quantities on PostgreSQL', () => {
     expect((await boq.listIssues({ projectId })).map((i) => i.number)).toEqual([2, 1]);
     const third = await boq.issueBill({ projectId, userId, evenIfUnchanged: true });
     expect(third.number).toBe(3);
+    // The overview's counts per step: 3 lines, all solved and decided, none flagged (out of reach, hot only), 3 billed in issue 3.
+    expect(await projectProgress({ projectId })).toEqual({
+      lines: 3,
+      solved: 3,
+      decided: 3,
+      flagged: 0,
+      signedOff: 0,
+      billed: 3,
+      lastIssue: 3,
+    });
     // A project factor changes the bill: no longer identical.
     await saveBillFactors({
       projectId,

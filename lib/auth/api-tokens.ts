@@ -12,7 +12,7 @@
  * appends a row to `api_token_events` (append-only for the application's role), and sets the
  * token's `last_used_at`.
  */
-import { and, desc, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { randomBytes } from 'node:crypto';
 import type { User } from 'lucia';
 import { db } from '@/db/client';
@@ -197,32 +197,30 @@ export async function listTokenEvents({
 
 const fmtDate = (d: Date) => d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
 
-/** Appends one use (or refusal) of a token and notes its last use. Never throws: a request is not failed by its own audit row. */
+/**
+ * Appends one use (or refusal) of a token and notes its last use, in one statement (one round trip:
+ * this runs on every API request). Callers catch its errors: a request is not failed by its audit row.
+ */
 export async function recordTokenUse(o: {
   tokenId: string;
   organizationId: string;
   userId: string;
+  actorName?: string;
   action: 'used' | 'refused';
   method: string;
   path: string;
   status: number;
   detail?: Record<string, unknown>;
 }) {
-  const actorName = await nameOf(o.userId);
-  await db.transaction(async (tx) => {
-    await tx.insert(apiTokenEvents).values({
-      tokenId: o.tokenId,
-      organizationId: o.organizationId,
-      userId: o.userId,
-      actorName,
-      action: o.action,
-      method: o.method,
-      path: o.path,
-      status: o.status,
-      detail: o.detail ?? null,
-    });
-    await tx.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, o.tokenId));
-  });
+  const actorName = o.actorName ?? (await nameOf(o.userId));
+  const detail = o.detail && Object.keys(o.detail).length ? JSON.stringify(o.detail) : null;
+  await db.execute(sql`
+    with appended as (
+      insert into ${apiTokenEvents} (token_id, organization_id, user_id, actor_name, action, method, path, status, detail)
+      values (${o.tokenId}, ${o.organizationId}, ${o.userId}, ${actorName}, ${o.action}, ${o.method}, ${o.path}, ${o.status}, ${detail}::jsonb)
+      returning 1
+    )
+    update ${apiTokens} set last_used_at = now() where id = ${o.tokenId}`);
 }
 
 /**
@@ -267,6 +265,7 @@ export async function authenticateApiToken(
       tokenId: row.t.id,
       organizationId: row.t.organizationId,
       userId: row.t.userId,
+      actorName: row.userName,
       action: 'refused',
       method: at.method,
       path: at.path,

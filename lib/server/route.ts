@@ -115,6 +115,7 @@ export function route<P>(
         tokenId: token.auth.tokenId,
         organizationId: token.auth.organizationId,
         userId: token.user.id,
+        actorName: token.user.name,
         action: refused ? 'refused' : 'used',
         method: req.method,
         path: req.nextUrl.pathname,

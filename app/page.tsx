@@ -35,8 +35,8 @@ export default function Home() {
             className="w-full rounded-md border border-ink-200 shadow-sm"
           />
           <figcaption className="mt-2 text-sm text-ink-600">
-            The line list of a demo project: every line solved, the governing criterion named, the worst margin
-            to its limits beside the thickness the engineer chose.
+            The line list of a demo project: every line solved, the governing criterion named, the worst
+            margin to its limits beside the thickness the engineer chose.
           </figcaption>
         </figure>
         <div className="caution mt-10 max-w-2xl">

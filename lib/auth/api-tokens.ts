@@ -181,6 +181,7 @@ export async function listTokenEvents({
     .where(and(eq(apiTokens.userId, userId), eq(apiTokens.organizationId, organizationId)));
   return db
     .select({
+      id: apiTokenEvents.id,
       at: apiTokenEvents.at,
       tokenId: apiTokenEvents.tokenId,
       action: apiTokenEvents.action,
@@ -195,7 +196,7 @@ export async function listTokenEvents({
     .limit(limit);
 }
 
-const fmtDate = (d: Date) => d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
+const fmtDate = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 
 /**
  * Appends one use (or refusal) of a token and notes its last use, in one statement (one round trip:

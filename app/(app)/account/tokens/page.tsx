@@ -7,7 +7,7 @@ import { TokenPanel } from './token-panel';
 
 export const metadata = { title: 'API tokens' };
 
-const when = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC' : '—');
+const when = (d: Date | null) => (d ? `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '—');
 
 export default async function TokensPage() {
   const { user } = await requireUser();

@@ -15,6 +15,7 @@ interface TokenRow {
   expired: boolean;
 }
 interface EventRow {
+  id: number;
   at: string;
   tokenId: string;
   action: string;
@@ -229,8 +230,8 @@ export function TokenPanel({
         <details>
           <summary className="cursor-pointer text-sm">Recent token activity</summary>
           <ul className="mt-2 space-y-0.5 text-xs text-ink-700">
-            {events.map((e, i) => (
-              <li key={i}>
+            {events.map((e) => (
+              <li key={e.id}>
                 {e.at} · {names.get(e.tokenId) ?? 'token'} · {EVENT_LABEL[e.action] ?? e.action}
                 {e.path ? ` · ${e.method} ${e.path} → ${e.status}` : ''}
               </li>

@@ -46,15 +46,16 @@ export function IssueButton({
       ) : null}
       {confirming ? (
         <div className="flex gap-2">
-          <button className="btn-primary" disabled={pending} onClick={() => issue(true)}>
+          <button type="button" className="btn-primary" disabled={pending} onClick={() => issue(true)}>
             Issue identical revision {next}
           </button>
-          <button className="btn-quiet" disabled={pending} onClick={() => setConfirming(false)}>
+          <button type="button" className="btn-quiet" disabled={pending} onClick={() => setConfirming(false)}>
             Cancel
           </button>
         </div>
       ) : (
         <button
+          type="button"
           className="btn-primary"
           disabled={pending}
           onClick={() => (unchangedSince !== null ? setConfirming(true) : issue(false))}

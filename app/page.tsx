@@ -24,6 +24,21 @@ export default function Home() {
           economic thickness, keeps the plant inside its heat-loss budget, takes the safety reviewer&apos;s
           sign-off and hands the contractor a bill of quantities.
         </p>
+        <figure className="mt-10">
+          {/* A screenshot of the demo project's line list, taken from the running product. */}
+          {/* biome-ignore lint/performance/noImgElement: a static screenshot needs no image optimisation */}
+          <img
+            src="/screens/line-list.png"
+            width={1280}
+            height={760}
+            alt="The line list of the demo project: each line with its recommended thickness, governing criterion, surface temperature, heat loss and the worst margin to its limits."
+            className="w-full rounded-md border border-ink-200 shadow-sm"
+          />
+          <figcaption className="mt-2 text-sm text-ink-600">
+            The line list of a demo project: every line solved, the governing criterion named, the worst
+            margin to its limits beside the thickness the engineer chose.
+          </figcaption>
+        </figure>
         <div className="caution mt-10 max-w-2xl">
           Results are engineering estimates by published methods (ASTM C680, ISO 12241). Material data are
           typical values to verify with the manufacturer; personnel-protection and condensation decisions

@@ -1,7 +1,7 @@
 /**
  * Applies the migrations in drizzle/ as the database owner, then grants the application's role
  * exactly what it needs: read and write on the working tables, but only SELECT and INSERT on the
- * append-only records (audit_log, boq_issues) and no ownership anywhere, so the application can
+ * append-only records (audit_log, boq_issues, api_token_events) and no ownership anywhere, so the application can
  * neither rewrite history nor disable the triggers that guard it.
  *
  * DATABASE_OWNER_URL: the owner's connection (defaults to DATABASE_URL, for a deployment with one
@@ -15,7 +15,7 @@ import { env } from '../lib/env';
 import { BOSS_SCHEMA, jobExpireSeconds, QUEUES } from '../lib/jobs/queues';
 
 /** Tables the application may only read and append to. */
-const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues'] as const;
+const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues', 'api_token_events'] as const;
 
 const ident = (s: string) => `"${s.replace(/"/g, '""')}"`;
 

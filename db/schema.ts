@@ -166,6 +166,10 @@ export const importDrafts = pgTable('import_drafts', {
   fileName: text('file_name').notNull(),
   parsed: jsonb('parsed').notNull(),
   importedRevision: integer('imported_revision'),
+  /** The uploaded file as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+  originalKey: text('original_key'),
+  originalSha256: text('original_sha256'),
+  originalBytes: integer('original_bytes'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -182,6 +186,10 @@ export const lineListRevisions = pgTable(
     lineCount: integer('line_count').notNull(),
     diff: jsonb('diff').notNull(),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    /** The uploaded file this revision was imported from, as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+    originalKey: text('original_key'),
+    originalSha256: text('original_sha256'),
+    originalBytes: integer('original_bytes'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('line_list_revisions_number_key').on(t.projectId, t.number)],
@@ -195,6 +203,8 @@ export const lines = pgTable(
       .notNull()
       .references(() => projects.id, { onDelete: 'cascade' }),
     tag: text('tag').notNull(),
+    /** The tag with each run of digits zero-padded (migration 0015's natural_sort_key): 1", 1-½", 2", 10" sort in that order. */
+    tagKey: text('tag_key').generatedAlwaysAs(sql`natural_sort_key(tag)`),
     service: text('service').notNull().default(''),
     area: text('area').notNull().default(''),
     geometry: geometryEnum('geometry').notNull(),
@@ -231,6 +241,7 @@ export const lines = pgTable(
   (t) => [
     uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag),
     index('lines_project_area_idx').on(t.projectId, t.area),
+    index('lines_project_tag_sort_idx').on(t.projectId, sql`${t.tagKey} collate "C"`),
   ],
 );
 
@@ -442,9 +453,27 @@ export const boqIssues = pgTable(
     quantities: jsonb('quantities').notNull(),
     counted: integer('counted').notNull(),
     pending: integer('pending').notNull(),
+    /** The workbook as issued (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
+    documentKey: text('document_key'),
+    documentSha256: text('document_sha256'),
+    documentBytes: integer('document_bytes'),
   },
   (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)],
 );
+
+/**
+ * The project's own bill factors (accessory spacings, laps, coverages), each with its source; what a
+ * project leaves out comes from the defaults in lib/boq/quantities.ts. Changing them changes the next
+ * issue only — issued bills keep the factors they were issued with.
+ */
+export const billFactors = pgTable('bill_factors', {
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  factors: jsonb('factors').$type<Record<string, { value: number; source: string }>>().notNull(),
+  updatedBy: text('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 /** The plant's heat-loss budget and its allocation by area. */
 export const budgets = pgTable('budgets', {
@@ -574,6 +603,60 @@ export const pendingLinks = pgTable('pending_links', {
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
 });
 
+/**
+ * Personal access tokens for scripts. Each belongs to one person in one organization; its scopes
+ * were allowed by that person's role when it was made and are checked against the current role at
+ * every use. Only the SHA-256 of the token is kept (lib/auth/api-tokens.ts says why that is enough).
+ */
+export const apiTokens = pgTable(
+  'api_tokens',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    /** The first characters of the token, shown in lists so a person can tell their tokens apart. */
+    prefix: text('prefix').notNull(),
+    tokenHash: text('token_hash').notNull().unique(),
+    scopes: text('scopes').array().notNull(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+    revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    revokedBy: text('revoked_by').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [index('api_tokens_user_idx').on(t.userId), index('api_tokens_org_idx').on(t.organizationId)],
+);
+
+/**
+ * Append-only record of every token event: made, revoked, used (with the answer's status) and
+ * refused (expired, revoked, missing scope). The application may only read and insert (db/migrate.ts).
+ */
+export const apiTokenEvents = pgTable(
+  'api_token_events',
+  {
+    id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+    tokenId: uuid('token_id').notNull(),
+    organizationId: uuid('organization_id').notNull(),
+    userId: text('user_id'),
+    actorName: text('actor_name').notNull(),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+    action: text('action', { enum: ['created', 'revoked', 'used', 'refused'] }).notNull(),
+    method: text('method'),
+    path: text('path'),
+    status: integer('status'),
+    detail: jsonb('detail').$type<Record<string, unknown>>(),
+  },
+  (t) => [
+    index('api_token_events_token_idx').on(t.tokenId, t.at),
+    index('api_token_events_org_idx').on(t.organizationId, t.at),
+  ],
+);
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
   memberships: many(memberships),
@@ -596,6 +679,7 @@ export type Invitation = typeof invitations.$inferSelect;
 export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
+export type ApiToken = typeof apiTokens.$inferSelect;
 
 export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill']);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);

@@ -19,4 +19,15 @@ export const env = {
   isProduction: () => process.env.NODE_ENV === 'production' && process.env.LAGWISE_INSECURE_COOKIES !== '1',
   /** The development mailbox page exists only under `next dev`; a production build never serves it. */
   devMailboxEnabled: () => process.env.NODE_ENV === 'development',
+  /**
+   * S3-compatible object storage for documents kept as issued (bills, line-list originals). The
+   * scripts start a local fake and set these; point them at real storage in production.
+   */
+  s3Endpoint: () => process.env.S3_ENDPOINT || undefined,
+  s3Bucket: () => process.env.S3_BUCKET || 'lagwise',
+  s3Region: () => process.env.S3_REGION || 'us-east-1',
+  s3AccessKeyId: () => process.env.S3_ACCESS_KEY_ID || undefined,
+  s3SecretAccessKey: () => process.env.S3_SECRET_ACCESS_KEY || undefined,
+  /** Path-style addresses (http://host/bucket/key), which local fakes and most S3-compatible stores need; default on when an endpoint is set. */
+  s3ForcePathStyle: () => (process.env.S3_FORCE_PATH_STYLE ?? (process.env.S3_ENDPOINT ? '1' : '0')) === '1',
 };

@@ -6,7 +6,8 @@ export type AppErrorCode =
   | 'invalid'
   | 'conflict'
   | 'throttled'
-  | 'unsupported';
+  | 'unsupported'
+  | 'unavailable';
 
 const STATUS: Record<AppErrorCode, number> = {
   unauthenticated: 401,
@@ -16,6 +17,7 @@ const STATUS: Record<AppErrorCode, number> = {
   conflict: 409,
   throttled: 429,
   unsupported: 415,
+  unavailable: 503,
 };
 
 const DEFAULT_MESSAGE: Record<AppErrorCode, string> = {
@@ -26,6 +28,8 @@ const DEFAULT_MESSAGE: Record<AppErrorCode, string> = {
   conflict: 'That conflicts with existing data.',
   throttled: 'Too many attempts. Wait a few minutes and try again.',
   unsupported: 'Unsupported request.',
+  unavailable:
+    'A service Lagwise needs is not reachable right now. Nothing was saved; try again in a minute.',
 };
 
 export class AppError extends Error {

@@ -116,6 +116,28 @@ stop_dev_idp() {
   rm -f "$f"
 }
 
+# S3-compatible object storage for documents kept as issued (unless S3_ENDPOINT points at real storage):
+# a local fake (s3rver) on loopback, objects under S3_FAKE_DIR. Reuses a fake already answering on the port.
+start_s3_fake() {
+  if [ -n "${S3_ENDPOINT:-}" ]; then log "keeping documents in the object store at S3_ENDPOINT"; return; fi
+  export S3_FAKE_PORT="${S3_FAKE_PORT:-4566}" S3_FAKE_DIR="${S3_FAKE_DIR:-.data/s3}" S3_BUCKET="${S3_BUCKET:-lagwise}"
+  export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" S3_ACCESS_KEY_ID="${S3_ACCESS_KEY_ID:-S3RVER}" S3_SECRET_ACCESS_KEY="${S3_SECRET_ACCESS_KEY:-S3RVER}"
+  if http_ok "$S3_ENDPOINT/"; then log "local object store already running ($S3_ENDPOINT)"; return; fi
+  if port_in_use "$S3_FAKE_PORT"; then log "port $S3_FAKE_PORT is taken by another program; set S3_FAKE_PORT"; exit 1; fi
+  mkdir -p "$S3_FAKE_DIR"
+  nohup node lib/storage/fake-s3.mjs >> ".data/s3-$S3_FAKE_PORT.log" 2>&1 &
+  echo $! > ".data/s3-$S3_FAKE_PORT.pid"
+  for _ in $(seq 1 50); do http_ok "$S3_ENDPOINT/" && break; sleep 0.2; done
+  http_ok "$S3_ENDPOINT/" || { log "local object store did not start; see .data/s3-$S3_FAKE_PORT.log"; exit 1; }
+  log "local object store on $S3_ENDPOINT (bucket $S3_BUCKET, files in $S3_FAKE_DIR)"
+}
+
+stop_s3_fake() {
+  local f=".data/s3-${S3_FAKE_PORT:-4566}.pid"
+  [ -f "$f" ] && kill "$(cat "$f")" 2>/dev/null || true
+  rm -f "$f"
+}
+
 print_logins() {
   cat >&2 <<'EOT'
 

@@ -7,9 +7,10 @@ ensure_db lagwise
 ensure_secret_key
 migrate
 start_dev_idp
+start_s3_fake
 node_modules/.bin/tsx seed/index.ts --if-empty
 start_mail_sink
 print_logins
 start_worker
-trap stop_worker EXIT
+trap 'stop_worker; stop_s3_fake' EXIT
 node_modules/.bin/next dev -H 127.0.0.1 -p "$PORT"

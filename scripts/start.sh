@@ -7,6 +7,7 @@ ensure_db lagwise
 ensure_secret_key
 migrate
 start_dev_idp
+start_s3_fake
 node_modules/.bin/tsx seed/index.ts --if-empty
 start_mail_sink
 log "building (next build)"
@@ -25,5 +26,5 @@ case "${HOST:-127.0.0.1}" in
 esac
 [ -z "${LAGWISE_SECURE_COOKIES:-}" ] && export LAGWISE_INSECURE_COOKIES=1
 start_worker
-trap stop_worker EXIT
+trap 'stop_worker; stop_s3_fake' EXIT
 node_modules/.bin/next start -H "${HOST:-127.0.0.1}" -p "$PORT"

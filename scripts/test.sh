@@ -16,7 +16,11 @@ export APP_URL="http://127.0.0.1:$PORT"
 ensure_secret_key
 export OIDC_DEV_PORT="${TEST_OIDC_PORT:-4020}" OIDC_DEV_APP_PORTS="$PORT"
 start_dev_idp
-trap 'stop_mail_sink; stop_dev_idp; stop_worker' EXIT
+# The test object store on its own port, emptied each run.
+export S3_FAKE_PORT="${TEST_S3_FAKE_PORT:-4576}" S3_FAKE_DIR=".data/s3-test" S3_BUCKET="${TEST_S3_BUCKET:-lagwise-test}"
+if [ -z "${S3_ENDPOINT:-}" ]; then stop_s3_fake; rm -rf "$S3_FAKE_DIR"; fi
+start_s3_fake
+trap 'stop_mail_sink; stop_dev_idp; stop_worker; stop_s3_fake' EXIT
 
 status=0
 log "format and lint (Biome), then types (tsc)"

@@ -12,6 +12,7 @@ export const ACTIONS = [
   'designBasis.edit',
   'design.pick', // choose thickness per line
   'calc.run', // calculation API
+  'tokens.create', // personal access tokens for scripts
   'review.read',
   'review.request',
   'review.dispose',
@@ -47,6 +48,7 @@ const MATRIX: Record<Action, readonly Role[]> = {
   'designBasis.edit': [O, E],
   'design.pick': [O, E],
   'calc.run': [O, E, R],
+  'tokens.create': [O, E],
   'review.read': [O, E, R],
   'review.request': [O, E],
   'review.dispose': [R],
@@ -62,4 +64,32 @@ const MATRIX: Record<Action, readonly Role[]> = {
 
 export function can(role: Role | null | undefined, action: Action): boolean {
   return !!role && MATRIX[action].includes(role);
+}
+
+/**
+ * What an API token may be allowed to do, and the action each scope stands for. A token's scopes
+ * are limited to what its maker's role allows when it is made, and are checked again against the
+ * current role at every use (a role taken away takes the token's power with it).
+ */
+export const TOKEN_SCOPES = ['calc', 'recommend', 'lines:read', 'lines:write'] as const;
+export type TokenScope = (typeof TOKEN_SCOPES)[number];
+
+export const SCOPE_ACTION: Record<TokenScope, Action> = {
+  calc: 'calc.run',
+  recommend: 'calc.run',
+  'lines:read': 'lines.read',
+  'lines:write': 'design.pick',
+};
+
+export const SCOPE_LABEL: Record<TokenScope, string> = {
+  calc: 'Heat-loss calculation (POST /api/v1/calc)',
+  recommend: 'Recommendations (POST /api/v1/recommend)',
+  'lines:read': "Read a project's line table",
+  'lines:write': "Choose a line's thickness",
+};
+
+/** The scopes a role may put on a token (none for a role that may not make tokens). */
+export function scopesForRole(role: Role | null | undefined): TokenScope[] {
+  if (!can(role, 'tokens.create')) return [];
+  return TOKEN_SCOPES.filter((s) => can(role, SCOPE_ACTION[s]));
 }

@@ -20,7 +20,21 @@ import { catalogueOf } from '@/lib/lines/catalogue';
 import { isIncompleteLine } from '@/lib/lines/fields';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import { billWorkbook } from './workbook';
-import { computeQuantities, quantityDelta, type BillQuantities, type BoqLine } from './quantities';
+import { getDocument, putDocument, safeFileName } from '@/lib/storage/documents';
+import { randomUUID } from 'node:crypto';
+import {
+  computeQuantities,
+  DEFAULT_ACCESSORY_FACTORS,
+  DEFAULT_BOQ_FACTORS,
+  quantityDelta,
+  sameBill,
+  type BillQuantities,
+  type BoqFactors,
+  type BoqLine,
+} from './quantities';
+import { condensationControlApplies, type Purpose } from '@/lib/thermal';
+import { criteriaFor } from '@/lib/lines/solve-line';
+import { getOwnBillFactors } from './factors';
 
 const SAFETY: string[] = ['hot-surface', 'sweating', 'interface-limit', 'below-criterion'];
 
@@ -51,7 +65,8 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     where i.project_id = ${projectId} and i.line_id is not null
     order by i.line_id, r.number desc`);
   const review = new Map(decided.rows.map((r) => [r.line_id, r]));
-  const cat = catalogueOf((await getDesignBasis({ projectId })).basis);
+  const { basis } = await getDesignBasis({ projectId });
+  const cat = catalogueOf(basis);
   return rows.map(({ line, design, jacketId }) => {
     const flags = flagged.get(line.id) ?? [];
     const rv = review.get(line.id);
@@ -94,12 +109,49 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
       jacketName: jacket?.name ?? '—',
       status,
       reviewStatus,
+      heightM: line.heightM,
+      // The same rule the review and the recommendation use: cold service gets a vapour retarder.
+      coldService: condensationControlApplies(
+        { purposes: line.purposes as Purpose[], coldestC: line.normalTempC },
+        criteriaFor(basis, line.outdoor).conditions.condensation,
+        basis.dewPointMarginK,
+      ),
     };
   });
 }
 
+/** The project's bill factors: the defaults, valves left bare when the design basis says so, and the project's own values. */
+export async function billFactors({ projectId }: { projectId: string }): Promise<BoqFactors> {
+  const { basis } = await getDesignBasis({ projectId });
+  const own = await getOwnBillFactors({ projectId });
+  return {
+    ...DEFAULT_BOQ_FACTORS,
+    removableCovers: !basis.fittings.valvesBare,
+    accessories: { ...DEFAULT_ACCESSORY_FACTORS, ...(own ?? {}) },
+  };
+}
+
 export async function previewBill({ projectId }: { projectId: string }) {
-  return computeQuantities(await collectBillLines({ projectId }));
+  return computeQuantities(await collectBillLines({ projectId }), await billFactors({ projectId }));
+}
+
+/** The last issue when the bill now would be identical to it (the page warns before issuing it again). */
+export async function unchangedSince({
+  projectId,
+  preview,
+}: {
+  projectId: string;
+  preview?: BillQuantities;
+}) {
+  const [last] = await db
+    .select({ number: boqIssues.number, quantities: boqIssues.quantities })
+    .from(boqIssues)
+    .where(eq(boqIssues.projectId, projectId))
+    .orderBy(desc(boqIssues.number))
+    .limit(1);
+  if (!last) return null;
+  const now = preview ?? (await previewBill({ projectId }));
+  return sameBill(now, last.quantities as BillQuantities) ? last.number : null;
 }
 
 /**
@@ -109,10 +161,13 @@ export async function previewBill({ projectId }: { projectId: string }) {
 export async function issueBill({
   projectId,
   userId,
+  evenIfUnchanged = false,
   tx: outer,
 }: {
   projectId: string;
   userId: string;
+  /** Issue even when nothing changed since the last issue (the user confirmed the warning). */
+  evenIfUnchanged?: boolean;
   tx?: Tx;
 }) {
   const q = await previewBill({ projectId });
@@ -133,17 +188,53 @@ export async function issueBill({
       .select({ n: sql<number>`coalesce(max(${boqIssues.number}), 0)` })
       .from(boqIssues)
       .where(eq(boqIssues.projectId, projectId));
+    const number = Number(n) + 1;
+    const [prev] =
+      number > 1
+        ? await tx
+            .select({ quantities: boqIssues.quantities })
+            .from(boqIssues)
+            .where(and(eq(boqIssues.projectId, projectId), eq(boqIssues.number, number - 1)))
+        : [];
+    if (prev && !evenIfUnchanged && sameBill(q, prev.quantities as BillQuantities))
+      throw new AppError(
+        'conflict',
+        `Nothing changed since issue ${number - 1}: this revision would be identical. Confirm to issue it anyway.`,
+      );
+    // The workbook is made once, now, and kept byte for byte: every later download is this file.
+    // It is stored before the issue row is written; if storing fails nothing is issued.
+    const id = randomUUID();
+    const issuedAt = new Date();
+    const meta = {
+      number,
+      issuedAt,
+      issuedBy: userId,
+      basisRevision: revision,
+      lineListRevision: ll?.n ?? null,
+    };
+    const { buf, fileName } = await renderWorkbook({
+      projectId,
+      issue: meta,
+      quantities: q,
+      previous: prev ? (prev.quantities as BillQuantities) : null,
+    });
+    const doc = await putDocument(`projects/${projectId}/bills/${id}/${fileName}`, buf, XLSX_TYPE);
     const [issue] = await tx
       .insert(boqIssues)
       .values({
+        id,
         projectId,
-        number: Number(n) + 1,
+        number,
         issuedBy: userId,
+        issuedAt,
         basisRevision: revision,
         lineListRevision: ll?.n ?? null,
         quantities: q,
         counted: q.counted,
         pending: q.pending,
+        documentKey: doc.key,
+        documentSha256: doc.sha256,
+        documentBytes: doc.bytes,
       })
       .returning();
     await writeAudit(tx, [
@@ -152,7 +243,7 @@ export async function issueBill({
         actorId: userId,
         actorName: name,
         action: `bill of quantities issue ${issue.number}`,
-        after: { counted: q.counted, pending: q.pending },
+        after: { counted: q.counted, pending: q.pending, sha256: doc.sha256 },
       },
     ]);
     return issue;
@@ -168,6 +259,7 @@ export async function listIssues({ projectId }: { projectId: string }) {
       counted: boqIssues.counted,
       pending: boqIssues.pending,
       basisRevision: boqIssues.basisRevision,
+      documentSha256: boqIssues.documentSha256,
     })
     .from(boqIssues)
     .where(eq(boqIssues.projectId, projectId))
@@ -203,32 +295,78 @@ export function materialPricesByName(basis: DesignBasis): Record<string, number>
   return out;
 }
 
-export async function issueWorkbook({ projectId, number }: { projectId: string; number: number }) {
-  const { issue, quantities, delta } = await getIssue({ projectId, number });
+export const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+
+/** Makes the workbook of an issue from its quantities, the project's present units and prices, and the change from the previous issue. */
+async function renderWorkbook(o: {
+  projectId: string;
+  issue: {
+    number: number;
+    issuedAt: Date;
+    issuedBy: string;
+    basisRevision: number;
+    lineListRevision: number | null;
+  };
+  quantities: BillQuantities;
+  previous: BillQuantities | null;
+}) {
   const [p] = await db
     .select({ project: projects, org: organizations.name })
     .from(projects)
     .innerJoin(organizations, eq(organizations.id, projects.organizationId))
-    .where(eq(projects.id, projectId));
-  const { basis } = await getDesignBasis({ projectId });
+    .where(eq(projects.id, o.projectId));
+  const { basis } = await getDesignBasis({ projectId: o.projectId });
   const buf = await billWorkbook(
-    quantities,
+    o.quantities,
     {
       projectCode: p.project.code,
       projectName: p.project.name,
       site: p.project.site,
       organization: p.org,
-      issueNumber: issue.number,
-      issuedAt: issue.issuedAt,
-      issuedBy: await actorName(issue.issuedBy),
-      basisRevision: issue.basisRevision,
-      lineListRevision: issue.lineListRevision,
+      issueNumber: o.issue.number,
+      issuedAt: o.issue.issuedAt,
+      issuedBy: await actorName(o.issue.issuedBy),
+      basisRevision: o.issue.basisRevision,
+      lineListRevision: o.issue.lineListRevision,
       inches: basis.thicknessSeries === 'inch' || basis.unitSystem === 'US',
       unitSystem: basis.unitSystem,
       currency: basis.currency,
       materialPricePerM3: materialPricesByName(basis),
     },
-    delta,
+    quantityDelta(o.previous, o.quantities),
   );
-  return { buf, fileName: `${p.project.code}-bill-of-quantities-issue-${issue.number}.xlsx` };
+  return {
+    buf: Buffer.from(buf),
+    fileName: `${safeFileName(p.project.code)}-bill-of-quantities-issue-${o.issue.number}.xlsx`,
+  };
+}
+
+/**
+ * The workbook of an issued revision: the very bytes kept when it was issued (checked against their
+ * SHA-256). Issues made before workbooks were kept are made again from their stored quantities.
+ */
+export async function issueWorkbook({ projectId, number }: { projectId: string; number: number }) {
+  const { issue, quantities } = await getIssue({ projectId, number });
+  if (issue.documentKey && issue.documentSha256 && issue.documentBytes !== null) {
+    const buf = await getDocument({
+      key: issue.documentKey,
+      sha256: issue.documentSha256,
+      bytes: issue.documentBytes,
+    });
+    return { buf, fileName: issue.documentKey.slice(issue.documentKey.lastIndexOf('/') + 1), kept: true };
+  }
+  const [prev] =
+    number > 1
+      ? await db
+          .select()
+          .from(boqIssues)
+          .where(and(eq(boqIssues.projectId, projectId), eq(boqIssues.number, number - 1)))
+      : [];
+  const r = await renderWorkbook({
+    projectId,
+    issue,
+    quantities,
+    previous: prev ? (prev.quantities as BillQuantities) : null,
+  });
+  return { ...r, kept: false };
 }

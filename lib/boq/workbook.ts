@@ -129,30 +129,61 @@ export async function billWorkbook(
   );
   sheet(
     wb,
+    'Removable covers',
+    ['Item', 'Line size', ...th('Insulation thickness (mm)'), 'Covers (count)'],
+    (q.covers ?? []).map((r) => [r.item, r.size, ...tv(r.thicknessMm), r.count]),
+    [14, 16, ...tw(26), 16],
+  );
+  sheet(
+    wb,
     'Jacketing',
-    ['Jacket', ...th('Outside diameter over insulation (mm)'), `Area incl. overlap (${AU})`],
+    [
+      'Jacket',
+      ...th('Outside diameter over insulation (mm)'),
+      'Sheet thickness (mm)',
+      `Area incl. laps (${AU})`,
+    ],
     q.jackets.map((r) => [
       r.jacket,
       ...(inch
         ? [r.outsideDiameterMm, r.outsideDiameterMm === null ? null : mmToInches(r.outsideDiameterMm)]
         : [r.outsideDiameterMm]),
+      r.sheetThicknessMm ?? null,
       area(r.areaM2),
     ]),
-    [28, ...tw(34), 22],
+    [28, ...tw(34), 20, 22],
+  );
+  const accUnit = (u: string) => (u === 'm' ? LU : u === 'm²' ? AU : u);
+  const accVal = (u: string, v: number) => (u === 'm' ? len(v) : u === 'm²' ? area(v) : v);
+  sheet(
+    wb,
+    'Accessories',
+    ['Item', 'Size', 'Unit', 'Quantity'],
+    (q.accessories ?? []).map((r) => [r.item, r.size, accUnit(r.unit), accVal(r.unit, r.quantity)]),
+    [38, 18, 8, 14],
   );
   sheet(
     wb,
     'Vessels and flat',
-    ['Surface', 'Material', 'Layer', ...th('Thickness (mm)'), `Area incl. waste (${AU})`, `Volume (${VU})`],
+    [
+      'Surface',
+      'Material',
+      'Product form',
+      'Layer',
+      ...th('Thickness (mm)'),
+      `Area incl. waste (${AU})`,
+      `Volume (${VU})`,
+    ],
     q.surfaces.map((r) => [
       r.kind,
       r.material,
+      r.productForm ?? '',
       r.layer,
       ...tv(r.thicknessMm),
       area(r.areaM2),
       vol(r.volumeM3),
     ]),
-    [12, 32, 8, ...tw(14), 20, 14],
+    [14, 32, 18, 8, ...tw(14), 20, 14],
   );
   sheet(
     wb,
@@ -204,11 +235,16 @@ export async function billWorkbook(
     ['Lines counted', q.counted],
     ['Lines pending (not counted)', q.pending],
     ['Waste allowance', f.wasteFraction],
-    ['Jacket overlap allowance', f.jacketOverlapFraction],
+    ['Jacket overlap allowance (vessels and flat surfaces)', f.jacketOverlapFraction],
     [`Equivalent length per elbow (${LU})`, len(f.equivalentLengthM.elbow)],
     [`Equivalent length per tee (${LU})`, len(f.equivalentLengthM.tee)],
-    [`Equivalent length per valve (${LU})`, len(f.equivalentLengthM.valve)],
-    [`Equivalent length per flange pair (${LU})`, len(f.equivalentLengthM.flangePair)],
+    [
+      'Valves and flange pairs',
+      f.removableCovers === false
+        ? 'left bare (design basis): no covers counted'
+        : 'removable covers, counted by line size (sheet Removable covers)',
+    ],
+    ['Later layers', 'sized by the outside diameter they fit over (the layer below), not by the pipe size'],
     [
       'Basis of factors',
       'Allowances and fitting equivalents are common-practice estimates set for the project; confirm them against the installation specification.',
@@ -235,11 +271,31 @@ export async function billWorkbook(
           ],
         ]
       : []),
+    ...(f.accessories
+      ? [
+          ['Accessory factors', 'value', 'source'],
+          ...Object.entries(f.accessories).map(([k, v]) =>
+            'rows' in v
+              ? [
+                  k,
+                  v.rows
+                    .map(
+                      (r: { maxOdMm: number | null; thicknessMm: number }) =>
+                        `${r.thicknessMm} mm${r.maxOdMm === null ? ' above' : ` up to OD ${r.maxOdMm} mm`}`,
+                    )
+                    .join('; '),
+                  v.source,
+                ]
+              : [k, v.value, v.source],
+          ),
+        ]
+      : []),
   ].forEach((r) => {
     notes.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v)));
   });
   notes.getColumn(1).width = 36;
   notes.getColumn(2).width = 110;
+  notes.getColumn(3).width = 90;
   notes.getColumn(1).font = { bold: true };
   return Buffer.from(await wb.xlsx.writeBuffer());
 }

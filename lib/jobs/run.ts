@@ -55,7 +55,12 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
         };
       } else if (job.kind === 'issue-bill') {
         // Issued inside this transaction: a retry after a crash finds the job done, never a second issue.
-        const issue = await issueBill({ projectId: job.projectId, userId: job.createdBy ?? '', tx });
+        const issue = await issueBill({
+          projectId: job.projectId,
+          userId: job.createdBy ?? '',
+          evenIfUnchanged: Boolean((job.input as { evenIfUnchanged?: boolean }).evenIfUnchanged),
+          tx,
+        });
         result = { number: issue.number, counted: issue.counted, pending: issue.pending };
       } else {
         const s = await solveProject({

@@ -3,6 +3,8 @@
  * Every import is one transaction: all rows or none, the previous revision intact on any error.
  */
 import { and, asc, count, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
+import { getDocument, putDocument, safeFileName } from '@/lib/storage/documents';
+import { randomUUID } from 'node:crypto';
 import { db, type Tx } from '@/db/client';
 import {
   columnMappings,
@@ -383,6 +385,29 @@ export interface DraftSummary {
   remembered: { headers: string[]; mapping: ColumnMapping } | null;
 }
 
+/** The media type a line-list original is served with, by its file name. */
+export function contentTypeOf(fileName: string): string {
+  const ext = fileName.toLowerCase().split('.').pop();
+  if (ext === 'xlsx') return 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+  if (ext === 'csv') return 'text/csv';
+  return 'application/octet-stream';
+}
+
+/** The original file of a line-list revision, as uploaded (checked against its SHA-256). */
+export async function revisionOriginal({ projectId, number }: { projectId: string; number: number }) {
+  const [r] = await db
+    .select()
+    .from(lineListRevisions)
+    .where(and(eq(lineListRevisions.projectId, projectId), eq(lineListRevisions.number, number)));
+  if (!r) throw new AppError('not_found', `Line-list revision ${number} does not exist.`);
+  if (!r.originalKey || !r.originalSha256 || r.originalBytes === null)
+    throw new AppError(
+      'not_found',
+      `Revision ${number} was imported before original files were kept; its file is not stored.`,
+    );
+  const buf = await getDocument({ key: r.originalKey, sha256: r.originalSha256, bytes: r.originalBytes });
+  return { buf, fileName: r.fileName, contentType: contentTypeOf(r.fileName) };
+}
 export async function createDraft({
   projectId,
   userId,
@@ -405,9 +430,26 @@ export async function createDraft({
   const mem = remembered
     ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping }
     : undefined;
+  // The file itself is kept byte for byte (the revision history offers it for download); stored
+  // before the draft row, so a store that cannot take it leaves no draft behind.
+  const draftId = randomUUID();
+  const original = await putDocument(
+    `projects/${projectId}/line-lists/${draftId}/${safeFileName(fileName)}`,
+    bytes,
+    contentTypeOf(fileName),
+  );
   const [draft] = await db
     .insert(importDrafts)
-    .values({ projectId, createdBy: userId, fileName, parsed })
+    .values({
+      id: draftId,
+      projectId,
+      createdBy: userId,
+      fileName,
+      parsed,
+      originalKey: original.key,
+      originalSha256: original.sha256,
+      originalBytes: original.bytes,
+    })
     .returning({ id: importDrafts.id });
   const sheets = parsed.sheets.map((stored): DraftSheet => {
     const s = viewSheet(stored);
@@ -640,6 +682,9 @@ export async function commitDraft({
       lineCount: v.lines.length,
       diff,
       createdBy: userId,
+      originalKey: d.originalKey,
+      originalSha256: d.originalSha256,
+      originalBytes: d.originalBytes,
     });
     await tx
       .insert(columnMappings)
@@ -752,7 +797,7 @@ export async function listLines(o: LineQuery) {
   const stale = staleSql(revision);
   const where = [lineFilterSql(o.projectId, o, revision)];
   const sortCol = {
-    tag: lines.tag,
+    tag: sql`${lines.tagKey} collate "C"`,
     area: lines.area,
     normalTempC: lines.normalTempC,
     outsideDiameterMm: lines.outsideDiameterMm,
@@ -803,7 +848,7 @@ export async function listLines(o: LineQuery) {
     base
       .orderBy(
         o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
-        asc(lines.tag),
+        sql`${lines.tagKey} collate "C" asc`,
       )
       .limit(o.size)
       .offset(o.page * o.size),
@@ -864,6 +909,7 @@ export async function pickDesign(o: {
   thicknessMm: number;
   reason?: string;
   expectedVersion: number;
+  via?: string;
 }) {
   return db.transaction(async (tx) => {
     const [row] = await tx
@@ -937,6 +983,7 @@ export async function pickDesign(o: {
           source: values.source,
           reason: values.reason,
           belowCriterion: values.belowCriterion,
+          ...(o.via ? { via: o.via } : {}),
         },
       },
     ]);

@@ -4,7 +4,8 @@ import { parseWithZod } from '@conform-to/zod/v4';
 import type { z } from 'zod';
 import type { User } from 'lucia';
 import { validateRequest } from '@/lib/auth/session';
-import { getProjectAccess } from '@/db/queries/projects';
+import { getOrganizationAccess, getProjectAccess } from '@/db/queries/projects';
+import type { Role } from '@/db/schema';
 import type { Action } from '@/lib/auth/permissions';
 import { AppError, isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
@@ -106,4 +107,53 @@ export function projectAction<S extends z.ZodType, R>(
       return { ok: false, error: 'Something went wrong on our side. Nothing was saved; try again.' };
     }
   };
+}
+
+/** Parses with the schema's own sentences, or one plain sentence where the schema has none. */
+function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.infer<S> {
+  const parsed = schema.safeParse(input, {
+    error: () => 'This request is not valid; reload the page and try again.',
+  });
+  if (parsed.success) return parsed.data;
+  const fields: Record<string, string[]> = {};
+  for (const i of parsed.error.issues) (fields[i.path.join('.') || 'input'] ??= []).push(i.message);
+  throw new AppError('invalid', [...new Set(parsed.error.issues.map((i) => i.message))].join(' '), fields);
+}
+
+async function runAction<R>(body: () => Promise<R>): Promise<ActionResult<R>> {
+  try {
+    return { ok: true, data: await body() };
+  } catch (e) {
+    if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
+    logUnexpected('action', e);
+    return { ok: false, error: 'Something went wrong on our side. Nothing was saved; try again.' };
+  }
+}
+
+/**
+ * The wrapper for JSON-style server actions in an organization: session → membership and role
+ * (not a member: not found) → zod parse → handler.
+ */
+export function organizationAction<S extends z.ZodType, R>(
+  permission: Action,
+  schema: S,
+  handler: (ctx: Ctx<z.infer<S>> & { organizationId: string; role: Role }) => Promise<R>,
+) {
+  return async (organizationId: string, input: unknown): Promise<ActionResult<R>> =>
+    runAction(async () => {
+      const { user } = await validateRequest();
+      if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
+      const { role } = await getOrganizationAccess({ userId: user.id, organizationId, action: permission });
+      return handler({ user, input: parseInput(schema, input), organizationId, role });
+    });
+}
+
+/** The wrapper for JSON-style server actions on the signed-in person's own things (their tokens): session → zod parse → handler. */
+export function ownAction<S extends z.ZodType, R>(schema: S, handler: (ctx: Ctx<z.infer<S>>) => Promise<R>) {
+  return async (input: unknown): Promise<ActionResult<R>> =>
+    runAction(async () => {
+      const { user } = await validateRequest();
+      if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
+      return handler({ user, input: parseInput(schema, input) });
+    });
 }

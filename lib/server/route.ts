@@ -6,6 +6,9 @@ import { validateRequest } from '@/lib/auth/session';
 import { AppError, isAppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { logUnexpected } from '@/lib/log';
+import { authenticateApiToken, recordTokenUse, scopeProblem, type TokenAuth } from '@/lib/auth/api-tokens';
+import type { Action, TokenScope } from '@/lib/auth/permissions';
+import { getProjectAccess, listOrganizationsForUser } from '@/db/queries/projects';
 
 export function errorResponse(e: unknown) {
   if (isAppError(e))
@@ -20,23 +23,26 @@ export function errorResponse(e: unknown) {
   );
 }
 
-/** Mutating requests must come from our own origin and carry JSON. */
-function checkMutation(req: NextRequest) {
-  const origin = req.headers.get('origin');
-  const host = req.headers.get('host');
-  if (origin) {
-    // "null" (sandboxed frames, file: pages, some redirects) and anything unparsable is not our origin.
-    let originHost: string | null = null;
-    try {
-      originHost = new URL(origin).host;
-    } catch {
-      originHost = null;
-    }
-    const allowed = new Set([host, new URL(env.appUrl()).host]);
-    if (!originHost || !allowed.has(originHost))
+/** Mutating requests from a browser must come from our own origin; every mutating request carries JSON. */
+function checkMutation(req: NextRequest, bearer: boolean) {
+  // A bearer token is never sent by a browser on its own, so a cross-site page cannot ride on it.
+  if (!bearer) {
+    const origin = req.headers.get('origin');
+    const host = req.headers.get('host');
+    if (origin) {
+      // "null" (sandboxed frames, file: pages, some redirects) and anything unparsable is not our origin.
+      let originHost: string | null = null;
+      try {
+        originHost = new URL(origin).host;
+      } catch {
+        originHost = null;
+      }
+      const allowed = new Set([host, new URL(env.appUrl()).host]);
+      if (!originHost || !allowed.has(originHost))
+        throw new AppError('forbidden', 'Cross-site request refused.');
+    } else if (req.headers.get('sec-fetch-site') === 'cross-site') {
       throw new AppError('forbidden', 'Cross-site request refused.');
-  } else if (req.headers.get('sec-fetch-site') === 'cross-site') {
-    throw new AppError('forbidden', 'Cross-site request refused.');
+    }
   }
   if (!(req.headers.get('content-type') ?? '').toLowerCase().startsWith('application/json')) {
     throw new AppError('unsupported', 'Send the body as application/json.');
@@ -50,17 +56,96 @@ export function fieldsFromZod(error: z.ZodError): Record<string, string[]> {
   return out;
 }
 
-export function route<P>(handler: (ctx: { req: NextRequest; user: User; params: P }) => Promise<Response>) {
+export interface RouteCtx<P> {
+  req: NextRequest;
+  user: User;
+  params: P;
+  /** The API token the request came with (null for a browser session). */
+  token: TokenAuth | null;
+  /** Adds facts to the token-use audit row (e.g. how many cases were answered). */
+  note: (detail: Record<string, unknown>) => void;
+}
+
+/**
+ * The one wrapper for route handlers: a browser session (cookie; mutating requests same-origin and
+ * JSON), or — only where `scope` is given — `Authorization: Bearer <API token>` carrying that scope,
+ * checked against its maker's current role. Every request that came with a known token is recorded
+ * in `api_token_events` with its answer's status.
+ */
+export function route<P>(
+  handler: (ctx: RouteCtx<P>) => Promise<Response>,
+  opts: { scope?: TokenScope } = {},
+) {
   return async (req: NextRequest, context: { params: Promise<P> }) => {
+    const mutating = !['GET', 'HEAD', 'OPTIONS'].includes(req.method);
+    const detail: Record<string, unknown> = {};
+    const note = (d: Record<string, unknown>) => {
+      Object.assign(detail, d);
+    };
+    let token: { auth: TokenAuth; user: User } | null = null;
+    let res: Response;
     try {
-      if (!['GET', 'HEAD', 'OPTIONS'].includes(req.method)) checkMutation(req);
-      const { user } = await validateRequest();
-      if (!user) throw new AppError('unauthenticated');
-      return await handler({ req, user, params: await context.params });
+      const authorization = req.headers.get('authorization');
+      if (authorization !== null) {
+        const m = /^Bearer[ ]+([^\s]+)[ ]*$/i.exec(authorization);
+        if (!m)
+          throw new AppError('unauthenticated', 'Send the API token as "Authorization: Bearer <token>".');
+        if (!opts.scope)
+          throw new AppError(
+            'unauthenticated',
+            'This address does not accept API tokens; it serves the signed-in browser.',
+          );
+        token = await authenticateApiToken(m[1], { method: req.method, path: req.nextUrl.pathname });
+        const problem = scopeProblem(token.auth, opts.scope);
+        if (problem) throw new AppError('forbidden', problem);
+        if (mutating) checkMutation(req, true);
+        res = await handler({ req, user: token.user, params: await context.params, token: token.auth, note });
+      } else {
+        if (mutating) checkMutation(req, false);
+        const { user } = await validateRequest();
+        if (!user) throw new AppError('unauthenticated');
+        res = await handler({ req, user, params: await context.params, token: null, note });
+      }
     } catch (e) {
-      return errorResponse(e);
+      res = errorResponse(e);
     }
+    if (token) {
+      const refused = res.status === 401 || res.status === 403;
+      await recordTokenUse({
+        tokenId: token.auth.tokenId,
+        organizationId: token.auth.organizationId,
+        userId: token.user.id,
+        actorName: token.user.name,
+        action: refused ? 'refused' : 'used',
+        method: req.method,
+        path: req.nextUrl.pathname,
+        status: res.status,
+        detail,
+      }).catch((e) => logUnexpected('token audit', e));
+    }
+    return res;
   };
+}
+
+/**
+ * The project and the caller's role, as `getProjectAccess`; a token reaches only projects of the
+ * organization it was made in (any other is not found, like a stranger's).
+ */
+export async function projectAccess(
+  ctx: { user: User; token: TokenAuth | null },
+  projectId: string,
+  action?: Action,
+) {
+  const access = await getProjectAccess({ userId: ctx.user.id, projectId, action });
+  if (ctx.token && access.project.organizationId !== ctx.token.organizationId)
+    throw new AppError('not_found');
+  return access;
+}
+
+/** The caller's organizations: a token's own one only, a session all of the person's. */
+export async function callerOrganizations(ctx: { user: User; token: TokenAuth | null }) {
+  const orgs = await listOrganizationsForUser({ userId: ctx.user.id });
+  return ctx.token ? orgs.filter((o) => o.id === ctx.token!.organizationId) : orgs;
 }
 
 export async function readJson<S extends z.ZodType>(req: NextRequest, schema: S): Promise<z.infer<S>> {
@@ -71,6 +156,12 @@ export async function readJson<S extends z.ZodType>(req: NextRequest, schema: S)
     throw new AppError('invalid', 'The body is not valid JSON.');
   }
   const r = schema.safeParse(body);
-  if (!r.success) throw new AppError('invalid', 'Some fields are not valid.', fieldsFromZod(r.error));
+  if (!r.success) {
+    const fields = fieldsFromZod(r.error);
+    const said = Object.entries(fields).map(([k, m]) =>
+      k === '(body)' ? m.join('; ') : `${k}: ${m.join('; ')}`,
+    );
+    throw new AppError('invalid', `${said.join('; ')}.`, fields);
+  }
   return r.data;
 }

@@ -172,10 +172,11 @@ test('refusals answer 413, 403 and 404 rather than 500', async ({ page, baseURL 
     ],
     headers: { origin: baseURL! },
   });
-  expect(heavy.status()).toBe(400);
-  expect((await heavy.json()).error.fields['0.layers.0.conductivity.points'][0]).toBe(
-    'a conductivity table may have at most 200 points',
-  );
+  // Answered as that case's error (nothing solved for it); the request itself is fine.
+  expect(heavy.status()).toBe(200);
+  expect(await heavy.json()).toEqual([
+    { error: 'layers.0.conductivity.points: a conductivity table may have at most 200 points' },
+  ]);
 });
 
 test('the session cookie lasts as long as the session (30 days), not ~400 days', async ({

@@ -7,6 +7,8 @@ import { lineResults, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as lineStore from '@/lib/lines/store';
 import * as boq from '@/lib/boq/store';
+import { currentBillFactors, saveBillFactors } from '@/lib/boq/factors';
+import { projectProgress } from '@/lib/lines/progress';
 import * as budget from '@/lib/budget/store';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -94,7 +96,9 @@ describe('bill of quantities on PostgreSQL', () => {
     expect(wb1.worksheets.map((w) => w.name)).toEqual([
       'Summary',
       'Fittings',
+      'Removable covers',
       'Jacketing',
+      'Accessories',
       'Vessels and flat',
       'Line schedule',
       'Change from previous',
@@ -145,6 +149,50 @@ describe('bill of quantities on PostgreSQL', () => {
     // The first issue is unchanged by the second.
     expect((await readBook(1)).getWorksheet('Summary')!.getColumn(6).values.slice(2)).toEqual(lengths1);
     await expectAppError(boq.getIssue({ projectId, number: 3 }), 'not_found', /only issued revisions/);
+  });
+
+  it('warns that nothing changed since issue 2, refuses an identical issue until confirmed, and counts covers', async () => {
+    expect(await boq.unchangedSince({ projectId })).toBe(2);
+    await expectAppError(
+      boq.issueBill({ projectId, userId }),
+      'conflict',
+      'Nothing changed since issue 2: this revision would be identical. Confirm to issue it anyway.',
+    );
+    expect((await boq.listIssues({ projectId })).map((i) => i.number)).toEqual([2, 1]);
+    const third = await boq.issueBill({ projectId, userId, evenIfUnchanged: true });
+    expect(third.number).toBe(3);
+    // The overview's counts per step: 3 lines, all solved and decided, none flagged (out of reach, hot only), 3 billed in issue 3.
+    expect(await projectProgress({ projectId })).toEqual({
+      lines: 3,
+      solved: 3,
+      decided: 3,
+      flagged: 0,
+      signedOff: 0,
+      billed: 3,
+      lastIssue: 3,
+    });
+    // A project factor changes the bill: no longer identical.
+    await saveBillFactors({
+      projectId,
+      userId,
+      factors: {
+        ...(await currentBillFactors({ projectId })),
+        bandSpacingM: {
+          value: 0.45,
+          source: 'Client specification C-110, clause 4.2 (invented for the test)',
+        },
+      },
+    });
+    expect(await boq.unchangedSince({ projectId })).toBe(null);
+    const q = await boq.previewBill({ projectId });
+    // N-1: 100 m + 2 elbows × 0.6 m = 101.2 m of jacket → ⌈101.2 / 0.45⌉ = 225 bands.
+    const bands = q.accessories!.filter((a) => a.item === 'Jacket bands' && a.unit === 'count');
+    expect(bands.reduce((a, b) => a + b.quantity, 0)).toBe(
+      Math.ceil(101.2 / 0.45) + Math.ceil((20 + 1.2) / 0.45) + Math.ceil((50 + 1.2) / 0.45),
+    );
+    expect(q.factors.accessories!.bandSpacingM.source).toBe(
+      'Client specification C-110, clause 4.2 (invented for the test)',
+    );
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ACTIONS, ROLES, can } from '@/lib/auth/permissions';
+import { ACTIONS, ROLES, SCOPE_ACTION, can, scopesForRole } from '@/lib/auth/permissions';
 
 // The expected policy written out independently of the module: O = owner, E = engineer,
 // R = safety reviewer, C = contractor. Every role × action pair is asserted.
@@ -11,6 +11,7 @@ const EXPECTED: Record<string, string> = {
   'designBasis.edit': 'OE',
   'design.pick': 'OE',
   'calc.run': 'OER',
+  'tokens.create': 'OE',
   'review.read': 'OER',
   'review.request': 'OE',
   'review.dispose': 'R',
@@ -39,5 +40,23 @@ describe('authorization matrix', () => {
   }
   it('denies when there is no membership', () => {
     for (const action of ACTIONS) expect(can(null, action)).toBe(false);
+  });
+});
+
+describe('token scopes by role', () => {
+  it('gives owners and engineers every scope, and reviewers and contractors none (they cannot make tokens)', () => {
+    expect(scopesForRole('owner')).toEqual(['calc', 'recommend', 'lines:read', 'lines:write']);
+    expect(scopesForRole('engineer')).toEqual(['calc', 'recommend', 'lines:read', 'lines:write']);
+    expect(scopesForRole('reviewer')).toEqual([]);
+    expect(scopesForRole('contractor')).toEqual([]);
+    expect(scopesForRole(null)).toEqual([]);
+  });
+  it('maps each scope to the action the role must still hold at use', () => {
+    expect(SCOPE_ACTION).toEqual({
+      calc: 'calc.run',
+      recommend: 'calc.run',
+      'lines:read': 'lines.read',
+      'lines:write': 'design.pick',
+    });
   });
 });

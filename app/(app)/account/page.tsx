@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { requireUser } from '@/lib/auth/session';
 import { SimpleForm } from '@/components/simple-form';
 import { changePasswordAction, signOutOtherSessionsAction } from './actions';
@@ -49,6 +50,15 @@ export default async function AccountPage() {
             fields={[]}
             successMessage="Every other session was signed out."
           />
+        </section>
+        <section className="panel p-5">
+          <h2 className="mb-3">API tokens</h2>
+          <p className="mb-3 text-sm text-ink-600">
+            Scripts call the calculation, recommendation and line APIs with a personal access token.
+          </p>
+          <Link href="/account/tokens" className="btn-quiet">
+            Manage API tokens
+          </Link>
         </section>
       </div>
     </main>

@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { loadProject } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
+import { projectProgress } from '@/lib/lines/progress';
 
 export default async function ProjectOverview({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
@@ -38,10 +39,32 @@ export default async function ProjectOverview({ params }: { params: Promise<{ pr
       action: 'boq.read' as const,
     },
   ].filter((s) => can(role, s.action));
+  // Counts per step for the roles that read the line list (a contractor sees the bill only).
+  const p = can(role, 'lines.read') ? await projectProgress({ projectId: project.id }) : null;
+  const counts = p
+    ? [
+        ['Lines', p.lines],
+        ['Solved', p.solved],
+        ['Decided', p.decided],
+        ['Flagged', p.flagged],
+        ['Signed off', p.signedOff],
+        [p.lastIssue ? `Billed (issue ${p.lastIssue})` : 'Billed', p.billed ?? '—'],
+      ]
+    : [];
   return (
     <>
       <h1 className="mb-1">{project.name}</h1>
-      <p className="mb-6 text-sm text-ink-600">{project.site}</p>
+      <p className="mb-4 text-sm text-ink-600">{project.site}</p>
+      {counts.length ? (
+        <dl className="mb-6 grid grid-cols-3 gap-2 md:grid-cols-6" aria-label="Progress">
+          {counts.map(([label, n]) => (
+            <div key={String(label)} className="panel px-3 py-2">
+              <dt className="text-xs text-ink-500">{label}</dt>
+              <dd className="text-xl font-semibold tabular-nums">{n}</dd>
+            </div>
+          ))}
+        </dl>
+      ) : null}
       <ol className="grid gap-3 md:grid-cols-2">
         {steps.map((s, i) => (
           <li key={s.href} className="panel p-4">

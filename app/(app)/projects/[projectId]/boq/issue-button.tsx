@@ -5,12 +5,23 @@ import { JobProgressBar, useJob } from '../lines/job-progress';
 import { issueBillAction } from './actions';
 
 /**
- * Issues the next bill revision as a background job and follows it: a progress line while the
- * quantities are counted, then the outcome (the page reloads its list of issues).
+ * Issues the next revision as a background job and follows it: a progress line while the
+ * quantities are counted and the workbook is kept, then the outcome (the page reloads its list of
+ * issues). When nothing changed since the last issue the page says so first, and the button asks
+ * for a second, explicit confirmation.
  */
-export function IssueButton({ projectId, next }: { projectId: string; next: number }) {
+export function IssueButton({
+  projectId,
+  next,
+  unchangedSince,
+}: {
+  projectId: string;
+  next: number;
+  unchangedSince: number | null;
+}) {
   const router = useRouter();
   const [pending, start] = useTransition();
+  const [confirming, setConfirming] = useState(false);
   const [jobId, setJobId] = useState<string | null>(null);
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const job = useJob(projectId, jobId);
@@ -29,23 +40,43 @@ export function IssueButton({ projectId, next }: { projectId: string; next: numb
     }
   }, [j, router]);
   const busy = pending || jobId !== null;
+  const issue = (evenIfUnchanged: boolean) =>
+    start(async () => {
+      setMsg(null);
+      const r = await issueBillAction(projectId, { evenIfUnchanged });
+      setConfirming(false);
+      if (r.ok) setJobId(r.data.jobId);
+      else setMsg({ ok: false, text: r.error });
+    });
   return (
     <div>
-      <button
-        type="button"
-        className="btn-primary"
-        disabled={busy}
-        onClick={() =>
-          start(async () => {
-            setMsg(null);
-            const r = await issueBillAction(projectId, {});
-            if (r.ok) setJobId(r.data.jobId);
-            else setMsg({ ok: false, text: r.error });
-          })
-        }
-      >
-        Issue revision {next}
-      </button>
+      {unchangedSince !== null ? (
+        <p
+          role="note"
+          className="mb-2 rounded border border-ink-300 bg-ink-50 px-3 py-2 text-sm text-ink-800"
+        >
+          Nothing changed since issue {unchangedSince}: issuing now gives the contractor an identical bill.
+        </p>
+      ) : null}
+      {confirming ? (
+        <div className="flex gap-2">
+          <button type="button" className="btn-primary" disabled={busy} onClick={() => issue(true)}>
+            Issue identical revision {next}
+          </button>
+          <button type="button" className="btn-quiet" disabled={busy} onClick={() => setConfirming(false)}>
+            Cancel
+          </button>
+        </div>
+      ) : (
+        <button
+          type="button"
+          className="btn-primary"
+          disabled={busy}
+          onClick={() => (unchangedSince !== null ? setConfirming(true) : issue(false))}
+        >
+          Issue revision {next}
+        </button>
+      )}
       {jobId && j ? (
         <div className="mt-2">
           <JobProgressBar job={j} />

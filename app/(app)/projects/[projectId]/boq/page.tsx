@@ -1,7 +1,9 @@
 import { loadProject } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
-import { getIssue, listIssues, materialPricesByName, previewBill } from '@/lib/boq/store';
+import { getIssue, listIssues, materialPricesByName, previewBill, unchangedSince } from '@/lib/boq/store';
+import { currentBillFactors, EDITABLE_FACTORS } from '@/lib/boq/factors';
+import { FactorsForm } from './factors-form';
 import { getDesignBasis } from '@/lib/lines/store';
 import { fixed, formatterFor } from '@/lib/format';
 import { IssueButton } from './issue-button';
@@ -21,6 +23,18 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
   const issues = await listIssues({ projectId: project.id });
   const canIssue = can(role, 'boq.issue');
   const preview = canIssue ? await previewBill({ projectId: project.id }) : null;
+  const sameAs = preview ? await unchangedSince({ projectId: project.id, preview }) : null;
+  const factorRows = canIssue
+    ? await currentBillFactors({ projectId: project.id }).then((f) =>
+        EDITABLE_FACTORS.map((d) => ({
+          key: d.key,
+          label: d.label,
+          unit: d.unit,
+          value: f[d.key].value,
+          source: f[d.key].source,
+        })),
+      )
+    : [];
   const latest = issues[0] ? await getIssue({ projectId: project.id, number: issues[0].number }) : null;
   const { basis } = await getDesignBasis({ projectId: project.id });
   const u = formatterFor(basis);
@@ -44,7 +58,15 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
             <strong>{preview.pending}</strong> pending (undecided, needing re-decision or awaiting safety
             sign-off — listed, not counted).
           </p>
-          <IssueButton projectId={project.id} next={(issues[0]?.number ?? 0) + 1} />
+          <IssueButton projectId={project.id} next={(issues[0]?.number ?? 0) + 1} unchangedSince={sameAs} />
+          <details className="mt-4">
+            <summary className="cursor-pointer text-sm">Bill factors and their sources</summary>
+            <p className="my-2 text-xs text-ink-600">
+              Accessories (bands, tie wire, vapour retarder, mastic, joint sealant) and jacket laps are
+              counted with these factors. Issued bills keep the factors they were issued with.
+            </p>
+            <FactorsForm projectId={project.id} rows={factorRows} />
+          </details>
         </section>
       ) : null}
       <h2 className="mb-2">Issued revisions</h2>
@@ -79,6 +101,11 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
                   <a href={`/api/v1/projects/${project.id}/boq/${i.number}`} download>
                     Download issue {i.number} (.xlsx)
                   </a>
+                  {i.documentSha256 ? (
+                    <span className="ml-2 text-xs text-ink-500" title={`SHA-256 ${i.documentSha256}`}>
+                      kept as issued · SHA-256 {i.documentSha256.slice(0, 12)}…
+                    </span>
+                  ) : null}
                 </td>
               </tr>
             ))}

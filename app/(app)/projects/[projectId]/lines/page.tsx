@@ -67,6 +67,7 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
                 <th>Changed</th>
                 <th>Removed</th>
                 <th>Date</th>
+                <th>Original file</th>
               </tr>
             </thead>
             <tbody>
@@ -82,6 +83,19 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
                     <td className="num">{d.changed.length}</td>
                     <td className="num">{d.removed.length}</td>
                     <td>{r.createdAt.toISOString().slice(0, 16).replace('T', ' ')}</td>
+                    <td>
+                      {r.originalKey ? (
+                        <a
+                          href={`/api/v1/projects/${project.id}/lines/revisions/${r.number}/original`}
+                          download
+                          aria-label={`Download the original file of revision ${r.number}`}
+                        >
+                          Download ({Math.max(1, Math.round((r.originalBytes ?? 0) / 1024))} KB)
+                        </a>
+                      ) : (
+                        <span className="text-ink-500">not kept (imported before originals were stored)</span>
+                      )}
+                    </td>
                   </tr>
                 );
               })}

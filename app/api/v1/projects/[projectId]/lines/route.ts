@@ -1,6 +1,5 @@
 import { z } from 'zod';
-import { route, fieldsFromZod } from '@/lib/server/route';
-import { getProjectAccess } from '@/db/queries/projects';
+import { projectAccess, route, fieldsFromZod } from '@/lib/server/route';
 import { lineFilterSchema } from '@/lib/lines/filter';
 import { lineTablePage } from '@/lib/lines/picker';
 import { AppError } from '@/lib/errors';
@@ -24,14 +23,16 @@ const querySchema = lineFilterSchema.extend({
 });
 
 /** Server-side paginated, sorted and filtered line table. */
-export const GET = route<{ projectId: string }>(async ({ req, user, params }) => {
-  const { project } = await getProjectAccess({
-    userId: user.id,
-    projectId: params.projectId,
-    action: 'lines.read',
-  });
-  const q = querySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
-  if (!q.success)
-    throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
-  return Response.json(await lineTablePage({ projectId: project.id, ...q.data }));
-});
+export const GET = route<{ projectId: string }>(
+  async (ctx) => {
+    const { req, params } = ctx;
+    const { project } = await projectAccess(ctx, params.projectId, 'lines.read');
+    const q = querySchema.safeParse(Object.fromEntries(req.nextUrl.searchParams));
+    if (!q.success)
+      throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
+    const page = await lineTablePage({ projectId: project.id, ...q.data });
+    ctx.note({ rows: page.rows.length });
+    return Response.json(page);
+  },
+  { scope: 'lines:read' },
+);

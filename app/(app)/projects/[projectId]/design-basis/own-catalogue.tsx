@@ -104,7 +104,7 @@ function RemoveButton({
     >
       <input type="hidden" name="projectId" value={projectId} />
       <input type="hidden" name="id" value={id} />
-      <button className="btn-quiet" disabled={pending} aria-label={`Remove ${name}`}>
+      <button type="submit" className="btn-quiet" disabled={pending} aria-label={`Remove ${name}`}>
         {pending ? 'Removing…' : 'Remove'}
       </button>
       {result?.error?.[''] ? <span className="sr-only">{result.error[''].join(' ')}</span> : null}
@@ -152,9 +152,13 @@ export function OwnCatalogue({
     }
   }, [jResult]);
   // Changing an entry fills the one form with its values; cancelling (or saving) resets it to the defaults for a new one.
+  // Never on mount: a value typed before the page finished loading must not be wiped.
+  const mShown = useRef<OwnMaterial | null>(null),
+    jShown = useRef<OwnJacket | null>(null);
   useEffect(() => {
     const f = mForm.current;
-    if (!f) return;
+    if (!f || mShown.current === editM) return;
+    mShown.current = editM;
     f.reset();
     if (editM)
       fill(f, {
@@ -177,7 +181,8 @@ export function OwnCatalogue({
   }, [editM]);
   useEffect(() => {
     const f = jForm.current;
-    if (!f) return;
+    if (!f || jShown.current === editJ) return;
+    jShown.current = editJ;
     f.reset();
     if (editJ) {
       fill(f, { name: editJ.name, emittance: editJ.emittance, source: editJ.source });
@@ -475,7 +480,7 @@ export function OwnCatalogue({
               </Field>
             </div>
             <div className="flex gap-2">
-              <button className="btn-primary" disabled={mPending}>
+              <button type="submit" className="btn-primary" disabled={mPending}>
                 {mPending ? 'Saving…' : editM ? 'Save changes' : 'Add material'}
               </button>
               {editM ? (
@@ -551,7 +556,7 @@ export function OwnCatalogue({
               />
             </Field>
             <div className="flex gap-2">
-              <button className="btn-primary" disabled={jPending}>
+              <button type="submit" className="btn-primary" disabled={jPending}>
                 {jPending ? 'Saving…' : editJ ? 'Save changes' : 'Add jacket'}
               </button>
               {editJ ? (

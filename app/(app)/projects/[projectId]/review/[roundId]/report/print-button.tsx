@@ -1,7 +1,7 @@
 'use client';
 export function PrintButton() {
   return (
-    <button className="btn-quiet" onClick={() => window.print()}>
+    <button type="button" className="btn-quiet" onClick={() => window.print()}>
       Print or save as PDF
     </button>
   );

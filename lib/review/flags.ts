@@ -83,16 +83,6 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
       message: `The chosen thickness is below what ${f.design.belowCriterion} requires.`,
     });
 
-  // Corrosion under insulation (lib/lines/cui.ts): a screen for the reviewer, when the project asks for the flag.
-  if (basis.cui?.reviewFlag) {
-    const screen = cuiScreenFor(basis, l);
-    if (screen.inWindow) {
-      flags.push({
-        type: 'cui',
-        message: `In a corrosion-under-insulation window: ${screen.findings.map(describeCuiFinding).join('; ')}.${screen.coatingNote ? ' Coating required under the insulation.' : ''}${screen.chlorideFreeInsulation ? ' Chloride-free insulation (ASTM C795) required.' : ''}`,
-      });
-    }
-  }
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);
@@ -186,6 +176,16 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
         limitC: need,
         conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`,
         message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).`,
+      });
+    }
+  }
+  // Corrosion under insulation (lib/lines/cui.ts): a screen for the reviewer, when the project asks for the flag (after the hazards, which the disposition answers).
+  if (basis.cui?.reviewFlag) {
+    const screen = cuiScreenFor(basis, l);
+    if (screen.inWindow) {
+      flags.push({
+        type: 'cui',
+        message: `In a corrosion-under-insulation window: ${screen.findings.map(describeCuiFinding).join('; ')}.${screen.coatingNote ? ' Coating required under the insulation.' : ''}${screen.chlorideFreeInsulation ? ' Chloride-free insulation (ASTM C795) required.' : ''}`,
       });
     }
   }

@@ -83,9 +83,16 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   await page.getByRole('link', { name: 'Report' }).click();
   await expect(page.getByTestId('signoff')).toContainText('Signed off by Mira Castell');
   const report = page.getByRole('table', { name: 'Flagged surfaces' });
-  await expect(report.locator('tr[data-tag]')).toHaveCount(2);
+  // A row per flag: RW-1 over the touch limit; RW-2 (160–170 °C) over it and in the carbon-steel
+  // corrosion-under-insulation window (to 175 °C), which new projects flag for review.
+  await expect(report.locator('tr[data-tag]')).toHaveCount(3);
   await expect(report.locator('tr[data-tag="RW-1"]')).toContainText('Guard or cage');
-  await expect(report.locator('tr[data-tag="RW-2"]')).toContainText('Warning sign and restricted access');
+  await expect(report.locator('tr[data-tag="RW-2"]').first()).toContainText(
+    'Warning sign and restricted access',
+  );
+  await expect(report.locator('tr[data-tag="RW-2"]').nth(1)).toContainText(
+    'Corrosion-under-insulation window',
+  );
   await expect(report.locator('tr[data-tag="RW-3"]')).toHaveCount(0);
   await expect(page.getByText('Final decisions follow local codes and a qualified person.')).toBeVisible();
 });

@@ -136,7 +136,7 @@ test('dispositions fit the hazard and a second review round carries over unchang
   ]);
   // The SI picker, for the screenshot: °C and mm, the personnel temperature beside its 56 °C limit (5 s contact, bare metal).
   const { label } = await recommendedOption(page, 'CW-H');
-  expect(label).toMatch(/personnel \d+\.\d °C \(limit 60\.0 °C\)/);
+  expect(label).toMatch(/personnel \d+\.\d °C \(limit 56\.0 °C\)/);
   const cLabel = (await recommendedOption(page, 'CW-C')).label;
   expect(cLabel).toMatch(/condensation \d+\.\d °C \(min \d+\.\d °C\)/);
   await page.screenshot({ path: `${SHOTS}/picker-si.png` });

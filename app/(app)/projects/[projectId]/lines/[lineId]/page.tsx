@@ -595,8 +595,8 @@ export default async function LinePage({
         {cui.inWindow ? (
           <>
             <ul className="space-y-0.5 text-sm">
-              {cui.findings.map((f, i) => (
-                <li key={i}>{msg(describeCuiFinding(f))}</li>
+              {cui.findings.map((f) => (
+                <li key={f.source}>{msg(describeCuiFinding(f))}</li>
               ))}
             </ul>
             {cui.coatingNote ? <p className="mt-1 text-sm">Specification: {cui.coatingNote}</p> : null}

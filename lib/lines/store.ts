@@ -17,7 +17,7 @@ import {
   type Line,
 } from '@/db/schema';
 import { AppError } from '@/lib/errors';
-import { CALCULATION_VERSION, HARD_CRITERIA, type MaterialSystem } from '@/lib/thermal';
+import { HARD_CRITERIA } from '@/lib/thermal';
 import { actorName, writeAudit } from '@/lib/audit';
 import {
   DEFAULT_DESIGN_BASIS,
@@ -31,8 +31,7 @@ import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from '
 import { suggestMapping, type ColumnMapping } from './mapping';
 import { describeCsv, parseUpload, ParseError, viewSheet, type ParsedFile } from './parse';
 import { HEADER_SCAN_ROWS } from './header';
-import { inputHash, solveLine } from './solve-line';
-import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
+import { validateSheet, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
 import type { CandidateRow } from './deciding';
 import { inputOf, resultContext, resultRow } from './result-row';

@@ -29,7 +29,9 @@ async function signedIn(role, viewport = { width: 1440, height: 900 }) {
   await page.getByLabel('Password', { exact: true }).fill(USERS[role][1]);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL(/\/projects$/);
-  const href = await page.getByRole('link', { name: 'Brack Point steam network upgrade' }).getAttribute('href');
+  const href = await page
+    .getByRole('link', { name: 'Brack Point steam network upgrade' })
+    .getAttribute('href');
   return { ctx, page, project: href };
 }
 
@@ -150,7 +152,8 @@ for (const role of Object.keys(USERS)) {
   // the first line's own page
   await page.goto(`${BASE}${project}/lines`);
   const a = page.locator('tr[data-tag] a').first();
-  if (await a.isVisible({ timeout: 8000 }).catch(() => false)) targets.push(`${BASE}${await a.getAttribute('href')}`);
+  if (await a.isVisible({ timeout: 8000 }).catch(() => false))
+    targets.push(`${BASE}${await a.getAttribute('href')}`);
   for (const t of targets) {
     await page.goto(t);
     await page.locator('h1').first().waitFor();

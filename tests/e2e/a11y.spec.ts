@@ -57,7 +57,11 @@ for (const role of ROLES) {
     await visit('/review', 'review queue');
     await visit('/budget', 'budget');
     await visit('/boq', 'bill of quantities');
-    expect(titles).toContain('Line list · BP-STM-24 · Lagwise');
+    // The contractor reads the bill only: the other pages answer with their section's name alone.
+    expect(titles).toContain(
+      role === 'contractor' ? 'Line list · Lagwise' : 'Line list · BP-STM-24 · Lagwise',
+    );
+    expect(titles).toContain('Bill of quantities · BP-STM-24 · Lagwise');
   });
 }
 
@@ -138,9 +142,11 @@ test('units as written: headers keep their case, numbers right-aligned under rig
   await expect(page.locator('th[data-col="heatLossLinear"]')).toHaveText('Heat loss W/m');
   expect(await page.locator('th[data-col="heatLossLinear"]').innerText()).toBe('Heat loss W/m');
   expect(await page.locator('th[data-col="heatLossAreal"]').innerText()).toBe('Heat loss W/m²');
-  expect(await page.getByLabel('Search tag or service').evaluate((i) => (i as HTMLInputElement).labels?.[0]?.innerText)).toBe(
-    'Search tag or service',
-  );
+  expect(
+    await page
+      .getByLabel('Search tag or service')
+      .evaluate((i) => (i as HTMLInputElement).labels?.[0]?.innerText),
+  ).toBe('Search tag or service');
   for (const col of ['normalTempC', 'recommendedMm', 'surfaceTempC', 'heatLossLinear']) {
     expect(await page.locator(`th[data-col="${col}"]`).evaluate((e) => getComputedStyle(e).textAlign)).toBe(
       'right',

@@ -25,7 +25,7 @@ for (const role of ROLES) {
   test(`as the ${role}: projects, line list, a line, design basis, review queue, budget and bill pass axe, each with its own title`, async ({
     page,
   }) => {
-    test.setTimeout(180_000);
+    test.setTimeout(420_000); // eight pages, each through axe, on a loaded 2-core machine
     const u = demo(role);
     await signIn(page, u.email, u.password);
     await expectNoSeriousViolations(page, `${role} projects`);

@@ -723,7 +723,8 @@ function cellTarget(td: HTMLElement): HTMLElement {
 }
 
 /** Numbers right-aligned under right-aligned headers; the tag stays in view when the table scrolls sideways; the
- * columns a 768 px tablet can spare are left out below 1024 px so tag, status and picker fit. */
+ * columns a 768 px tablet can spare are left out below 1024 px so tag, status and picker fit (a vessel's
+ * loss per area is on its own page there). */
 const NUMERIC_COLS = new Set([
   'normalTempC',
   'recommendedMm',
@@ -732,7 +733,7 @@ const NUMERIC_COLS = new Set([
   'heatLossAreal',
   'margin',
 ]);
-const NARROW_HIDDEN = new Set(['service', 'governing', 'surfaceTempC', 'margin']);
+const NARROW_HIDDEN = new Set(['service', 'area', 'governing', 'surfaceTempC', 'heatLossAreal', 'margin']);
 function colClass(id: string): string {
   return [
     NUMERIC_COLS.has(id) ? 'num' : '',

@@ -1,7 +1,8 @@
 import type { Config } from 'tailwindcss';
 
 // Lagwise palette: "slate-ink" neutrals for dense tables, a mineral teal for actions,
-// and a warm ochre reserved for warnings about hot or sweating surfaces.
+// and a warm ochre reserved for warnings about hot or sweating surfaces. ink-500 is the lightest text
+// colour (≥ 4.5:1 on ink-100), ink-400 the lightest border of a control (≥ 3:1 on white).
 const config: Config = {
   content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}'],
   theme: {
@@ -12,8 +13,8 @@ const config: Config = {
           100: '#eceef1',
           200: '#d5d9df',
           300: '#b1b9c3',
-          400: '#87929f',
-          500: '#677482',
+          400: '#7d8997',
+          500: '#5d6a77',
           600: '#525d69',
           700: '#434c56',
           800: '#3a4149',

@@ -12,11 +12,11 @@ export function ProjectSwitcher({ projects, current }: { projects: SwitcherProje
   const router = useRouter();
   const orgs = [...new Set(projects.map((p) => p.organizationName))];
   return (
-    <label className="flex items-center gap-2 text-sm">
+    <label className="flex min-w-0 max-w-full items-center gap-2 text-sm">
       <span className="sr-only">Project</span>
       <select
         aria-label="Project"
-        className="max-w-[22rem] rounded border border-ink-600 bg-ink-800 px-2 py-1 text-sm text-ink-50"
+        className="w-full min-w-0 max-w-[22rem] rounded border border-ink-600 bg-ink-800 px-2 py-1 text-sm text-ink-50"
         value={current ?? ''}
         onChange={(e) => router.push(e.target.value ? `/projects/${e.target.value}` : '/projects')}
       >

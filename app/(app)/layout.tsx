@@ -12,7 +12,10 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   const projects = await listProjectsForUser({ userId: user.id });
   return (
     <div className="min-h-screen">
-      <header className="flex h-12 items-center gap-4 bg-ink-900 px-4 text-ink-100">
+      <a href="#main" className="skip-link">
+        Skip to main content
+      </a>
+      <header className="app-header flex min-h-12 flex-wrap items-center gap-x-4 gap-y-1 bg-ink-900 px-3 py-1.5 text-ink-100 sm:px-4">
         <Link href="/projects" className="flex items-center gap-2 text-ink-50 no-underline hover:text-white">
           <LogoMark size={22} />
           <span className="font-semibold">Lagwise</span>
@@ -20,8 +23,8 @@ export default async function AppLayout({ children }: { children: React.ReactNod
         <CurrentProject>
           <ProjectSwitcher projects={projects} />
         </CurrentProject>
-        <div className="ml-auto flex items-center gap-3 text-sm">
-          <span className="text-ink-300" data-testid="user-email">
+        <div className="ml-auto flex min-w-0 items-center gap-3 text-sm">
+          <span className="hidden truncate text-ink-300 md:inline" data-testid="user-email">
             {user.email}
           </span>
           <Link href="/account" className="text-ink-200 hover:text-white">

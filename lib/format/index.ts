@@ -244,6 +244,9 @@ export interface Formatter {
   linearLoss: (wPerM: number | null | undefined) => string;
   arealLoss: (wPerM2: number | null | undefined) => string;
   heatFlowPerUnit: (v: number | null | undefined, surface: boolean) => string;
+  /** The number only, for a column whose header carries the unit (one unit per column). */
+  linearLossValue: (wPerM: number | null | undefined) => string;
+  arealLossValue: (wPerM2: number | null | undefined) => string;
   power: (w: number | null | undefined) => string;
   energy: (mwh: number | null | undefined) => string;
   conductivity: (wPerMK: number | null | undefined) => string;
@@ -270,10 +273,12 @@ export function formatter(o: FormatOptions): Formatter {
     if (series === 'inch') return fractionalInches(convert.mmToIn(mm));
     return us ? `${sig(convert.mmToIn(mm), 3)} in` : `${sig(mm, 4)} mm`;
   };
-  const linearLoss = (w: number | null | undefined) =>
-    missing(w) ? DASH : withUnit(sig(us ? convert.wPerMToBtuPerHFt(w) : w, 3), u.linearLoss);
-  const arealLoss = (w: number | null | undefined) =>
-    missing(w) ? DASH : withUnit(sig(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 3), u.arealLoss);
+  const linearLossValue = (w: number | null | undefined) =>
+    missing(w) ? DASH : sig(us ? convert.wPerMToBtuPerHFt(w) : w, 3);
+  const arealLossValue = (w: number | null | undefined) =>
+    missing(w) ? DASH : sig(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 3);
+  const linearLoss = (w: number | null | undefined) => withUnit(linearLossValue(w), u.linearLoss);
+  const arealLoss = (w: number | null | undefined) => withUnit(arealLossValue(w), u.arealLoss);
   return {
     system: o.unitSystem,
     series,
@@ -300,6 +305,8 @@ export function formatter(o: FormatOptions): Formatter {
     linearLoss,
     arealLoss,
     heatFlowPerUnit: (v, surface) => (surface ? arealLoss(v) : linearLoss(v)),
+    linearLossValue,
+    arealLossValue,
     power: (w) =>
       missing(w)
         ? DASH

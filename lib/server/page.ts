@@ -28,3 +28,26 @@ export async function orNotFound<T>(p: Promise<T>): Promise<T> {
     throw e;
   }
 }
+
+/**
+ * A page title that tells one project's page from another's in the browser's tabs and history
+ * ("Line list · BP-STM-24"); the same access check as the page itself, and only the section's name
+ * for a project the user cannot see (the page answers 404 or "denied" anyway).
+ */
+export async function projectPageTitle(
+  projectId: string,
+  section: string,
+  action: Action = 'project.view',
+  detail?: (projectIdChecked: string) => Promise<string | null>,
+): Promise<string> {
+  try {
+    const { allowed, project } = await loadProject(projectId, action);
+    if (!allowed) return section;
+    const extra = detail ? await detail(project.id).catch(() => null) : null;
+    return [extra, section, project.code].filter(Boolean).join(' · ');
+  } catch (e) {
+    // notFound() and redirects from the page's own checks are not the title's business.
+    if (isAppError(e)) return section;
+    return section;
+  }
+}

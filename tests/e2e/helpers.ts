@@ -63,6 +63,7 @@ export async function createProjectWithLines(page: Page, name: string, rows: (st
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
   const file = join(mkdtempSync(join(tmpdir(), 'lagwise-e2e-')), 'lines.xlsx');
   writeFileSync(file, await lineListWorkbook(rows));
+  await openImport(page);
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await page.getByRole('button', { name: 'Check the rows' }).click();
@@ -154,4 +155,13 @@ export async function solveStaleLines(page: Page, n: number) {
   await page.getByRole('button', { name: 'Solve stale lines' }).click();
   await expect(page.getByRole('status')).toContainText('Solving the stale lines in the background');
   await expect(done).toHaveCount(before + 1, { timeout: 60_000 });
+}
+
+/** The import panel is folded once a project has a revision: opens it (nothing to do when it is open). */
+export async function openImport(page: Page) {
+  const toggle = page.getByRole('button', { name: 'Import a new revision' });
+  await expect(async () => {
+    if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click();
+    await expect(toggle).toHaveAttribute('aria-expanded', 'true', { timeout: 2_000 });
+  }).toPass();
 }

@@ -2,7 +2,7 @@ import { expect, test } from './fixtures';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { demo, lineRow, signIn } from './helpers';
+import { demo, lineRow, signIn, openImport } from './helpers';
 import { lineListWorkbook } from '../../seed/line-list';
 
 test('an import runs as a background job: a progress bar with counts, and it finishes after leaving the page and coming back', async ({
@@ -24,6 +24,7 @@ test('an import runs as a background job: a progress bar with counts, and it fin
   );
   const file = join(mkdtempSync(join(tmpdir(), 'lagwise-e2e-')), 'lines.xlsx');
   writeFileSync(file, await lineListWorkbook(rows));
+  await openImport(page);
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await page.getByRole('button', { name: 'Check the rows' }).click();

@@ -2,7 +2,7 @@ import { expect, test, type Page } from './fixtures';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { demo, signIn } from './helpers';
+import { demo, signIn, openImport } from './helpers';
 import { semicolon1252Csv, titleRowsWorkbook } from '../fixtures/messy-lines';
 
 const FILE_LABEL = 'Line-list file (.xlsx or .csv, up to 20 MB)';
@@ -32,6 +32,7 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   writeFileSync(file, await titleRowsWorkbook());
 
   // Reading: the header is found on row 4 under the title, revision and blank rows.
+  await openImport(page);
   await page.getByLabel(FILE_LABEL).setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   const headerRow = page.getByLabel('Header row (the column names)');
@@ -69,6 +70,7 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   expect(await lineCount(page, id)).toBe(0);
 
   // Again, to the end.
+  await openImport(page);
   await page.getByLabel(FILE_LABEL).setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(headerRow).toHaveValue('4');
@@ -91,6 +93,7 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   expect(await lineCount(page, id)).toBe(4);
 
   // The next revision asks nothing: the answers were kept with the project's mapping.
+  await openImport(page);
   await page.getByLabel(FILE_LABEL).setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await page.getByRole('button', { name: 'Check the rows' }).click();
@@ -106,6 +109,7 @@ test('a Windows-1252 semicolon CSV says how it was read and imports with decimal
   const id = await newProject(page, 'European CSV');
   const file = join(mkdtempSync(join(tmpdir(), 'lagwise-e2e-')), 'isolierliste.csv');
   writeFileSync(file, semicolon1252Csv());
+  await openImport(page);
   await page.getByLabel(FILE_LABEL).setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('How the file was read')).toHaveText(

@@ -3,7 +3,7 @@ import ExcelJS from 'exceljs';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { demo, openDemoProject, signIn } from './helpers';
+import { demo, openDemoProject, signIn, openImport } from './helpers';
 import { TEMPLATE_HEADERS, lineListWorkbook } from '../../seed/line-list';
 
 const row = (tag: string, nps: string, temp: number, purpose: string): (string | number | null)[] =>
@@ -55,6 +55,7 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
       row('E-103', '3', 6, 'C'),
     ]),
   );
+  await openImport(page);
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('Column for Line / equipment tag')).toHaveValue('0');
@@ -116,6 +117,7 @@ test('a file with errors is refused with row and column, and nothing is imported
   const dir = mkdtempSync(join(tmpdir(), 'lagwise-e2e-'));
   const file = join(dir, 'broken.xlsx');
   writeFileSync(file, await lineListWorkbook([row('B-1', '4', 180, 'H'), row('B-1', 'huge', 180, 'H')]));
+  await openImport(page);
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await page.getByRole('button', { name: 'Check the rows' }).click();
@@ -128,6 +130,7 @@ test('a file with errors is refused with row and column, and nothing is imported
 
   const txt = join(dir, 'notes.txt');
   writeFileSync(txt, 'hello');
+  await openImport(page);
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(txt);
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByRole('alert').filter({ hasText: /xlsx workbook or a \.csv/ })).toBeVisible();

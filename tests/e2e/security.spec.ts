@@ -1,6 +1,6 @@
 import { readFileSync, existsSync } from 'node:fs';
 import { expect, test, type APIResponse } from './fixtures';
-import { demo, openDemoProject, signIn, signUpConfirmed } from './helpers';
+import { demo, openDemoProject, signIn, signUpConfirmed, openImport } from './helpers';
 import { SERVER_LOG } from '../../playwright.config';
 
 /** Runs against the production build (`next start`), as every end-to-end test does. */
@@ -205,6 +205,7 @@ test('a failing write leaves no request data in the server log', async ({ page }
   const marker = `MARKER-${Date.now()}-CONFIDENTIAL`;
   const csv = `Line tag,Service,NPS\n${marker}\u0000,${marker},4\n`;
   const before = readFileSync(log, 'utf8').length;
+  await openImport(page);
   await page
     .getByLabel(/Line-list file/)
     .setInputFiles({ name: 'nul.csv', mimeType: 'text/csv', buffer: Buffer.from(csv, 'utf8') });

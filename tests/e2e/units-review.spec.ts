@@ -53,15 +53,18 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   const row = page.locator('tr[data-tag="US-1"]');
   await expect(row.locator('td').nth(4)).toHaveText('428.0');
   await expect(page.getByRole('columnheader', { name: /T °F/ })).toBeVisible();
-  await expect(row).toContainText('Btu/h·ft');
+  // One unit per column, in its header: heat loss per foot for pipes (per ft² for vessels in their own column).
+  await expect(page.getByRole('columnheader', { name: 'Heat loss Btu/h·ft', exact: true })).toBeVisible();
+  await expect(page.getByRole('columnheader', { name: 'Heat loss Btu/h·ft²', exact: true })).toBeVisible();
+  await expect(row.locator('td[data-col="heatLossLinear"]')).toHaveText(/^\d+(\.\d+)?$/);
   // The inch series in fractions of an inch, never "38.1 mm" or float noise.
   const rec = (await row.locator('td').nth(5).innerText()).trim();
   expect(rec).toMatch(/^(\d+|\d+-\d+\/\d+|\d+\/\d+)"$/);
   // The picker: each candidate with the personnel surface temperature beside the 132.8 °F touch limit (ISO 13732-1, bare metal at 5 s).
   const { select, value, label } = await recommendedOption(page, 'US-1');
-  expect(label).toContain(`${rec} ★`);
+  expect(label).toContain(`${rec} ★ recommended`);
   expect(label).toMatch(/personnel \d+\.\d °F \(limit 132\.8 °F\)/);
-  expect(label).toMatch(/heat loss \d+\.\d °F, [\d.,]+ Btu\/h·ft/);
+  expect(label).toMatch(/heat loss [\d.,]+ Btu\/h·ft \(surface \d+\.\d °F\)/);
   const bare = select.locator('option[value="0"]');
   const bareText = (await bare.textContent())!;
   const barePersonnelF = Number(/personnel ([\d.]+) °F/.exec(bareText)![1]);
@@ -72,7 +75,7 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   await row.getByRole('button', { name: 'Save' }).click();
   await expect(row.getByText('undecided')).toHaveCount(0);
   // Worst margin at the chosen thickness: the touch limit minus the personnel temperature, in °F.
-  await expect(row.locator('td').nth(9)).toHaveText(/^\+\d+\.\d °F personnel$/);
+  await expect(row.locator('td').nth(10)).toHaveText(/^\+\d+\.\d °F personnel$/);
 
   await row.getByRole('link', { name: 'US-1' }).click();
   await expect(page.getByRole('heading', { level: 1, name: 'US-1' })).toBeVisible();

@@ -8,7 +8,7 @@ export const metadata = { title: 'Your account' };
 export default async function AccountPage() {
   const { user } = await requireUser();
   return (
-    <main className="mx-auto max-w-5xl px-6 py-8">
+    <main id="main" className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-4">Your account</h1>
       <p className="mb-6 text-sm text-ink-600">
         {user.name} · {user.email}

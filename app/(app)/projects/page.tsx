@@ -16,7 +16,7 @@ export default async function ProjectsPage() {
   ]);
   const creatable = orgs.filter((o) => can(o.role, 'project.create'));
   return (
-    <main className="mx-auto max-w-5xl px-6 py-8">
+    <main id="main" className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-4">Projects</h1>
       {projects.length === 0 ? (
         <EmptyState title="No projects yet">

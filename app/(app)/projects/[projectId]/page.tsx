@@ -1,7 +1,11 @@
 import Link from 'next/link';
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { projectProgress } from '@/lib/lines/progress';
+
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Overview') };
+}
 
 export default async function ProjectOverview({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

@@ -10,12 +10,12 @@ export default async function CompanySignInPage({ params }: { params: Promise<{ 
   const { allowed } = await loadOrganization(orgId, 'org.settings');
   if (!allowed)
     return (
-      <main className="p-6">
+      <main id="main" className="p-6">
         <Denied what="Company sign-in settings" />
       </main>
     );
   return (
-    <main className="mx-auto max-w-5xl px-6 py-8">
+    <main id="main" className="mx-auto max-w-5xl px-6 py-8">
       <h1 className="mb-2">Company sign-in</h1>
       <p className="mb-4 max-w-2xl text-sm text-ink-600">
         People of your organization sign in with their company account (OpenID Connect). A company account is

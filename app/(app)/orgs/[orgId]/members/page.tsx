@@ -17,7 +17,7 @@ export default async function MembersPage({ params }: { params: Promise<{ orgId:
   const { user, role, allowed } = await loadOrganization(orgId, 'members.read');
   if (!allowed)
     return (
-      <main className="p-6">
+      <main id="main" className="p-6">
         <Denied what="The member list" />
       </main>
     );
@@ -28,7 +28,7 @@ export default async function MembersPage({ params }: { params: Promise<{ orgId:
     manage ? listMembershipRequests({ organizationId: orgId }) : [],
   ]);
   return (
-    <main className="mx-auto max-w-5xl px-6 py-8">
+    <main id="main" className="mx-auto max-w-5xl px-6 py-8">
       <div className="mb-4 flex items-baseline justify-between">
         <h1>Members</h1>
         {can(role, 'org.settings') ? (

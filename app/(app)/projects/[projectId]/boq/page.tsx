@@ -1,4 +1,4 @@
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { getIssue, listIssues, materialPricesByName, previewBill, unchangedSince } from '@/lib/boq/store';
@@ -8,7 +8,9 @@ import { getDesignBasis } from '@/lib/lines/store';
 import { fixed, formatterFor } from '@/lib/format';
 import { IssueButton } from './issue-button';
 
-export const metadata = { title: 'Bill of quantities' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Bill of quantities', 'boq.read') };
+}
 
 export default async function BoqPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

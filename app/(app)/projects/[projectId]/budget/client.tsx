@@ -48,9 +48,21 @@ export function AreaChart({
           <Tooltip
             formatter={(v) => (typeof v === 'number' ? `${sig(v, 3)} ${us ? 'MBH' : 'kW'}` : String(v))}
           />
-          <Legend verticalAlign="top" height={24} />
+          <Legend
+            verticalAlign="top"
+            height={24}
+            formatter={(v) => <span style={{ color: '#23282e' }}>{v}</span>}
+          />
           <Bar dataKey="designedKW" name="Designed" fill="#257a74" isAnimationActive={false} />
-          <Bar dataKey="allocation" name="Allocation" fill="#eec062" isAnimationActive={false} />
+          <Bar
+            dataKey="allocation"
+            name="Allocation"
+            fill="#fdf8ec"
+            stroke="#a15a1c"
+            strokeWidth={2}
+            strokeDasharray="4 2"
+            isAnimationActive={false}
+          />
         </BarChart>
       </ResponsiveContainer>
     </div>

@@ -1,4 +1,4 @@
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
@@ -7,7 +7,9 @@ import { getDesignBasis, listAreas } from '@/lib/lines/store';
 import { formatterFor, localizeMessage } from '@/lib/format';
 import { AreaChart, BudgetForm, TotalsTable, WhatIfPanel } from './client';
 
-export const metadata = { title: 'Heat-loss budget' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Heat-loss budget', 'budget.read') };
+}
 
 export default async function BudgetPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

@@ -1,4 +1,4 @@
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { getDesignBasis } from '@/lib/lines/store';
@@ -7,7 +7,9 @@ import { catalogueOf } from '@/lib/lines/catalogue';
 import { BasisForm } from './basis-form';
 import { OwnCatalogue } from './own-catalogue';
 
-export const metadata = { title: 'Design basis' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Design basis', 'lines.read') };
+}
 
 export default async function DesignBasisPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

@@ -1,6 +1,7 @@
 'use client';
 import Link from 'next/link';
-import { useEffect, useMemo, useRef, useState, useTransition } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, useTransition } from 'react';
+import { useRouter } from 'next/navigation';
 import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
 import {
   createColumnHelper,
@@ -125,6 +126,152 @@ export function LineTable({
     placeholderData: keepPreviousData,
   });
   const refresh = () => qc.invalidateQueries({ queryKey: ['lines', projectId] });
+  const router = useRouter();
+  const boxRef = useRef<HTMLDivElement>(null);
+  const messageRef = useRef<HTMLParagraphElement>(null);
+  // The grid's one Tab stop (row, column among the visible cells): arrow keys move it.
+  const active = useRef({ r: 0, c: 0 });
+  const [announce, setAnnounce] = useState('');
+  const pagedBy = useRef<'next' | 'previous' | null>(null);
+  const [density, setDensity] = useState<'compact' | 'comfortable'>('compact');
+  useEffect(() => {
+    const d = localStorage.getItem('lagwise.lineTable.density');
+    if (d === 'comfortable') setDensity(d);
+  }, []);
+
+  /** The body's cells row by row, only those shown at this width. */
+  const gridCells = useCallback((): HTMLTableCellElement[][] => {
+    const rows = boxRef.current?.querySelectorAll('tbody tr[data-tag]') ?? [];
+    return [...rows].map((tr) =>
+      [...tr.querySelectorAll<HTMLTableCellElement>(':scope > td')].filter(
+        (td) => td.getClientRects().length > 0,
+      ),
+    );
+  }, []);
+  /** Roving tab stop: every control in the body leaves the Tab order except the active cell's. */
+  const syncTabStops = useCallback(() => {
+    const box = boxRef.current;
+    if (!box) return;
+    for (const el of box.querySelectorAll<HTMLElement>(
+      'tbody td, tbody a, tbody select, tbody input, tbody button',
+    ))
+      el.tabIndex = -1;
+    const grid = gridCells();
+    if (!grid.length) return;
+    const r = Math.min(active.current.r, grid.length - 1);
+    const c = Math.min(active.current.c, grid[r].length - 1);
+    active.current = { r, c };
+    const td = grid[r][c];
+    cellTarget(td).tabIndex = 0;
+    for (const el of td.querySelectorAll<HTMLElement>('select, input, button')) el.tabIndex = 0;
+  }, [gridCells]);
+  useEffect(() => {
+    syncTabStops();
+  });
+
+  function onGridKey(e: React.KeyboardEvent) {
+    const t = e.target as HTMLElement;
+    const td = t.closest('td');
+    if (!td?.closest('tbody')) return;
+    const onCell = t === cellTarget(td);
+    if (!onCell) {
+      // Inside the picker: Escape hands the arrow keys back to the grid.
+      if (e.key === 'Escape') {
+        e.preventDefault();
+        cellTarget(td).focus();
+      }
+      return;
+    }
+    const grid = gridCells();
+    const r = grid.findIndex((row) => row.includes(td as HTMLTableCellElement));
+    if (r < 0) return;
+    const c = grid[r].indexOf(td as HTMLTableCellElement);
+    let [nr, nc] = [r, c];
+    switch (e.key) {
+      case 'ArrowDown':
+        nr = r + 1;
+        break;
+      case 'ArrowUp':
+        nr = r - 1;
+        break;
+      case 'ArrowRight':
+        nc = c + 1;
+        break;
+      case 'ArrowLeft':
+        nc = c - 1;
+        break;
+      case 'PageDown':
+        nr = r + 10;
+        break;
+      case 'PageUp':
+        nr = r - 10;
+        break;
+      case 'Home':
+        nc = 0;
+        if (e.ctrlKey) nr = 0;
+        break;
+      case 'End':
+        nc = grid[r].length - 1;
+        if (e.ctrlKey) nr = grid.length - 1;
+        break;
+      case 'Enter':
+      case 'F2': {
+        // Enter on the tag follows its link (the browser's own); on the picker it enters the picker;
+        // anywhere else it opens the line.
+        const control = td.querySelector<HTMLElement>('select, input, button');
+        if (control) {
+          e.preventDefault();
+          control.focus();
+        } else if (t.tagName !== 'A') {
+          const href = td.closest('tr')?.querySelector('a')?.getAttribute('href');
+          if (href) {
+            e.preventDefault();
+            router.push(href);
+          }
+        }
+        return;
+      }
+      default:
+        return;
+    }
+    e.preventDefault();
+    nr = Math.max(0, Math.min(grid.length - 1, nr));
+    nc = Math.max(0, Math.min(grid[nr].length - 1, nc));
+    active.current = { r: nr, c: nc };
+    syncTabStops();
+    const target = cellTarget(grid[nr][nc]);
+    target.focus();
+    target.scrollIntoView({ block: 'nearest', inline: 'nearest' });
+  }
+  function onGridFocus(e: React.FocusEvent) {
+    const td = (e.target as HTMLElement).closest('td');
+    if (!td?.closest('tbody')) return;
+    const grid = gridCells();
+    const r = grid.findIndex((row) => row.includes(td as HTMLTableCellElement));
+    if (r < 0) return;
+    const c = grid[r].indexOf(td as HTMLTableCellElement);
+    if (r !== active.current.r || c !== active.current.c) {
+      active.current = { r, c };
+      syncTabStops();
+    }
+  }
+
+  /** After a pick: the picker of that row has the focus again (it remounts on the new version), and the result is announced. */
+  async function afterPick(row: Row, mm: number) {
+    await refresh();
+    setAnnounce(`${row.tag}: ${u.thickness(mm)} saved.`);
+    requestAnimationFrame(() => {
+      const td = boxRef.current?.querySelector<HTMLElement>(
+        `tr[data-row-id="${row.id}"] td[data-col="pick"]`,
+      );
+      if (td && (document.activeElement === document.body || !document.activeElement?.isConnected))
+        td.focus();
+    });
+  }
+  function goToPage(p: number, how: 'next' | 'previous') {
+    pagedBy.current = how;
+    setPage(p);
+  }
 
   // biome-ignore lint/correctness/useExhaustiveDependencies: the columns change with the project, the role and the display units only; the row callbacks read current state through the query
   const columns = useMemo(
@@ -137,8 +284,15 @@ export function LineTable({
           </Link>
         ),
       }),
-      ch.accessor('service', { header: 'Service', enableSorting: false }),
-      ch.accessor('area', { header: 'Area' }),
+      ch.accessor('service', {
+        header: 'Service',
+        enableSorting: false,
+        cell: (c) => <Truncated text={c.getValue()} width="max-w-[11rem]" />,
+      }),
+      ch.accessor('area', {
+        header: 'Area',
+        cell: (c) => <Truncated text={c.getValue()} width="max-w-[9rem]" />,
+      }),
       ch.accessor('outsideDiameterMm', {
         header: 'Size',
         cell: (c) =>
@@ -152,11 +306,11 @@ export function LineTable({
       }),
       ch.accessor('normalTempC', {
         header: `T ${u.units.temp}`,
-        cell: (c) => <span className="num block">{u.tempValue(c.getValue())}</span>,
+        cell: (c) => u.tempValue(c.getValue()),
       }),
       ch.accessor('recommendedMm', {
-        header: 'Rec. thickness',
-        cell: (c) => <span className="num block">{u.thickness(c.getValue())}</span>,
+        header: 'Recommended',
+        cell: (c) => u.thickness(c.getValue()),
       }),
       ch.accessor('governing', {
         header: 'Governs',
@@ -164,16 +318,20 @@ export function LineTable({
       }),
       ch.accessor('surfaceTempC', {
         header: `Surface ${u.units.temp}`,
-        cell: (c) => <span className="num block">{u.tempValue(c.getValue())}</span>,
+        cell: (c) => u.tempValue(c.getValue()),
       }),
-      // Each cell carries its own unit: pipes in per-length, vessels and flat surfaces in per-area.
+      // One unit per column: pipes lose heat per length, vessels and flat surfaces per area.
       ch.accessor('heatFlowPerUnit', {
-        header: 'Heat loss',
-        cell: (c) => (
-          <span className="num block whitespace-nowrap">
-            {u.heatFlowPerUnit(c.getValue(), isSurfaceGeometry(c.row.original.geometry))}
-          </span>
-        ),
+        id: 'heatLossLinear',
+        header: `Heat loss ${u.units.linearLoss}`,
+        enableSorting: false,
+        cell: (c) => (isSurfaceGeometry(c.row.original.geometry) ? '' : u.linearLossValue(c.getValue())),
+      }),
+      ch.accessor('heatFlowPerUnit', {
+        id: 'heatLossAreal',
+        header: `Heat loss ${u.units.arealLoss}`,
+        enableSorting: false,
+        cell: (c) => (isSurfaceGeometry(c.row.original.geometry) ? u.arealLossValue(c.getValue()) : ''),
       }),
       ch.display({
         id: 'margin',
@@ -191,7 +349,7 @@ export function LineTable({
             row={c.row.original}
             projectId={projectId}
             canPick={canPick}
-            onSaved={refresh}
+            onSaved={afterPick}
             u={u}
           />
         ),
@@ -217,6 +375,33 @@ export function LineTable({
   });
   const total = query.data?.total ?? 0;
   const pages = Math.max(1, Math.ceil(total / size));
+  const shownPage = query.data?.page ?? page;
+  const firstShown = total ? shownPage * size + 1 : 0;
+  const lastShown = Math.min(total, (shownPage + 1) * size);
+  // A new page is at the top of the table box, with the table's top in view, and is announced; the
+  // focus stays on the pager button (or moves to the other one when it became disabled).
+  useEffect(() => {
+    if (!pagedBy.current || query.isPlaceholderData || !query.data) return;
+    const how = pagedBy.current;
+    pagedBy.current = null;
+    const box = boxRef.current;
+    if (box) {
+      box.scrollTop = 0;
+      if (box.getBoundingClientRect().top < 0) box.scrollIntoView({ block: 'start' });
+    }
+    active.current = { r: 0, c: 0 };
+    syncTabStops();
+    setAnnounce(
+      `Page ${query.data.page + 1} of ${Math.max(1, Math.ceil(query.data.total / size))}: lines ${firstShown} to ${lastShown} of ${query.data.total}.`,
+    );
+    const stay = document.getElementById(
+      how === 'next' ? 'lines-next' : 'lines-previous',
+    ) as HTMLButtonElement | null;
+    const other = document.getElementById(
+      how === 'next' ? 'lines-previous' : 'lines-next',
+    ) as HTMLButtonElement | null;
+    if (stay?.disabled && other && !other.disabled) other.focus();
+  }, [query.data, query.isPlaceholderData, syncTabStops, firstShown, lastShown]);
 
   function solve() {
     start(async () => {
@@ -281,6 +466,8 @@ export function LineTable({
           text: `Bulk accept undone: ${lineCount(r.data.restored)} ${r.data.restored === 1 ? 'has its' : 'have their'} previous decision back.${kept ? ` ${kept}` : ''}`,
         });
       } else setMessage({ kind: 'error', text: r.error });
+      // The Undo button is gone: the focus goes to the sentence saying what happened.
+      requestAnimationFrame(() => messageRef.current?.focus());
       refresh();
     });
   }
@@ -363,6 +550,8 @@ export function LineTable({
       {message ? (
         <div className="mb-3 flex items-center gap-3">
           <p
+            ref={messageRef}
+            tabIndex={-1}
             role={message.kind === 'error' ? 'alert' : 'status'}
             className={`text-sm ${message.kind === 'error' ? 'text-alarm-700' : 'text-mineral-800'}`}
           >
@@ -386,14 +575,35 @@ export function LineTable({
           {(query.error as Error).message}
         </p>
       ) : null}
-      <div className="panel overflow-x-auto">
-        <table className="table-dense" aria-label="Line table">
+      <p id="line-grid-help" className="sr-only">
+        One Tab stop for the table: arrow keys move between cells, Enter opens a line or enters the picker,
+        Escape leaves the picker.
+      </p>
+      {/* The table scrolls inside its own box (both ways) under a sticky header, so the page itself
+          never scrolls sideways and the pager stays close. */}
+      {/* biome-ignore lint/a11y/noStaticElementInteractions: key and focus events bubble up from the focusable cells and controls inside; the box itself is no control */}
+      <div
+        ref={boxRef}
+        id="line-table"
+        className="panel max-h-[calc(100vh-7rem)] overflow-auto"
+        onKeyDown={onGridKey}
+        onFocus={onGridFocus}
+      >
+        <table
+          className={`table-dense line-grid ${density === 'compact' ? 'line-grid-compact' : ''}`}
+          aria-label="Line table"
+          aria-describedby="line-grid-help"
+          aria-rowcount={total + 1}
+        >
           <thead>
             {table.getHeaderGroups().map((g) => (
               <tr key={g.id}>
                 {g.headers.map((h) => (
                   <th
                     key={h.id}
+                    scope="col"
+                    data-col={h.column.id}
+                    className={colClass(h.column.id)}
                     aria-sort={
                       h.column.getIsSorted()
                         ? h.column.getIsSorted() === 'desc'
@@ -403,17 +613,15 @@ export function LineTable({
                     }
                   >
                     {h.column.getCanSort() ? (
-                      <button
-                        type="button"
-                        className="uppercase"
-                        onClick={h.column.getToggleSortingHandler()}
-                      >
+                      <button type="button" onClick={h.column.getToggleSortingHandler()}>
                         {flexRender(h.column.columnDef.header, h.getContext())}
-                        {h.column.getIsSorted() === 'asc'
-                          ? ' ▲'
-                          : h.column.getIsSorted() === 'desc'
-                            ? ' ▼'
-                            : ''}
+                        <span aria-hidden="true">
+                          {h.column.getIsSorted() === 'asc'
+                            ? ' ▲'
+                            : h.column.getIsSorted() === 'desc'
+                              ? ' ▼'
+                              : ''}
+                        </span>
                       </button>
                     ) : (
                       flexRender(h.column.columnDef.header, h.getContext())
@@ -424,16 +632,23 @@ export function LineTable({
             ))}
           </thead>
           <tbody>
-            {table.getRowModel().rows.map((r) => (
-              <tr key={r.id} data-tag={r.original.tag}>
+            {table.getRowModel().rows.map((r, i) => (
+              <tr
+                key={r.id}
+                data-tag={r.original.tag}
+                data-row-id={r.original.id}
+                aria-rowindex={firstShown + i + 1}
+              >
                 {r.getVisibleCells().map((c) => (
-                  <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                  <td key={c.id} data-col={c.column.id} className={colClass(c.column.id)}>
+                    {flexRender(c.column.columnDef.cell, c.getContext())}
+                  </td>
                 ))}
               </tr>
             ))}
             {!query.isLoading && data.length === 0 ? (
               <tr>
-                <td colSpan={columns.length} className="py-6 text-center text-ink-500">
+                <td colSpan={columns.length} className="py-6 text-center text-ink-600">
                   No lines match. {total === 0 && !q && !area && !status ? 'Import a line list above.' : ''}
                 </td>
               </tr>
@@ -441,15 +656,24 @@ export function LineTable({
           </tbody>
         </table>
       </div>
-      <div className="mt-2 flex items-center gap-3 text-sm text-ink-600">
+      <nav
+        aria-label="Line table pages"
+        className="mt-2 flex flex-wrap items-center gap-3 text-sm text-ink-700"
+      >
         <span>
           {total} lines{query.isFetching ? ' · loading…' : ''}
         </span>
+        {total ? (
+          <span>
+            showing {firstShown}–{lastShown}
+          </span>
+        ) : null}
         <button
           type="button"
+          id="lines-previous"
           className="btn-quiet py-0.5"
           disabled={page === 0}
-          onClick={() => setPage((p) => p - 1)}
+          onClick={() => goToPage(page - 1, 'previous')}
         >
           Previous
         </button>
@@ -458,14 +682,70 @@ export function LineTable({
         </span>
         <button
           type="button"
+          id="lines-next"
           className="btn-quiet py-0.5"
           disabled={page + 1 >= pages}
-          onClick={() => setPage((p) => p + 1)}
+          onClick={() => goToPage(page + 1, 'next')}
         >
           Next
         </button>
-      </div>
+        <label className="ml-auto flex items-center gap-2">
+          <span>Row density</span>
+          <select
+            className="input w-auto py-0.5 text-sm"
+            value={density}
+            onChange={(e) => {
+              const d = e.target.value === 'comfortable' ? 'comfortable' : 'compact';
+              setDensity(d);
+              localStorage.setItem('lagwise.lineTable.density', d);
+            }}
+          >
+            <option value="compact">Compact</option>
+            <option value="comfortable">Comfortable</option>
+          </select>
+        </label>
+      </nav>
+      {/* Paging and saved picks, for screen readers: polite, and not a role=status of its own. */}
+      <p aria-live="polite" className="sr-only" data-testid="line-table-announce">
+        {announce}
+      </p>
     </section>
+  );
+}
+
+/** Where the keyboard lands in a cell: its link when it has one, otherwise the cell itself. */
+function cellTarget(td: HTMLElement): HTMLElement {
+  return td.querySelector<HTMLElement>(':scope > a') ?? td;
+}
+
+/** Numbers right-aligned under right-aligned headers; the tag stays in view when the table scrolls sideways; the
+ * columns a 768 px tablet can spare are left out below 1024 px so tag, status and picker fit (a vessel's
+ * loss per area is on its own page there). */
+const NUMERIC_COLS = new Set([
+  'normalTempC',
+  'recommendedMm',
+  'surfaceTempC',
+  'heatLossLinear',
+  'heatLossAreal',
+  'margin',
+]);
+const NARROW_HIDDEN = new Set(['service', 'area', 'governing', 'surfaceTempC', 'heatLossAreal', 'margin']);
+function colClass(id: string): string {
+  return [
+    NUMERIC_COLS.has(id) ? 'num' : '',
+    NARROW_HIDDEN.has(id) ? 'max-lg:hidden' : '',
+    id === 'tag' ? 'line-grid-tag' : '',
+  ]
+    .filter(Boolean)
+    .join(' ');
+}
+
+/** One line of text, cut with an ellipsis; the full value on hover and for screen readers. */
+function Truncated({ text, width }: { text: string; width: string }) {
+  return (
+    <span className={`block truncate ${width}`} title={text}>
+      {text}
+    </span>
   );
 }
 
@@ -601,7 +881,7 @@ function BulkAcceptDialog({
 
 function Badges({ row }: { row: Row }) {
   return (
-    <span className="flex flex-wrap gap-1">
+    <span className="flex gap-1 whitespace-nowrap">
       {row.stale ? <span className="badge bg-ochre-100 text-ochre-900">stale</span> : null}
       {row.unmet?.length ? (
         <span className="badge bg-alarm-100 text-alarm-700" title={row.unmet.join(', ')}>
@@ -614,7 +894,7 @@ function Badges({ row }: { row: Row }) {
       {row.source === 'manual' ? <span className="badge bg-ink-100 text-ink-700">manual</span> : null}
       {row.needsRedecision ? <span className="badge bg-ochre-100 text-ochre-900">re-decide</span> : null}
       {row.chosenMm === null && !row.stale ? (
-        <span className="badge bg-ink-50 text-ink-500">undecided</span>
+        <span className="badge bg-ink-100 text-ink-800">undecided</span>
       ) : null}
     </span>
   );
@@ -622,10 +902,10 @@ function Badges({ row }: { row: Row }) {
 
 /** The smallest margin to a temperature limit at the chosen thickness (the recommendation while undecided). */
 function MarginCell({ m, u }: { m: Margin | null; u: Formatter }) {
-  if (!m) return <span className="text-ink-400">—</span>;
+  if (!m) return <span className="text-ink-600">—</span>;
   return (
     <span
-      className={`num block whitespace-nowrap ${m.marginK < 0 ? 'font-semibold text-alarm-700' : ''}`}
+      className={`whitespace-nowrap ${m.marginK < 0 ? 'font-semibold text-alarm-700' : ''}`}
       title={
         m.criterion === 'personnel'
           ? 'Touch limit minus the personnel surface temperature'
@@ -640,7 +920,7 @@ function MarginCell({ m, u }: { m: Margin | null; u: Formatter }) {
 /** A candidate's deciding numbers in one line: heat-loss surface and loss, then each applicable criterion with its limit. */
 function candidateText(c: Candidate, row: Row, u: Formatter): string {
   const parts = [
-    `heat loss ${u.temp(c.surfaceC)}, ${u.heatFlowPerUnit(c.heatFlow, isSurfaceGeometry(row.geometry))}`,
+    `heat loss ${u.heatFlowPerUnit(c.heatFlow, isSurfaceGeometry(row.geometry))} (surface ${u.temp(c.surfaceC)})`,
   ];
   if (row.personnelLimitC !== null)
     parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.personnelLimitC)})`);
@@ -659,7 +939,7 @@ function PickCell({
   row: Row;
   projectId: string;
   canPick: boolean;
-  onSaved: () => void;
+  onSaved: (row: Row, mm: number) => void;
   u: Formatter;
 }) {
   const [value, setValue] = useState<string>(row.chosenMm !== null ? String(row.chosenMm) : '');
@@ -679,8 +959,8 @@ function PickCell({
     enabled: opened && canPick && row.solved,
     staleTime: 60_000,
   });
-  if (!canPick) return <span className="num block">{u.thickness(row.chosenMm)}</span>;
-  if (!row.solved) return <span className="text-xs text-ink-500">solve first</span>;
+  if (!canPick) return <span className="whitespace-nowrap">{u.thickness(row.chosenMm)}</span>;
+  if (!row.solved) return <span className="text-xs text-ink-600">solve first</span>;
   const picked = value === '' ? null : Number(value);
   const needsReason = picked !== null && picked !== row.recommendedMm;
   const dirty = picked !== null && picked !== row.chosenMm;
@@ -692,6 +972,11 @@ function PickCell({
       : undefined);
   function save() {
     setError(null);
+    // Save stays in the Tab order after the reason (a disabled button would be skipped): it says what is missing.
+    if (needsReason && !reason.trim()) {
+      setError('Give a reason for a thickness other than the recommendation.');
+      return;
+    }
     start(async () => {
       const r = await pickThicknessAction(projectId, {
         lineId: row.id,
@@ -704,68 +989,83 @@ function PickCell({
         return;
       }
       setReason('');
-      onSaved();
+      onSaved(row, picked!);
     });
   }
+  const decidingId = `deciding-${row.id}`;
+  // One line: picker, then (when the pick needs one) the reason, then Save, then the deciding numbers of the
+  // thickness shown, cut to fit with the whole text on hover and read with the picker.
   return (
-    <div className="min-w-[15rem] space-y-1">
-      <div className="flex gap-1">
-        <select
-          aria-label={`Thickness for ${row.tag}`}
-          className="input py-0.5 text-xs"
-          value={value}
-          onChange={(e) => setValue(e.target.value)}
-          onFocus={() => setOpened(true)}
-          onPointerDown={() => setOpened(true)}
-          onKeyDown={() => setOpened(true)}
-          aria-busy={options.isFetching}
-        >
-          <option value="">—</option>
-          {!options.data
-            ? [row.chosenMm, row.recommendedMm]
-                .filter((mm, i, a): mm is number => mm !== null && a.indexOf(mm) === i)
-                .map((mm) => (
-                  <option key={mm} value={mm}>
-                    {u.thickness(mm)}
-                    {mm === row.recommendedMm ? ' ★' : ''}
-                  </option>
-                ))
-            : null}
-          {(options.data ?? []).map((c) => (
-            <option key={c.mm} value={c.mm} disabled={!c.ok}>
-              {u.thickness(c.mm)}
-              {c.mm === row.recommendedMm ? ' ★' : ''} · {candidateText(c, row, u)}
-              {!c.ok ? ' · layer over its service limit' : ''}
-            </option>
-          ))}
-        </select>
-        {dirty ? (
-          <button
-            type="button"
-            className="btn-primary px-2 py-0.5 text-xs"
-            onClick={save}
-            disabled={pending || (needsReason && !reason.trim())}
-          >
-            Save
-          </button>
-        ) : null}
-      </div>
-      {shownCand ? (
-        <p className="text-xs text-ink-600" data-testid={`deciding-${row.tag}`}>
-          {u.thickness(shownCand.mm)}: {candidateText(shownCand, row, u)}
-        </p>
-      ) : null}
+    <div className="flex items-center gap-1 whitespace-nowrap">
+      <select
+        aria-label={`Thickness for ${row.tag}`}
+        aria-describedby={shownCand ? decidingId : undefined}
+        className="input w-28 shrink-0 py-0.5 text-xs"
+        value={value}
+        onChange={(e) => setValue(e.target.value)}
+        onFocus={() => setOpened(true)}
+        onPointerDown={() => setOpened(true)}
+        onKeyDown={() => setOpened(true)}
+        aria-busy={options.isFetching}
+      >
+        <option value="">—</option>
+        {!options.data
+          ? [row.chosenMm, row.recommendedMm]
+              .filter((mm, i, a): mm is number => mm !== null && a.indexOf(mm) === i)
+              .map((mm) => (
+                <option key={mm} value={mm}>
+                  {u.thickness(mm)}
+                  {mm === row.recommendedMm ? ' ★ recommended' : ''}
+                </option>
+              ))
+          : null}
+        {(options.data ?? []).map((c) => (
+          <option key={c.mm} value={c.mm} disabled={!c.ok}>
+            {u.thickness(c.mm)}
+            {c.mm === row.recommendedMm ? ' ★ recommended' : ''} · {candidateText(c, row, u)}
+            {!c.ok ? ' · layer over its service limit' : ''}
+          </option>
+        ))}
+      </select>
       {dirty && needsReason ? (
         <input
           aria-label={`Reason for ${row.tag}`}
-          className="input py-0.5 text-xs"
+          aria-required="true"
+          className="input w-48 shrink-0 py-0.5 text-xs"
           placeholder="Reason for this pick (required)"
           value={reason}
           onChange={(e) => setReason(e.target.value)}
+          onKeyDown={(e) => {
+            if (e.key === 'Enter') {
+              e.preventDefault();
+              save();
+            }
+          }}
         />
       ) : null}
+      {dirty ? (
+        <button
+          type="button"
+          className="btn-primary shrink-0 px-2 py-0.5 text-xs"
+          onClick={save}
+          disabled={pending}
+          aria-disabled={needsReason && !reason.trim() ? true : undefined}
+        >
+          Save
+        </button>
+      ) : null}
+      {shownCand ? (
+        <span
+          id={decidingId}
+          className="block min-w-0 max-w-[26rem] truncate text-xs text-ink-700"
+          title={`${u.thickness(shownCand.mm)}: ${candidateText(shownCand, row, u)}`}
+          data-testid={`deciding-${row.tag}`}
+        >
+          {u.thickness(shownCand.mm)}: {candidateText(shownCand, row, u)}
+        </span>
+      ) : null}
       {error ? (
-        <p role="alert" className="text-xs text-alarm-700">
+        <p role="alert" className="whitespace-normal text-xs text-alarm-700">
           {error}
         </p>
       ) : null}

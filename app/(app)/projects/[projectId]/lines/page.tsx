@@ -1,13 +1,16 @@
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
+import { Disclosure } from '@/components/disclosure';
 import { getDesignBasis, listAreas, listRevisions } from '@/lib/lines/store';
 import { ImportPanel } from './import-panel';
 import { LineTable } from './line-table';
 import { RecentJobs } from './job-progress';
 
-export const metadata = { title: 'Line list' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Line list', 'lines.read') };
+}
 
 export default async function LinesPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
@@ -27,19 +30,26 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
   const canEdit = can(role, 'lines.edit');
   return (
     <>
-      <div className="mb-3 flex items-baseline justify-between">
+      <div className="mb-2 flex flex-wrap items-baseline justify-between gap-x-4">
         <h1>Line list</h1>
-        <span className="text-xs text-ink-500">
+        <span className="text-xs text-ink-600">
           {revisions[0]
             ? `Revision ${revisions[0].number} · ${revisions[0].fileName} · ${revisions[0].createdAt.toISOString().slice(0, 10)}`
             : 'No revision imported yet'}{' '}
           · design basis revision {basis.revision}
         </span>
       </div>
-      <div className="mb-4">
-        <ResultCautions />
+      <div className="mb-3">
+        <ResultCautions compact />
       </div>
-      {canEdit ? <ImportPanel projectId={project.id} /> : null}
+      {/* Once a revision exists the import is an occasional step: folded away so the table starts higher. */}
+      {canEdit ? (
+        <div className="mb-3 flex flex-wrap">
+          <Disclosure label="Import a new revision" initiallyOpen={!revisions.length}>
+            <ImportPanel projectId={project.id} />
+          </Disclosure>
+        </div>
+      ) : null}
       <RecentJobs projectId={project.id} />
       <LineTable
         projectId={project.id}

@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
@@ -8,7 +8,9 @@ import { FLAG_LABEL, type FlagType } from '@/lib/review/flags';
 import { listAreas } from '@/lib/lines/store';
 import { RequestReviewForm } from './request-form';
 
-export const metadata = { title: 'Safety review' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Safety review', 'review.read') };
+}
 
 export default async function ReviewPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

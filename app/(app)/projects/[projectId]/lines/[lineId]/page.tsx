@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import { loadProject, orNotFound } from '@/lib/server/page';
+import { loadProject, orNotFound, projectPageTitle } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
 import { getDesignBasis, getLine } from '@/lib/lines/store';
@@ -26,7 +26,20 @@ import {
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 
-export const metadata = { title: 'Line' };
+/** "1\"-HW-207-B2 · Line · BP-STM-24": each line's page has its own title. */
+export async function generateMetadata({
+  params,
+}: {
+  params: Promise<{ projectId: string; lineId: string }>;
+}) {
+  const { projectId, lineId } = await params;
+  return {
+    title: await projectPageTitle(projectId, 'Line', 'lines.read', async (id) => {
+      const { line } = await getLine({ projectId: id, lineId });
+      return line.tag;
+    }),
+  };
+}
 
 const PART_LABEL = { shell: 'Shell', top: 'Top head', bottom: 'Bottom head' } as const;
 
@@ -664,12 +677,12 @@ export default async function LinePage({
           })}
         </section>
       ) : null}
-      <section className="panel mt-4 p-4">
+      <section className="panel mt-4 overflow-x-auto p-4">
         <h2 className="mb-2">Record</h2>
         {audit.length === 0 ? (
           <p className="text-sm text-ink-500">No decisions recorded yet.</p>
         ) : (
-          <table className="table-dense" aria-label="Audit trail">
+          <table className="table-dense [overflow-wrap:anywhere]" aria-label="Audit trail">
             <thead>
               <tr>
                 <th>When (UTC)</th>

@@ -32,7 +32,13 @@ import { HEADER_SCAN_ROWS } from './header';
 import { inputHash, solveLine } from './solve-line';
 import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
-import type { CandidateRow } from './deciding';
+import {
+  CANDIDATE_AT_MM_PATH,
+  candidateAt,
+  decodeCandidate,
+  encodeCandidate,
+  type CandidateRow,
+} from './candidate-row';
 import type { LineFilter } from './filter';
 
 export {
@@ -406,9 +412,7 @@ export async function createDraft({
     throw e;
   }
   const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
-  const mem = remembered
-    ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping }
-    : undefined;
+  const mem = remembered ? { headers: remembered.headers, mapping: remembered.mapping } : undefined;
   const [draft] = await db
     .insert(importDrafts)
     .values({ projectId, createdBy: userId, fileName, parsed })
@@ -527,11 +531,7 @@ export async function previewDraft({
   mapping,
 }: DraftChoice): Promise<Preview> {
   const d = await loadDraft(projectId, draftId);
-  const v = validateSheet(
-    sheetOf(d.parsed as ParsedFile, sheetName, headerRow),
-    mapping,
-    await jacketNames(projectId),
-  );
+  const v = validateSheet(sheetOf(d.parsed, sheetName, headerRow), mapping, await jacketNames(projectId));
   const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
   const [rev] = await db
     .select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` })
@@ -568,7 +568,7 @@ export async function commitDraft({
   const d = await loadDraft(projectId, draftId);
   if (d.importedRevision)
     throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
-  const sheet = sheetOf(d.parsed as ParsedFile, sheetName, headerRow);
+  const sheet = sheetOf(d.parsed, sheetName, headerRow);
   const v = validateSheet(sheet, mapping, await jacketNames(projectId));
   if (v.errorCount > 0) {
     const first = v.issues
@@ -736,18 +736,8 @@ export async function solveProject({
       outcomes: r.outcomes,
       unmet: r.unmet,
       warnings: r.warnings,
-      // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
-      // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
-      candidates: r.candidates.map((c) => [
-        c.totalMm,
-        c.layers.map((l) => [l.materialId, l.thicknessMm]),
-        round(c.heatLoss.heatFlow, 6),
-        round(c.heatLoss.surfaceC, 2),
-        c.personnel ? round(c.personnel.surfaceC, 2) : null,
-        c.annualCost === undefined ? null : round(c.annualCost, 3),
-        c.serviceLimitOk,
-        c.condensation ? round(c.condensation.surfaceC, 2) : null,
-      ]),
+      // Compact cost curve and candidate table, one row per thickness (lib/lines/candidate-row.ts).
+      candidates: r.candidates.map(encodeCandidate),
       design: r.design
         ? {
             profileC: r.design.profileC,
@@ -796,8 +786,6 @@ export async function solveProject({
 
 const SOLVE_CHUNK = 250;
 const RESULT_COLUMNS = getTableColumns(lineResults);
-const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
-const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
 
 // ---------- reading ----------
 
@@ -858,7 +846,7 @@ export async function listLines(o: LineQuery) {
       accessible: lines.accessible,
       maxTempC: lines.maxTempC,
       purposes: lines.purposes,
-      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, 'strict $[*] ? (@[0] == $mm)', jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
       chosenMm: lineDesigns.thicknessMm,
       source: lineDesigns.source,
       belowCriterion: lineDesigns.belowCriterion,
@@ -945,14 +933,14 @@ export async function pickDesign(o: {
       .for('update', { of: lines });
     if (!row) throw new AppError('not_found');
     if (!row.result) throw new AppError('conflict', 'Solve the line before choosing its thickness.');
-    const cand = (row.result.candidates as CandidateRow[]).find((c) => c[0] === o.thicknessMm);
+    const cand = candidateAt(row.result.candidates, o.thicknessMm);
     if (!cand)
       throw new AppError(
         'invalid',
         `${o.thicknessMm} mm is not a candidate of this line's material system.`,
         { thicknessMm: ['Choose one of the candidate thicknesses.'] },
       );
-    const below = (row.result.outcomes as { id: string; requiredMm: number | null }[])
+    const below = row.result.outcomes
       .filter((x) => HARD.has(x.id) && x.requiredMm !== null && o.thicknessMm < x.requiredMm!)
       .map((x) => x.id);
     const manual = o.thicknessMm !== row.result.recommendedMm;
@@ -980,7 +968,7 @@ export async function pickDesign(o: {
       lineId: o.lineId,
       projectId: o.projectId,
       thicknessMm: o.thicknessMm,
-      layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
+      layers: decodeCandidate(cand).layers,
       source: manual ? ('manual' as const) : ('recommended' as const),
       reason: o.reason?.trim() || null,
       belowCriterion: below.length ? below.join(',') : null,

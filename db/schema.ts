@@ -606,7 +606,7 @@ export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
 
-export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all']);
+export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill']);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
 
 /**

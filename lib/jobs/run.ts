@@ -10,14 +10,17 @@ import { jobs } from '@/db/schema';
 import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
 import { commitDraft, solveProject } from '@/lib/lines/store';
+import { issueBill } from '@/lib/boq/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
-import { QUEUES } from './queues';
+import type { SolvePool } from '@/lib/lines/solve-pool';
+import { JOB_KIND_LABEL, QUEUES } from './queues';
 
 const progress = (jobId: string) => async (done: number, total: number) => {
   await db.update(jobs).set({ done, total }).where(eq(jobs.id, jobId));
 };
 
-export async function runJob(jobId: string): Promise<void> {
+export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {}): Promise<void> {
+  const pool = o.pool ?? undefined;
   const [job] = await db
     .update(jobs)
     .set({ state: 'running', attempts: sql`${jobs.attempts} + 1`, startedAt: new Date(), error: null })
@@ -40,7 +43,7 @@ export async function runJob(jobId: string): Promise<void> {
           mapping: ColumnMapping;
         };
         const r = await commitDraft({ projectId: job.projectId, userId: job.createdBy ?? '', ...input, tx });
-        const s = await solveProject({ projectId: job.projectId, tx, onProgress: progress(jobId) });
+        const s = await solveProject({ projectId: job.projectId, tx, onProgress: progress(jobId), pool });
         result = {
           revision: r.revision,
           lineCount: r.lineCount,
@@ -50,12 +53,17 @@ export async function runJob(jobId: string): Promise<void> {
           removed: r.diff.removed.length,
           solved: s.solved,
         };
+      } else if (job.kind === 'issue-bill') {
+        // Issued inside this transaction: a retry after a crash finds the job done, never a second issue.
+        const issue = await issueBill({ projectId: job.projectId, userId: job.createdBy ?? '', tx });
+        result = { number: issue.number, counted: issue.counted, pending: issue.pending };
       } else {
         const s = await solveProject({
           projectId: job.projectId,
           all: Boolean((job.input as { all?: boolean }).all),
           tx,
           onProgress: progress(jobId),
+          pool,
         });
         result = { solved: s.solved };
       }
@@ -79,7 +87,7 @@ export async function runJob(jobId: string): Promise<void> {
           ? {
               state: 'failed',
               finishedAt: new Date(),
-              error: `This ${job.kind === 'import-solve' ? 'import' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
+              error: `This ${JOB_KIND_LABEL[job.kind].toLowerCase()} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
             }
           : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' },
       )
@@ -96,5 +104,8 @@ export async function markAbandonedJobs() {
   await db.execute(sql`update jobs set state = 'failed', finished_at = now(),
     error = 'This job stopped on our side and was not finished; nothing was changed. Start it again.'
     where state in ('queued', 'running') and id in (
-      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in ('import-solve', 'solve-all'))`);
+      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in (${sql.join(
+        Object.keys(QUEUES).map((q) => sql`${q}`),
+        sql`, `,
+      )}))`);
 }

@@ -1,4 +1,5 @@
 'use client';
+import { TOUCH_SURFACE_LABEL } from '@/lib/thermal/touch';
 import { startTransition, useActionState, useEffect, useRef, useState } from 'react';
 import type { OwnJacket, OwnMaterial } from '@/lib/lines/design-basis';
 import { addOwnJacketAction, addOwnMaterialAction, removeOwnEntryAction } from './actions';
@@ -181,6 +182,7 @@ export function OwnCatalogue({
     if (editJ) {
       fill(f, { name: editJ.name, emittance: editJ.emittance, source: editJ.source });
       (f.elements.namedItem('metal') as HTMLInputElement).checked = editJ.metal;
+      (f.elements.namedItem('touchSurface') as HTMLSelectElement).value = editJ.touchSurface ?? '';
     }
   }, [editJ]);
   const mErr = (mResult?.error ?? {}) as Record<string, string[] | null>;
@@ -286,7 +288,10 @@ export function OwnCatalogue({
                   <td className="font-medium">{j.name}</td>
                   <td className="font-mono text-xs">{j.id}</td>
                   <td>{j.emittance}</td>
-                  <td>{j.metal ? 'metal (metal touch limit)' : 'non-metal'}</td>
+                  <td>
+                    {j.metal ? 'metal' : 'non-metal'}
+                    {j.touchSurface ? ` (touch: ${TOUCH_SURFACE_LABEL[j.touchSurface]})` : ''}
+                  </td>
                   <td className="max-w-xs text-xs">{j.source}</td>
                   {canEdit ? (
                     <td className="flex gap-1">
@@ -522,6 +527,21 @@ export function OwnCatalogue({
             <label className="flex items-center gap-2 text-sm">
               <input type="checkbox" name="metal" defaultChecked /> Metal surface (metal touch limit applies)
             </label>
+            <Field
+              id="own-j-touchSurface"
+              name="touchSurface"
+              label="Surface a hand touches (ISO 13732-1)"
+              errors={jErr}
+            >
+              <select id="own-j-touchSurface" name="touchSurface" className="input" defaultValue="">
+                <option value="">From the metal box (bare metal or plastics)</option>
+                {(Object.keys(TOUCH_SURFACE_LABEL) as (keyof typeof TOUCH_SURFACE_LABEL)[]).map((k) => (
+                  <option key={k} value={k}>
+                    {TOUCH_SURFACE_LABEL[k]}
+                  </option>
+                ))}
+              </select>
+            </Field>
             <Field id="own-j-source" name="source" label="Source of the emittance" errors={jErr}>
               <input
                 id="own-j-source"

@@ -30,12 +30,6 @@ interface Candidate {
   condensationC: number | null;
   ok: boolean;
 }
-interface Limits {
-  personnelLimitC: number | null;
-  condensationNeedC: number | null;
-  dewPointC: number | null;
-  dewBasis: string | null;
-}
 interface Margin {
   criterion: 'personnel' | 'condensation';
   marginK: number;
@@ -61,8 +55,10 @@ interface Row {
   designVersion: number | null;
   stale: boolean;
   solved: boolean;
-  limits: Limits;
-  shown: Candidate | null;
+  personnelLimitC: number | null;
+  condensationNeedC: number | null;
+  /** Deciding numbers at chosenMm, else recommendedMm. */
+  shown: Omit<Candidate, 'mm'> | null;
   worstMargin: Margin | null;
 }
 interface Page {
@@ -639,10 +635,10 @@ function candidateText(c: Candidate, row: Row, u: Formatter): string {
   const parts = [
     `heat loss ${u.temp(c.surfaceC)}, ${u.heatFlowPerUnit(c.heatFlow, isSurfaceGeometry(row.geometry))}`,
   ];
-  if (row.limits.personnelLimitC !== null)
-    parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.limits.personnelLimitC)})`);
-  if (row.limits.condensationNeedC !== null)
-    parts.push(`condensation ${u.temp(c.condensationC)} (min ${u.temp(row.limits.condensationNeedC)})`);
+  if (row.personnelLimitC !== null)
+    parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.personnelLimitC)})`);
+  if (row.condensationNeedC !== null)
+    parts.push(`condensation ${u.temp(c.condensationC)} (min ${u.temp(row.condensationNeedC)})`);
   return parts.join(' · ');
 }
 
@@ -683,7 +679,10 @@ function PickCell({
   const dirty = picked !== null && picked !== row.chosenMm;
   const shownMm = picked ?? row.recommendedMm;
   const shownCand =
-    options.data?.find((c) => c.mm === shownMm) ?? (row.shown?.mm === shownMm ? row.shown : undefined);
+    options.data?.find((c) => c.mm === shownMm) ??
+    (row.shown && shownMm !== null && shownMm === (row.chosenMm ?? row.recommendedMm)
+      ? { ...row.shown, mm: shownMm }
+      : undefined);
   function save() {
     setError(null);
     start(async () => {

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { createProjectWithLines, demo, lineRow, mailLink, signIn } from './helpers';
 
 test('engineer requests a review, the reviewer gets the e-mail, disposes and signs off, the engineer sees the outcome', async ({

@@ -1,4 +1,4 @@
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test, type Page } from './fixtures';
 import { mkdirSync } from 'node:fs';
 import { createProjectWithLines, demo, lineRow, mailLink, signIn, solveStaleLines } from './helpers';
 

@@ -152,9 +152,13 @@ export function OwnCatalogue({
     }
   }, [jResult]);
   // Changing an entry fills the one form with its values; cancelling (or saving) resets it to the defaults for a new one.
+  // Never on mount: a value typed before the page finished loading must not be wiped.
+  const mShown = useRef<OwnMaterial | null>(null),
+    jShown = useRef<OwnJacket | null>(null);
   useEffect(() => {
     const f = mForm.current;
-    if (!f) return;
+    if (!f || mShown.current === editM) return;
+    mShown.current = editM;
     f.reset();
     if (editM)
       fill(f, {
@@ -177,7 +181,8 @@ export function OwnCatalogue({
   }, [editM]);
   useEffect(() => {
     const f = jForm.current;
-    if (!f) return;
+    if (!f || jShown.current === editJ) return;
+    jShown.current = editJ;
     f.reset();
     if (editJ) {
       fill(f, { name: editJ.name, emittance: editJ.emittance, source: editJ.source });

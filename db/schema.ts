@@ -13,6 +13,14 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import type { BillQuantities } from '@/lib/boq/quantities';
+import type { CandidateRow } from '@/lib/lines/candidate-row';
+import type { LineListDiff } from '@/lib/lines/diff';
+import type { ColumnMapping } from '@/lib/lines/mapping';
+import type { ParsedFile } from '@/lib/lines/parse';
+import type { StoredDesign, StoredLayer, StoredOutcome } from '@/lib/lines/stored-result';
+import type { Flag } from '@/lib/review/flags';
+import type { ReviewSnapshot } from '@/lib/review/snapshot';
 
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
 export type Role = (typeof roleEnum.enumValues)[number];
@@ -139,7 +147,8 @@ export const designBases = pgTable('design_bases', {
     .primaryKey()
     .references(() => projects.id, { onDelete: 'cascade' }),
   revision: integer('revision').notNull().default(1),
-  basis: jsonb('basis').notNull(),
+  /** Parsed by `designBasisSchema` on read: bases saved by earlier versions gain their defaults there. */
+  basis: jsonb('basis').$type<unknown>().notNull(),
   updatedBy: text('updated_by').references(() => users.id, { onDelete: 'set null' }),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
@@ -149,8 +158,8 @@ export const columnMappings = pgTable('column_mappings', {
   projectId: uuid('project_id')
     .primaryKey()
     .references(() => projects.id, { onDelete: 'cascade' }),
-  headers: jsonb('headers').notNull(),
-  mapping: jsonb('mapping').notNull(),
+  headers: jsonb('headers').$type<string[]>().notNull(),
+  mapping: jsonb('mapping').$type<ColumnMapping>().notNull(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -164,7 +173,7 @@ export const importDrafts = pgTable('import_drafts', {
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
   fileName: text('file_name').notNull(),
-  parsed: jsonb('parsed').notNull(),
+  parsed: jsonb('parsed').$type<ParsedFile>().notNull(),
   importedRevision: integer('imported_revision'),
   /** The uploaded file as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
   originalKey: text('original_key'),
@@ -184,7 +193,7 @@ export const lineListRevisions = pgTable(
     fileName: text('file_name').notNull(),
     sheetName: text('sheet_name').notNull(),
     lineCount: integer('line_count').notNull(),
-    diff: jsonb('diff').notNull(),
+    diff: jsonb('diff').$type<LineListDiff>().notNull(),
     createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
     /** The uploaded file this revision was imported from, as uploaded (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
     originalKey: text('original_key'),
@@ -261,14 +270,14 @@ export const lineResults = pgTable(
     inputHash: text('input_hash').notNull(),
     recommendedMm: doublePrecision('recommended_mm'),
     governing: text('governing'),
-    layers: jsonb('layers').notNull(),
+    layers: jsonb('layers').$type<StoredLayer[]>().notNull(),
     systemLabel: text('system_label').notNull(),
     jacketId: text('jacket_id').notNull(),
-    outcomes: jsonb('outcomes').notNull(),
-    candidates: jsonb('candidates').notNull(),
+    outcomes: jsonb('outcomes').$type<StoredOutcome[]>().notNull(),
+    candidates: jsonb('candidates').$type<CandidateRow[]>().notNull(),
     unmet: text('unmet').array().notNull(),
-    warnings: jsonb('warnings').notNull(),
-    design: jsonb('design'),
+    warnings: jsonb('warnings').$type<string[]>().notNull(),
+    design: jsonb('design').$type<StoredDesign>(),
     heatFlowPerUnit: doublePrecision('heat_flow_per_unit'),
     totalHeatW: doublePrecision('total_heat_w'),
     bareHeatW: doublePrecision('bare_heat_w').notNull(),
@@ -296,7 +305,7 @@ export const lineDesigns = pgTable(
       .notNull()
       .references(() => projects.id, { onDelete: 'cascade' }),
     thicknessMm: doublePrecision('thickness_mm').notNull(),
-    layers: jsonb('layers').notNull(),
+    layers: jsonb('layers').$type<StoredLayer[]>().notNull(),
     source: designSourceEnum('source').notNull(),
     reason: text('reason'),
     /** A manual pick below a hard criterion: allowed with a reason, and stays flagged. */
@@ -313,7 +322,7 @@ export const lineDesigns = pgTable(
 /** A line's design as it was before a bulk accept replaced it (null in `before`: no decision). */
 export interface DesignSnapshot {
   thicknessMm: number;
-  layers: unknown;
+  layers: StoredLayer[];
   source: 'recommended' | 'manual';
   reason: string | null;
   belowCriterion: string | null;
@@ -381,7 +390,7 @@ export const reviewRounds = pgTable(
     signedOffBy: text('signed_off_by').references(() => users.id),
     signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
     /** Flagged values and dispositions as signed, kept as they were. */
-    snapshot: jsonb('snapshot'),
+    snapshot: jsonb('snapshot').$type<ReviewSnapshot>(),
   },
   (t) => [uniqueIndex('review_rounds_number_key').on(t.projectId, t.number)],
 );
@@ -400,7 +409,7 @@ export const reviewItems = pgTable(
     lineId: uuid('line_id').references(() => lines.id, { onDelete: 'set null' }),
     tag: text('tag').notNull(),
     area: text('area').notNull(),
-    flags: jsonb('flags').notNull(),
+    flags: jsonb('flags').$type<Flag[]>().notNull(),
     lineInputVersion: integer('line_input_version').notNull(),
     designVersion: integer('design_version').notNull(),
     disposition: dispositionEnum('disposition'),
@@ -429,8 +438,8 @@ export const auditLog = pgTable(
     actorName: text('actor_name').notNull(),
     at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
     action: text('action').notNull(),
-    before: jsonb('before'),
-    after: jsonb('after'),
+    before: jsonb('before').$type<unknown>(),
+    after: jsonb('after').$type<unknown>(),
   },
   (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)],
 );
@@ -450,7 +459,7 @@ export const boqIssues = pgTable(
     issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
     basisRevision: integer('basis_revision').notNull(),
     lineListRevision: integer('line_list_revision'),
-    quantities: jsonb('quantities').notNull(),
+    quantities: jsonb('quantities').$type<BillQuantities>().notNull(),
     counted: integer('counted').notNull(),
     pending: integer('pending').notNull(),
     /** The workbook as issued (lib/storage/documents.ts): object key, SHA-256 and size; null before documents were kept. */
@@ -482,7 +491,7 @@ export const budgets = pgTable('budgets', {
     .references(() => projects.id, { onDelete: 'cascade' }),
   totalKW: doublePrecision('total_kw').notNull(),
   totalMWhPerYear: doublePrecision('total_mwh_per_year').notNull(),
-  allocations: jsonb('allocations').notNull(),
+  allocations: jsonb('allocations').$type<{ area: string; kW: number }[]>().notNull(),
   updatedBy: text('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

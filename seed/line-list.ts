@@ -3,33 +3,11 @@
  * pressures, hot oil, hot water, process lines, chilled water, refrigerant suction, vessels and
  * flat surfaces, indoor and outdoor. Deterministic, so the seed and the example workbook agree.
  */
-import ExcelJS from 'exceljs';
+import { TEMPLATE_HEADERS, lineListWorkbook } from '../lib/lines/template';
 
-export const TEMPLATE_HEADERS = [
-  'Line tag',
-  'Service',
-  'Area',
-  'Geometry',
-  'NPS',
-  'OD (mm)',
-  'Length (m)',
-  'Surface area (m2)',
-  'Height (m)',
-  'Normal temp (°C)',
-  'Max temp (°C)',
-  'Steam pressure (barg)',
-  'Flow (kg/h)',
-  'Cp (kJ/kg K)',
-  'Elbows',
-  'Tees',
-  'Valves',
-  'Flanges',
-  'Purpose',
-  'Location',
-  'Accessible',
-  'Jacket',
-  'Notes',
-];
+// The workbook layout is the product's template (lib/lines/template.ts); the seed, the example
+// file, tests and benchmarks write the demo rows with it.
+export { TEMPLATE_HEADERS, lineListWorkbook };
 
 type Row = (string | number | null)[];
 
@@ -516,40 +494,4 @@ export function demoLineRows(count = 220, seed = 4471): Row[] {
     ],
   ];
   return [...rows, ...vessels];
-}
-
-export async function lineListWorkbook(rows: Row[], o: { withInstructions?: boolean } = {}): Promise<Buffer> {
-  const wb = new ExcelJS.Workbook();
-  wb.creator = 'Lagwise';
-  const ws = wb.addWorksheet('Line list', { views: [{ state: 'frozen', ySplit: 1 }] });
-  ws.addRow(TEMPLATE_HEADERS);
-  ws.getRow(1).font = { bold: true };
-  for (const r of rows) ws.addRow(r);
-  ws.columns.forEach((c, i) => {
-    c.width = Math.max(10, TEMPLATE_HEADERS[i].length + 2);
-  });
-  if (o.withInstructions) {
-    const help = wb.addWorksheet('How to fill');
-    [
-      [
-        'One row per line, vessel or flat surface. Units are in the headers; the import lets you change them (°F, in, ft, psig, lb/h).',
-      ],
-      [
-        'Geometry: Horizontal pipe, Vertical pipe, Vessel or Flat. Pipes need NPS (or OD) and length; vessels need their bare outside area (shell and both heads) and the shell height — they are solved as a shell with two flat heads; flat surfaces need area.',
-      ],
-      [
-        'Purpose: H heat conservation, P personnel protection, C condensation control, T process control, F freeze protection (comma-separated).',
-      ],
-      [
-        'Accessible: yes, no, or the height in metres above grade or platform (within 2.1 m counts as accessible, common practice).',
-      ],
-      [
-        "Jacket: leave empty for the design-basis jacket, or name one from the library or the project's own jackets (e.g. Stainless steel, PVC sheet).",
-      ],
-    ].forEach((r) => {
-      help.addRow(r);
-    });
-    help.getColumn(1).width = 120;
-  }
-  return Buffer.from(await wb.xlsx.writeBuffer());
 }

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { db } from '@/db/client';
 import { budgets, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
+import { decodeCandidate } from '@/lib/lines/candidate-row';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import { getDesignBasis } from '@/lib/lines/store';
 import { isIncompleteLine } from '@/lib/lines/fields';
@@ -55,7 +56,7 @@ export async function getBudget({ projectId }: { projectId: string }): Promise<B
     ? {
         totalKW: b.totalKW,
         totalMWhPerYear: b.totalMWhPerYear,
-        allocations: b.allocations as Budget['allocations'],
+        allocations: b.allocations,
       }
     : null;
 }
@@ -91,8 +92,6 @@ export interface WhatIf {
   hoursPerYear?: number;
   policy?: Policy;
 }
-
-type Cand = [number, unknown, number, number, number | null, number | null, boolean];
 
 /**
  * Dashboard figures: bare against designed heat loss (kW, MWh/yr, cost/yr, t CO₂/yr), per area
@@ -141,24 +140,23 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
       incompleteCount++;
       continue;
     }
-    const cands = result.candidates as Cand[];
+    const cands = result.candidates.map(decodeCandidate);
     if (!cands.length) continue;
-    const extent = cands[0][2] !== 0 ? result.bareHeatW / cands[0][2] : 0; // metres of pipe, or m² of surface
-    const econMm =
-      (result.outcomes as { id: string; requiredMm: number | null }[]).find((o) => o.id === 'economic')
-        ?.requiredMm ?? null;
+    const bare = cands[0];
+    const extent = bare.heatFlow !== 0 ? result.bareHeatW / bare.heatFlow : 0; // metres of pipe, or m² of surface
+    const econMm = result.outcomes.find((o) => o.id === 'economic')?.requiredMm ?? null;
     let mm: number | null = policy === 'chosen' ? (chosenMm ?? result.recommendedMm) : result.recommendedMm;
     if (policy === 'economic-plus-one') {
       const base = Math.max(econMm ?? 0, result.recommendedMm ?? 0);
-      const i = cands.findIndex((c) => c[0] === base);
-      mm = i >= 0 ? cands[Math.min(cands.length - 1, i + 1)][0] : result.recommendedMm;
+      const i = cands.findIndex((c) => c.mm === base);
+      mm = i >= 0 ? cands[Math.min(cands.length - 1, i + 1)].mm : result.recommendedMm;
     }
-    const c = cands.find((x) => x[0] === mm) ?? cands[0];
+    const c = cands.find((x) => x.mm === mm) ?? bare;
     // Fittings and supports as equivalent lengths (lib/lines/fittings-heat.ts), bare fittings on a bare line.
     const counts = { geometry, lengthM, elbows, tees, valves, flanges };
-    const fitW = lineFittingsW(basis, counts, c[2], cands[0][2], c[0] === 0);
-    const bareFitW = lineFittingsW(basis, counts, cands[0][2], cands[0][2], true);
-    const designedW = c[2] * extent + fitW,
+    const fitW = lineFittingsW(basis, counts, c.heatFlow, bare.heatFlow, c.mm === 0);
+    const bareFitW = lineFittingsW(basis, counts, bare.heatFlow, bare.heatFlow, true);
+    const designedW = c.heatFlow * extent + fitW,
       bareW = result.bareHeatW + bareFitW;
     if (bareW < 0) {
       coldGainKW += -designedW / 1000;

@@ -23,6 +23,7 @@ import { AppError } from '@/lib/errors';
 import { actorName, writeAudit } from '@/lib/audit';
 import { basisRevisionOf, lineFilterSql, staleSql } from './stale';
 import type { LineFilter } from './filter';
+import type { StoredLayer } from './stored-result';
 
 /** Why a line in the filter is or is not changed. */
 export type BulkClass =
@@ -81,7 +82,8 @@ interface Classified {
   tag: string;
   lastDesignVersion: number;
   recommendedMm: number | null;
-  recLayers: unknown;
+  /** Null without a result (such a line is never accepted). */
+  recLayers: StoredLayer[] | null;
   design: LineDesign | null;
   cls: BulkClass;
 }
@@ -89,7 +91,8 @@ interface Classified {
 function classOf(r: {
   stale: boolean;
   recommendedMm: number | null;
-  recLayers: unknown;
+  /** Null without a result (such a line is never accepted). */
+  recLayers: StoredLayer[] | null;
   design: LineDesign | null;
 }): BulkClass {
   if (r.design?.source === 'manual') return 'manual';
@@ -273,7 +276,7 @@ export async function applyBulkAccept(o: {
         lineId: c.lineId,
         projectId: o.projectId,
         thicknessMm: c.recommendedMm!,
-        layers: c.recLayers,
+        layers: c.recLayers!, // picked lines have a current result
         source: 'recommended' as const,
         reason: null,
         belowCriterion: null,

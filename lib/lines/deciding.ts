@@ -19,22 +19,9 @@ import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import type { LineInput } from '@/lib/lines/validate';
+import { decodeCandidate, type CandidateRow } from '@/lib/lines/candidate-row';
 
-/**
- * A stored candidate: [mm, layers, heat flow, surface °C (heat loss), surface °C (personnel),
- * annual cost, layers within service limits, surface °C (condensation)]. Results stored before the
- * last field existed have seven entries.
- */
-export type CandidateRow = [
-  number,
-  [string, number][],
-  number,
-  number,
-  number | null,
-  number | null,
-  boolean,
-  (number | null)?,
-];
+export type { CandidateRow };
 
 export interface DecidingLimits {
   /** Touch limit when personnel protection applies (the system's jacket: metal or not). */
@@ -90,14 +77,21 @@ export function candidateNumbers(
   limits: DecidingLimits,
 ): CandidateNumbers[] {
   let solver: ReturnType<typeof surfaceSolver> | null = null;
-  return rows.map((c) => {
-    let personnelC = c[4] ?? null,
-      condensationC = c[7] ?? null;
+  return rows.map((row) => {
+    const c = decodeCandidate(row);
+    let { personnelC, condensationC } = c;
     if (limits.personnelLimitC !== null && personnelC === null)
-      personnelC = (solver ??= surfaceSolver(basis, line, jacketId))('personnel', c[1]);
+      personnelC = (solver ??= surfaceSolver(basis, line, jacketId))('personnel', c.layers);
     if (limits.condensationNeedC !== null && condensationC === null)
-      condensationC = (solver ??= surfaceSolver(basis, line, jacketId))('condensation', c[1]);
-    return { mm: c[0], heatFlow: c[2], heatLossC: c[3], personnelC, condensationC, ok: c[6] };
+      condensationC = (solver ??= surfaceSolver(basis, line, jacketId))('condensation', c.layers);
+    return {
+      mm: c.mm,
+      heatFlow: c.heatFlow,
+      heatLossC: c.heatLossC,
+      personnelC,
+      condensationC,
+      ok: c.withinLimits,
+    };
   });
 }
 
@@ -121,8 +115,11 @@ function surfaceSolver(basis: DesignBasis, l: LineInput, jacketId: string | null
   const cat = catalogueOf(basis);
   const D = (c.pipeOuterDiameterMm ?? 0) / 1000,
     H = c.heightM ?? 1;
-  return (kind: 'personnel' | 'condensation', layerRows: [string, number][]): number | null => {
-    const mats = layerRows.map(([id, mm]) => ({ m: cat.materials.get(id), mm }));
+  return (
+    kind: 'personnel' | 'condensation',
+    layerRows: { materialId: string; thicknessMm: number }[],
+  ): number | null => {
+    const mats = layerRows.map((l) => ({ m: cat.materials.get(l.materialId), mm: l.thicknessMm }));
     if (mats.some((x) => !x.m)) return null;
     const layers = mats.map(({ m, mm }) => ({
       thicknessM: mm / 1000,

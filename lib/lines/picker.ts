@@ -5,14 +5,8 @@
  */
 import type { DesignBasis } from './design-basis';
 import type { LineInput } from './validate';
-import {
-  candidateNumbers,
-  decidingLimits,
-  worstMargin,
-  type CandidateRow,
-  type DecidingLimits,
-  type Margin,
-} from './deciding';
+import { candidateNumbers, decidingLimits, worstMargin, type DecidingLimits } from './deciding';
+import { decodeCandidate, type CandidateRow } from './candidate-row';
 import { getDesignBasis, getLine, inputOf, listLines, type LineQuery } from './store';
 
 /** One thickness option as the client receives it (surfaceC: the heat-loss conditions' surface). */
@@ -41,12 +35,13 @@ export async function tableRowDeciding(
 ) {
   const limits = decidingLimits(basis, facts, jacketId);
   if (!shown) return { limits, shown: null, worstMargin: null };
+  const stored = decodeCandidate(shown);
   const gap =
-    (limits.personnelLimitC !== null && shown[4] === null) ||
-    (limits.condensationNeedC !== null && (shown[7] ?? null) === null);
+    (limits.personnelLimitC !== null && stored.personnelC === null) ||
+    (limits.condensationNeedC !== null && stored.condensationC === null);
   const line = gap ? await loadLine() : (facts as LineInput);
   const [c] = candidateNumbers(basis, line, jacketId, [shown], limits).map(toPicker);
-  return { limits, shown: c, worstMargin: worstMargin(c, limits) as Margin | null };
+  return { limits, shown: c, worstMargin: worstMargin(c, limits) };
 }
 
 /** Every thickness option of one line with its deciding numbers, and the limits beside them. */
@@ -62,7 +57,7 @@ export async function getPickerOptions({
   const input = inputOf(line);
   const jacketId = result?.jacketId ?? null;
   const limits = decidingLimits(basis, input, jacketId);
-  const stored = (result?.candidates ?? []) as CandidateRow[];
+  const stored = result?.candidates ?? [];
   return { limits, candidates: candidateNumbers(basis, input, jacketId, stored, limits).map(toPicker) };
 }
 

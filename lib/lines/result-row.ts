@@ -4,6 +4,7 @@
  */
 import type { Line } from '@/db/schema';
 import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
+import { encodeCandidate } from './candidate-row';
 import type { DesignBasis } from './design-basis';
 import { inputHash, solveLine } from './solve-line';
 import type { LineInput } from './validate';
@@ -58,9 +59,6 @@ export function resultContext(o: { basis: DesignBasis; revision: number; project
   return { ...o, basisJson: JSON.stringify(o.basis), systems: new Map() };
 }
 
-const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
-const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
-
 export function resultRow(ctx: ResultContext, line: Line) {
   const input = inputOf(line);
   const s = solveLine(ctx.basis, input, ctx.systems);
@@ -81,18 +79,8 @@ export function resultRow(ctx: ResultContext, line: Line) {
     outcomes: r.outcomes,
     unmet: r.unmet,
     warnings: r.warnings,
-    // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
-    // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
-    candidates: r.candidates.map((c) => [
-      c.totalMm,
-      c.layers.map((l) => [l.materialId, l.thicknessMm]),
-      round(c.heatLoss.heatFlow, 6),
-      round(c.heatLoss.surfaceC, 2),
-      c.personnel ? round(c.personnel.surfaceC, 2) : null,
-      c.annualCost === undefined ? null : round(c.annualCost, 3),
-      c.serviceLimitOk,
-      c.condensation ? round(c.condensation.surfaceC, 2) : null,
-    ]),
+    // Compact cost curve and candidate table, one row per thickness (lib/lines/candidate-row.ts).
+    candidates: r.candidates.map(encodeCandidate),
     design: r.design
       ? {
           profileC: r.design.profileC,

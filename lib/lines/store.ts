@@ -31,9 +31,9 @@ import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from '
 import { suggestMapping, type ColumnMapping } from './mapping';
 import { describeCsv, parseUpload, ParseError, viewSheet, type ParsedFile } from './parse';
 import { HEADER_SCAN_ROWS } from './header';
-import { validateSheet, type RowIssue, type UnknownValue } from './validate';
+import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
-import type { CandidateRow } from './deciding';
+import { CANDIDATE_AT_MM_PATH, candidateAt, decodeCandidate, type CandidateRow } from './candidate-row';
 import { inputOf, resultContext, resultRow } from './result-row';
 import type { SolvePool } from './solve-pool';
 
@@ -426,9 +426,7 @@ export async function createDraft({
     throw e;
   }
   const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
-  const mem = remembered
-    ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping }
-    : undefined;
+  const mem = remembered ? { headers: remembered.headers, mapping: remembered.mapping } : undefined;
   // The file itself is kept byte for byte (the revision history offers it for download); stored
   // before the draft row, so a store that cannot take it leaves no draft behind.
   const draftId = randomUUID();
@@ -535,11 +533,7 @@ export async function previewDraft({
   mapping,
 }: DraftChoice): Promise<Preview> {
   const d = await loadDraft(projectId, draftId);
-  const v = validateSheet(
-    sheetOf(d.parsed as ParsedFile, sheetName, headerRow),
-    mapping,
-    await jacketNames(projectId),
-  );
+  const v = validateSheet(sheetOf(d.parsed, sheetName, headerRow), mapping, await jacketNames(projectId));
   const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
   const [rev] = await db
     .select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` })
@@ -576,7 +570,7 @@ export async function commitDraft({
   const d = await loadDraft(projectId, draftId);
   if (d.importedRevision)
     throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
-  const sheet = sheetOf(d.parsed as ParsedFile, sheetName, headerRow);
+  const sheet = sheetOf(d.parsed, sheetName, headerRow);
   const v = validateSheet(sheet, mapping, await jacketNames(projectId));
   if (v.errorCount > 0) {
     const first = v.issues
@@ -831,7 +825,7 @@ export async function listLines(o: LineQuery) {
       accessible: lines.accessible,
       maxTempC: lines.maxTempC,
       purposes: lines.purposes,
-      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, 'strict $[*] ? (@[0] == $mm)', jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
       chosenMm: lineDesigns.thicknessMm,
       source: lineDesigns.source,
       belowCriterion: lineDesigns.belowCriterion,
@@ -919,14 +913,14 @@ export async function pickDesign(o: {
       .for('update', { of: lines });
     if (!row) throw new AppError('not_found');
     if (!row.result) throw new AppError('conflict', 'Solve the line before choosing its thickness.');
-    const cand = (row.result.candidates as CandidateRow[]).find((c) => c[0] === o.thicknessMm);
+    const cand = candidateAt(row.result.candidates, o.thicknessMm);
     if (!cand)
       throw new AppError(
         'invalid',
         `${o.thicknessMm} mm is not a candidate of this line's material system.`,
         { thicknessMm: ['Choose one of the candidate thicknesses.'] },
       );
-    const below = (row.result.outcomes as { id: string; requiredMm: number | null }[])
+    const below = row.result.outcomes
       .filter((x) => HARD.has(x.id) && x.requiredMm !== null && o.thicknessMm < x.requiredMm!)
       .map((x) => x.id);
     const manual = o.thicknessMm !== row.result.recommendedMm;
@@ -954,7 +948,7 @@ export async function pickDesign(o: {
       lineId: o.lineId,
       projectId: o.projectId,
       thicknessMm: o.thicknessMm,
-      layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
+      layers: decodeCandidate(cand).layers,
       source: manual ? ('manual' as const) : ('recommended' as const),
       reason: o.reason?.trim() || null,
       belowCriterion: below.length ? below.join(',') : null,

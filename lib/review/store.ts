@@ -86,7 +86,7 @@ export async function currentFlags({ projectId, area }: { projectId: string; are
       line: inputOf(line),
       design: design
         ? {
-            layers: design.layers as { materialId: string; thicknessMm: number }[],
+            layers: design.layers,
             belowCriterion: design.belowCriterion,
           }
         : null,
@@ -205,7 +205,7 @@ export async function requestReview({
         d === 'returned' ||
         p.item.lineInputVersion !== f.inputVersion ||
         p.item.designVersion !== f.designVersion ||
-        !sameFlags(p.item.flags as Flag[], f.flags) ||
+        !sameFlags(p.item.flags, f.flags) ||
         !dispositionsFor(f.flags.map((x) => x.type)).includes(d)
       )
         return base;
@@ -320,11 +320,11 @@ export async function getRound({ projectId, roundId }: { projectId: string; roun
     }
     return {
       ...item,
-      flags: item.flags as Flag[],
+      flags: item.flags,
       status,
       reopenReason: why,
       deciderName: decider,
-      allowed: dispositionsFor((item.flags as Flag[]).map((f) => f.type)),
+      allowed: dispositionsFor(item.flags.map((f) => f.type)),
     };
   });
   const { revision } = await getDesignBasis({ projectId });
@@ -385,7 +385,7 @@ export async function dispose(o: {
     if (items.length !== new Set(o.itemIds).size)
       throw new AppError('not_found', 'Some lines are not part of this round.');
     const misfit = items.filter(
-      ({ item }) => !dispositionsFor((item.flags as Flag[]).map((f) => f.type)).includes(o.disposition),
+      ({ item }) => !dispositionsFor(item.flags.map((f) => f.type)).includes(o.disposition),
     );
     if (misfit.length) {
       const tags =
@@ -395,7 +395,7 @@ export async function dispose(o: {
           .join(', ') + (misfit.length > 5 ? ', …' : '');
       throw new AppError(
         'invalid',
-        `Disposition: "${DISPOSITION_LABEL[o.disposition]}" does not fit the flags of ${misfit.length === 1 ? 'line' : `${misfit.length} lines`} ${tags}; choose one for ${misfit.some(({ item }) => (item.flags as Flag[]).some((f) => f.type === 'sweating')) ? 'a sweating surface' : 'a hot surface'}.`,
+        `Disposition: "${DISPOSITION_LABEL[o.disposition]}" does not fit the flags of ${misfit.length === 1 ? 'line' : `${misfit.length} lines`} ${tags}; choose one for ${misfit.some(({ item }) => item.flags.some((f) => f.type === 'sweating')) ? 'a sweating surface' : 'a hot surface'}.`,
         { disposition: ['Choose a disposition that fits the flag.'] },
       );
     }

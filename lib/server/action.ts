@@ -12,59 +12,116 @@ import { logUnexpected } from '@/lib/log';
 
 type Ctx<T> = { user: User; input: T };
 type ProjectCtx<T> = Ctx<T> & Awaited<ReturnType<typeof getProjectAccess>>;
+type OrganizationCtx<T> = Ctx<T> & { organizationId: string } & Awaited<
+    ReturnType<typeof getOrganizationAccess>
+  >;
+
+const SESSION_ENDED = 'Your session has ended. Sign in again.';
+const UNEXPECTED = 'Something went wrong on our side. Nothing was saved; try again.';
 
 function toReply(
   submission: { reply: (o?: object) => SubmissionResult<string[]> },
   e: unknown,
+  hideFields: string[] | undefined,
 ): SubmissionResult<string[]> {
   if (isAppError(e))
-    return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields });
+    return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields, hideFields });
   logUnexpected('action', e);
-  return submission.reply({
-    formErrors: ['Something went wrong on our side. Nothing was saved; try again.'],
-  });
+  return submission.reply({ formErrors: [UNEXPECTED], hideFields });
 }
 
+const isRedirect = (e: unknown) =>
+  !!e &&
+  typeof e === 'object' &&
+  'digest' in e &&
+  String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT');
+
 /**
- * The one wrapper for form server actions: session → zod parse (conform) → role check → handler.
- * Returns conform's submission result, with field errors where the handler names fields.
- * `projectIdField` names the form field carrying the project; access and role are checked on it.
+ * The one wrapper for form server actions: session → zod parse (conform) → scope and role → handler.
+ * Returns conform's submission result, with field errors where the handler names fields, and the
+ * handler's value as `data`.
+ * - Scope: `projectIdField` names the form field carrying the project, `organizationIdField` the
+ *   one carrying the organization; access and `permission` are checked on it (a project or
+ *   organization outside the user's is not found). A permission without a scope is refused.
+ * - `prepare` rewrites the submitted form before it is parsed (e.g. values shown in the project's
+ *   units back to SI); it runs after the session is read and gets the user (null when signed out).
+ * - `resetForm: false` keeps the typed values after a success; `hideFields` are never echoed back
+ *   (secrets).
  */
-export function formAction<S extends z.ZodType, R>(opts: {
+export function formAction<S extends z.ZodType, R, C extends Ctx<z.infer<S>> = Ctx<z.infer<S>>>(opts: {
   schema: S;
   permission?: Action;
   projectIdField?: string;
-  handler: (ctx: ProjectCtx<z.infer<S>> | Ctx<z.infer<S>>) => Promise<R>;
+  organizationIdField?: string;
+  prepare?: (formData: FormData, user: User | null) => Promise<FormData>;
+  resetForm?: boolean;
+  hideFields?: string[];
+  handler: (ctx: C) => Promise<R>;
 }) {
-  return async (_prev: unknown, formData: FormData): Promise<SubmissionResult<string[]> & { data?: R }> => {
-    const submission = parseWithZod(formData, { schema: opts.schema });
+  const hideFields = opts.hideFields;
+  return async (_prev: unknown, sent: FormData): Promise<SubmissionResult<string[]> & { data?: R }> => {
     const { user } = await validateRequest();
-    if (!user) return submission.reply({ formErrors: ['Your session has ended. Sign in again.'] });
-    if (submission.status !== 'success') return submission.reply();
+    const formData = opts.prepare ? await opts.prepare(sent, user) : sent;
+    const submission = parseWithZod(formData, { schema: opts.schema });
+    if (!user) return submission.reply({ formErrors: [SESSION_ENDED], hideFields });
+    if (submission.status !== 'success') return submission.reply({ hideFields });
     try {
-      let ctx: Ctx<z.infer<S>> | ProjectCtx<z.infer<S>> = { user, input: submission.value };
+      const base: Ctx<z.infer<S>> = { user, input: submission.value };
+      let ctx: Ctx<z.infer<S>> | ProjectCtx<z.infer<S>> | OrganizationCtx<z.infer<S>> = base;
       if (opts.projectIdField) {
         const projectId = String(formData.get(opts.projectIdField) ?? '');
         ctx = {
-          ...ctx,
+          ...base,
           ...(await getProjectAccess({ userId: user.id, projectId, action: opts.permission })),
         };
+      } else if (opts.organizationIdField) {
+        const organizationId = String(formData.get(opts.organizationIdField) ?? '');
+        const access = await getOrganizationAccess({
+          userId: user.id,
+          organizationId,
+          action: opts.permission,
+        });
+        ctx = { ...base, organizationId, ...access };
       } else if (opts.permission) {
         throw new AppError('forbidden'); // permission without a scope cannot be decided
       }
-      const data = await opts.handler(ctx);
+      const data = await opts.handler(ctx as C);
       // conform's reset reply carries no status; the form's success message needs one.
-      return { ...submission.reply({ resetForm: true }), status: 'success' as const, data };
+      const reply = submission.reply(
+        opts.resetForm === false ? { hideFields } : { resetForm: true, hideFields },
+      );
+      return { ...reply, status: 'success' as const, data };
     } catch (e) {
-      if (
-        e &&
-        typeof e === 'object' &&
-        'digest' in e &&
-        String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT')
-      )
-        throw e;
-      return toReply(submission, e);
+      if (isRedirect(e)) throw e;
+      return toReply(submission, e, hideFields);
     }
+  };
+}
+
+/** `formAction`'s handler context with a project scope (`projectIdField`). */
+export type ProjectFormCtx<T> = ProjectCtx<T>;
+/** `formAction`'s handler context with an organization scope (`organizationIdField`). */
+export type OrganizationFormCtx<T> = OrganizationCtx<T>;
+
+/**
+ * A plain `<form action>` on an organization (no form state on the client): session → zod parse →
+ * organization access and role → handler. Failures are thrown as `AppError` (the error boundary
+ * shows the sentence); `invalid` is the sentence for a form that does not parse.
+ */
+export function organizationFormAction<S extends z.ZodType>(opts: {
+  schema: S;
+  permission: Action;
+  invalid: string;
+  handler: (ctx: OrganizationCtx<z.infer<S>>) => Promise<void>;
+}) {
+  return async (formData: FormData): Promise<void> => {
+    const parsed = opts.schema.safeParse(Object.fromEntries(formData));
+    if (!parsed.success) throw new AppError('invalid', opts.invalid);
+    const { user } = await validateRequest();
+    if (!user) throw new AppError('unauthenticated');
+    const organizationId = String(formData.get('organizationId') ?? '');
+    const access = await getOrganizationAccess({ userId: user.id, organizationId, action: opts.permission });
+    await opts.handler({ user, input: parsed.data, organizationId, ...access });
   };
 }
 
@@ -84,7 +141,7 @@ export function projectAction<S extends z.ZodType, R>(
   return async (projectId: string, input: unknown): Promise<ActionResult<R>> => {
     try {
       const { user } = await validateRequest();
-      if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
+      if (!user) throw new AppError('unauthenticated', SESSION_ENDED);
       const access = await getProjectAccess({ userId: user.id, projectId, action: permission });
       // A schema's own messages are sentences for the user; where a schema has none, zod's wording
       // (and the field path) is replaced by one plain sentence: the browser sent something we did not expect.
@@ -104,7 +161,34 @@ export function projectAction<S extends z.ZodType, R>(
     } catch (e) {
       if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
       logUnexpected('action', e);
-      return { ok: false, error: 'Something went wrong on our side. Nothing was saved; try again.' };
+      return { ok: false, error: UNEXPECTED };
+    }
+  };
+}
+
+/**
+ * The file-upload variant of `projectAction`: the client sends the project and a FormData (files do
+ * not travel as JSON). Session → project access and role → handler with the FormData; the handler
+ * reads and checks its own fields (with sentences naming them). Errors come back as a message;
+ * `unexpected` is the sentence for a failure that is not the user's to fix.
+ */
+export function projectFormDataAction<R>(
+  permission: Action,
+  handler: (
+    ctx: Awaited<ReturnType<typeof getProjectAccess>> & { user: User; formData: FormData },
+  ) => Promise<R>,
+  unexpected = UNEXPECTED,
+) {
+  return async (projectId: string, formData: FormData): Promise<ActionResult<R>> => {
+    try {
+      const { user } = await validateRequest();
+      if (!user) throw new AppError('unauthenticated', SESSION_ENDED);
+      const access = await getProjectAccess({ userId: user.id, projectId, action: permission });
+      return { ok: true, data: await handler({ user, formData, ...access }) };
+    } catch (e) {
+      if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
+      logUnexpected('action', e);
+      return { ok: false, error: unexpected };
     }
   };
 }

@@ -124,39 +124,125 @@ export function nusseltFlatPlateAverage(re: number, pr: number): number {
 }
 nusseltFlatPlateAverage.range = { variable: 'Re', min: 0, max: 1e8 } as ValidityRange;
 
-/** Natural-convection correlations by the name a user or configuration picks. */
+/**
+ * What the solver reads of the air at the film temperature: the Prandtl number and the
+ * correlations' Prandtl factors, tabulated against film temperature by `filmAt` (air.ts).
+ */
+export interface FilmFactors {
+  pr: number;
+  /** `prFactorHorizontalCylinderChurchillChu` at the film's Pr. */
+  fCyl: number;
+  /** `prFactorVerticalPlateChurchillChu` at the film's Pr. */
+  fPlate: number;
+  /** `prFactorChurchillBernstein` at the film's Pr. */
+  fCb: number;
+}
+
+/**
+ * A natural-convection registry entry: called as Nu(Ra, Pr), with its validity range, the same
+ * Nusselt number from the film's tabulated Prandtl factor (the solver's hot path), and its slope
+ * d ln Nu / d ln Ra given Ra and that Nu (the natural flux grows as ΔT^(1+slope); the solver's
+ * first Newton step uses it).
+ */
+export interface NaturalCorrelation {
+  (ra: number, pr: number): number;
+  readonly range: ValidityRange;
+  readonly atFilm: (ra: number, film: FilmFactors) => number;
+  readonly slope: (ra: number, nu: number) => number;
+}
+
+/** A forced-convection registry entry: Nu(Re, Pr), its validity range and its hot-path form. */
+export interface ForcedCorrelation {
+  (re: number, pr: number): number;
+  readonly range: ValidityRange;
+  readonly atFilm: (re: number, film: FilmFactors) => number;
+}
+
+const natural = (
+  nu: (ra: number, pr: number) => number,
+  range: ValidityRange,
+  atFilm: NaturalCorrelation['atFilm'],
+  slope: NaturalCorrelation['slope'],
+): NaturalCorrelation => Object.assign((ra: number, pr: number) => nu(ra, pr), { range, atFilm, slope });
+const forced = (
+  nu: (re: number, pr: number) => number,
+  range: ValidityRange,
+  atFilm: ForcedCorrelation['atFilm'],
+): ForcedCorrelation => Object.assign((re: number, pr: number) => nu(re, pr), { range, atFilm });
+
+/**
+ * Natural-convection correlations by the name a user or configuration picks — the only way from a
+ * name to a function: the surface solver dispatches through this table (surface.ts).
+ */
 export const NATURAL_CONVECTION = {
-  'horizontal-cylinder-churchill-chu': nusseltHorizontalCylinderChurchillChu,
-  'vertical-plate-churchill-chu': nusseltVerticalPlateChurchillChu,
-  'horizontal-plate-assisted-lloyd-moran': (ra: number, _pr: number) =>
-    nusseltHorizontalPlateAssistedLloydMoran(ra),
-  'horizontal-plate-opposed-mcadams': (ra: number, _pr: number) => nusseltHorizontalPlateOpposedMcAdams(ra),
-} as const;
+  'horizontal-cylinder-churchill-chu': natural(
+    nusseltHorizontalCylinderChurchillChu,
+    nusseltHorizontalCylinderChurchillChu.range,
+    (ra, film) => nusseltHorizontalCylinderChurchillChuWithFactor(ra, film.fCyl),
+    // Nu = (0.6 + c·Ra^(1/6))² → d ln Nu / d ln Ra = (1 − 0.6/√Nu)/3.
+    (_ra, nu) => (1 - 0.6 / Math.sqrt(nu)) / 3,
+  ),
+  'vertical-plate-churchill-chu': natural(
+    nusseltVerticalPlateChurchillChu,
+    nusseltVerticalPlateChurchillChu.range,
+    (ra, film) => nusseltVerticalPlateChurchillChuWithFactor(ra, film.fPlate),
+    (_ra, nu) => (1 - 0.825 / Math.sqrt(nu)) / 3,
+  ),
+  'horizontal-plate-assisted-lloyd-moran': natural(
+    (ra, _pr) => nusseltHorizontalPlateAssistedLloydMoran(ra),
+    nusseltHorizontalPlateAssistedLloydMoran.range,
+    (ra, _film) => nusseltHorizontalPlateAssistedLloydMoran(ra),
+    (ra, _nu) => (ra <= 1e7 ? 0.25 : 1 / 3),
+  ),
+  'horizontal-plate-opposed-mcadams': natural(
+    (ra, _pr) => nusseltHorizontalPlateOpposedMcAdams(ra),
+    nusseltHorizontalPlateOpposedMcAdams.range,
+    (ra, _film) => nusseltHorizontalPlateOpposedMcAdams(ra),
+    (_ra, _nu) => 0.25,
+  ),
+} as const satisfies Record<string, NaturalCorrelation>;
 
-/** Forced-convection correlations by name. */
+/** Forced-convection correlations by name — likewise the solver's only way to them. */
 export const FORCED_CONVECTION = {
-  'crossflow-cylinder-churchill-bernstein': nusseltCrossflowCylinderChurchillBernstein,
-  'flat-plate-average': nusseltFlatPlateAverage,
-} as const;
-
-export const CORRELATION_RANGES: Record<
-  keyof typeof NATURAL_CONVECTION | keyof typeof FORCED_CONVECTION,
-  ValidityRange
-> = {
-  'horizontal-cylinder-churchill-chu': nusseltHorizontalCylinderChurchillChu.range,
-  'vertical-plate-churchill-chu': nusseltVerticalPlateChurchillChu.range,
-  'horizontal-plate-assisted-lloyd-moran': nusseltHorizontalPlateAssistedLloydMoran.range,
-  'horizontal-plate-opposed-mcadams': nusseltHorizontalPlateOpposedMcAdams.range,
-  'crossflow-cylinder-churchill-bernstein': nusseltCrossflowCylinderChurchillBernstein.range,
-  'flat-plate-average': nusseltFlatPlateAverage.range,
-};
+  'crossflow-cylinder-churchill-bernstein': forced(
+    nusseltCrossflowCylinderChurchillBernstein,
+    nusseltCrossflowCylinderChurchillBernstein.range,
+    (re, film) => nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, film.fCb),
+  ),
+  'flat-plate-average': forced(nusseltFlatPlateAverage, nusseltFlatPlateAverage.range, (re, film) =>
+    nusseltFlatPlateAverage(re, film.pr),
+  ),
+} as const satisfies Record<string, ForcedCorrelation>;
 
 export type NaturalName = keyof typeof NATURAL_CONVECTION;
 export type ForcedName = keyof typeof FORCED_CONVECTION;
 
+/** The dimensionless groups at a solved surface state; a range names which one it bounds. */
+export interface Groups {
+  ra: number;
+  re: number;
+  pr: number;
+}
+const GROUP: Record<ValidityRange['variable'], (g: Groups) => number> = {
+  Ra: (g) => g.ra,
+  Re: (g) => g.re,
+  RePr: (g) => g.re * g.pr,
+};
+
+/** Both registries in one, for what every correlation has: its name and its validity range. */
+const ANY_CONVECTION: Record<NaturalName | ForcedName, { range: ValidityRange }> = {
+  ...NATURAL_CONVECTION,
+  ...FORCED_CONVECTION,
+};
+
 /** A warning text when a dimensionless group falls outside a correlation's range, else null. */
 export function checkRange(name: NaturalName | ForcedName, value: number): string | null {
-  const r = CORRELATION_RANGES[name];
+  const r = ANY_CONVECTION[name].range;
   if (value >= r.min && value <= r.max) return null;
   return `${r.variable} = ${value.toExponential(2)} is outside the range of ${name} (${r.min.toExponential(0)} to ${r.max === Infinity ? '∞' : r.max.toExponential(0)}); result extrapolated`;
+}
+
+/** `checkRange` on the group the correlation's range names (Ra, Re or Re·Pr with the film's real Pr). */
+export function rangeWarning(name: NaturalName | ForcedName, groups: Groups): string | null {
+  return checkRange(name, GROUP[ANY_CONVECTION[name].range.variable](groups));
 }

@@ -4,25 +4,17 @@ const GRAVITY = 9.80665,
   KELVIN = 273.15,
   STEFAN_BOLTZMANN = 5.670374419e-8;
 import {
-  checkRange,
-  nusseltCrossflowCylinderChurchillBernsteinWithFactor,
-  nusseltFlatPlateAverage,
-  nusseltHorizontalCylinderChurchillChuWithFactor,
-  nusseltHorizontalPlateAssistedLloydMoran,
-  nusseltHorizontalPlateOpposedMcAdams,
-  nusseltVerticalPlateChurchillChuWithFactor,
+  FORCED_CONVECTION,
+  NATURAL_CONVECTION,
+  rangeWarning,
+  type ForcedCorrelation,
   type ForcedName,
+  type NaturalCorrelation,
   type NaturalName,
 } from './correlations';
 // The inner loop's imports bound once to local constants: module loaders and bundlers reach an
 // import through an accessor on every use, which the hottest calls should not pay (measured).
 const film = filmAt;
-const nuCb = nusseltCrossflowCylinderChurchillBernsteinWithFactor,
-  nuFlat = nusseltFlatPlateAverage;
-const nuCyl = nusseltHorizontalCylinderChurchillChuWithFactor,
-  nuPlate = nusseltVerticalPlateChurchillChuWithFactor;
-const nuUp = nusseltHorizontalPlateAssistedLloydMoran,
-  nuDown = nusseltHorizontalPlateOpposedMcAdams;
 
 export type Geometry =
   | 'horizontal-pipe'
@@ -61,56 +53,102 @@ export interface Ambient {
   fixedCoefficientWPerM2K?: number;
 }
 
-interface Choice {
-  natural: NaturalName;
-  naturalLength: number;
-  forced: ForcedName;
-  forcedLength: number;
-}
+/** Which of the outside shape's lengths a correlation is scaled by. */
+type LengthScale = 'diameterM' | 'heightM' | 'characteristicLengthM';
 
-const CHOICE: Choice = {
-  natural: 'horizontal-cylinder-churchill-chu',
-  naturalLength: 0,
-  forced: 'crossflow-cylinder-churchill-bernstein',
-  forcedLength: 0,
-};
-/** Correlations and length scales for the shape (filled into one scratch object: this runs in the inner loop). */
-function choose(shape: OuterShape, hotter: boolean): Choice {
-  const c = CHOICE;
-  switch (shape.geometry) {
-    case 'horizontal-pipe':
-      c.natural = 'horizontal-cylinder-churchill-chu';
-      c.naturalLength = shape.diameterM;
-      c.forced = 'crossflow-cylinder-churchill-bernstein';
-      c.forcedLength = shape.diameterM;
-      break;
-    case 'vertical-pipe':
-      c.natural = 'vertical-plate-churchill-chu';
-      c.naturalLength = shape.heightM;
-      c.forced = 'crossflow-cylinder-churchill-bernstein';
-      c.forcedLength = shape.diameterM;
-      break;
-    case 'vertical-wall':
-      c.natural = 'vertical-plate-churchill-chu';
-      c.naturalLength = shape.heightM;
-      c.forced = 'flat-plate-average';
-      c.forcedLength = shape.heightM;
-      break;
-    case 'horizontal-wall-up':
-      c.natural = hotter ? 'horizontal-plate-assisted-lloyd-moran' : 'horizontal-plate-opposed-mcadams';
-      c.naturalLength = shape.characteristicLengthM;
-      c.forced = 'flat-plate-average';
-      c.forcedLength = shape.characteristicLengthM;
-      break;
-    case 'horizontal-wall-down':
-      c.natural = hotter ? 'horizontal-plate-opposed-mcadams' : 'horizontal-plate-assisted-lloyd-moran';
-      c.naturalLength = shape.characteristicLengthM;
-      c.forced = 'flat-plate-average';
-      c.forcedLength = shape.characteristicLengthM;
-      break;
+/**
+ * The correlations for each outside shape, by registry name, and the length each is scaled by.
+ * On a horizontal plate buoyancy assists when a hot surface faces up (or a cold one down) and
+ * opposes otherwise, so the natural correlation depends on whether the surface is hotter than the
+ * air. This table is the one place a shape meets its correlations; `convection` looks the names up
+ * in the registries.
+ */
+export const SURFACE_CORRELATIONS: Record<
+  Geometry,
+  {
+    naturalWhenHotter: NaturalName;
+    naturalWhenColder: NaturalName;
+    naturalLength: LengthScale;
+    forced: ForcedName;
+    forcedLength: LengthScale;
   }
-  return c;
+> = {
+  'horizontal-pipe': {
+    naturalWhenHotter: 'horizontal-cylinder-churchill-chu',
+    naturalWhenColder: 'horizontal-cylinder-churchill-chu',
+    naturalLength: 'diameterM',
+    forced: 'crossflow-cylinder-churchill-bernstein',
+    forcedLength: 'diameterM',
+  },
+  'vertical-pipe': {
+    naturalWhenHotter: 'vertical-plate-churchill-chu',
+    naturalWhenColder: 'vertical-plate-churchill-chu',
+    naturalLength: 'heightM',
+    forced: 'crossflow-cylinder-churchill-bernstein',
+    forcedLength: 'diameterM',
+  },
+  'vertical-wall': {
+    naturalWhenHotter: 'vertical-plate-churchill-chu',
+    naturalWhenColder: 'vertical-plate-churchill-chu',
+    naturalLength: 'heightM',
+    forced: 'flat-plate-average',
+    forcedLength: 'heightM',
+  },
+  'horizontal-wall-up': {
+    naturalWhenHotter: 'horizontal-plate-assisted-lloyd-moran',
+    naturalWhenColder: 'horizontal-plate-opposed-mcadams',
+    naturalLength: 'characteristicLengthM',
+    forced: 'flat-plate-average',
+    forcedLength: 'characteristicLengthM',
+  },
+  'horizontal-wall-down': {
+    naturalWhenHotter: 'horizontal-plate-opposed-mcadams',
+    naturalWhenColder: 'horizontal-plate-assisted-lloyd-moran',
+    naturalLength: 'characteristicLengthM',
+    forced: 'flat-plate-average',
+    forcedLength: 'characteristicLengthM',
+  },
+};
+
+/**
+ * The table above with its names looked up in the registries once, at load: the inner loop then
+ * reads the entries from one object per shape instead of looking names up on every call.
+ */
+interface Plan {
+  whenHotter: NaturalName;
+  whenColder: NaturalName;
+  naturalHotter: NaturalCorrelation;
+  naturalColder: NaturalCorrelation;
+  naturalLength: (s: OuterShape) => number;
+  forcedName: ForcedName;
+  forced: ForcedCorrelation;
+  forcedLength: (s: OuterShape) => number;
 }
+const LENGTH: Record<LengthScale, (s: OuterShape) => number> = {
+  diameterM: (s) => s.diameterM,
+  heightM: (s) => s.heightM,
+  characteristicLengthM: (s) => s.characteristicLengthM,
+};
+function planFor(g: Geometry): Plan {
+  const u = SURFACE_CORRELATIONS[g];
+  return {
+    whenHotter: u.naturalWhenHotter,
+    whenColder: u.naturalWhenColder,
+    naturalHotter: NATURAL_CONVECTION[u.naturalWhenHotter],
+    naturalColder: NATURAL_CONVECTION[u.naturalWhenColder],
+    naturalLength: LENGTH[u.naturalLength],
+    forcedName: u.forced,
+    forced: FORCED_CONVECTION[u.forced],
+    forcedLength: LENGTH[u.forcedLength],
+  };
+}
+const PLANS = {
+  'horizontal-pipe': planFor('horizontal-pipe'),
+  'vertical-pipe': planFor('vertical-pipe'),
+  'vertical-wall': planFor('vertical-wall'),
+  'horizontal-wall-up': planFor('horizontal-wall-up'),
+  'horizontal-wall-down': planFor('horizontal-wall-down'),
+} satisfies Record<Geometry, Plan>;
 
 export interface ConvectionDetail {
   h: number;
@@ -120,6 +158,8 @@ export interface ConvectionDetail {
   forced?: ForcedName;
   re?: number;
   hForced?: number;
+  /** Prandtl number of the air at the film temperature. */
+  pr: number;
 }
 
 /**
@@ -134,6 +174,7 @@ export function convectionDetail(shape: OuterShape, TsC: number, amb: Ambient): 
     natural: DETAIL.natural,
     ra: DETAIL.ra,
     hNatural: DETAIL.hNatural,
+    pr: DETAIL.pr,
   };
   if (DETAIL.forced) {
     d.forced = DETAIL.forced;
@@ -148,7 +189,13 @@ export function convectiveCoefficient(shape: OuterShape, TsC: number, amb: Ambie
   return convection(shape, TsC, amb, null);
 }
 
-const DETAIL: ConvectionDetail = { h: 0, natural: 'horizontal-cylinder-churchill-chu', ra: 0, hNatural: 0 };
+const DETAIL: ConvectionDetail = {
+  h: 0,
+  natural: 'horizontal-cylinder-churchill-chu',
+  ra: 0,
+  hNatural: 0,
+  pr: 0,
+};
 
 /**
  * The one implementation behind both forms: film properties from the tabulated formulas (`filmAt`),
@@ -156,31 +203,17 @@ const DETAIL: ConvectionDetail = { h: 0, natural: 'horizontal-cylinder-churchill
  */
 function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: ConvectionDetail | null): number {
   const dT = TsC - amb.airC;
-  const c = choose(shape, dT > 0);
+  const plan = PLANS[shape.geometry];
+  const hotter = dT > 0;
   const air = film(0.5 * (TsC + amb.airC) + KELVIN);
-  const L = c.naturalLength;
+  const L = plan.naturalLength(shape);
   const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
   let nuN = 0,
     m = 0; // m = d ln Nu / d ln Ra of the natural correlation
   if (ra > 0) {
-    switch (c.natural) {
-      case 'horizontal-cylinder-churchill-chu':
-        nuN = nuCyl(ra, air.fCyl);
-        m = (1 - 0.6 / Math.sqrt(nuN)) / 3;
-        break;
-      case 'vertical-plate-churchill-chu':
-        nuN = nuPlate(ra, air.fPlate);
-        m = (1 - 0.825 / Math.sqrt(nuN)) / 3;
-        break;
-      case 'horizontal-plate-assisted-lloyd-moran':
-        nuN = nuUp(ra);
-        m = ra <= 1e7 ? 0.25 : 1 / 3;
-        break;
-      case 'horizontal-plate-opposed-mcadams':
-        nuN = nuDown(ra);
-        m = 0.25;
-        break;
-    }
+    const natural = hotter ? plan.naturalHotter : plan.naturalColder;
+    nuN = natural.atFilm(ra, air);
+    m = natural.slope(ra, nuN);
   }
   const hN = (nuN * air.k) / L;
   let h = hN,
@@ -190,10 +223,9 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
   // natural term grows as ΔT^m, the forced term not at all, combined by the cube rule.
   let dq = hN * (1 + m);
   if (amb.windMs > 0) {
-    re = (amb.windMs * c.forcedLength) / air.nu;
-    const nuF =
-      c.forced === 'crossflow-cylinder-churchill-bernstein' ? nuCb(re, air.fCb) : nuFlat(re, air.pr);
-    hF = (nuF * air.k) / c.forcedLength;
+    const Lf = plan.forcedLength(shape);
+    re = (amb.windMs * Lf) / air.nu;
+    hF = (plan.forced.atFilm(re, air) * air.k) / Lf;
     const hN3 = hN * hN * hN;
     h = Math.cbrt(hF * hF * hF + hN3);
     dq = h + (hN3 / (h * h)) * m;
@@ -201,12 +233,13 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
   CONVECTIVE_SLOPE.value = dq;
   if (detail) {
     detail.h = h;
-    detail.natural = c.natural;
+    detail.natural = hotter ? plan.whenHotter : plan.whenColder;
     detail.ra = ra;
     detail.hNatural = hN;
-    detail.forced = amb.windMs > 0 ? c.forced : undefined;
+    detail.forced = amb.windMs > 0 ? plan.forcedName : undefined;
     detail.re = amb.windMs > 0 ? re : undefined;
     detail.hForced = amb.windMs > 0 ? hF : undefined;
+    detail.pr = air.pr;
   }
   return h;
 }
@@ -235,12 +268,13 @@ export function surfaceFlux(shape: OuterShape, TsC: number, amb: Ambient): numbe
 /** Warnings for correlations used outside their stated range at the solved surface state. */
 export function surfaceWarnings(d: ConvectionDetail): string[] {
   const w: string[] = [];
+  const groups = { ra: d.ra, re: d.re ?? 0, pr: d.pr };
   if (d.ra > 0) {
-    const m = checkRange(d.natural, d.ra);
+    const m = rangeWarning(d.natural, groups);
     if (m) w.push(m);
   }
   if (d.forced && d.re !== undefined) {
-    const m = checkRange(d.forced, d.forced === 'crossflow-cylinder-churchill-bernstein' ? d.re * 0.7 : d.re);
+    const m = rangeWarning(d.forced, groups);
     if (m) w.push(m);
   }
   return w;

@@ -105,7 +105,7 @@ beforeAll(async () => {
   for (const l of await db.select().from(lines).where(eq(lines.projectId, projectId))) id[l.tag] = l.id;
 
   const rec = async (tag: string) => (await result(tag)).recommendedMm!;
-  const cands = (await result('B-3')).candidates as [number, [string, number][]][];
+  const cands = (await result('B-3')).candidates;
   const thinner = cands[1][0];
   expect(thinner).toBeLessThan(await rec('B-3'));
   const b3 = await store.pickDesign({
@@ -132,9 +132,7 @@ beforeAll(async () => {
   await store.solveProject({ projectId });
   // B-7 holds what an earlier solve recommended: another candidate.
   const rec7 = await rec('B-7');
-  const other = ((await result('B-7')).candidates as [number, [string, number][]][]).find(
-    (c) => c[0] > 0 && c[0] !== rec7,
-  )!;
+  const other = (await result('B-7')).candidates.find((c) => c[0] > 0 && c[0] !== rec7)!;
   await db
     .update(lineDesigns)
     .set({
@@ -356,7 +354,7 @@ describe('accept recommendation for the filtered lines', () => {
     expect(p).toMatchObject({ change: 2, leftAlone: { alreadyAccepted: 2 } }); // B-1 was accepted by hand just now
     const r = await apply({ area: 'A' }, p.items);
     const b2 = (await designs())['B-2'];
-    const cands = ((await result('B-2')).candidates as [number][]).map((c) => c[0]);
+    const cands = (await result('B-2')).candidates.map((c) => c[0]);
     await store.pickDesign({
       projectId,
       lineId: id['B-2'],

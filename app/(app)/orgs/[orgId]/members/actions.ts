@@ -1,18 +1,18 @@
 'use server';
 import { revalidatePath } from 'next/cache';
+import type { z } from 'zod';
 import { formSchemas } from '@/lib/forms/schemas';
-import { formAction } from '@/lib/server/action';
-import { getOrganizationAccess } from '@/db/queries/projects';
+import { formAction, type OrganizationFormCtx } from '@/lib/server/action';
 import * as auth from '@/lib/auth/service';
 
-/** Members are organization-scoped: the role is checked on the organization named in the form. */
-const assertOwner = (userId: string, organizationId: string) =>
-  getOrganizationAccess({ userId, organizationId, action: 'members.manage' });
+// Members are organization-scoped: the wrapper checks the role on the organization named in the form.
+type Ctx<K extends keyof typeof formSchemas> = OrganizationFormCtx<z.infer<(typeof formSchemas)[K]>>;
 
 export const inviteAction = formAction({
   schema: formSchemas.invite,
-  handler: async ({ user, input }) => {
-    await assertOwner(user.id, input.organizationId);
+  permission: 'members.manage',
+  organizationIdField: 'organizationId',
+  handler: async ({ user, input }: Ctx<'invite'>) => {
     await auth.inviteMember({ actorId: user.id, ...input });
     revalidatePath(`/orgs/${input.organizationId}/members`);
   },
@@ -20,8 +20,9 @@ export const inviteAction = formAction({
 
 export const changeRoleAction = formAction({
   schema: formSchemas.changeRole,
-  handler: async ({ user, input }) => {
-    await assertOwner(user.id, input.organizationId);
+  permission: 'members.manage',
+  organizationIdField: 'organizationId',
+  handler: async ({ input }: Ctx<'changeRole'>) => {
     await auth.changeMemberRole(input);
     revalidatePath(`/orgs/${input.organizationId}/members`);
   },
@@ -29,8 +30,9 @@ export const changeRoleAction = formAction({
 
 export const removeMemberAction = formAction({
   schema: formSchemas.removeMember,
-  handler: async ({ user, input }) => {
-    await assertOwner(user.id, input.organizationId);
+  permission: 'members.manage',
+  organizationIdField: 'organizationId',
+  handler: async ({ input }: Ctx<'removeMember'>) => {
     await auth.removeMember(input);
     revalidatePath(`/orgs/${input.organizationId}/members`);
   },

@@ -156,8 +156,8 @@ export function BasisForm({
 
       {result?.status === 'success' ? (
         <p role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm">
-          Saved as design-basis revision {(result as { revision?: number }).revision}. Lines solved under the
-          earlier revision are now marked stale.
+          Saved as design-basis revision {result.data?.revision}. Lines solved under the earlier revision are
+          now marked stale.
         </p>
       ) : null}
       {result?.error?.[''] ? (

@@ -10,7 +10,7 @@ function Messages({ result, done }: { result: Result; done: string }) {
   if (result?.status === 'success')
     return (
       <p role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm">
-        {done} Design-basis revision {result.revision}: lines solved earlier are now stale.
+        {done} Design-basis revision {result.data?.revision}: lines solved earlier are now stale.
       </p>
     );
   if (result?.error?.[''])

@@ -1,31 +1,23 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
-import { projectAction, type ActionResult } from '@/lib/server/action';
-import { validateRequest } from '@/lib/auth/session';
-import { getProjectAccess } from '@/db/queries/projects';
-import { AppError, isAppError } from '@/lib/errors';
+import { projectAction, projectFormDataAction } from '@/lib/server/action';
+import { AppError } from '@/lib/errors';
 import { MAX_UPLOAD_BYTES } from '@/lib/lines';
 import { lineFilterSchema } from '@/lib/lines/filter';
 import { readImportRequest } from '@/lib/lines/import-request';
 import type { DraftSummary } from '@/lib/lines/store';
 import * as store from '@/lib/lines/store';
 import { enqueueJob } from '@/lib/jobs/store';
-import { logUnexpected } from '@/lib/log';
 
 // The mapping step's request is read by readImportRequest in the handler (after the session and
 // role checks), so every malformed part becomes a sentence about its field rather than schema text.
 const draftInput = z.unknown();
 
 /** Upload: FormData with `file`. Checked for size before parsing; nothing is stored but the parsed draft. */
-export async function uploadLineListAction(
-  projectId: string,
-  formData: FormData,
-): Promise<ActionResult<DraftSummary>> {
-  try {
-    const { user } = await validateRequest();
-    if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
-    await getProjectAccess({ userId: user.id, projectId, action: 'lines.edit' });
+export const uploadLineListAction = projectFormDataAction(
+  'lines.edit',
+  async ({ project, user, formData }): Promise<DraftSummary> => {
     const file = formData.get('file');
     if (!(file instanceof File) || file.size === 0)
       throw new AppError('invalid', 'Choose a line-list file (.xlsx or .csv).', { file: ['Choose a file.'] });
@@ -36,16 +28,10 @@ export async function uploadLineListAction(
         { file: ['File too large.'] },
       );
     const bytes = Buffer.from(await file.arrayBuffer());
-    return {
-      ok: true,
-      data: await store.createDraft({ projectId, userId: user.id, fileName: file.name, bytes }),
-    };
-  } catch (e) {
-    if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
-    logUnexpected('upload', e);
-    return { ok: false, error: 'The file could not be read. Nothing was imported.' };
-  }
-}
+    return store.createDraft({ projectId: project.id, userId: user.id, fileName: file.name, bytes });
+  },
+  'The file could not be read. Nothing was imported.',
+);
 
 export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
   store.previewDraft({ projectId: project.id, ...readImportRequest(input) }),

@@ -21,6 +21,7 @@ import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } fr
 import type { BulkPreview } from '@/lib/lines/bulk-accept';
 import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
+import { criterionLabel } from '@/lib/lines/criterion-labels';
 
 interface Candidate {
   mm: number;
@@ -68,14 +69,6 @@ interface Page {
   size: number;
 }
 
-const GOV: Record<string, string> = {
-  personnel: 'Personnel',
-  condensation: 'Condensation',
-  heatLossLimit: 'Heat-loss limit',
-  processDrop: 'Process drop',
-  freeze: 'Freeze',
-  economic: 'Economic',
-};
 const ch = createColumnHelper<Row>();
 
 export function LineTable({
@@ -314,7 +307,7 @@ export function LineTable({
       }),
       ch.accessor('governing', {
         header: 'Governs',
-        cell: (c) => (c.getValue() ? (GOV[c.getValue()!] ?? c.getValue()) : '—'),
+        cell: (c) => (c.getValue() ? criterionLabel(c.getValue()!, true) : '—'),
       }),
       ch.accessor('surfaceTempC', {
         header: `Surface ${u.units.temp}`,
@@ -885,7 +878,7 @@ function Badges({ row }: { row: Row }) {
       {row.stale ? <span className="badge bg-ochre-100 text-ochre-900">stale</span> : null}
       {row.unmet?.length ? (
         <span className="badge bg-alarm-100 text-alarm-700" title={row.unmet.join(', ')}>
-          unmet: {row.unmet.map((u) => GOV[u] ?? u).join(', ')}
+          unmet: {row.unmet.map((u) => criterionLabel(u, true)).join(', ')}
         </span>
       ) : null}
       {row.belowCriterion ? (

@@ -82,7 +82,7 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
             </thead>
             <tbody>
               {revisions.map((r) => {
-                const d = r.diff as { added: string[]; changed: unknown[]; removed: string[] };
+                const d = r.diff;
                 return (
                   <tr key={r.id}>
                     <td className="num">{r.number}</td>

@@ -11,7 +11,9 @@ import { economicsView } from '@/lib/lines/economics-view';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import type { LineInput } from '@/lib/lines/validate';
 import { inputOf } from '@/lib/lines/store';
-import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
+import { candidateNumbers, decidingLimits, worstMargin } from '@/lib/lines/deciding';
+import { decodeCandidate } from '@/lib/lines/candidate-row';
+import { criterionLabel } from '@/lib/lines/criterion-labels';
 import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
 import { criteriaFor } from '@/lib/lines/solve-line';
 import {
@@ -20,8 +22,6 @@ import {
   designFactor,
   energyTerms,
   vesselPartDecisions,
-  type ConditionSetId,
-  type CriterionOutcome,
 } from '@/lib/thermal';
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
@@ -42,16 +42,6 @@ export async function generateMetadata({
 }
 
 const PART_LABEL = { shell: 'Shell', top: 'Top head', bottom: 'Bottom head' } as const;
-
-const CRITERION: Record<string, string> = {
-  personnel: 'Personnel protection',
-  condensation: 'Condensation control',
-  heatLossLimit: 'Heat-loss limit',
-  processDrop: 'Process temperature drop',
-  freeze: 'Freeze protection',
-  energyCode: 'Energy code minimum',
-  economic: 'Economic thickness',
-};
 
 function Changes({ lines }: { lines: string[] }) {
   return lines.length ? (
@@ -81,57 +71,40 @@ export default async function LinePage({
   const ev = result ? economicsView(basis, line as unknown as LineInput, design?.thicknessMm ?? null) : null;
   const u = formatterFor(basis);
   const msg = (t: string) => localizeMessage(t, u);
-  const cands = (result?.candidates ?? []) as CandidateRow[];
+  const cands = (result?.candidates ?? []).map(decodeCandidate);
+  const rows = result?.candidates ?? [];
   const limits = decidingLimits(basis, line as unknown as LineInput, result?.jacketId ?? null);
-  const nums = result ? candidateNumbers(basis, inputOf(line), result.jacketId, cands, limits) : [];
+  const nums = result ? candidateNumbers(basis, inputOf(line), result.jacketId, rows, limits) : [];
   const atMm = design?.thicknessMm ?? result?.recommendedMm ?? null;
-  const econ =
-    (result?.outcomes as
-      | {
-          id: string;
-          requiredMm: number | null;
-          message: string;
-          conditionSet?: ConditionSetId | 'none';
-          limitC?: number;
-          touchBasis?: string;
-        }[]
-      | undefined) ?? [];
+  const econ = result?.outcomes ?? [];
   const crit = criteriaFor(basis, line.outdoor);
   const cui = cuiScreenFor(basis, inputOf(line));
   // A vessel's parts from the stored outcomes and candidates (the engine's own rule, vesselPartDecisions).
   const partDecisions =
-    result && line.geometry === 'vessel' && (result.outcomes as { parts?: unknown }[]).some((o) => o.parts)
+    result && line.geometry === 'vessel' && result.outcomes.some((o) => o.parts)
       ? vesselPartDecisions(
-          result.outcomes as CriterionOutcome[],
-          cands.map((c) => ({ totalMm: c[0], serviceLimitOk: c[6] })),
+          result.outcomes,
+          cands.map((c) => ({ totalMm: c.mm, serviceLimitOk: c.withinLimits })),
         )
       : null;
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
   const energy = energyTerms(basis.economics, cold);
-  const layerMaterials = [
-    ...new Set(((result?.layers ?? []) as { materialId: string }[]).map((l) => l.materialId)),
-  ]
+  const layerMaterials = [...new Set((result?.layers ?? []).map((l) => l.materialId))]
     .map((id) => cat.materials.get(id))
     .filter((m) => m !== undefined);
   const wind = (ms: number) => (u.system === 'US' ? `${sig(ms / 0.44704, 2)} mph` : `${ms} m/s`);
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
-  const d = result?.design as
-    | {
-        profileC: { radiusOrDepthM: number; tempC: number }[];
-        overall: {
-          perLengthWPerMK?: number;
-          outerSurface: { valueWPerM2K: number; diameterM?: number };
-          innerSurface: { valueWPerM2K: number; diameterM?: number };
-        };
-        convective: number;
-        radiative: number;
-      }
-    | null
-    | undefined;
+  const d = result?.design;
   const surface = isSurfaceGeometry(line.geometry);
   const fittingsW =
     result && result.heatFlowPerUnit !== null
-      ? lineFittingsW(basis, line, result.heatFlowPerUnit, cands[0]?.[2] ?? 0, result.recommendedMm === 0)
+      ? lineFittingsW(
+          basis,
+          line,
+          result.heatFlowPerUnit,
+          cands[0]?.heatFlow ?? 0,
+          result.recommendedMm === 0,
+        )
       : 0;
   const per = surface ? u.units.area : u.units.length;
   const recNums = nums.find((c) => c.mm === result?.recommendedMm);
@@ -211,7 +184,7 @@ export default async function LinePage({
                 {result.recommendedMm === null ? 'none' : u.thickness(result.recommendedMm)}
               </p>
               <p className="mb-2 text-sm text-ink-600">
-                {(result.layers as { materialId: string; thicknessMm: number }[])
+                {result.layers
                   .map(
                     (l) =>
                       `${u.thickness(l.thicknessMm)} ${cat.materials.get(l.materialId)?.name ?? l.materialId}`,
@@ -223,7 +196,7 @@ export default async function LinePage({
                   <li key={o.id} data-testid={`criterion-${o.id}`}>
                     <strong>
                       {o.id === result.governing ? '▶ ' : ''}
-                      {CRITERION[o.id] ?? o.id}
+                      {criterionLabel(o.id)}
                     </strong>
                     : {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}
                     <span className="block text-xs text-ink-500" data-testid={`criterion-${o.id}-conditions`}>
@@ -245,9 +218,9 @@ export default async function LinePage({
                   </li>
                 ))}
               </ul>
-              {(result.warnings as string[]).length ? (
+              {result.warnings.length ? (
                 <ul className="mt-2 space-y-1 text-xs text-alarm-700">
-                  {(result.warnings as string[]).map((w, i) => (
+                  {result.warnings.map((w, i) => (
                     <li key={i}>{msg(w)}</li>
                   ))}
                 </ul>
@@ -288,7 +261,7 @@ export default async function LinePage({
           <section className="panel p-4">
             <h2 className="mb-2">Cost curve</h2>
             <CostChart
-              points={cands.map((c) => ({ mm: c[0], heatFlow: c[2], annualCost: c[5] }))}
+              points={cands.map((c) => ({ mm: c.mm, heatFlow: c.heatFlow, annualCost: c.annualCost }))}
               optimumMm={optimum}
               chosenMm={design?.thicknessMm ?? null}
               surface={surface}
@@ -589,10 +562,10 @@ export default async function LinePage({
                       ? 'none'
                       : u.thickness(partDecisions[p].recommendedMm)}
                   </td>
-                  <td>{partDecisions[p].governing ? CRITERION[partDecisions[p].governing!] : '—'}</td>
+                  <td>{partDecisions[p].governing ? criterionLabel(partDecisions[p].governing!) : '—'}</td>
                   <td>
                     {partDecisions[p].unmet.length
-                      ? `${partDecisions[p].unmet.map((x: string) => CRITERION[x] ?? x).join(', ')}: guard or another system for this part`
+                      ? `${partDecisions[p].unmet.map((x: string) => criterionLabel(x)).join(', ')}: guard or another system for this part`
                       : '—'}
                   </td>
                 </tr>

@@ -8,14 +8,8 @@ import {
   dispositionsFor,
   type Disposition,
 } from '@/lib/review/dispositions';
+import type { Flag } from '@/lib/review/flags';
 
-interface Flag {
-  type: string;
-  message: string;
-  valueC?: number;
-  limitC?: number;
-  conditions?: string;
-}
 export interface QueueItem {
   id: string;
   tag: string;
@@ -23,7 +17,7 @@ export interface QueueItem {
   flags: Flag[];
   status: 'open' | 'decided' | 'reopened';
   reopenReason: string | null;
-  disposition: string | null;
+  disposition: Disposition | null;
   comment: string | null;
   requiredMm: number | null;
   requiredText?: string | null;
@@ -31,7 +25,6 @@ export interface QueueItem {
   carriedFromRound: number | null;
 }
 
-const LABEL = DISPOSITION_LABEL as Record<string, string>;
 /** Dispositions that fit every one of these items (each hazard has its own list). */
 const fitting = (items: QueueItem[]) =>
   DISPOSITIONS.filter((d) => items.every((i) => dispositionsFor(i.flags.map((f) => f.type)).includes(d)));
@@ -168,7 +161,7 @@ export function ReviewQueue({
               <option value="">Choose…</option>
               {options.map((k) => (
                 <option key={k} value={k}>
-                  {LABEL[k]}
+                  {DISPOSITION_LABEL[k]}
                 </option>
               ))}
             </select>
@@ -283,7 +276,7 @@ export function ReviewQueue({
                 <td>
                   {i.disposition ? (
                     <>
-                      {LABEL[i.disposition]}
+                      {DISPOSITION_LABEL[i.disposition]}
                       {i.requiredText ? ` (${i.requiredText})` : ''}
                       {i.comment ? (
                         <p className="text-xs text-ink-600">

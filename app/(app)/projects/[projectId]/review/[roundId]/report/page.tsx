@@ -2,7 +2,7 @@ import { loadProject, orNotFound } from '@/lib/server/page';
 import { Denied } from '@/components/denied';
 import { getRound } from '@/lib/review/store';
 import { DISPOSITION_LABEL, type Disposition } from '@/lib/review/store';
-import { FLAG_LABEL, type Flag } from '@/lib/review/flags';
+import { FLAG_LABEL } from '@/lib/review/flags';
 import { PrintButton } from './print-button';
 import { getDesignBasis } from '@/lib/lines/store';
 import { formatterFor, localizeMessage } from '@/lib/format';
@@ -20,18 +20,7 @@ export default async function ReportPage({
   const data = await orNotFound(getRound({ projectId: project.id, roundId }));
   const { round, items } = data;
   const u = formatterFor((await getDesignBasis({ projectId: project.id })).basis);
-  const snap = round.snapshot as {
-    signedBy: string;
-    items: {
-      tag: string;
-      area: string;
-      flags: Flag[];
-      disposition: Disposition;
-      comment: string | null;
-      requiredMm: number | null;
-      decidedBy: string | null;
-    }[];
-  } | null;
+  const snap = round.snapshot;
   // A signed-off round prints exactly what was signed; an open one prints the current state.
   const rows = snap
     ? snap.items

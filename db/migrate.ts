@@ -13,7 +13,7 @@ import { Pool } from 'pg';
 import { env } from '../lib/env';
 
 /** Tables the application may only read and append to. */
-const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues'] as const;
+const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues', 'design_reports'] as const;
 
 const ident = (s: string) => `"${s.replace(/"/g, '""')}"`;
 

@@ -1,6 +1,6 @@
 import { relations, sql } from 'drizzle-orm';
 import {
-  boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
+  boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core';
 
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
@@ -310,6 +310,28 @@ export const boqIssues = pgTable('boq_issues', {
   counted: integer('counted').notNull(),
   pending: integer('pending').notNull(),
 }, (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)]);
+
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
+/**
+ * Issued revisions of the project design report, numbered per project like the bill; the PDF is
+ * kept byte for byte as issued (append-only: the application may only read and add).
+ */
+export const designReports = pgTable('design_reports', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  number: integer('number').notNull(),
+  issuedBy: text('issued_by').notNull().references(() => users.id),
+  issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+  basisRevision: integer('basis_revision').notNull(),
+  lineListRevision: integer('line_list_revision'),
+  calcVersion: text('calc_version').notNull(),
+  note: text('note').notNull().default(''),
+  /** The figures the report states (totals, counts), for the revision list and checks. */
+  summary: jsonb('summary').notNull(),
+  sha256: text('sha256').notNull(),
+  pdf: bytea('pdf').notNull(),
+}, (t) => [uniqueIndex('design_reports_number_key').on(t.projectId, t.number)]);
 
 /** The plant's heat-loss budget and its allocation by area. */
 export const budgets = pgTable('budgets', {

@@ -54,13 +54,14 @@ export const ACCENT = '#1d5c63';
 export const ALARM = '#a3261b';
 export const SHADE = '#eef2f4';
 
-const FONT = process.env.NOMATH ? 'Plex' : ['Plex', 'Math'];
+const FONT = ['Plex', 'Math'];
+const LH = {};
 
 export type Style = Record<string, string | number | undefined>;
 
 export function Txt({ children, style }: { children?: ReactNode; style?: Style | Style[] }) {
   const { Text } = r();
-  return <Text style={style as never}>{children}</Text>;
+  return <Text style={[LH, ...(Array.isArray(style) ? style : style ? [style] : [])] as never}>{children}</Text>;
 }
 
 export function Box({ children, style, wrap, minPresenceAhead }: { children?: ReactNode; style?: Style | Style[]; wrap?: boolean; minPresenceAhead?: number }) {
@@ -99,8 +100,8 @@ export function FramedPage({ info, children, titleBlock = true }: { info: FrameI
           </View>
         </View>
       ) : null}
-      {/* lineHeight stays off the page itself: on a dynamic (page-number) text it hides the text. */}
-      <View style={{ lineHeight: 1.3 }}>{children}</View>
+      {/* No lineHeight on the page: inherited by the dynamic page-number text, it hides it (texts set their own). */}
+      {children}
       <Text fixed style={{ position: 'absolute', bottom: 18, left: 40, right: 110, fontSize: 6.5, color: MUTED, borderTopWidth: 0.5, borderColor: RULE, paddingTop: 3 }}>{pdfSafe(info.footer)}</Text>
       <Text fixed style={{ position: 'absolute', bottom: 18, right: 40, fontSize: 6.5 }} render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
     </Page>

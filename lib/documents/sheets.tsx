@@ -10,8 +10,7 @@ import { renderPdf } from './pdf-kit';
 import { SheetsDocument } from './sheet-pdf';
 import { sheetModel, type SheetModel } from './sheet-model';
 
-/** A synchronous request renders at most this many sheets; more go to the worker as a job. */
-export const SHEETS_INLINE_LIMIT = 50;
+export { SHEETS_INLINE_LIMIT } from './limits';
 
 export async function projectHeader(projectId: string) {
   const [p] = await db.select({ project: projects, organization: organizations.name }).from(projects)

@@ -6,6 +6,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type So
 import { applyBulkAcceptAction, pickThicknessAction, previewBulkAcceptAction, solveLinesAction, undoBulkAcceptAction } from './actions';
 import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } from '@/lib/lines/filter';
 import type { BulkPreview } from '@/lib/lines/bulk-accept';
+import { SHEETS_INLINE_LIMIT } from '@/lib/documents/limits';
 import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 
@@ -131,6 +132,7 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
           <select id="f-status" className="input" value={status} onChange={(e) => { setStatus(e.target.value); setPage(0); }}>
             <option value="">Any</option>{LINE_STATUSES.map((s) => <option key={s} value={s}>{LINE_STATUS_LABEL[s]}</option>)}
           </select></div>
+        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
         <div className="ml-auto flex gap-2">
           {canSolve ? <button className="btn-quiet" onClick={solve} disabled={pending}>Solve stale lines</button> : null}
           {canPick ? <button className="btn-primary" onClick={previewAccept} disabled={pending || !total}>Accept recommendation for the filtered lines</button> : null}
@@ -179,6 +181,25 @@ function UndoButton({ onUndo, disabled }: { onUndo: () => void; disabled: boolea
   // It appears while the accept is still finishing (disabled): focus it once it can take focus.
   useEffect(() => { if (!disabled && !focused.current) { ref.current?.focus(); focused.current = true; } }, [disabled]);
   return <button ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>Undo</button>;
+}
+
+/** Downloads of exactly what the filter shows: results (.xlsx, .csv), everything, and the calculation sheets. */
+function DocumentLinks({ projectId, filter, total }: { projectId: string; filter: { q: string; area: string; status: string }; total: number }) {
+  const f = new URLSearchParams(Object.entries(filter).filter(([, v]) => v));
+  const base = `/api/v1/projects/${projectId}`;
+  const withF = (path: string, extra: Record<string, string> = {}) => `${base}/${path}?${new URLSearchParams([...f.entries(), ...Object.entries(extra)]).toString()}`;
+  return (
+    <div className="text-xs" aria-label="Downloads">
+      <span className="label">Download</span>
+      <span className="flex flex-wrap gap-x-3">
+        <a href={withF('export', { format: 'xlsx' })} download>Results of the filtered lines (.xlsx)</a>
+        <a href={withF('export', { format: 'csv' })} download>(.csv)</a>
+        <a href={`${base}/export?scope=all&format=xlsx`} download>All lines (.xlsx)</a>
+        {total > 0 && total <= SHEETS_INLINE_LIMIT ? <a href={withF('sheets')} download>Calculation sheets of the {total} filtered lines (PDF)</a>
+          : total > SHEETS_INLINE_LIMIT ? <span className="text-ink-500">Calculation sheets: filter to {SHEETS_INLINE_LIMIT} lines or fewer</span> : null}
+      </span>
+    </div>
+  );
 }
 
 /** The confirmation: how many lines change and how many are left alone (and why), for the filter shown. */

@@ -13,6 +13,7 @@ import type { LineInput } from '@/lib/lines/validate';
 import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
+import { PrintButton } from '@/components/print-button';
 
 export const metadata = { title: 'Line' };
 
@@ -52,7 +53,14 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const msgKey = (t: string) => (u.system === 'SI' && u.series === 'mm' ? t : t.replace(/thickness \(mm\): (.*)$/, (_, v: string) => `thickness: ${v.replace(/-?\d+(?:\.\d+)?/g, (n) => u.thickness(Number(n)))}`).replace(/required \(mm\): (-?\d+(?:\.\d+)?)/, (_, n: string) => `required: ${u.thickness(Number(n))}`));
   return (
     <>
-      <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/lines`}>← Line list</Link></p>
+      <div className="no-print mb-1 flex flex-wrap items-center justify-between gap-2 text-sm">
+        <Link href={`/projects/${project.id}/lines`}>← Line list</Link>
+        <span className="flex items-center gap-3">
+          <a href={`/api/v1/projects/${project.id}/lines/${line.id}/sheet`} download>Download calculation sheet (PDF)</a>
+          <PrintButton label="Print this page" />
+        </span>
+      </div>
+      <p className="mb-1 hidden text-xs text-ink-600 print:block">{project.code} · {project.name} · calculation sheet · line-list revision {line.revision} · design basis revision {result?.basisRevision ?? '—'} · calculation version {result?.calcVersion ?? '—'}</p>
       <h1 className="mb-1 font-mono">{line.tag}</h1>
       <p className="mb-4 text-sm text-ink-600">{line.service} · {line.area} · {GEOMETRY_LABEL[line.geometry]} {line.nps ? `NPS ${line.nps}` : ''} {line.outsideDiameterMm ? `(${u.diameter(line.outsideDiameterMm)} OD)` : ''}</p>
       <div className="mb-4"><ResultCautions /></div>

@@ -1,14 +1,24 @@
 /**
- * npm run bench:import — a generated 10,000-row line list (.xlsx) read, validated, imported in one
- * transaction, solved and stored; then the line-table query for the 10,000-line project, a page of
- * 100 rows with a sort and a filter, as the route handler runs it (query + JSON).
- * Goals: ≤ 15 s end to end and ≤ 600 MB peak memory; table p95 ≤ 150 ms.
+ * npm run bench:import [N] — a generated N-row line list (.xlsx, default 10,000) read, validated,
+ * imported in one transaction, solved and stored, step by step in this process; then the product
+ * path: the same file uploaded again into a new project and imported + solved as a background job
+ * by a worker process (enqueue → worker → results). Then the line-table query, a page of 100 rows
+ * with a sort and a filter, as the route handler runs it (query + JSON), and its payload.
+ * The last two lines are the job's figures: `end-to-end seconds: <n>` (upload read to results
+ * stored) and `peak RSS MB: <n>` (the larger of this process and the worker).
  */
+import { spawn } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { eq } from 'drizzle-orm';
+import { jobs } from '../db/schema';
+import { enqueueJob } from '../lib/jobs/store';
+import { stopBoss } from '../lib/jobs/boss';
 import { randomUUID } from 'node:crypto';
 import { db, getPool } from '../db/client';
 import { projects } from '../db/schema';
 import * as auth from '../lib/auth/service';
 import * as store from '../lib/lines/store';
+import { getPickerOptions } from '../lib/lines/picker';
 import ExcelJS from 'exceljs';
 import { demoLineRows, lineListWorkbook } from '../seed/line-list';
 import { parseUpload, viewSheet } from '../lib/lines/parse';
@@ -71,6 +81,10 @@ async function main() {
   times.sort((a, b) => a - b);
   const pct = (q: number) => times[Math.min(times.length - 1, Math.floor(q * times.length))].toFixed(1);
   console.log(`line table, 60 pages of 100 (sort + filter): p50 ${pct(0.5)} ms, p95 ${pct(0.95)} ms, max ${times[times.length - 1].toFixed(1)} ms (goal p95 ≤ 150 ms)`);
+  const first = await store.listLines({ projectId: p.id, page: 0, size: 100, sort: 'tag', dir: 'asc' });
+  const picker = (await getPickerOptions({ projectId: p.id, lineId: first.rows[0].id })).candidates;
+  const kb = (v: unknown) => (Buffer.byteLength(JSON.stringify(v)) / 1024).toFixed(1);
+  console.log(`line table payload: ${kb(first)} KB per 100 rows (goal ≤ 60 KB); one picker's options ${kb({ candidates: picker })} KB, read when it opens`);
 }
 
 /** Reading a client-style workbook as the mapping step does: parse, find the header, suggest, validate with the value answers. */
@@ -86,4 +100,36 @@ async function clientStyle() {
   console.log(`client-style workbook (${N} rows, title rows above the header on row ${sheet.headerRow}, °F/ft/in, own location words): read ${(tRead / 1000).toFixed(2)} s, header + mapping + check ${(tCheck / 1000).toFixed(2)} s (${v.lines.length} lines, ${v.errorCount} errors)`);
 }
 
-main().then(clientStyle).then(() => { clearInterval(sample); return getPool().end(); }).catch((e) => { console.error(e); process.exit(1); });
+/** The product path: upload read into a draft, then import + solve as a job in a worker process. */
+async function productPath() {
+  const owner = await auth.signUp({ name: 'Bench', email: `bench.${randomUUID().slice(0, 8)}@example.com`, password: 'granite-manifold-9', organizationName: 'Bench Org' });
+  const [p] = await db.insert(projects).values({ organizationId: owner.organizationId, code: `BJ-${Date.now()}`, name: 'Bench job' }).returning();
+  const bytes = await lineListWorkbook(demoLineRows(N, 99));
+  const worker = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'pipe'] });
+  let ready = '';
+  await new Promise<void>((resolve, reject) => {
+    worker.stderr!.on('data', (d) => { ready += String(d); if (ready.includes('[worker] working')) resolve(); });
+    worker.once('exit', () => reject(new Error(`the worker stopped: ${ready}`)));
+  });
+  peak = process.memoryUsage().rss; // this process from here on
+  const t0 = performance.now();
+  const draft = await store.createDraft({ projectId: p.id, userId: owner.userId, fileName: 'bench.xlsx', bytes });
+  const sheet = draft.sheets.find((s) => s.name === draft.defaultSheet)!;
+  const job = await enqueueJob({ projectId: p.id, userId: owner.userId, kind: 'import-solve', input: { draftId: draft.draftId, sheetName: sheet.name, mapping: sheet.suggested } });
+  let row = job as { state: string; error: string | null; result: Record<string, unknown> | null };
+  while (row.state === 'queued' || row.state === 'running') {
+    await new Promise((r) => setTimeout(r, 100));
+    [row] = await db.select().from(jobs).where(eq(jobs.id, job.id));
+  }
+  const seconds = (performance.now() - t0) / 1000;
+  const workerPeak = Number(/VmHWM:\s+(\d+) kB/.exec(readFileSync(`/proc/${worker.pid}/status`, 'utf8'))?.[1] ?? 0) * 1024;
+  worker.kill('SIGTERM');
+  await stopBoss();
+  if (row.state !== 'done') throw new Error(`the job ended ${row.state}: ${row.error}`);
+  const own = peak;
+  console.log(`job: ${String(row.result?.solved)} lines solved by the worker; worker peak ${mb(workerPeak)} MB, this process ${mb(own)} MB`);
+  console.log(`end-to-end seconds: ${seconds.toFixed(2)}`);
+  console.log(`peak RSS MB: ${mb(Math.max(workerPeak, own))}`);
+}
+
+main().then(clientStyle).then(productPath).then(() => { clearInterval(sample); return getPool().end(); }).catch((e) => { console.error(e); process.exit(1); });

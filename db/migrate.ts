@@ -10,7 +10,9 @@
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import { Pool } from 'pg';
+import PgBoss from 'pg-boss';
 import { env } from '../lib/env';
+import { BOSS_SCHEMA, jobExpireSeconds, QUEUES } from '../lib/jobs/queues';
 
 /** Tables the application may only read and append to. */
 const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues', 'design_reports'] as const;
@@ -25,7 +27,27 @@ function grantStatements(appRole: string): string[] {
     `GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${r}`,
     `GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${r}`,
     `REVOKE UPDATE, DELETE, TRUNCATE ON ${APPEND_ONLY_TABLES.join(', ')} FROM ${r}`,
+    // pg-boss's schema: the owner creates it and its queues (below); the application sends, fetches,
+    // completes and maintains jobs, which is rows only — it creates and alters nothing there.
+    `GRANT USAGE ON SCHEMA ${BOSS_SCHEMA} TO ${r}`,
+    `GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA ${BOSS_SCHEMA} TO ${r}`,
+    `GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA ${BOSS_SCHEMA} TO ${r}`,
+    `GRANT EXECUTE ON ALL FUNCTIONS IN SCHEMA ${BOSS_SCHEMA} TO ${r}`,
   ];
+}
+
+/** pg-boss's own schema migration and our queues, as the owner (a queue is a table partition). */
+async function installQueues(ownerUrl: string) {
+  const boss = new PgBoss({ connectionString: ownerUrl, schema: BOSS_SCHEMA, max: 1, migrate: true, supervise: false, schedule: false });
+  boss.on('error', (e) => console.error('[db] pg-boss:', (e as Error).message));
+  await boss.start();
+  try {
+    for (const [name, o] of Object.entries(QUEUES)) {
+      const q = { name, ...o, expireInSeconds: jobExpireSeconds() };
+      if (await boss.getQueue(name)) await boss.updateQueue(name, q);
+      else await boss.createQueue(name, q);
+    }
+  } finally { await boss.stop({ graceful: false, wait: true }); }
 }
 
 async function main() {
@@ -34,6 +56,7 @@ async function main() {
   const pool = new Pool({ connectionString: ownerUrl, max: 1 });
   try {
     await migrate(drizzle(pool), { migrationsFolder: new URL('../drizzle', import.meta.url).pathname });
+    await installQueues(ownerUrl);
     const { rows: [{ me }] } = await pool.query<{ me: string }>('select current_user as me');
     if (appRole && appRole !== me) {
       for (const s of grantStatements(appRole)) await pool.query(s);

@@ -439,3 +439,29 @@ export type Invitation = typeof invitations.$inferSelect;
 export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
+
+export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all']);
+export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
+
+/**
+ * One row per background job, what the user sees (the queue itself is pg-boss's, in schema pgboss).
+ * `error` is a sentence for the user, never a stack or input values.
+ */
+export const jobs = pgTable('jobs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  kind: jobKindEnum('kind').notNull(),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  state: jobStateEnum('state').notNull().default('queued'),
+  /** Lines solved so far and lines to solve (0 until known). */
+  done: integer('done').notNull().default(0),
+  total: integer('total').notNull().default(0),
+  attempts: integer('attempts').notNull().default(0),
+  input: jsonb('input').$type<Record<string, unknown>>().notNull(),
+  result: jsonb('result').$type<Record<string, unknown>>(),
+  error: text('error'),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  startedAt: timestamp('started_at', { withTimezone: true }),
+  finishedAt: timestamp('finished_at', { withTimezone: true }),
+}, (t) => [index('jobs_project_idx').on(t.projectId, t.createdAt)]);
+export type Job = typeof jobs.$inferSelect;

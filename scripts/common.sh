@@ -55,6 +55,25 @@ stop_mail_sink() {
 
 migrate() { node_modules/.bin/tsx db/migrate.ts; }
 
+# The job worker (npm run worker) next to the web server, with the same environment. Its pid file is
+# keyed by the web port, so the start, dev and test set-ups of one checkout each stop only their own.
+start_worker() {
+  mkdir -p .data
+  local f=".data/worker-${PORT:-3000}.pid" l=".data/worker-${PORT:-3000}.log"
+  if [ -f "$f" ] && kill -0 "$(cat "$f")" 2>/dev/null; then log "job worker already running (pid $(cat "$f"))"; return; fi
+  nohup node --import tsx lib/jobs/worker.ts >> "$l" 2>&1 &
+  echo $! > "$f"
+  for _ in $(seq 1 50); do grep -q "\[worker\] working" "$l" 2>/dev/null && break; kill -0 "$(cat "$f")" 2>/dev/null || break; sleep 0.2; done
+  kill -0 "$(cat "$f")" 2>/dev/null || { log "job worker did not start; see $l"; exit 1; }
+  log "job worker running (pid $(cat "$f"), log $l)"
+}
+
+stop_worker() {
+  local f=".data/worker-${PORT:-3000}.pid"
+  [ -f "$f" ] && kill "$(cat "$f")" 2>/dev/null || true
+  rm -f "$f"
+}
+
 # A fresh test database (recreated each time) unless DATABASE_URL points elsewhere; used by npm test and the benchmarks.
 use_fresh_test_db() {
   if [ -z "${DATABASE_URL:-}" ]; then

@@ -10,4 +10,6 @@ start_dev_idp
 node_modules/.bin/tsx seed/index.ts --if-empty
 start_mail_sink
 print_logins
-exec node_modules/.bin/next dev -H 127.0.0.1 -p "$PORT"
+start_worker
+trap stop_worker EXIT
+node_modules/.bin/next dev -H 127.0.0.1 -p "$PORT"

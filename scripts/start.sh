@@ -24,4 +24,6 @@ case "${HOST:-127.0.0.1}" in
      fi ;;
 esac
 [ -z "${LAGWISE_SECURE_COOKIES:-}" ] && export LAGWISE_INSECURE_COOKIES=1
-exec node_modules/.bin/next start -H "${HOST:-127.0.0.1}" -p "$PORT"
+start_worker
+trap stop_worker EXIT
+node_modules/.bin/next start -H "${HOST:-127.0.0.1}" -p "$PORT"

@@ -16,7 +16,7 @@ export APP_URL="http://127.0.0.1:$PORT"
 ensure_secret_key
 export OIDC_DEV_PORT="${TEST_OIDC_PORT:-4020}" OIDC_DEV_APP_PORTS="$PORT"
 start_dev_idp
-trap 'stop_mail_sink; stop_dev_idp' EXIT
+trap 'stop_mail_sink; stop_dev_idp; stop_worker' EXIT
 
 status=0
 log "unit, reference and integration tests (vitest)"
@@ -38,6 +38,8 @@ log "seeding the demo scenario into the test database"
 node_modules/.bin/tsx seed/index.ts
 log "building for end-to-end tests"
 node_modules/.bin/next build >/tmp/lagwise-test-build.log 2>&1 || { cat /tmp/lagwise-test-build.log; exit 1; }
+# The job worker only now: the integration tests start and kill their own workers.
+start_worker
 log "end-to-end tests (Playwright, Debian chromium)"
 LAGWISE_INSECURE_COOKIES=1 PLAYWRIGHT_JSON_OUTPUT_NAME=.data/reports/playwright.json node_modules/.bin/playwright test --reporter=list,json || status=1
 

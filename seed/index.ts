@@ -12,6 +12,7 @@ import { hashPassword } from '../lib/auth/password';
 import { DEMO_ORG, DEMO_PROJECT, DEMO_USERS, OTHER_ORG } from './demo-data';
 import { demoLineRows, lineListWorkbook } from './line-list';
 import * as lineStore from '../lib/lines/store';
+import { getPickerOptions } from '../lib/lines/picker';
 import * as reviewStore from '../lib/review/store';
 import * as boqStore from '../lib/boq/store';
 import * as budgetStore from '../lib/budget/store';
@@ -83,7 +84,7 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
   const picks = page.rows.filter((l) => l.recommendedMm && l.recommendedMm >= 50 && l.designVersion).slice(0, 3);
   const reasons = ['Match the adjacent header, already lagged at this thickness', 'Congested rack: outside diameter limited by clearance to the cable tray', 'Spec minimum for this service class'];
   for (const [i, l] of picks.entries()) {
-    const cands = (l.candidates as [number][]).map((c) => c[0]);
+    const cands = (await getPickerOptions({ projectId: project.id, lineId: l.id })).candidates.map((c) => c.mm);
     const idx = cands.indexOf(l.recommendedMm!);
     const mm = i === 1 ? cands[Math.max(1, idx - 2)] : cands[Math.min(cands.length - 1, idx + 1)];
     await lineStore.pickDesign({ projectId: project.id, lineId: l.id, userId: engineer.id, thicknessMm: mm, reason: reasons[i], expectedVersion: l.designVersion! });

@@ -17,6 +17,7 @@ import { HEADER_SCAN_ROWS } from './header';
 import { inputHash, solveLine } from './solve-line';
 import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
+import type { CandidateRow } from './deciding';
 import type { LineFilter } from './filter';
 
 export { acceptRecommendations, applyBulkAccept, previewBulkAccept, undoBulkAccept, type BulkItem, type BulkPreview } from './bulk-accept';
@@ -264,7 +265,8 @@ const CHUNK = 1000;
  * a pick or decision survives unless a thermal input of its line changed, in which case the line
  * is marked for re-decision with the reason.
  */
-export async function commitDraft({ projectId, draftId, sheetName, headerRow, mapping, userId }: DraftChoice & { userId: string }) {
+/** Imports a validated draft. Inside `tx` (the import + solve job) it is a savepoint of that transaction. */
+export async function commitDraft({ projectId, draftId, sheetName, headerRow, mapping, userId, tx: outer }: DraftChoice & { userId: string; tx?: Tx }) {
   const d = await loadDraft(projectId, draftId);
   if (d.importedRevision) throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
   const sheet = sheetOf(d.parsed as ParsedFile, sheetName, headerRow);
@@ -273,7 +275,7 @@ export async function commitDraft({ projectId, draftId, sheetName, headerRow, ma
     const first = v.issues.filter((i) => i.severity === 'error').slice(0, 5).map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);
     throw new AppError('invalid', `Nothing was imported: ${v.errorCount} problem${v.errorCount === 1 ? '' : 's'} to fix first (${first.join('; ')}${v.errorCount > 5 ? '; …' : ''}).`);
   }
-  return db.transaction(async (tx) => {
+  return (outer ?? db).transaction(async (tx) => {
     // Serialise imports of one project.
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${projectId}))`);
     const current = await tx.select().from(lines).where(eq(lines.projectId, projectId));
@@ -317,15 +319,21 @@ function camel(snake: string) { return snake.replace(/_([a-z0-9])/g, (_, c) => c
 // ---------- solve ----------
 
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
-export async function solveProject({ projectId, all = false }: { projectId: string; all?: boolean }) {
+export async function solveProject({ projectId, all = false, tx: outer, onProgress }: {
+  projectId: string; all?: boolean;
+  /** The import + solve job's transaction: the new lines and their results become visible together. */
+  tx?: Tx;
+  /** Called after each chunk is solved and written (lines done, lines to do). */
+  onProgress?: (done: number, total: number) => Promise<void>;
+}) {
   const { basis, revision } = await getDesignBasis({ projectId });
   const staleCond = all ? sql`true` : staleSql(revision);
-  const todo = await db.select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+  const todo = await (outer ?? db).select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
   const systems = new Map<string, MaterialSystem>();
   const basisJson = JSON.stringify(basis); // hashed with every line: serialised once
-  const t0 = Date.now();
-  const results = todo.map(({ line }) => {
+  let solveMs = 0;
+  const shape = ({ line }: { line: Line }) => {
     const input = inputOf(line);
     const s = solveLine(basis, input, systems);
     const r = s.recommendation;
@@ -342,19 +350,24 @@ export async function solveProject({ projectId, all = false }: { projectId: stri
       personnelSurfaceC: chosen?.personnel?.surfaceC ?? null, annualMWh: r.annual?.energyMWh ?? null, annualCost: r.annual?.cost ?? null, co2Tonnes: r.annual?.co2Tonnes ?? null,
       condensateKgPerH: r.condensateKgPerHour ?? null, solvedAt: new Date(),
     };
-  });
-  const solveMs = Date.now() - t0;
-  await db.transaction(async (tx) => {
-    for (let i = 0; i < results.length; i += 500) {
-      await tx.insert(lineResults).values(results.slice(i, i + 500)).onConflictDoUpdate({
+  };
+  // Solved and written a chunk at a time, so only one chunk of results is held in memory.
+  await (outer ?? db).transaction(async (tx) => {
+    for (let i = 0; i < todo.length; i += SOLVE_CHUNK) {
+      const t0 = Date.now();
+      const results = todo.slice(i, i + SOLVE_CHUNK).map(shape);
+      solveMs += Date.now() - t0;
+      await tx.insert(lineResults).values(results).onConflictDoUpdate({
         target: lineResults.lineId,
         set: Object.fromEntries(Object.keys(results[0]).filter((k) => k !== 'lineId').map((k) => [k, sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`)])),
       });
+      if (onProgress) await onProgress(Math.min(todo.length, i + SOLVE_CHUNK), todo.length);
     }
   });
-  return { solved: results.length, solveMs, basisRevision: revision };
+  return { solved: todo.length, solveMs, basisRevision: revision };
 }
 
+const SOLVE_CHUNK = 250;
 const RESULT_COLUMNS = getTableColumns(lineResults);
 const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
 const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
@@ -372,11 +385,18 @@ export async function listLines(o: LineQuery) {
     tag: lines.tag, area: lines.area, normalTempC: lines.normalTempC, outsideDiameterMm: lines.outsideDiameterMm,
     recommendedMm: lineResults.recommendedMm, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC, governing: lineResults.governing,
   }[o.sort];
+  // Only the columns the table shows: the candidate table (the bulk of a result) is read by
+  // lib/lines/picker.ts when a picker opens.
   const base = db.select({
     id: lines.id, tag: lines.tag, service: lines.service, area: lines.area, geometry: lines.geometry, nps: lines.nps, outsideDiameterMm: lines.outsideDiameterMm,
-    lengthM: lines.lengthM, surfaceAreaM2: lines.surfaceAreaM2, normalTempC: lines.normalTempC, maxTempC: lines.maxTempC, purposes: lines.purposes, outdoor: lines.outdoor, accessible: lines.accessible,
+    normalTempC: lines.normalTempC,
     recommendedMm: lineResults.recommendedMm, governing: lineResults.governing, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC,
-    personnelSurfaceC: lineResults.personnelSurfaceC, unmet: lineResults.unmet, candidates: lineResults.candidates, jacketId: lineResults.jacketId,
+    unmet: lineResults.unmet, solved: sql<boolean>`${lineResults.lineId} is not null`, jacketId: lineResults.jacketId,
+    // The facts that decide which limits apply, and the one candidate at the chosen (or else the
+    // recommended) thickness for the worst-margin column; the full candidate table stays in the
+    // database until a picker asks for it.
+    outdoor: lines.outdoor, accessible: lines.accessible, maxTempC: lines.maxTempC, purposes: lines.purposes,
+    shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, 'strict $[*] ? (@[0] == $mm)', jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
     chosenMm: lineDesigns.thicknessMm, source: lineDesigns.source, belowCriterion: lineDesigns.belowCriterion, needsRedecision: lineDesigns.needsRedecision, designVersion: lineDesigns.version,
     stale,
   }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where));
@@ -409,7 +429,6 @@ export async function listRevisions({ projectId }: { projectId: string }) {
 
 // ---------- design picks ----------
 
-type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean, (number | null)?];
 const HARD: ReadonlySet<string> = HARD_CRITERIA;
 
 /**

@@ -16,6 +16,7 @@ test('engineer: bulk accept states its counts for the filter shown, leaves a man
 
   // A manual pick on N-102: one size up, with its reason.
   const picker = page.getByLabel('Thickness for N-102');
+  await picker.focus(); // opening the picker loads its thickness options
   await expect(picker.locator('option[value="0"]')).toBeAttached(); // the candidates have arrived
   const options = await picker.locator('option').evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
   const manual = options[options.indexOf(await recommended('N-102')) + 1];

@@ -51,6 +51,8 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
 
   // Pick the next thicker candidate than recommended, with a reason.
   const select = page.getByLabel('Thickness for E-101');
+  await select.focus(); // opening the picker loads its thickness options
+  await expect(select.locator('option[value="0"]')).toBeAttached();
   const options = await select.locator('option').evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
   const next = options[options.indexOf(String(rec)) + 1];
   await select.selectOption(next);

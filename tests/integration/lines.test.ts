@@ -6,6 +6,7 @@ import { db, getPool } from '@/db/client';
 import { auditLog, lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
+import { getPickerOptions, tableRowDeciding } from '@/lib/lines/picker';
 import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -122,7 +123,7 @@ describe('line-list import on PostgreSQL', () => {
   it('picks: a reason for a manual pick, flagged below a hard criterion, and the second of two concurrent saves refused', async () => {
     const { rows } = await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
     const l = rows.find((r) => r.tag === 'L-100')!;
-    const cands = (l.candidates as [number][]).map((c) => c[0]);
+    const cands = (await getPickerOptions({ projectId, lineId: l.id })).candidates.map((c) => c.mm);
     const v = l.designVersion ?? 0;
     await expectAppError(store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: cands[1], expectedVersion: v }), 'invalid', /give a reason/);
     await expectAppError(store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: 33, reason: 'odd', expectedVersion: v }), 'invalid', /not a candidate/);
@@ -132,6 +133,18 @@ describe('line-list import on PostgreSQL', () => {
     await expectAppError(store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: l.recommendedMm!, expectedVersion: v }), 'conflict', /Someone else changed this line/);
     const [saved] = await db.select().from(lineDesigns).where(eq(lineDesigns.lineId, l.id));
     expect(saved).toMatchObject({ thicknessMm: cands[1], reason: 'Existing lagging reused', belowCriterion: 'personnel', version: v + 1 });
+    // The table row carries only the candidate at the chosen thickness (read in SQL from the stored
+    // table), with the same deciding numbers and worst margin as the picker's full list.
+    const after = (await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' })).rows.find((r) => r.tag === 'L-100')!;
+    expect(after.shownCandidate![0]).toBe(cands[1]);
+    const picker = await getPickerOptions({ projectId, lineId: l.id });
+    const { basis } = await store.getDesignBasis({ projectId });
+    const deciding = await tableRowDeciding(basis, after as never, after.jacketId, after.shownCandidate, async () => { throw new Error('not needed'); });
+    expect(deciding.shown).toEqual(picker.candidates.find((c) => c.mm === cands[1]));
+    expect(deciding.limits).toEqual(picker.limits);
+    expect(deciding.limits.personnelLimitC).toBe(55); // the metal touch limit saved in the design-basis test above
+    expect(deciding.worstMargin).toEqual({ criterion: 'personnel', marginK: 55 - deciding.shown!.personnelC! });
+    expect(deciding.worstMargin!.marginK).toBeLessThan(0);
   });
 });
 

@@ -37,7 +37,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
     const { message, ms } = await refusal('bomb.xlsx', bomb);
     expect(message).toMatch(/compressed \d+ to 1; the limit is 150 to 1.*possible zip bomb/);
     expect(message).toContain('"xl/worksheets/sheet1.xml"');
-    expect(ms).toBeLessThan(500);
+    expect(ms).toBeLessThan(2_000);
   });
 
   it('a zip bomb whose directory lies about the sizes is stopped while streaming, past the declared size', async () => {
@@ -46,7 +46,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
     const bomb = buildZip(workbookParts('Lines', { deflated }));
     const { message, ms } = await refusal('liar.xlsx', bomb);
     expect(message).toBe('This workbook\'s part "xl/worksheets/sheet1.xml" unpacks to more than its zip directory declares. The file is refused as a possible zip bomb; save it again as .xlsx from a spreadsheet program.');
-    expect(ms).toBeLessThan(500);
+    expect(ms).toBeLessThan(2_000);
   });
 
   it('too many parts, and too much in total, are refused from the directory', async () => {
@@ -63,7 +63,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
     const deflated = { data: zlib.deflateRawSync(xml, { level: 1 }), size: xml.length, crc: zlib.crc32(xml) };
     const { message, ms } = await refusal('huge.xlsx', buildZip(workbookParts('Lines', { deflated })));
     expect(message).toBe('Sheet "Lines" has more than 50,000 rows with data; the limit is 50,000 rows per sheet. Split the line list into files of at most that many rows.');
-    expect(ms).toBeLessThan(2_000);
+    expect(ms).toBeLessThan(5_000); // the issue measured 13.5 s and 1.37 GB for this file
   });
 
   it('a sheet with a value past column IV is refused, naming the column and the limit', async () => {
@@ -95,7 +95,7 @@ describe('upload limits: CSV', () => {
     const csv = Buffer.from(Array.from({ length: 600 }, () => row).join('\r\n'), 'utf8');
     const { message, ms } = await refusal('wide.csv', csv);
     expect(message).toBe('This CSV file has 5,000 fields in row 1; the limit is 256 columns. Delete the unused columns on the right (or check the field separator) and upload again.');
-    expect(ms).toBeLessThan(1_000);
+    expect(ms).toBeLessThan(3_000); // the issue measured 13 s and 1.55 GB
   });
 
   it('a CSV with more rows than the limit is refused at the first row past it', async () => {

@@ -10,6 +10,7 @@ import { lineFilterSchema } from '@/lib/lines/filter';
 import { readImportRequest } from '@/lib/lines/import-request';
 import type { DraftSummary } from '@/lib/lines/store';
 import * as store from '@/lib/lines/store';
+import { enqueueJob } from '@/lib/jobs/store';
 import { logUnexpected } from '@/lib/log';
 
 // The mapping step's request is read by readImportRequest in the handler (after the session and
@@ -37,18 +38,14 @@ export async function uploadLineListAction(projectId: string, formData: FormData
 export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
   store.previewDraft({ projectId: project.id, ...readImportRequest(input) }));
 
+/** Import + solve is a background job: the request records and enqueues it and returns the job. */
 export const commitImportAction = projectAction('lines.edit', draftInput, async ({ project, user, input }) => {
-  const r = await store.commitDraft({ projectId: project.id, ...readImportRequest(input), userId: user.id });
-  const solved = await store.solveProject({ projectId: project.id });
-  revalidatePath(`/projects/${project.id}/lines`);
-  return { ...r, solved: solved.solved };
+  const req = readImportRequest(input);
+  return enqueueJob({ projectId: project.id, userId: user.id, kind: 'import-solve', input: { ...req } });
 });
 
-export const solveLinesAction = projectAction('lines.edit', z.object({ all: z.boolean().default(false) }), async ({ project, input }) => {
-  const r = await store.solveProject({ projectId: project.id, all: input.all });
-  revalidatePath(`/projects/${project.id}/lines`);
-  return r;
-});
+export const solveLinesAction = projectAction('lines.edit', z.object({ all: z.boolean().default(false) }), async ({ project, user, input }) =>
+  enqueueJob({ projectId: project.id, userId: user.id, kind: 'solve-all', input: { all: input.all } }));
 
 export const pickThicknessAction = projectAction('design.pick', z.object({
   lineId: z.uuid(), thicknessMm: z.number().min(0).max(2000), reason: z.string().max(500).optional(), expectedVersion: z.number().int().min(0),

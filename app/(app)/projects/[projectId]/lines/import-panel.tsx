@@ -1,5 +1,6 @@
 'use client';
-import { useState, useTransition } from 'react';
+import { useEffect, useState, useTransition } from 'react';
+import { useRouter } from 'next/navigation';
 import { useQueryClient } from '@tanstack/react-query';
 import { FIELD_BY_KEY, FIELDS, UNIT_CHOICES, VALUE_CHOICES, valueKey, type LineFieldKey, type ValueField } from '@/lib/lines/fields';
 import { suggestMapping, type ColumnMapping } from '@/lib/lines/mapping';
@@ -7,6 +8,7 @@ import { headerView, rowPreview } from '@/lib/lines/header';
 import type { DraftSummary, Preview } from '@/lib/lines/store';
 import type { UnknownValue } from '@/lib/lines/validate';
 import { commitImportAction, previewImportAction, uploadLineListAction } from './actions';
+import { JobProgressBar, useJob } from './job-progress';
 
 const MAX_BYTES = 20 * 1024 * 1024;
 const letter = (i: number) => { let s = '', n = i + 1; while (n > 0) { const m = (n - 1) % 26; s = String.fromCharCode(65 + m) + s; n = Math.floor((n - 1) / 26); } return s; };
@@ -33,6 +35,22 @@ export function ImportPanel({ projectId }: { projectId: string }) {
   const [preview, setPreview] = useState<Preview | null>(null);
   const [questions, setQuestions] = useState<UnknownValue[]>([]);
   const [done, setDone] = useState<string | null>(null);
+  // The import runs as a background job; this follows it until it is done or failed.
+  const router = useRouter();
+  const [jobId, setJobId] = useState<string | null>(null);
+  const job = useJob(projectId, jobId);
+  useEffect(() => {
+    const j = job.data;
+    if (!j || j.state === 'queued' || j.state === 'running') return;
+    setJobId(null); setStep('idle');
+    if (j.state === 'failed') { setError(j.error ?? 'The import stopped; nothing was imported.'); return; }
+    const r = j.result as { revision: number; lineCount: number; added: number; changed: number; removed: number; solved: number };
+    setDone(`Revision ${r.revision} imported: ${r.lineCount} lines (${r.added} added, ${r.changed} changed, ${r.removed} removed); ${r.solved} solved.`);
+    setDraft(null); setPreview(null); setQuestions([]);
+    qc.invalidateQueries({ queryKey: ['lines', projectId] });
+    qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
+    router.refresh();
+  }, [job.data]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const current = draft?.sheets.find((s) => s.name === sheet);
   const view = current ? viewOf(current, headerRow) : null;
@@ -108,11 +126,9 @@ export function ImportPanel({ projectId }: { projectId: string }) {
     setError(null); setStep('importing');
     start(async () => {
       const r = await commitImportAction(projectId, { draftId: draft!.draftId, sheetName: sheet, headerRow, mapping });
-      setStep('idle');
-      if (!r.ok) { setError(r.error); return; }
-      setDone(`Revision ${r.data.revision} imported: ${r.data.lineCount} lines (${r.data.diff.added.length} added, ${r.data.diff.changed.length} changed, ${r.data.diff.removed.length} removed); ${r.data.solved} solved.`);
-      setDraft(null); setPreview(null); setQuestions([]);
-      await qc.invalidateQueries({ queryKey: ['lines', projectId] });
+      if (!r.ok) { setStep('idle'); setError(r.error); return; }
+      setJobId(r.data.id);
+      qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
     });
   }
 
@@ -133,6 +149,9 @@ export function ImportPanel({ projectId }: { projectId: string }) {
           <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-mineral-500 border-t-transparent" />
           {step === 'reading' ? 'Reading the file…' : 'Importing in one transaction and solving the changed lines…'}
         </div>
+      ) : null}
+      {job.data && (job.data.state === 'queued' || job.data.state === 'running') ? (
+        <div className="mt-3"><JobProgressBar job={job.data} /></div>
       ) : null}
       {error ? <p role="alert" className="mt-3 rounded border border-alarm-500 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{error}</p> : null}
       {done ? <p role="status" className="mt-3 rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm text-mineral-900">{done}</p> : null}

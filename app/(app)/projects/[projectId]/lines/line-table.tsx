@@ -17,7 +17,7 @@ interface Row {
   id: string; tag: string; service: string; area: string; geometry: string; nps: string | null; outsideDiameterMm: number | null;
   normalTempC: number; recommendedMm: number | null; governing: string | null; heatFlowPerUnit: number | null; surfaceTempC: number | null;
   unmet: string[] | null; chosenMm: number | null; source: 'recommended' | 'manual' | null; belowCriterion: string | null; needsRedecision: boolean | null;
-  designVersion: number | null; stale: boolean; candidates: Candidate[]; limits: Limits; worstMargin: Margin | null;
+  designVersion: number | null; stale: boolean; solved: boolean; limits: Limits; shown: Candidate | null; worstMargin: Margin | null;
 }
 interface Page { rows: Row[]; total: number; page: number; size: number }
 
@@ -80,8 +80,8 @@ export function LineTable({ projectId, areas, canPick, canSolve, unitSystem = 'S
   function solve() {
     start(async () => {
       const r = await solveLinesAction(projectId, { all: false });
-      setMessage(r.ok ? { kind: 'ok', text: `${r.data.solved} stale line${r.data.solved === 1 ? '' : 's'} solved in ${r.data.solveMs} ms.` } : { kind: 'error', text: r.error });
-      refresh();
+      setMessage(r.ok ? { kind: 'ok', text: 'Solving the stale lines in the background; the progress is shown above the table.' } : { kind: 'error', text: r.error });
+      qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
     });
   }
   /** Step 1: the server counts what the button would do for exactly the filter on screen. */
@@ -284,12 +284,25 @@ function PickCell({ row, projectId, canPick, onSaved, u }: { row: Row; projectId
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
+  // The thickness options arrive when the picker is opened (focus, pointer or key), not with the table.
+  const [opened, setOpened] = useState(false);
+  const options = useQuery({
+    queryKey: ['lines', projectId, 'candidates', row.id],
+    queryFn: async (): Promise<Candidate[]> => {
+      const r = await fetch(`/api/v1/projects/${projectId}/lines/${row.id}/candidates`);
+      if (!r.ok) throw new Error((await r.json()).error?.message ?? 'The thickness options could not be loaded.');
+      return (await r.json()).candidates;
+    },
+    enabled: opened && canPick && row.solved,
+    staleTime: 60_000,
+  });
   if (!canPick) return <span className="num block">{u.thickness(row.chosenMm)}</span>;
-  if (!row.candidates.length) return <span className="text-xs text-ink-500">solve first</span>;
+  if (!row.solved) return <span className="text-xs text-ink-500">solve first</span>;
   const picked = value === '' ? null : Number(value);
   const needsReason = picked !== null && picked !== row.recommendedMm;
   const dirty = picked !== null && picked !== row.chosenMm;
-  const shownCand = row.candidates.find((c) => c.mm === (picked ?? row.recommendedMm));
+  const shownMm = picked ?? row.recommendedMm;
+  const shownCand = options.data?.find((c) => c.mm === shownMm) ?? (row.shown?.mm === shownMm ? row.shown : undefined);
   function save() {
     setError(null);
     start(async () => {
@@ -301,9 +314,13 @@ function PickCell({ row, projectId, canPick, onSaved, u }: { row: Row; projectId
   return (
     <div className="min-w-[15rem] space-y-1">
       <div className="flex gap-1">
-        <select aria-label={`Thickness for ${row.tag}`} className="input py-0.5 text-xs" value={value} onChange={(e) => setValue(e.target.value)}>
+        <select aria-label={`Thickness for ${row.tag}`} className="input py-0.5 text-xs" value={value} onChange={(e) => setValue(e.target.value)}
+          onFocus={() => setOpened(true)} onPointerDown={() => setOpened(true)} onKeyDown={() => setOpened(true)} aria-busy={options.isFetching}>
           <option value="">—</option>
-          {row.candidates.map((c) => (
+          {!options.data ? [row.chosenMm, row.recommendedMm].filter((mm, i, a): mm is number => mm !== null && a.indexOf(mm) === i).map((mm) => (
+            <option key={mm} value={mm}>{u.thickness(mm)}{mm === row.recommendedMm ? ' ★' : ''}</option>
+          )) : null}
+          {(options.data ?? []).map((c) => (
             <option key={c.mm} value={c.mm} disabled={!c.ok}>
               {u.thickness(c.mm)}{c.mm === row.recommendedMm ? ' ★' : ''} · {candidateText(c, row, u)}{!c.ok ? ' · layer over its service limit' : ''}
             </option>
@@ -314,6 +331,7 @@ function PickCell({ row, projectId, canPick, onSaved, u }: { row: Row; projectId
       {shownCand ? <p className="text-xs text-ink-600" data-testid={`deciding-${row.tag}`}>{u.thickness(shownCand.mm)}: {candidateText(shownCand, row, u)}</p> : null}
       {dirty && needsReason ? <input aria-label={`Reason for ${row.tag}`} className="input py-0.5 text-xs" placeholder="Reason for this pick (required)" value={reason} onChange={(e) => setReason(e.target.value)} /> : null}
       {error ? <p role="alert" className="text-xs text-alarm-700">{error}</p> : null}
+      {options.error ? <p role="alert" className="text-xs text-alarm-700">{(options.error as Error).message}</p> : null}
     </div>
   );
 }

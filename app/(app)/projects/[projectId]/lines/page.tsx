@@ -5,6 +5,7 @@ import { ResultCautions } from '@/components/cautions';
 import { getDesignBasis, listAreas, listRevisions } from '@/lib/lines/store';
 import { ImportPanel } from './import-panel';
 import { LineTable } from './line-table';
+import { RecentJobs } from './job-progress';
 
 export const metadata = { title: 'Line list' };
 
@@ -24,6 +25,7 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
       </div>
       <div className="mb-4"><ResultCautions /></div>
       {canEdit ? <ImportPanel projectId={project.id} /> : null}
+      <RecentJobs projectId={project.id} />
       <LineTable projectId={project.id} areas={areas} canPick={can(role, 'design.pick')} canSolve={canEdit} unitSystem={basis.basis.unitSystem} format={{ unitSystem: basis.basis.unitSystem, thicknessSeries: basis.basis.thicknessSeries, currency: basis.basis.currency }} />
       {revisions.length ? (
         <section className="mt-6">

@@ -3,7 +3,7 @@ import { route, fieldsFromZod } from '@/lib/server/route';
 import { getProjectAccess } from '@/db/queries/projects';
 import { getDesignBasis, getLine, inputOf, listLines } from '@/lib/lines/store';
 import { lineFilterSchema } from '@/lib/lines/filter';
-import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
+import { tableRowDeciding } from '@/lib/lines/picker';
 import type { LineInput } from '@/lib/lines/validate';
 import { AppError } from '@/lib/errors';
 
@@ -21,19 +21,13 @@ export const GET = route<{ projectId: string }>(async ({ req, user, params }) =>
   if (!q.success) throw new AppError('invalid', 'Some query parameters are not valid.', fieldsFromZod(q.error));
   const r = await listLines({ projectId: project.id, ...q.data });
   const { basis } = await getDesignBasis({ projectId: project.id });
-  // The candidate table is sent trimmed to what the inline pick shows: each candidate's surface
-  // temperature under every applicable criterion's conditions, the limits beside them, and the
-  // worst margin at the chosen thickness (or the recommendation while nothing is chosen).
-  const rows = await Promise.all(r.rows.map(async ({ candidates, ...row }) => {
-    const stored = (candidates ?? []) as CandidateRow[];
-    const facts = { outdoor: row.outdoor, accessible: row.accessible, normalTempC: row.normalTempC, maxTempC: row.maxTempC, purposes: row.purposes } as LineInput;
-    const limits = decidingLimits(basis, facts, row.jacketId);
-    // Results stored before every candidate was swept: the full line is loaded to solve the rest.
-    const gaps = stored.some((c) => (limits.personnelLimitC !== null && c[4] === null) || (limits.condensationNeedC !== null && (c[7] ?? null) === null));
-    const line = gaps ? inputOf((await getLine({ projectId: project.id, lineId: row.id })).line) : facts;
-    const nums = candidateNumbers(basis, line, row.jacketId, stored, limits);
-    const at = nums.find((c) => c.mm === (row.chosenMm ?? row.recommendedMm));
-    return { ...row, limits, worstMargin: at ? worstMargin(at, limits) : null, candidates: nums.map((c) => ({ mm: c.mm, heatFlow: c.heatFlow, surfaceC: c.heatLossC, personnelC: c.personnelC, condensationC: c.condensationC, ok: c.ok })) };
+  // The table's columns, and each row's deciding numbers at the chosen thickness (or the
+  // recommendation while nothing is chosen) with the worst margin; the picker's thickness options
+  // come from ./[lineId]/candidates.
+  const rows = await Promise.all(r.rows.map(async ({ shownCandidate, outdoor, accessible, maxTempC, purposes, ...row }) => {
+    const facts = { outdoor, accessible, normalTempC: row.normalTempC, maxTempC, purposes } as LineInput;
+    const loadLine = async () => inputOf((await getLine({ projectId: project.id, lineId: row.id })).line);
+    return { ...row, ...(await tableRowDeciding(basis, facts, row.jacketId, shownCandidate, loadLine)) };
   }));
   return Response.json({ ...r, rows });
 });

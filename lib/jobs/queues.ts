@@ -1,0 +1,17 @@
+/**
+ * The job queues and their pg-boss settings, shared by db/migrate.ts (which creates them as the
+ * owner), the web process (which only sends) and the worker (which works them).
+ */
+export const BOSS_SCHEMA = 'pgboss';
+
+export const QUEUES = {
+  'import-solve': { retryLimit: 2, retryDelay: 2 },
+  'solve-all': { retryLimit: 2, retryDelay: 2 },
+} as const;
+export type QueueName = keyof typeof QUEUES;
+
+/**
+ * A job still active this long after a worker took it is taken to have lost its worker (killed,
+ * machine gone) and is retried. Tests shorten it through JOB_EXPIRE_SECONDS.
+ */
+export const jobExpireSeconds = () => Number(process.env.JOB_EXPIRE_SECONDS ?? 15 * 60);

@@ -1,0 +1,122 @@
+/**
+ * Background jobs on PostgreSQL (pg-boss): two workers share the queue without taking a job twice,
+ * and an import + solve survives its worker being killed mid-solve — the previous state stays
+ * current, the job is handed out again and finishes, never a half-current revision.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
+import { count, eq } from 'drizzle-orm';
+import PgBoss from 'pg-boss';
+import { db, getPool } from '@/db/client';
+import { jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
+import * as auth from '@/lib/auth/service';
+import * as store from '@/lib/lines/store';
+import { enqueueJob } from '@/lib/jobs/store';
+import { runJob } from '@/lib/jobs/run';
+import { stopBoss } from '@/lib/jobs/boss';
+import { BOSS_SCHEMA } from '@/lib/jobs/queues';
+import { demoLineRows, lineListWorkbook } from '../../seed/line-list';
+
+process.env.JOB_EXPIRE_SECONDS = '20'; // a job whose worker vanished is handed out again after 20 s
+
+let userId = '', organizationId = '';
+const children: ChildProcess[] = [];
+
+async function newProject(code: string) {
+  const [p] = await db.insert(projects).values({ organizationId, code, name: code }).returning();
+  return p.id;
+}
+
+async function draftOf(projectId: string, n: number) {
+  const d = await store.createDraft({ projectId, userId, fileName: 'jobs.xlsx', bytes: await lineListWorkbook(demoLineRows(n, 7)) });
+  const s = d.sheets.find((x) => x.name === d.defaultSheet)!;
+  return { draftId: d.draftId, sheetName: s.name, mapping: s.suggested };
+}
+
+const jobRow = async (id: string) => (await db.select().from(jobs).where(eq(jobs.id, id)))[0];
+async function until<T>(what: () => Promise<T>, ok: (v: T) => boolean, ms: number): Promise<T> {
+  const end = Date.now() + ms;
+  for (;;) {
+    const v = await what();
+    if (ok(v) || Date.now() > end) return v;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+function startWorker(): ChildProcess {
+  const c = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], { env: { ...process.env }, stdio: ['ignore', 'ignore', 'pipe'] });
+  c.stderr!.on('data', () => undefined);
+  children.push(c);
+  return c;
+}
+
+beforeAll(async () => {
+  const owner = await auth.signUp({ name: 'Job Tester', email: `jobs.${randomUUID().slice(0, 8)}@example.com`, password: 'copper-riser-gasket', organizationName: 'Job Test Org' });
+  userId = owner.userId; organizationId = owner.organizationId;
+});
+afterAll(async () => {
+  for (const c of children) if (c.exitCode === null) c.kill('SIGKILL');
+  await stopBoss();
+  await getPool().end();
+});
+
+describe('jobs on PostgreSQL', () => {
+  it('two workers share the queue: every job is taken by exactly one of them, once', { timeout: 120_000 }, async () => {
+    const ids: string[] = [];
+    for (let i = 0; i < 6; i++) {
+      const projectId = await newProject(`J2-${i}`);
+      ids.push((await enqueueJob({ projectId, userId, kind: 'import-solve', input: await draftOf(projectId, 12) })).id);
+    }
+    const taken: { worker: string; jobId: string }[] = [];
+    const bosses = ['A', 'B'].map((name) => ({ name, boss: new PgBoss({ connectionString: process.env.DATABASE_URL!, schema: BOSS_SCHEMA, migrate: false, supervise: false, schedule: false }) }));
+    for (const { name, boss } of bosses) {
+      await boss.start();
+      await boss.work<{ jobId: string }>('import-solve', { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+        taken.push({ worker: name, jobId: job.data.jobId });
+        await runJob(job.data.jobId);
+      });
+    }
+    const rows = await until(async () => Promise.all(ids.map(jobRow)), (rs) => rs.every((r) => r.state === 'done'), 90_000);
+    for (const { boss } of bosses) await boss.stop({ graceful: true, wait: true, timeout: 5_000 });
+    expect(rows.map((r) => r.state)).toEqual(ids.map(() => 'done'));
+    expect(rows.map((r) => r.attempts)).toEqual(ids.map(() => 1));
+    expect(taken.map((t) => t.jobId).sort()).toEqual([...ids].sort());
+    for (const r of rows) {
+      expect(r.result).toMatchObject({ revision: 1 });
+      expect(r.result!.solved).toBe(r.result!.lineCount);
+      expect(r.done).toBe(r.result!.lineCount);
+    }
+  });
+
+  it('an import + solve survives its worker being killed mid-solve: nothing half-current, then it finishes', { timeout: 240_000 }, async () => {
+    const projectId = await newProject('JK-1');
+    const n = 1_500;
+    const job = await enqueueJob({ projectId, userId, kind: 'import-solve', input: await draftOf(projectId, n) });
+    const first = startWorker();
+    const mid = await until(() => jobRow(job.id), (r) => r.state === 'running' && r.done > 0 && r.done < r.total, 120_000);
+    expect(mid.done).toBeGreaterThan(0);
+    first.kill('SIGKILL');
+    await new Promise((r) => first.once('exit', r));
+
+    // The killed transaction rolled back: no revision, no lines, no results are current.
+    const [{ n: lineCount }] = await db.select({ n: count() }).from(lines).where(eq(lines.projectId, projectId));
+    const [{ n: revCount }] = await db.select({ n: count() }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+    expect([lineCount, revCount]).toEqual([0, 0]);
+
+    startWorker();
+    const done = await until(() => jobRow(job.id), (r) => r.state === 'done' || r.state === 'failed', 200_000);
+    expect(done.state).toBe('done');
+    expect(done.attempts).toBeGreaterThanOrEqual(2);
+    expect(done.result).toMatchObject({ revision: 1, solved: done.result!.lineCount });
+    const [{ n: solved }] = await db.select({ n: count() }).from(lineResults).where(eq(lineResults.projectId, projectId));
+    expect(solved).toBe(done.result!.lineCount);
+  });
+
+  it('a second import or solve of a project waits its turn with a sentence', async () => {
+    const projectId = await newProject('JQ-1');
+    await enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } });
+    await expect(enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } })).rejects.toThrow(/still running; wait for it to finish/);
+    await db.delete(jobs).where(eq(jobs.projectId, projectId));
+  });
+});

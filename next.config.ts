@@ -13,7 +13,12 @@ const nextConfig: NextConfig = {
   // Headers that never vary, on every response including static files; the CSP and HSTS are
   // set per request in proxy.ts.
   async headers() {
-    return [{ source: '/:path*', headers: Object.entries(STATIC_SECURITY_HEADERS).map(([key, value]) => ({ key, value })) }];
+    return [
+      {
+        source: '/:path*',
+        headers: Object.entries(STATIC_SECURITY_HEADERS).map(([key, value]) => ({ key, value })),
+      },
+    ];
   },
 };
 export default nextConfig;

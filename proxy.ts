@@ -19,9 +19,13 @@ export function proxy(request: NextRequest) {
     const length = Number(request.headers.get('content-length') ?? '0');
     if (Number.isFinite(length) && length > limit) {
       const message = tooLargeMessage(limit);
-      const res = isApi || request.headers.get('next-action')
-        ? NextResponse.json({ error: { code: 'too_large', message } }, { status: 413 })
-        : new NextResponse(message, { status: 413, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+      const res =
+        isApi || request.headers.get('next-action')
+          ? NextResponse.json({ error: { code: 'too_large', message } }, { status: 413 })
+          : new NextResponse(message, {
+              status: 413,
+              headers: { 'content-type': 'text/plain; charset=utf-8' },
+            });
       res.headers.set('Content-Security-Policy', API_CSP);
       res.headers.set('Connection', 'close');
       return res;
@@ -35,7 +39,12 @@ export function proxy(request: NextRequest) {
   } else {
     const nonce = Buffer.from(crypto.getRandomValues(new Uint8Array(18))).toString('base64');
     const devIssuer = process.env.OIDC_DEV_ISSUER ? [new URL(process.env.OIDC_DEV_ISSUER).origin] : [];
-    const csp = pageCsp({ nonce, dev: process.env.NODE_ENV === 'development', secure, formTargets: devIssuer });
+    const csp = pageCsp({
+      nonce,
+      dev: process.env.NODE_ENV === 'development',
+      secure,
+      formTargets: devIssuer,
+    });
     const requestHeaders = new Headers(request.headers);
     requestHeaders.set('x-nonce', nonce);
     requestHeaders.set('Content-Security-Policy', csp);

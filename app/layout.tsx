@@ -13,11 +13,16 @@ const sans = localFont({
   variable: '--font-sans',
   display: 'swap',
 });
-const mono = localFont({ src: './fonts/ibm-plex-mono-latin-400-normal.woff2', variable: '--font-mono', display: 'swap' });
+const mono = localFont({
+  src: './fonts/ibm-plex-mono-latin-400-normal.woff2',
+  variable: '--font-mono',
+  display: 'swap',
+});
 
 export const metadata: Metadata = {
   title: { default: 'Lagwise', template: '%s · Lagwise' },
-  description: 'Insulation thickness, surface safety review and bill of quantities for industrial pipework and vessels.',
+  description:
+    'Insulation thickness, surface safety review and bill of quantities for industrial pipework and vessels.',
 };
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {

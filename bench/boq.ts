@@ -16,16 +16,39 @@ const N = Number(process.argv[2] ?? 10000);
 const MEASURE = process.argv[2] === '--measure';
 
 async function main() {
-  const owner = await auth.signUp({ name: 'Bench', email: `bench.${randomUUID().slice(0, 8)}@example.com`, password: 'granite-manifold-9', organizationName: 'Bench Org' });
-  const [p] = await db.insert(projects).values({ organizationId: owner.organizationId, code: `BQ-${Date.now()}`, name: 'Bill bench' }).returning();
-  const draft = await store.createDraft({ projectId: p.id, userId: owner.userId, fileName: 'bench.xlsx', bytes: await lineListWorkbook(demoLineRows(N, 7)) });
+  const owner = await auth.signUp({
+    name: 'Bench',
+    email: `bench.${randomUUID().slice(0, 8)}@example.com`,
+    password: 'granite-manifold-9',
+    organizationName: 'Bench Org',
+  });
+  const [p] = await db
+    .insert(projects)
+    .values({ organizationId: owner.organizationId, code: `BQ-${Date.now()}`, name: 'Bill bench' })
+    .returning();
+  const draft = await store.createDraft({
+    projectId: p.id,
+    userId: owner.userId,
+    fileName: 'bench.xlsx',
+    bytes: await lineListWorkbook(demoLineRows(N, 7)),
+  });
   const s = draft.sheets[0];
-  await store.commitDraft({ projectId: p.id, draftId: draft.draftId, sheetName: s.name, mapping: s.suggested, userId: owner.userId });
+  await store.commitDraft({
+    projectId: p.id,
+    draftId: draft.draftId,
+    sheetName: s.name,
+    mapping: s.suggested,
+    userId: owner.userId,
+  });
   await store.solveProject({ projectId: p.id });
   await store.acceptRecommendations({ projectId: p.id, userId: owner.userId });
   console.log(`project ready: ${N} lines solved and decided`);
   // The bill is measured in a fresh process, so set-up memory does not count against it.
-  execFileSync(process.execPath, ['--import', 'tsx', new URL(import.meta.url).pathname, '--measure', p.id, owner.userId], { stdio: 'inherit', env: process.env });
+  execFileSync(
+    process.execPath,
+    ['--import', 'tsx', new URL(import.meta.url).pathname, '--measure', p.id, owner.userId],
+    { stdio: 'inherit', env: process.env },
+  );
 }
 
 async function measure(projectId: string, userId: string) {
@@ -33,7 +56,9 @@ async function measure(projectId: string, userId: string) {
   const owner = { userId };
   const rssBefore = process.memoryUsage().rss;
   let peak = rssBefore;
-  const sample = setInterval(() => { peak = Math.max(peak, process.memoryUsage().rss); }, 10);
+  const sample = setInterval(() => {
+    peak = Math.max(peak, process.memoryUsage().rss);
+  }, 10);
   const t0 = performance.now();
   const issue = await boq.issueBill({ projectId: p.id, userId: owner.userId });
   const t1 = performance.now();
@@ -41,10 +66,21 @@ async function measure(projectId: string, userId: string) {
   const t2 = performance.now();
   clearInterval(sample);
   peak = Math.max(peak, process.memoryUsage().rss);
-  console.log(`collect + quantities + issue: ${((t1 - t0) / 1000).toFixed(2)} s (${issue.counted} counted, ${issue.pending} pending)`);
+  console.log(
+    `collect + quantities + issue: ${((t1 - t0) / 1000).toFixed(2)} s (${issue.counted} counted, ${issue.pending} pending)`,
+  );
   console.log(`workbook: ${((t2 - t1) / 1000).toFixed(2)} s, ${(buf.length / 1048576).toFixed(1)} MB`);
-  console.log(`bill for ${issue.counted + issue.pending} lines: ${((t2 - t0) / 1000).toFixed(2)} s (goal ≤ 5 s)`);
-  console.log(`peak RSS of the bill process: ${(peak / 1048576).toFixed(0)} MB (goal ≤ 500 MB; at start ${(rssBefore / 1048576).toFixed(0)} MB)`);
+  console.log(
+    `bill for ${issue.counted + issue.pending} lines: ${((t2 - t0) / 1000).toFixed(2)} s (goal ≤ 5 s)`,
+  );
+  console.log(
+    `peak RSS of the bill process: ${(peak / 1048576).toFixed(0)} MB (goal ≤ 500 MB; at start ${(rssBefore / 1048576).toFixed(0)} MB)`,
+  );
 }
 
-(MEASURE ? measure(process.argv[3], process.argv[4]) : main()).then(() => getPool().end()).catch((e) => { console.error(e); process.exit(1); });
+(MEASURE ? measure(process.argv[3], process.argv[4]) : main())
+  .then(() => getPool().end())
+  .catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });

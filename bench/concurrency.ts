@@ -19,10 +19,24 @@ import { demoLineRows, lineListWorkbook } from '../seed/line-list';
 const N = Number(process.argv[2] ?? 10000);
 
 async function importProject(userId: string, organizationId: string, n: number) {
-  const [p] = await db.insert(projects).values({ organizationId, code: `BC-${randomUUID().slice(0, 6)}`, name: 'Bench concurrency' }).returning();
-  const d = await store.createDraft({ projectId: p.id, userId, fileName: 'bench.xlsx', bytes: await lineListWorkbook(demoLineRows(n, 5)) });
+  const [p] = await db
+    .insert(projects)
+    .values({ organizationId, code: `BC-${randomUUID().slice(0, 6)}`, name: 'Bench concurrency' })
+    .returning();
+  const d = await store.createDraft({
+    projectId: p.id,
+    userId,
+    fileName: 'bench.xlsx',
+    bytes: await lineListWorkbook(demoLineRows(n, 5)),
+  });
   const s = d.sheets.find((x) => x.name === d.defaultSheet)!;
-  await store.commitDraft({ projectId: p.id, draftId: d.draftId, sheetName: s.name, mapping: s.suggested, userId });
+  await store.commitDraft({
+    projectId: p.id,
+    draftId: d.draftId,
+    sheetName: s.name,
+    mapping: s.suggested,
+    userId,
+  });
   await store.solveProject({ projectId: p.id });
   return p.id;
 }
@@ -33,31 +47,57 @@ async function othersP95(projectId: string, ms: number, parallel = 8): Promise<n
   const sorts = ['tag', 'heatFlowPerUnit', 'normalTempC', 'surfaceTempC'] as const;
   const end = Date.now() + ms;
   let i = 0;
-  await Promise.all(Array.from({ length: parallel }, async () => {
-    while (Date.now() < end) {
-      const k = i++;
-      const t0 = performance.now();
-      JSON.stringify(await store.listLines({ projectId, page: k % 10, size: 100, sort: sorts[k % sorts.length], dir: k % 2 ? 'asc' : 'desc' }));
-      times.push(performance.now() - t0);
-    }
-  }));
+  await Promise.all(
+    Array.from({ length: parallel }, async () => {
+      while (Date.now() < end) {
+        const k = i++;
+        const t0 = performance.now();
+        JSON.stringify(
+          await store.listLines({
+            projectId,
+            page: k % 10,
+            size: 100,
+            sort: sorts[k % sorts.length],
+            dir: k % 2 ? 'asc' : 'desc',
+          }),
+        );
+        times.push(performance.now() - t0);
+      }
+    }),
+  );
   times.sort((a, b) => a - b);
   return times[Math.min(times.length - 1, Math.floor(0.95 * times.length))];
 }
 
 async function main() {
-  const owner = await auth.signUp({ name: 'Bench', email: `bench.${randomUUID().slice(0, 8)}@example.com`, password: 'granite-manifold-9', organizationName: 'Bench Org' });
+  const owner = await auth.signUp({
+    name: 'Bench',
+    email: `bench.${randomUUID().slice(0, 8)}@example.com`,
+    password: 'granite-manifold-9',
+    organizationName: 'Bench Org',
+  });
   const big = await importProject(owner.userId, owner.organizationId, N);
   const other = await importProject(owner.userId, owner.organizationId, 1000);
   console.log(`imported and solved ${N} lines (and 1,000 for the other users)`);
-  const worker = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], { env: process.env, stdio: ['ignore', 'ignore', 'pipe'] });
+  const worker = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], {
+    env: process.env,
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
   let out = '';
   await new Promise<void>((resolve, reject) => {
-    worker.stderr!.on('data', (d) => { out += String(d); if (out.includes('[worker] working')) resolve(); });
+    worker.stderr!.on('data', (d) => {
+      out += String(d);
+      if (out.includes('[worker] working')) resolve();
+    });
     worker.once('exit', () => reject(new Error(`the worker stopped: ${out}`)));
   });
   const idle = await othersP95(other, 8_000);
-  const job = await enqueueJob({ projectId: big, userId: owner.userId, kind: 'solve-all', input: { all: true } });
+  const job = await enqueueJob({
+    projectId: big,
+    userId: owner.userId,
+    kind: 'solve-all',
+    input: { all: true },
+  });
   const t0 = Date.now();
   await new Promise((r) => setTimeout(r, 500));
   const during = await othersP95(other, 8_000);
@@ -73,4 +113,9 @@ async function main() {
   console.log(`others p95 during solve ms: ${during.toFixed(1)}`);
 }
 
-main().then(() => getPool().end()).catch((e) => { console.error(e); process.exit(1); });
+main()
+  .then(() => getPool().end())
+  .catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });

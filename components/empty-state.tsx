@@ -1,4 +1,12 @@
-export function EmptyState({ title, children, next }: { title: string; children: React.ReactNode; next?: string }) {
+export function EmptyState({
+  title,
+  children,
+  next,
+}: {
+  title: string;
+  children: React.ReactNode;
+  next?: string;
+}) {
   return (
     <div className="panel border-dashed p-8 text-center">
       <h2 className="mb-2">{title}</h2>

@@ -1,7 +1,12 @@
 'use client';
 import { useRouter } from 'next/navigation';
 
-export interface SwitcherProject { id: string; code: string; name: string; organizationName: string }
+export interface SwitcherProject {
+  id: string;
+  code: string;
+  name: string;
+  organizationName: string;
+}
 
 export function ProjectSwitcher({ projects, current }: { projects: SwitcherProject[]; current?: string }) {
   const router = useRouter();
@@ -18,9 +23,13 @@ export function ProjectSwitcher({ projects, current }: { projects: SwitcherProje
         <option value="">All projects</option>
         {orgs.map((o) => (
           <optgroup key={o} label={o}>
-            {projects.filter((p) => p.organizationName === o).map((p) => (
-              <option key={p.id} value={p.id}>{p.code} — {p.name}</option>
-            ))}
+            {projects
+              .filter((p) => p.organizationName === o)
+              .map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.code} — {p.name}
+                </option>
+              ))}
           </optgroup>
         ))}
       </select>

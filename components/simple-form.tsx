@@ -19,7 +19,15 @@ type Result = (SubmissionResult<string[]> & { data?: unknown }) | undefined;
  * A labelled form driven by one of the shared zod schemas: instant field messages in the browser,
  * the same schema on the server, typed values kept after a server-side error.
  */
-export function SimpleForm({ action, schema, fields, hidden = {}, submitLabel, successMessage, className }: {
+export function SimpleForm({
+  action,
+  schema,
+  fields,
+  hidden = {},
+  submitLabel,
+  successMessage,
+  className,
+}: {
   action: (prev: unknown, fd: FormData) => Promise<Result>;
   schema: FormSchemaName;
   fields: FieldSpec[];
@@ -50,28 +58,68 @@ export function SimpleForm({ action, schema, fields, hidden = {}, submitLabel, s
         startTransition(() => formAction(fd));
       }}
     >
-      {Object.entries(hidden).map(([k, v]) => <input key={k} type="hidden" name={k} value={v} />)}
-      {form.errors?.length ? <div role="alert" className="rounded border border-alarm-500 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{form.errors.join(' ')}</div> : null}
-      {lastResult?.status === 'success' && successMessage ? <div role="status" className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm text-mineral-800">{successMessage}</div> : null}
+      {Object.entries(hidden).map(([k, v]) => (
+        <input key={k} type="hidden" name={k} value={v} />
+      ))}
+      {form.errors?.length ? (
+        <div
+          role="alert"
+          className="rounded border border-alarm-500 bg-alarm-50 px-3 py-2 text-sm text-alarm-700"
+        >
+          {form.errors.join(' ')}
+        </div>
+      ) : null}
+      {lastResult?.status === 'success' && successMessage ? (
+        <div
+          role="status"
+          className="rounded border border-mineral-300 bg-mineral-50 px-3 py-2 text-sm text-mineral-800"
+        >
+          {successMessage}
+        </div>
+      ) : null}
       {fields.map((f) => {
         const m = meta[f.name];
         const errId = m.errorId;
         return (
           <div key={f.name}>
-            <label htmlFor={m.id} className="label">{f.label}</label>
+            <label htmlFor={m.id} className="label">
+              {f.label}
+            </label>
             {f.type === 'select' ? (
-              <select id={m.id} name={m.name} defaultValue={(m.initialValue as string) ?? f.options?.[0]?.value} className="input" aria-invalid={m.errors ? true : undefined} aria-describedby={m.errors ? errId : undefined}>
-                {f.options?.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+              <select
+                id={m.id}
+                name={m.name}
+                defaultValue={(m.initialValue as string) ?? f.options?.[0]?.value}
+                className="input"
+                aria-invalid={m.errors ? true : undefined}
+                aria-describedby={m.errors ? errId : undefined}
+              >
+                {f.options?.map((o) => (
+                  <option key={o.value} value={o.value}>
+                    {o.label}
+                  </option>
+                ))}
               </select>
             ) : (
-              <input {...getInputProps(m, { type: f.type ?? 'text' })} key={m.key} autoComplete={f.autoComplete} className="input" />
+              <input
+                {...getInputProps(m, { type: f.type ?? 'text' })}
+                key={m.key}
+                autoComplete={f.autoComplete}
+                className="input"
+              />
             )}
             {f.hint && !m.errors ? <p className="mt-1 text-xs text-ink-500">{f.hint}</p> : null}
-            {m.errors ? <p id={errId} className="field-error">{m.errors.join(' ')}</p> : null}
+            {m.errors ? (
+              <p id={errId} className="field-error">
+                {m.errors.join(' ')}
+              </p>
+            ) : null}
           </div>
         );
       })}
-      <button type="submit" className="btn-primary" disabled={pending}>{pending ? 'Working…' : submitLabel}</button>
+      <button type="submit" className="btn-primary" disabled={pending}>
+        {pending ? 'Working…' : submitLabel}
+      </button>
     </form>
   );
 }

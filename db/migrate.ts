@@ -38,7 +38,14 @@ function grantStatements(appRole: string): string[] {
 
 /** pg-boss's own schema migration and our queues, as the owner (a queue is a table partition). */
 async function installQueues(ownerUrl: string) {
-  const boss = new PgBoss({ connectionString: ownerUrl, schema: BOSS_SCHEMA, max: 1, migrate: true, supervise: false, schedule: false });
+  const boss = new PgBoss({
+    connectionString: ownerUrl,
+    schema: BOSS_SCHEMA,
+    max: 1,
+    migrate: true,
+    supervise: false,
+    schedule: false,
+  });
   boss.on('error', (e) => console.error('[db] pg-boss:', (e as Error).message));
   await boss.start();
   try {
@@ -47,7 +54,9 @@ async function installQueues(ownerUrl: string) {
       if (await boss.getQueue(name)) await boss.updateQueue(name, q);
       else await boss.createQueue(name, q);
     }
-  } finally { await boss.stop({ graceful: false, wait: true }); }
+  } finally {
+    await boss.stop({ graceful: false, wait: true });
+  }
 }
 
 async function main() {
@@ -57,16 +66,23 @@ async function main() {
   try {
     await migrate(drizzle(pool), { migrationsFolder: new URL('../drizzle', import.meta.url).pathname });
     await installQueues(ownerUrl);
-    const { rows: [{ me }] } = await pool.query<{ me: string }>('select current_user as me');
+    const {
+      rows: [{ me }],
+    } = await pool.query<{ me: string }>('select current_user as me');
     if (appRole && appRole !== me) {
       for (const s of grantStatements(appRole)) await pool.query(s);
       console.error(`[db] migrations applied as ${me}; ${appRole} granted application rights`);
     } else {
-      console.error('[db] migrations applied; warning: the application connects as the owner, so it could alter the audit trail (set DATABASE_OWNER_URL)');
+      console.error(
+        '[db] migrations applied; warning: the application connects as the owner, so it could alter the audit trail (set DATABASE_OWNER_URL)',
+      );
     }
   } finally {
     await pool.end();
   }
 }
 
-main().catch((e) => { console.error('[db] migration failed:', e?.code ?? '', e?.message); process.exit(1); });
+main().catch((e) => {
+  console.error('[db] migration failed:', e?.code ?? '', e?.message);
+  process.exit(1);
+});

@@ -1,24 +1,46 @@
 import { relations, sql } from 'drizzle-orm';
 import {
-  boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid,
+  boolean,
+  customType,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
 } from 'drizzle-orm/pg-core';
 
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
 export type Role = (typeof roleEnum.enumValues)[number];
 
-export const users = pgTable('users', {
-  id: text('id').primaryKey(),
-  email: text('email').notNull(),
-  name: text('name').notNull(),
-  passwordHash: text('password_hash'),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [uniqueIndex('users_email_key').on(sql`lower(${t.email})`)]);
+export const users = pgTable(
+  'users',
+  {
+    id: text('id').primaryKey(),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    passwordHash: text('password_hash'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('users_email_key').on(sql`lower(${t.email})`)],
+);
 
-export const sessions = pgTable('sessions', {
-  id: text('id').primaryKey(),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
-}, (t) => [index('sessions_user_idx').on(t.userId)]);
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+);
 
 export const organizations = pgTable('organizations', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -26,29 +48,47 @@ export const organizations = pgTable('organizations', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-export const memberships = pgTable('memberships', {
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  role: roleEnum('role').notNull(),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [primaryKey({ columns: [t.organizationId, t.userId] }), index('memberships_user_idx').on(t.userId)]);
+export const memberships = pgTable(
+  'memberships',
+  {
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    role: roleEnum('role').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.organizationId, t.userId] }), index('memberships_user_idx').on(t.userId)],
+);
 
-export const projects = pgTable('projects', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  code: text('code').notNull(),
-  name: text('name').notNull(),
-  site: text('site').notNull().default(''),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [uniqueIndex('projects_org_code_key').on(t.organizationId, t.code)]);
+export const projects = pgTable(
+  'projects',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    code: text('code').notNull(),
+    name: text('name').notNull(),
+    site: text('site').notNull().default(''),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('projects_org_code_key').on(t.organizationId, t.code)],
+);
 
 export const invitations = pgTable('invitations', {
   id: uuid('id').primaryKey().defaultRandom(),
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  organizationId: uuid('organization_id')
+    .notNull()
+    .references(() => organizations.id, { onDelete: 'cascade' }),
   email: text('email').notNull(),
   role: roleEnum('role').notNull(),
   tokenHash: text('token_hash').notNull().unique(),
-  invitedBy: text('invited_by').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  invitedBy: text('invited_by')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
   acceptedAt: timestamp('accepted_at', { withTimezone: true }),
   revokedAt: timestamp('revoked_at', { withTimezone: true }),
@@ -57,7 +97,9 @@ export const invitations = pgTable('invitations', {
 
 export const passwordResets = pgTable('password_resets', {
   tokenHash: text('token_hash').primaryKey(),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  userId: text('user_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
   usedAt: timestamp('used_at', { withTimezone: true }),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -94,7 +136,9 @@ export const geometryEnum = pgEnum('line_geometry', ['horizontal-pipe', 'vertica
 
 /** The project's design basis; every saved change bumps the revision, which marks results stale. */
 export const designBases = pgTable('design_bases', {
-  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
   revision: integer('revision').notNull().default(1),
   basis: jsonb('basis').notNull(),
   updatedBy: text('updated_by').references(() => users.id, { onDelete: 'set null' }),
@@ -103,7 +147,9 @@ export const designBases = pgTable('design_bases', {
 
 /** Column mapping remembered per project for the next revision. */
 export const columnMappings = pgTable('column_mappings', {
-  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
   headers: jsonb('headers').notNull(),
   mapping: jsonb('mapping').notNull(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
@@ -112,204 +158,294 @@ export const columnMappings = pgTable('column_mappings', {
 /** An uploaded file, parsed, waiting for mapping and import. */
 export const importDrafts = pgTable('import_drafts', {
   id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  createdBy: text('created_by').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .notNull()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
   fileName: text('file_name').notNull(),
   parsed: jsonb('parsed').notNull(),
   importedRevision: integer('imported_revision'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-export const lineListRevisions = pgTable('line_list_revisions', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  number: integer('number').notNull(),
-  fileName: text('file_name').notNull(),
-  sheetName: text('sheet_name').notNull(),
-  lineCount: integer('line_count').notNull(),
-  diff: jsonb('diff').notNull(),
-  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [uniqueIndex('line_list_revisions_number_key').on(t.projectId, t.number)]);
+export const lineListRevisions = pgTable(
+  'line_list_revisions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    fileName: text('file_name').notNull(),
+    sheetName: text('sheet_name').notNull(),
+    lineCount: integer('line_count').notNull(),
+    diff: jsonb('diff').notNull(),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('line_list_revisions_number_key').on(t.projectId, t.number)],
+);
 
-export const lines = pgTable('lines', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  tag: text('tag').notNull(),
-  service: text('service').notNull().default(''),
-  area: text('area').notNull().default(''),
-  geometry: geometryEnum('geometry').notNull(),
-  nps: text('nps'),
-  outsideDiameterMm: doublePrecision('outside_diameter_mm'),
-  lengthM: doublePrecision('length_m'),
-  surfaceAreaM2: doublePrecision('surface_area_m2'),
-  heightM: doublePrecision('height_m'),
-  normalTempC: doublePrecision('normal_temp_c').notNull(),
-  maxTempC: doublePrecision('max_temp_c'),
-  steamPressureBarG: doublePrecision('steam_pressure_bar_g'),
-  flowKgPerS: doublePrecision('flow_kg_per_s'),
-  fluidCpKJPerKgK: doublePrecision('fluid_cp_kj_per_kg_k'),
-  elbows: integer('elbows').notNull().default(0),
-  tees: integer('tees').notNull().default(0),
-  valves: integer('valves').notNull().default(0),
-  flanges: integer('flanges').notNull().default(0),
-  purposes: text('purposes').array().notNull(),
-  outdoor: boolean('outdoor').notNull().default(true),
-  accessible: boolean('accessible').notNull().default(true),
-  accessHeightM: doublePrecision('access_height_m'),
-  jacketId: text('jacket_id'),
-  notes: text('notes').notNull().default(''),
-  /** Bumped when a thermal input changes. */
-  inputVersion: integer('input_version').notNull().default(1),
-  /**
-   * The version of a design that was taken back (undoing a bulk accept removes a decision): the next
-   * decision continues from it, so a design version someone has seen is never given out again.
-   */
-  lastDesignVersion: integer('last_design_version').notNull().default(0),
-  revision: integer('revision').notNull(),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag), index('lines_project_area_idx').on(t.projectId, t.area)]);
+export const lines = pgTable(
+  'lines',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    tag: text('tag').notNull(),
+    service: text('service').notNull().default(''),
+    area: text('area').notNull().default(''),
+    geometry: geometryEnum('geometry').notNull(),
+    nps: text('nps'),
+    outsideDiameterMm: doublePrecision('outside_diameter_mm'),
+    lengthM: doublePrecision('length_m'),
+    surfaceAreaM2: doublePrecision('surface_area_m2'),
+    heightM: doublePrecision('height_m'),
+    normalTempC: doublePrecision('normal_temp_c').notNull(),
+    maxTempC: doublePrecision('max_temp_c'),
+    steamPressureBarG: doublePrecision('steam_pressure_bar_g'),
+    flowKgPerS: doublePrecision('flow_kg_per_s'),
+    fluidCpKJPerKgK: doublePrecision('fluid_cp_kj_per_kg_k'),
+    elbows: integer('elbows').notNull().default(0),
+    tees: integer('tees').notNull().default(0),
+    valves: integer('valves').notNull().default(0),
+    flanges: integer('flanges').notNull().default(0),
+    purposes: text('purposes').array().notNull(),
+    outdoor: boolean('outdoor').notNull().default(true),
+    accessible: boolean('accessible').notNull().default(true),
+    accessHeightM: doublePrecision('access_height_m'),
+    jacketId: text('jacket_id'),
+    notes: text('notes').notNull().default(''),
+    /** Bumped when a thermal input changes. */
+    inputVersion: integer('input_version').notNull().default(1),
+    /**
+     * The version of a design that was taken back (undoing a bulk accept removes a decision): the next
+     * decision continues from it, so a design version someone has seen is never given out again.
+     */
+    lastDesignVersion: integer('last_design_version').notNull().default(0),
+    revision: integer('revision').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('lines_project_tag_key').on(t.projectId, t.tag),
+    index('lines_project_area_idx').on(t.projectId, t.area),
+  ],
+);
 
 /** The engine's answer for a line, with what it was computed from (for stale marking). */
-export const lineResults = pgTable('line_results', {
-  lineId: uuid('line_id').primaryKey().references(() => lines.id, { onDelete: 'cascade' }),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  calcVersion: text('calc_version').notNull(),
-  basisRevision: integer('basis_revision').notNull(),
-  inputVersion: integer('input_version').notNull(),
-  inputHash: text('input_hash').notNull(),
-  recommendedMm: doublePrecision('recommended_mm'),
-  governing: text('governing'),
-  layers: jsonb('layers').notNull(),
-  systemLabel: text('system_label').notNull(),
-  jacketId: text('jacket_id').notNull(),
-  outcomes: jsonb('outcomes').notNull(),
-  candidates: jsonb('candidates').notNull(),
-  unmet: text('unmet').array().notNull(),
-  warnings: jsonb('warnings').notNull(),
-  design: jsonb('design'),
-  heatFlowPerUnit: doublePrecision('heat_flow_per_unit'),
-  totalHeatW: doublePrecision('total_heat_w'),
-  bareHeatW: doublePrecision('bare_heat_w').notNull(),
-  surfaceTempC: doublePrecision('surface_temp_c'),
-  personnelSurfaceC: doublePrecision('personnel_surface_c'),
-  annualMWh: doublePrecision('annual_mwh'),
-  annualCost: doublePrecision('annual_cost'),
-  co2Tonnes: doublePrecision('co2_tonnes'),
-  condensateKgPerH: doublePrecision('condensate_kg_per_h'),
-  solvedAt: timestamp('solved_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [index('line_results_project_idx').on(t.projectId)]);
+export const lineResults = pgTable(
+  'line_results',
+  {
+    lineId: uuid('line_id')
+      .primaryKey()
+      .references(() => lines.id, { onDelete: 'cascade' }),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    calcVersion: text('calc_version').notNull(),
+    basisRevision: integer('basis_revision').notNull(),
+    inputVersion: integer('input_version').notNull(),
+    inputHash: text('input_hash').notNull(),
+    recommendedMm: doublePrecision('recommended_mm'),
+    governing: text('governing'),
+    layers: jsonb('layers').notNull(),
+    systemLabel: text('system_label').notNull(),
+    jacketId: text('jacket_id').notNull(),
+    outcomes: jsonb('outcomes').notNull(),
+    candidates: jsonb('candidates').notNull(),
+    unmet: text('unmet').array().notNull(),
+    warnings: jsonb('warnings').notNull(),
+    design: jsonb('design'),
+    heatFlowPerUnit: doublePrecision('heat_flow_per_unit'),
+    totalHeatW: doublePrecision('total_heat_w'),
+    bareHeatW: doublePrecision('bare_heat_w').notNull(),
+    surfaceTempC: doublePrecision('surface_temp_c'),
+    personnelSurfaceC: doublePrecision('personnel_surface_c'),
+    annualMWh: doublePrecision('annual_mwh'),
+    annualCost: doublePrecision('annual_cost'),
+    co2Tonnes: doublePrecision('co2_tonnes'),
+    condensateKgPerH: doublePrecision('condensate_kg_per_h'),
+    solvedAt: timestamp('solved_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('line_results_project_idx').on(t.projectId)],
+);
 
 export const designSourceEnum = pgEnum('design_source', ['recommended', 'manual']);
 
 /** The chosen design per line; `version` guards against two people saving over each other. */
-export const lineDesigns = pgTable('line_designs', {
-  lineId: uuid('line_id').primaryKey().references(() => lines.id, { onDelete: 'cascade' }),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  thicknessMm: doublePrecision('thickness_mm').notNull(),
-  layers: jsonb('layers').notNull(),
-  source: designSourceEnum('source').notNull(),
-  reason: text('reason'),
-  /** A manual pick below a hard criterion: allowed with a reason, and stays flagged. */
-  belowCriterion: text('below_criterion'),
-  needsRedecision: boolean('needs_redecision').notNull().default(false),
-  redecisionReason: text('redecision_reason'),
-  decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
-  decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
-  version: integer('version').notNull().default(1),
-}, (t) => [index('line_designs_project_idx').on(t.projectId)]);
+export const lineDesigns = pgTable(
+  'line_designs',
+  {
+    lineId: uuid('line_id')
+      .primaryKey()
+      .references(() => lines.id, { onDelete: 'cascade' }),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    thicknessMm: doublePrecision('thickness_mm').notNull(),
+    layers: jsonb('layers').notNull(),
+    source: designSourceEnum('source').notNull(),
+    reason: text('reason'),
+    /** A manual pick below a hard criterion: allowed with a reason, and stays flagged. */
+    belowCriterion: text('below_criterion'),
+    needsRedecision: boolean('needs_redecision').notNull().default(false),
+    redecisionReason: text('redecision_reason'),
+    decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
+    decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
+    version: integer('version').notNull().default(1),
+  },
+  (t) => [index('line_designs_project_idx').on(t.projectId)],
+);
 
 /** A line's design as it was before a bulk accept replaced it (null in `before`: no decision). */
 export interface DesignSnapshot {
-  thicknessMm: number; layers: unknown; source: 'recommended' | 'manual'; reason: string | null; belowCriterion: string | null;
-  needsRedecision: boolean; redecisionReason: string | null; decidedBy: string | null; decidedAt: string; version: number;
+  thicknessMm: number;
+  layers: unknown;
+  source: 'recommended' | 'manual';
+  reason: string | null;
+  belowCriterion: string | null;
+  needsRedecision: boolean;
+  redecisionReason: string | null;
+  decidedBy: string | null;
+  decidedAt: string;
+  version: number;
 }
-export interface BulkAcceptEntry { lineId: string; tag: string; before: DesignSnapshot | null; version: number }
+export interface BulkAcceptEntry {
+  lineId: string;
+  tag: string;
+  before: DesignSnapshot | null;
+  version: number;
+}
 
 /** One "accept recommendation for the filtered lines": what it changed and what was there before, for undo. */
-export const bulkAccepts = pgTable('bulk_accepts', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  acceptedBy: text('accepted_by').references(() => users.id, { onDelete: 'set null' }),
-  acceptedAt: timestamp('accepted_at', { withTimezone: true }).notNull().defaultNow(),
-  /** The table filter it was applied to: { q?, area?, status? }. */
-  filter: jsonb('filter').$type<{ q?: string; area?: string; status?: string }>().notNull(),
-  /** Each changed line with its design before and the design version the accept wrote. */
-  entries: jsonb('entries').$type<BulkAcceptEntry[]>().notNull(),
-  undoneBy: text('undone_by').references(() => users.id, { onDelete: 'set null' }),
-  undoneAt: timestamp('undone_at', { withTimezone: true }),
-}, (t) => [index('bulk_accepts_project_idx').on(t.projectId, t.acceptedAt)]);
+export const bulkAccepts = pgTable(
+  'bulk_accepts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    acceptedBy: text('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+    acceptedAt: timestamp('accepted_at', { withTimezone: true }).notNull().defaultNow(),
+    /** The table filter it was applied to: { q?, area?, status? }. */
+    filter: jsonb('filter').$type<{ q?: string; area?: string; status?: string }>().notNull(),
+    /** Each changed line with its design before and the design version the accept wrote. */
+    entries: jsonb('entries').$type<BulkAcceptEntry[]>().notNull(),
+    undoneBy: text('undone_by').references(() => users.id, { onDelete: 'set null' }),
+    undoneAt: timestamp('undone_at', { withTimezone: true }),
+  },
+  (t) => [index('bulk_accepts_project_idx').on(t.projectId, t.acceptedAt)],
+);
 
 export const roundStatusEnum = pgEnum('review_round_status', ['open', 'signed-off']);
-export const dispositionEnum = pgEnum('review_disposition', ['insulate', 'guard', 'warning-sign', 'not-accessible', 'returned', 'vapour-retarder-repair', 'drip-protection']);
+export const dispositionEnum = pgEnum('review_disposition', [
+  'insulate',
+  'guard',
+  'warning-sign',
+  'not-accessible',
+  'returned',
+  'vapour-retarder-repair',
+  'drip-protection',
+]);
 
 /** A set of flagged lines an engineer asks the safety reviewer to decide on. */
-export const reviewRounds = pgTable('review_rounds', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  number: integer('number').notNull(),
-  status: roundStatusEnum('status').notNull().default('open'),
-  note: text('note').notNull().default(''),
-  requestedBy: text('requested_by').notNull().references(() => users.id),
-  requestedAt: timestamp('requested_at', { withTimezone: true }).notNull().defaultNow(),
-  calcVersion: text('calc_version').notNull(),
-  basisRevision: integer('basis_revision').notNull(),
-  signedOffBy: text('signed_off_by').references(() => users.id),
-  signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
-  /** Flagged values and dispositions as signed, kept as they were. */
-  snapshot: jsonb('snapshot'),
-}, (t) => [uniqueIndex('review_rounds_number_key').on(t.projectId, t.number)]);
+export const reviewRounds = pgTable(
+  'review_rounds',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    status: roundStatusEnum('status').notNull().default('open'),
+    note: text('note').notNull().default(''),
+    requestedBy: text('requested_by')
+      .notNull()
+      .references(() => users.id),
+    requestedAt: timestamp('requested_at', { withTimezone: true }).notNull().defaultNow(),
+    calcVersion: text('calc_version').notNull(),
+    basisRevision: integer('basis_revision').notNull(),
+    signedOffBy: text('signed_off_by').references(() => users.id),
+    signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
+    /** Flagged values and dispositions as signed, kept as they were. */
+    snapshot: jsonb('snapshot'),
+  },
+  (t) => [uniqueIndex('review_rounds_number_key').on(t.projectId, t.number)],
+);
 
-export const reviewItems = pgTable('review_items', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  roundId: uuid('round_id').notNull().references(() => reviewRounds.id, { onDelete: 'cascade' }),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  /** Lines can leave the list in a later revision; the item keeps its tag. */
-  lineId: uuid('line_id').references(() => lines.id, { onDelete: 'set null' }),
-  tag: text('tag').notNull(),
-  area: text('area').notNull(),
-  flags: jsonb('flags').notNull(),
-  lineInputVersion: integer('line_input_version').notNull(),
-  designVersion: integer('design_version').notNull(),
-  disposition: dispositionEnum('disposition'),
-  requiredMm: doublePrecision('required_mm'),
-  comment: text('comment'),
-  decidedBy: text('decided_by').references(() => users.id),
-  decidedAt: timestamp('decided_at', { withTimezone: true }),
-  /** The signed-off round this decision was carried over from (the line's inputs, design and flags unchanged since). */
-  carriedFromRound: integer('carried_from_round'),
-}, (t) => [index('review_items_round_idx').on(t.roundId), index('review_items_line_idx').on(t.lineId)]);
+export const reviewItems = pgTable(
+  'review_items',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    roundId: uuid('round_id')
+      .notNull()
+      .references(() => reviewRounds.id, { onDelete: 'cascade' }),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    /** Lines can leave the list in a later revision; the item keeps its tag. */
+    lineId: uuid('line_id').references(() => lines.id, { onDelete: 'set null' }),
+    tag: text('tag').notNull(),
+    area: text('area').notNull(),
+    flags: jsonb('flags').notNull(),
+    lineInputVersion: integer('line_input_version').notNull(),
+    designVersion: integer('design_version').notNull(),
+    disposition: dispositionEnum('disposition'),
+    requiredMm: doublePrecision('required_mm'),
+    comment: text('comment'),
+    decidedBy: text('decided_by').references(() => users.id),
+    decidedAt: timestamp('decided_at', { withTimezone: true }),
+    /** The signed-off round this decision was carried over from (the line's inputs, design and flags unchanged since). */
+    carriedFromRound: integer('carried_from_round'),
+  },
+  (t) => [index('review_items_round_idx').on(t.roundId), index('review_items_line_idx').on(t.lineId)],
+);
 
 /**
  * Append-only record of dispositions, sign-offs and design picks. A trigger (migration 0002)
  * refuses UPDATE and DELETE, so the record holds whatever the application does.
  */
-export const auditLog = pgTable('audit_log', {
-  id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
-  projectId: uuid('project_id').notNull(),
-  lineId: uuid('line_id'),
-  tag: text('tag'),
-  actorId: text('actor_id'),
-  actorName: text('actor_name').notNull(),
-  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
-  action: text('action').notNull(),
-  before: jsonb('before'),
-  after: jsonb('after'),
-}, (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)]);
+export const auditLog = pgTable(
+  'audit_log',
+  {
+    id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+    projectId: uuid('project_id').notNull(),
+    lineId: uuid('line_id'),
+    tag: text('tag'),
+    actorId: text('actor_id'),
+    actorName: text('actor_name').notNull(),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+    action: text('action').notNull(),
+    before: jsonb('before'),
+    after: jsonb('after'),
+  },
+  (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)],
+);
 
 /** Issued revisions of the bill of quantities, each with the quantities as issued. */
-export const boqIssues = pgTable('boq_issues', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  number: integer('number').notNull(),
-  issuedBy: text('issued_by').notNull().references(() => users.id),
-  issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
-  basisRevision: integer('basis_revision').notNull(),
-  lineListRevision: integer('line_list_revision'),
-  quantities: jsonb('quantities').notNull(),
-  counted: integer('counted').notNull(),
-  pending: integer('pending').notNull(),
-}, (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)]);
+export const boqIssues = pgTable(
+  'boq_issues',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    issuedBy: text('issued_by')
+      .notNull()
+      .references(() => users.id),
+    issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+    basisRevision: integer('basis_revision').notNull(),
+    lineListRevision: integer('line_list_revision'),
+    quantities: jsonb('quantities').notNull(),
+    counted: integer('counted').notNull(),
+    pending: integer('pending').notNull(),
+  },
+  (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)],
+);
 
 const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
 
@@ -317,25 +453,35 @@ const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () =>
  * Issued revisions of the project design report, numbered per project like the bill; the PDF is
  * kept byte for byte as issued (append-only: the application may only read and add).
  */
-export const designReports = pgTable('design_reports', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  number: integer('number').notNull(),
-  issuedBy: text('issued_by').notNull().references(() => users.id),
-  issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
-  basisRevision: integer('basis_revision').notNull(),
-  lineListRevision: integer('line_list_revision'),
-  calcVersion: text('calc_version').notNull(),
-  note: text('note').notNull().default(''),
-  /** The figures the report states (totals, counts), for the revision list and checks. */
-  summary: jsonb('summary').notNull(),
-  sha256: text('sha256').notNull(),
-  pdf: bytea('pdf').notNull(),
-}, (t) => [uniqueIndex('design_reports_number_key').on(t.projectId, t.number)]);
+export const designReports = pgTable(
+  'design_reports',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    issuedBy: text('issued_by')
+      .notNull()
+      .references(() => users.id),
+    issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+    basisRevision: integer('basis_revision').notNull(),
+    lineListRevision: integer('line_list_revision'),
+    calcVersion: text('calc_version').notNull(),
+    note: text('note').notNull().default(''),
+    /** The figures the report states (totals, counts), for the revision list and checks. */
+    summary: jsonb('summary').notNull(),
+    sha256: text('sha256').notNull(),
+    pdf: bytea('pdf').notNull(),
+  },
+  (t) => [uniqueIndex('design_reports_number_key').on(t.projectId, t.number)],
+);
 
 /** The plant's heat-loss budget and its allocation by area. */
 export const budgets = pgTable('budgets', {
-  projectId: uuid('project_id').primaryKey().references(() => projects.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .primaryKey()
+    .references(() => projects.id, { onDelete: 'cascade' }),
   totalKW: doublePrecision('total_kw').notNull(),
   totalMWhPerYear: doublePrecision('total_mwh_per_year').notNull(),
   allocations: jsonb('allocations').notNull(),
@@ -345,7 +491,9 @@ export const budgets = pgTable('budgets', {
 
 /** Company sign-in (OpenID Connect) of an organization; the client secret is stored encrypted. */
 export const ssoConfigs = pgTable('sso_configs', {
-  organizationId: uuid('organization_id').primaryKey().references(() => organizations.id, { onDelete: 'cascade' }),
+  organizationId: uuid('organization_id')
+    .primaryKey()
+    .references(() => organizations.id, { onDelete: 'cascade' }),
   issuer: text('issuer').notNull(),
   clientId: text('client_id').notNull(),
   clientSecretEnc: text('client_secret_enc').notNull(),
@@ -360,46 +508,83 @@ export const ssoConfigs = pgTable('sso_configs', {
  * (verifiedAt set by the one-time link mailed to an administrative address of the domain); a domain
  * has at most one verified owner, while unproven claims of several organizations may wait side by side.
  */
-export const ssoDomains = pgTable('sso_domains', {
-  domain: text('domain').notNull(),
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  verifiedAt: timestamp('verified_at', { withTimezone: true }),
-  verifiedVia: text('verified_via'),
-}, (t) => [primaryKey({ columns: [t.organizationId, t.domain] }), uniqueIndex('sso_domains_verified_owner_key').on(t.domain).where(sql`${t.verifiedAt} is not null`)]);
+export const ssoDomains = pgTable(
+  'sso_domains',
+  {
+    domain: text('domain').notNull(),
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    verifiedAt: timestamp('verified_at', { withTimezone: true }),
+    verifiedVia: text('verified_via'),
+  },
+  (t) => [
+    primaryKey({ columns: [t.organizationId, t.domain] }),
+    uniqueIndex('sso_domains_verified_owner_key').on(t.domain).where(sql`${t.verifiedAt} is not null`),
+  ],
+);
 
 /** One-time domain-proof links, mailed to an administrative address of the domain; only the hash is kept. */
-export const domainVerifications = pgTable('domain_verifications', {
-  tokenHash: text('token_hash').primaryKey(),
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  domain: text('domain').notNull(),
-  sentTo: text('sent_to').notNull(),
-  requestedBy: text('requested_by').references(() => users.id, { onDelete: 'set null' }),
-  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
-  usedAt: timestamp('used_at', { withTimezone: true }),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [index('domain_verifications_org_idx').on(t.organizationId, t.domain)]);
+export const domainVerifications = pgTable(
+  'domain_verifications',
+  {
+    tokenHash: text('token_hash').primaryKey(),
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    domain: text('domain').notNull(),
+    sentTo: text('sent_to').notNull(),
+    requestedBy: text('requested_by').references(() => users.id, { onDelete: 'set null' }),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('domain_verifications_org_idx').on(t.organizationId, t.domain)],
+);
 
 /** A removal or a refused request: company sign-in does not bring the person back until an owner re-admits them. */
-export const membershipBlocks = pgTable('membership_blocks', {
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  reason: text('reason', { enum: ['removed', 'refused'] }).notNull(),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [primaryKey({ columns: [t.organizationId, t.userId] })]);
+export const membershipBlocks = pgTable(
+  'membership_blocks',
+  {
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    reason: text('reason', { enum: ['removed', 'refused'] }).notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.organizationId, t.userId] })],
+);
 
-export const userIdentities = pgTable('user_identities', {
-  issuer: text('issuer').notNull(),
-  subject: text('subject').notNull(),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [primaryKey({ columns: [t.issuer, t.subject] })]);
+export const userIdentities = pgTable(
+  'user_identities',
+  {
+    issuer: text('issuer').notNull(),
+    subject: text('subject').notNull(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.issuer, t.subject] })],
+);
 
 /** People who signed in with the company account and wait for an owner to give them a role. */
-export const membershipRequests = pgTable('membership_requests', {
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
-  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [primaryKey({ columns: [t.organizationId, t.userId] })]);
+export const membershipRequests = pgTable(
+  'membership_requests',
+  {
+    organizationId: uuid('organization_id')
+      .notNull()
+      .references(() => organizations.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.organizationId, t.userId] })],
+);
 
 /**
  * A company identity waiting to be linked to an existing account. `tokenHash` is the hash of the secret
@@ -414,13 +599,16 @@ export const pendingLinks = pgTable('pending_links', {
   email: text('email').notNull(),
   userId: text('user_id').references(() => users.id, { onDelete: 'cascade' }),
   mailTokenHash: text('mail_token_hash').unique(),
-  organizationId: uuid('organization_id').notNull().references(() => organizations.id, { onDelete: 'cascade' }),
+  organizationId: uuid('organization_id')
+    .notNull()
+    .references(() => organizations.id, { onDelete: 'cascade' }),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
 });
 
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }));
 export const organizationsRelations = relations(organizations, ({ many }) => ({
-  memberships: many(memberships), projects: many(projects),
+  memberships: many(memberships),
+  projects: many(projects),
 }));
 export const membershipsRelations = relations(memberships, ({ one }) => ({
   organization: one(organizations, { fields: [memberships.organizationId], references: [organizations.id] }),
@@ -447,21 +635,27 @@ export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'f
  * One row per background job, what the user sees (the queue itself is pg-boss's, in schema pgboss).
  * `error` is a sentence for the user, never a stack or input values.
  */
-export const jobs = pgTable('jobs', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  projectId: uuid('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  kind: jobKindEnum('kind').notNull(),
-  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-  state: jobStateEnum('state').notNull().default('queued'),
-  /** Lines solved so far and lines to solve (0 until known). */
-  done: integer('done').notNull().default(0),
-  total: integer('total').notNull().default(0),
-  attempts: integer('attempts').notNull().default(0),
-  input: jsonb('input').$type<Record<string, unknown>>().notNull(),
-  result: jsonb('result').$type<Record<string, unknown>>(),
-  error: text('error'),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-  startedAt: timestamp('started_at', { withTimezone: true }),
-  finishedAt: timestamp('finished_at', { withTimezone: true }),
-}, (t) => [index('jobs_project_idx').on(t.projectId, t.createdAt)]);
+export const jobs = pgTable(
+  'jobs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    kind: jobKindEnum('kind').notNull(),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    state: jobStateEnum('state').notNull().default('queued'),
+    /** Lines solved so far and lines to solve (0 until known). */
+    done: integer('done').notNull().default(0),
+    total: integer('total').notNull().default(0),
+    attempts: integer('attempts').notNull().default(0),
+    input: jsonb('input').$type<Record<string, unknown>>().notNull(),
+    result: jsonb('result').$type<Record<string, unknown>>(),
+    error: text('error'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [index('jobs_project_idx').on(t.projectId, t.createdAt)],
+);
 export type Job = typeof jobs.$inferSelect;

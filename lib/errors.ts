@@ -1,8 +1,21 @@
 /** The one error type the app raises on purpose. Its code decides the HTTP status and what the user reads. */
-export type AppErrorCode = 'unauthenticated' | 'forbidden' | 'not_found' | 'invalid' | 'conflict' | 'throttled' | 'unsupported';
+export type AppErrorCode =
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'invalid'
+  | 'conflict'
+  | 'throttled'
+  | 'unsupported';
 
 const STATUS: Record<AppErrorCode, number> = {
-  unauthenticated: 401, forbidden: 403, not_found: 404, invalid: 400, conflict: 409, throttled: 429, unsupported: 415,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  invalid: 400,
+  conflict: 409,
+  throttled: 429,
+  unsupported: 415,
 };
 
 const DEFAULT_MESSAGE: Record<AppErrorCode, string> = {
@@ -23,7 +36,9 @@ export class AppError extends Error {
     this.code = code;
     this.fields = fields;
   }
-  get status() { return STATUS[this.code]; }
+  get status() {
+    return STATUS[this.code];
+  }
 }
 
 export function isAppError(e: unknown): e is AppError {

@@ -10,7 +10,18 @@
 const CODE_ERRORS = new Set(['TypeError', 'ReferenceError', 'RangeError', 'SyntaxError']);
 const MAX_MESSAGE = 160;
 
-type ErrorLike = { name?: string; code?: unknown; constraint?: unknown; table?: unknown; column?: unknown; routine?: unknown; stack?: string; message?: string; cause?: unknown; digest?: unknown };
+type ErrorLike = {
+  name?: string;
+  code?: unknown;
+  constraint?: unknown;
+  table?: unknown;
+  column?: unknown;
+  routine?: unknown;
+  stack?: string;
+  message?: string;
+  cause?: unknown;
+  digest?: unknown;
+};
 
 export function describeError(e: unknown): string {
   const parts: string[] = [];
@@ -22,9 +33,14 @@ export function describeError(e: unknown): string {
       const v = x[k];
       if (typeof v === 'string' || typeof v === 'number') bits.push(`${k}=${String(v).slice(0, 64)}`);
     }
-    if (CODE_ERRORS.has(String(x.name)) && typeof x.message === 'string') bits.push(JSON.stringify(x.message.slice(0, MAX_MESSAGE)));
+    if (CODE_ERRORS.has(String(x.name)) && typeof x.message === 'string')
+      bits.push(JSON.stringify(x.message.slice(0, MAX_MESSAGE)));
     if (depth === 0 && typeof x.stack === 'string') {
-      const frames = x.stack.split('\n').filter((l) => /^\s+at /.test(l)).slice(0, 3).map((l) => l.trim().slice(0, 200));
+      const frames = x.stack
+        .split('\n')
+        .filter((l) => /^\s+at /.test(l))
+        .slice(0, 3)
+        .map((l) => l.trim().slice(0, 200));
       if (frames.length) bits.push(`[${frames.join(' | ')}]`);
     }
     parts.push(bits.join(' '));

@@ -4,13 +4,41 @@
  * Tallgate Energy is a second, unrelated organization (used to show that data stays apart).
  */
 export const DEMO_ORG = { name: 'Korvane Polymers' };
-export const DEMO_PROJECT = { code: 'BP-STM-24', name: 'Brack Point steam network upgrade', site: 'Brack Point polymer works, units 20–40' };
+export const DEMO_PROJECT = {
+  code: 'BP-STM-24',
+  name: 'Brack Point steam network upgrade',
+  site: 'Brack Point polymer works, units 20–40',
+};
 
 export const DEMO_USERS = [
-  { key: 'owner', role: 'owner', name: 'Olwen Ayres', email: 'owner@korvane.example', password: 'kiln-owner-4471' },
-  { key: 'engineer', role: 'engineer', name: 'Dario Fenn', email: 'engineer@korvane.example', password: 'kiln-engineer-4471' },
-  { key: 'reviewer', role: 'reviewer', name: 'Mira Castell', email: 'reviewer@korvane.example', password: 'kiln-reviewer-4471' },
-  { key: 'contractor', role: 'contractor', name: 'Tomas Hollis', email: 'contractor@hollis-thermal.example', password: 'kiln-contractor-4471' },
+  {
+    key: 'owner',
+    role: 'owner',
+    name: 'Olwen Ayres',
+    email: 'owner@korvane.example',
+    password: 'kiln-owner-4471',
+  },
+  {
+    key: 'engineer',
+    role: 'engineer',
+    name: 'Dario Fenn',
+    email: 'engineer@korvane.example',
+    password: 'kiln-engineer-4471',
+  },
+  {
+    key: 'reviewer',
+    role: 'reviewer',
+    name: 'Mira Castell',
+    email: 'reviewer@korvane.example',
+    password: 'kiln-reviewer-4471',
+  },
+  {
+    key: 'contractor',
+    role: 'contractor',
+    name: 'Tomas Hollis',
+    email: 'contractor@hollis-thermal.example',
+    password: 'kiln-contractor-4471',
+  },
 ] as const;
 
 export const OTHER_ORG = {

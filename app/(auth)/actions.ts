@@ -14,8 +14,16 @@ import { logUnexpected } from '@/lib/log';
 
 // Account actions run before there is a session, so they do not use the role wrapper;
 // each still parses on the server and answers with conform field errors.
-function failed(submission: { reply: (o: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
-  if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields, hideFields: ['password'] });
+function failed(
+  submission: { reply: (o: object) => SubmissionResult<string[]> },
+  e: unknown,
+): SubmissionResult<string[]> {
+  if (isAppError(e))
+    return submission.reply({
+      formErrors: e.fields ? [] : [e.message],
+      fieldErrors: e.fields,
+      hideFields: ['password'],
+    });
   logUnexpected('auth', e);
   return submission.reply({ formErrors: ['Something went wrong on our side. Try again.'] });
 }
@@ -29,11 +37,15 @@ export async function signInAction(_prev: unknown, formData: FormData) {
     // A company identity waiting for this password sign-in is linked now (and only now).
     const jar = await cookies();
     const link = jar.get(LINK_COOKIE)?.value;
-    if (link) { await sso.linkPendingIdentity({ userId, linkToken: link }); jar.delete(LINK_COOKIE); }
-  } catch (e) { return failed(submission, e); }
+    if (link) {
+      await sso.linkPendingIdentity({ userId, linkToken: link });
+      jar.delete(LINK_COOKIE);
+    }
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/projects');
 }
-
 
 export async function companySignInAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.companySignIn });
@@ -41,11 +53,26 @@ export async function companySignInAction(_prev: unknown, formData: FormData) {
   let url: string;
   try {
     const start = await sso.beginSso({ email: submission.value.email });
-    (await cookies()).set(SSO_COOKIE, JSON.stringify({ state: start.state, codeVerifier: start.codeVerifier, nonce: start.nonce, organizationId: start.organizationId }), {
-      httpOnly: true, sameSite: 'lax', secure: env.isProduction(), path: '/auth/company', maxAge: 600,
-    });
+    (await cookies()).set(
+      SSO_COOKIE,
+      JSON.stringify({
+        state: start.state,
+        codeVerifier: start.codeVerifier,
+        nonce: start.nonce,
+        organizationId: start.organizationId,
+      }),
+      {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: env.isProduction(),
+        path: '/auth/company',
+        maxAge: 600,
+      },
+    );
     url = start.url;
-  } catch (e) { return failed(submission, e); }
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect(url);
 }
 
@@ -53,7 +80,11 @@ export async function signUpAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.signUp });
   if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
   // Same answer for a new and a known address: the account is created from the mailed link.
-  try { await auth.requestSignUp(submission.value); } catch (e) { return failed(submission, e); }
+  try {
+    await auth.requestSignUp(submission.value);
+  } catch (e) {
+    return failed(submission, e);
+  }
   return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
@@ -63,7 +94,9 @@ export async function confirmSignUpAction(_prev: unknown, formData: FormData) {
   try {
     const { session } = await auth.confirmSignUp(submission.value);
     await setSessionCookie(session.id);
-  } catch (e) { return failed(submission, e); }
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/projects');
 }
 
@@ -71,7 +104,11 @@ export async function confirmSignUpAction(_prev: unknown, formData: FormData) {
 export async function sendLinkMailAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.empty });
   if (submission.status !== 'success') return submission.reply();
-  try { await sso.sendLinkMail({ linkToken: (await cookies()).get(LINK_COOKIE)?.value }); } catch (e) { return failed(submission, e); }
+  try {
+    await sso.sendLinkMail({ linkToken: (await cookies()).get(LINK_COOKIE)?.value });
+  } catch (e) {
+    return failed(submission, e);
+  }
   return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
@@ -83,8 +120,15 @@ export async function linkCompanyAccountAction(_prev: unknown, formData: FormDat
   try {
     await sso.linkWithMail({ linkToken: jar.get(LINK_COOKIE)?.value, mailToken: submission.value.token });
     jar.delete(LINK_COOKIE);
-    jar.set(SSO_MESSAGE_COOKIE, 'Your company account is linked. Sign in with it now.', { httpOnly: true, sameSite: 'lax', path: '/', maxAge: 60 });
-  } catch (e) { return failed(submission, e); }
+    jar.set(SSO_MESSAGE_COOKIE, 'Your company account is linked. Sign in with it now.', {
+      httpOnly: true,
+      sameSite: 'lax',
+      path: '/',
+      maxAge: 60,
+    });
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/sign-in?company=1');
 }
 
@@ -92,21 +136,33 @@ export async function linkCompanyAccountAction(_prev: unknown, formData: FormDat
 export async function confirmDomainAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.token });
   if (submission.status !== 'success') return submission.reply();
-  try { await sso.confirmDomainProof(submission.value.token); } catch (e) { return failed(submission, e); }
+  try {
+    await sso.confirmDomainProof(submission.value.token);
+  } catch (e) {
+    return failed(submission, e);
+  }
   return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
 export async function forgotPasswordAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.forgotPassword });
   if (submission.status !== 'success') return submission.reply();
-  try { await auth.requestPasswordReset(submission.value); } catch (e) { return failed(submission, e); }
+  try {
+    await auth.requestPasswordReset(submission.value);
+  } catch (e) {
+    return failed(submission, e);
+  }
   return { ...submission.reply({ resetForm: true }), status: 'success' as const };
 }
 
 export async function resetPasswordAction(_prev: unknown, formData: FormData) {
   const submission = parseWithZod(formData, { schema: formSchemas.resetPassword });
   if (submission.status !== 'success') return submission.reply({ hideFields: ['password'] });
-  try { await auth.resetPassword(submission.value); } catch (e) { return failed(submission, e); }
+  try {
+    await auth.resetPassword(submission.value);
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/sign-in?reset=1');
 }
 
@@ -116,7 +172,9 @@ export async function acceptInviteNewAction(_prev: unknown, formData: FormData) 
   try {
     const r = await auth.acceptInvitation(submission.value);
     if (r.session) await setSessionCookie(r.session.id);
-  } catch (e) { return failed(submission, e); }
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/projects');
 }
 
@@ -125,7 +183,11 @@ export async function acceptInviteExistingAction(_prev: unknown, formData: FormD
   if (submission.status !== 'success') return submission.reply();
   const { user } = await validateRequest();
   if (!user) return submission.reply({ formErrors: ['Sign in first, then open the invitation link again.'] });
-  try { await auth.acceptInvitation({ token: submission.value.token, userId: user.id }); } catch (e) { return failed(submission, e); }
+  try {
+    await auth.acceptInvitation({ token: submission.value.token, userId: user.id });
+  } catch (e) {
+    return failed(submission, e);
+  }
   redirect('/projects');
 }
 

@@ -20,19 +20,41 @@ import { isIP, BlockList } from 'node:net';
 import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 
-export const OUTBOUND_ERROR = 'The company sign-in service could not be used. Check the issuer in the company sign-in settings, or try again later.';
+export const OUTBOUND_ERROR =
+  'The company sign-in service could not be used. Check the issuer in the company sign-in settings, or try again later.';
 export const OUTBOUND_TIMEOUT_MS = Number(process.env.OIDC_TIMEOUT_MS ?? 4000);
 export const OUTBOUND_MAX_BYTES = 256 * 1024;
 
 const blocked = new BlockList();
 for (const [net, bits] of [
-  ['0.0.0.0', 8], ['10.0.0.0', 8], ['100.64.0.0', 10], ['127.0.0.0', 8], ['169.254.0.0', 16], ['172.16.0.0', 12],
-  ['192.0.0.0', 24], ['192.0.2.0', 24], ['192.168.0.0', 16], ['198.18.0.0', 15], ['198.51.100.0', 24], ['203.0.113.0', 24],
-  ['224.0.0.0', 4], ['240.0.0.0', 4],
-] as const) blocked.addSubnet(net, bits, 'ipv4');
+  ['0.0.0.0', 8],
+  ['10.0.0.0', 8],
+  ['100.64.0.0', 10],
+  ['127.0.0.0', 8],
+  ['169.254.0.0', 16],
+  ['172.16.0.0', 12],
+  ['192.0.0.0', 24],
+  ['192.0.2.0', 24],
+  ['192.168.0.0', 16],
+  ['198.18.0.0', 15],
+  ['198.51.100.0', 24],
+  ['203.0.113.0', 24],
+  ['224.0.0.0', 4],
+  ['240.0.0.0', 4],
+] as const)
+  blocked.addSubnet(net, bits, 'ipv4');
 for (const [net, bits] of [
-  ['::', 128], ['::1', 128], ['fc00::', 7], ['fe80::', 10], ['fec0::', 10], ['ff00::', 8], ['2001:db8::', 32], ['64:ff9b::', 96], ['100::', 64],
-] as const) blocked.addSubnet(net, bits, 'ipv6');
+  ['::', 128],
+  ['::1', 128],
+  ['fc00::', 7],
+  ['fe80::', 10],
+  ['fec0::', 10],
+  ['ff00::', 8],
+  ['2001:db8::', 32],
+  ['64:ff9b::', 96],
+  ['100::', 64],
+] as const)
+  blocked.addSubnet(net, bits, 'ipv6');
 
 /** Whether an IP address is one the server must never be made to contact (IPv4-mapped IPv6 included). */
 export function isForbiddenAddress(address: string): boolean {
@@ -43,7 +65,10 @@ export function isForbiddenAddress(address: string): boolean {
     const mapped = lower.match(/^::ffff:(\d+\.\d+\.\d+\.\d+)$/);
     if (mapped) return isForbiddenAddress(mapped[1]);
     if (/^::ffff:[0-9a-f]{1,4}:[0-9a-f]{1,4}$/.test(lower)) {
-      const [hi, lo] = lower.slice(7).split(':').map((h) => parseInt(h, 16));
+      const [hi, lo] = lower
+        .slice(7)
+        .split(':')
+        .map((h) => parseInt(h, 16));
       return isForbiddenAddress(`${hi >> 8}.${hi & 255}.${lo >> 8}.${lo & 255}`);
     }
     return blocked.check(address, 'ipv6');
@@ -55,7 +80,11 @@ export function isForbiddenAddress(address: string): boolean {
 export function devProviderOrigin(): string | null {
   if (env.isProduction()) return null;
   const issuer = process.env.OIDC_DEV_ISSUER;
-  try { return issuer ? new URL(issuer).origin : null; } catch { return null; }
+  try {
+    return issuer ? new URL(issuer).origin : null;
+  } catch {
+    return null;
+  }
 }
 
 /**
@@ -64,7 +93,11 @@ export function devProviderOrigin(): string | null {
  */
 export function urlRefusal(raw: string): string | null {
   let u: URL;
-  try { u = new URL(raw); } catch { return 'not a valid URL'; }
+  try {
+    u = new URL(raw);
+  } catch {
+    return 'not a valid URL';
+  }
   if (u.username || u.password) return 'credentials in the URL';
   if (devProviderOrigin() === u.origin) return null;
   if (u.protocol !== 'https:') return 'not https';
@@ -74,7 +107,11 @@ export function urlRefusal(raw: string): string | null {
   return null;
 }
 
-type LookupCb = (err: NodeJS.ErrnoException | null, address: string | LookupAddress[], family?: number) => void;
+type LookupCb = (
+  err: NodeJS.ErrnoException | null,
+  address: string | LookupAddress[],
+  family?: number,
+) => void;
 
 /** A `lookup` for the socket that resolves and refuses forbidden addresses (pinned: the checked address is the one used). */
 function guardedLookup(allowPrivate: boolean) {
@@ -84,7 +121,9 @@ function guardedLookup(allowPrivate: boolean) {
       const list = addresses as LookupAddress[];
       const bad = list.find((a) => isForbiddenAddress(a.address));
       if (!allowPrivate && (bad || !list.length)) {
-        const e = new Error(`refused address ${bad?.address ?? '(none)'} for ${hostname}`) as NodeJS.ErrnoException;
+        const e = new Error(
+          `refused address ${bad?.address ?? '(none)'} for ${hostname}`,
+        ) as NodeJS.ErrnoException;
         e.code = 'EREFUSEDADDRESS';
         return cb(e, []);
       }
@@ -94,32 +133,55 @@ function guardedLookup(allowPrivate: boolean) {
   };
 }
 
-export interface OutboundResponse { status: number; json: unknown }
+export interface OutboundResponse {
+  status: number;
+  json: unknown;
+}
 
 /** One request under the rules above. Throws AppError('unsupported', OUTBOUND_ERROR) on every failure. */
-export async function outboundJson(url: string, init: { method?: 'GET' | 'POST'; headers?: Record<string, string>; body?: string; okStatuses?: number[] } = {}): Promise<OutboundResponse> {
+export async function outboundJson(
+  url: string,
+  init: {
+    method?: 'GET' | 'POST';
+    headers?: Record<string, string>;
+    body?: string;
+    okStatuses?: number[];
+  } = {},
+): Promise<OutboundResponse> {
   const refusal = urlRefusal(url);
-  if (refusal) { console.error('[sso outbound] refused before connecting:', refusal, safeForLog(url)); throw new AppError('unsupported', OUTBOUND_ERROR); }
+  if (refusal) {
+    console.error('[sso outbound] refused before connecting:', refusal, safeForLog(url));
+    throw new AppError('unsupported', OUTBOUND_ERROR);
+  }
   const u = new URL(url);
   const allowPrivate = devProviderOrigin() === u.origin;
   try {
     const res = await new Promise<{ status: number; body: string }>((resolve, reject) => {
-      const req = (u.protocol === 'https:' ? httpsRequest : httpRequest)(u, {
-        method: init.method ?? 'GET',
-        headers: { accept: 'application/json', ...(init.headers ?? {}) },
-        lookup: guardedLookup(allowPrivate) as never,
-        timeout: OUTBOUND_TIMEOUT_MS,
-      }, (r: IncomingMessage) => {
-        let size = 0;
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => {
-          size += c.length;
-          if (size > OUTBOUND_MAX_BYTES) { req.destroy(new Error(`response over ${OUTBOUND_MAX_BYTES} bytes`)); return; }
-          chunks.push(c);
-        });
-        r.on('end', () => resolve({ status: r.statusCode ?? 0, body: Buffer.concat(chunks).toString('utf8') }));
-        r.on('error', reject);
-      });
+      const req = (u.protocol === 'https:' ? httpsRequest : httpRequest)(
+        u,
+        {
+          method: init.method ?? 'GET',
+          headers: { accept: 'application/json', ...(init.headers ?? {}) },
+          lookup: guardedLookup(allowPrivate) as never,
+          timeout: OUTBOUND_TIMEOUT_MS,
+        },
+        (r: IncomingMessage) => {
+          let size = 0;
+          const chunks: Buffer[] = [];
+          r.on('data', (c: Buffer) => {
+            size += c.length;
+            if (size > OUTBOUND_MAX_BYTES) {
+              req.destroy(new Error(`response over ${OUTBOUND_MAX_BYTES} bytes`));
+              return;
+            }
+            chunks.push(c);
+          });
+          r.on('end', () =>
+            resolve({ status: r.statusCode ?? 0, body: Buffer.concat(chunks).toString('utf8') }),
+          );
+          r.on('error', reject);
+        },
+      );
       // The whole exchange, not only the idle gaps, is bounded.
       const timer = setTimeout(() => req.destroy(new Error('time-out')), OUTBOUND_TIMEOUT_MS);
       req.on('close', () => clearTimeout(timer));
@@ -137,4 +199,11 @@ export async function outboundJson(url: string, init: { method?: 'GET' | 'POST';
   }
 }
 
-const safeForLog = (url: string) => { try { const u = new URL(url); return `${u.origin}${u.pathname}`; } catch { return '(bad url)'; } };
+const safeForLog = (url: string) => {
+  try {
+    const u = new URL(url);
+    return `${u.origin}${u.pathname}`;
+  } catch {
+    return '(bad url)';
+  }
+};

@@ -5,25 +5,25 @@ import type { Role } from '@/db/schema';
  * Server actions and route handlers call `assertCan`; pages call `can` to hide controls.
  */
 export const ACTIONS = [
-  'project.view',         // open the project at all
+  'project.view', // open the project at all
   'project.create',
-  'lines.read',           // line list, results, design basis (read)
-  'lines.edit',           // upload / edit the line list
+  'lines.read', // line list, results, design basis (read)
+  'lines.edit', // upload / edit the line list
   'designBasis.edit',
-  'design.pick',          // choose thickness per line
-  'calc.run',             // calculation API
+  'design.pick', // choose thickness per line
+  'calc.run', // calculation API
   'review.read',
   'review.request',
   'review.dispose',
   'review.signoff',
   'budget.read',
   'budget.edit',
-  'boq.read',             // web view and issued downloads
+  'boq.read', // web view and issued downloads
   'boq.issue',
-  'report.read',          // issued design-report revisions
+  'report.read', // issued design-report revisions
   'report.issue',
   'members.read',
-  'members.manage',       // invite, change role, remove
+  'members.manage', // invite, change role, remove
   'org.settings',
 ] as const;
 export type Action = (typeof ACTIONS)[number];
@@ -37,7 +37,10 @@ export const ROLE_LABEL: Record<Role, string> = {
   contractor: 'Contractor',
 };
 
-const O = 'owner', E = 'engineer', R = 'reviewer', C = 'contractor';
+const O = 'owner',
+  E = 'engineer',
+  R = 'reviewer',
+  C = 'contractor';
 const MATRIX: Record<Action, readonly Role[]> = {
   'project.view': [O, E, R, C],
   'project.create': [O, E],

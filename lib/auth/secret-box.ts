@@ -14,7 +14,12 @@ export function sealSecret(plain: string): string {
   const iv = randomBytes(12);
   const c = createCipheriv('aes-256-gcm', key(), iv);
   const enc = Buffer.concat([c.update(plain, 'utf8'), c.final()]);
-  return ['v1', iv.toString('base64url'), c.getAuthTag().toString('base64url'), enc.toString('base64url')].join('.');
+  return [
+    'v1',
+    iv.toString('base64url'),
+    c.getAuthTag().toString('base64url'),
+    enc.toString('base64url'),
+  ].join('.');
 }
 
 export function openSecret(sealed: string): string {

@@ -7,24 +7,28 @@ import { lucia } from './lucia';
 import { clientAddressFrom } from '@/lib/server/client-address';
 
 /** The request's session, validated once per request; refreshes or clears the cookie when it can. */
-export const validateRequest = cache(async (): Promise<{ user: User; session: Session } | { user: null; session: null }> => {
-  const jar = await cookies();
-  const sessionId = jar.get(lucia.sessionCookieName)?.value ?? null;
-  if (!sessionId) return { user: null, session: null };
-  const result = await lucia.validateSession(sessionId);
-  // Server components cannot set cookies; actions and route handlers can.
-  try {
-    if (result.session?.fresh) {
-      const c = lucia.createSessionCookie(result.session.id);
-      jar.set(c.name, c.value, c.attributes);
+export const validateRequest = cache(
+  async (): Promise<{ user: User; session: Session } | { user: null; session: null }> => {
+    const jar = await cookies();
+    const sessionId = jar.get(lucia.sessionCookieName)?.value ?? null;
+    if (!sessionId) return { user: null, session: null };
+    const result = await lucia.validateSession(sessionId);
+    // Server components cannot set cookies; actions and route handlers can.
+    try {
+      if (result.session?.fresh) {
+        const c = lucia.createSessionCookie(result.session.id);
+        jar.set(c.name, c.value, c.attributes);
+      }
+      if (!result.session) {
+        const c = lucia.createBlankSessionCookie();
+        jar.set(c.name, c.value, c.attributes);
+      }
+    } catch {
+      /* rendering a server component */
     }
-    if (!result.session) {
-      const c = lucia.createBlankSessionCookie();
-      jar.set(c.name, c.value, c.attributes);
-    }
-  } catch { /* rendering a server component */ }
-  return result;
-});
+    return result;
+  },
+);
 
 export async function requireUser(): Promise<{ user: User; session: Session }> {
   const r = await validateRequest();

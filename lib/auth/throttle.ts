@@ -40,7 +40,9 @@ export function throttleKeys(email: string, address: string): Key[] {
 }
 
 export const delaySeconds = (failures: number, free: number) =>
-  failures < free ? 0 : Math.min(THROTTLE.maxDelaySeconds, THROTTLE.baseDelaySeconds * 2 ** (failures - free));
+  failures < free
+    ? 0
+    : Math.min(THROTTLE.maxDelaySeconds, THROTTLE.baseDelaySeconds * 2 ** (failures - free));
 
 function waitText(seconds: number) {
   if (seconds <= 60) return `${Math.max(1, Math.ceil(seconds))} seconds`;
@@ -56,26 +58,40 @@ export async function reserveSignInAttempt(email: string, address: string): Prom
   const keys = throttleKeys(email, address);
   const names = keys.map((k) => k.key);
   return db.transaction(async (tx) => {
-    await tx.insert(signInThrottle).values(names.map((key) => ({ key }))).onConflictDoNothing();
-    const rows = await tx.select({
-      key: signInThrottle.key,
-      failures: signInThrottle.failures,
-      quiet: sql<boolean>`greatest(${signInThrottle.lastFailureAt}, coalesce(${signInThrottle.blockedUntil}, '-infinity')) < now() - make_interval(mins => ${THROTTLE.quietMinutes})`,
-      waitS: sql<number>`greatest(0, extract(epoch from (${signInThrottle.blockedUntil} - now())))::float8`,
-    }).from(signInThrottle).where(inArray(signInThrottle.key, names)).orderBy(signInThrottle.key).for('update');
+    await tx
+      .insert(signInThrottle)
+      .values(names.map((key) => ({ key })))
+      .onConflictDoNothing();
+    const rows = await tx
+      .select({
+        key: signInThrottle.key,
+        failures: signInThrottle.failures,
+        quiet: sql<boolean>`greatest(${signInThrottle.lastFailureAt}, coalesce(${signInThrottle.blockedUntil}, '-infinity')) < now() - make_interval(mins => ${THROTTLE.quietMinutes})`,
+        waitS: sql<number>`greatest(0, extract(epoch from (${signInThrottle.blockedUntil} - now())))::float8`,
+      })
+      .from(signInThrottle)
+      .where(inArray(signInThrottle.key, names))
+      .orderBy(signInThrottle.key)
+      .for('update');
     const wait = Math.max(0, ...rows.filter((r) => !r.quiet).map((r) => Number(r.waitS) || 0));
     if (wait > 0) {
-      throw new AppError('throttled', `Too many failed sign-ins. Wait ${waitText(wait)} and try again, or reset the password.`);
+      throw new AppError(
+        'throttled',
+        `Too many failed sign-ins. Wait ${waitText(wait)} and try again, or reset the password.`,
+      );
     }
     for (const k of keys) {
       const row = rows.find((r) => r.key === k.key)!;
       const failures = (row.quiet ? 0 : row.failures) + 1;
       const delay = delaySeconds(failures, k.free);
-      await tx.update(signInThrottle).set({
-        failures,
-        lastFailureAt: sql`now()`,
-        blockedUntil: delay > 0 ? sql`now() + make_interval(secs => ${delay})` : null,
-      }).where(sql`${signInThrottle.key} = ${k.key}`);
+      await tx
+        .update(signInThrottle)
+        .set({
+          failures,
+          lastFailureAt: sql`now()`,
+          blockedUntil: delay > 0 ? sql`now() + make_interval(secs => ${delay})` : null,
+        })
+        .where(sql`${signInThrottle.key} = ${k.key}`);
     }
     return keys;
   });
@@ -88,7 +104,9 @@ export async function releaseSignInAttempt(keys: Key[]) {
   await db.transaction(async (tx) => {
     if (account.length) await tx.delete(signInThrottle).where(inArray(signInThrottle.key, account));
     if (address.length) {
-      await tx.update(signInThrottle).set({ failures: sql`greatest(0, ${signInThrottle.failures} - 1)` })
+      await tx
+        .update(signInThrottle)
+        .set({ failures: sql`greatest(0, ${signInThrottle.failures} - 1)` })
         .where(inArray(signInThrottle.key, address));
     }
   });
@@ -96,5 +114,9 @@ export async function releaseSignInAttempt(keys: Key[]) {
 
 /** After a password reset the account starts afresh. */
 export async function clearAccountThrottle(email: string, tx: Pick<typeof db, 'delete'> = db) {
-  await tx.delete(signInThrottle).where(sql`${signInThrottle.key} = ${`account:${email}`} or ${signInThrottle.key} like ${`account-address:${email.replace(/[\\%_]/g, '\\$&')}|%`}`);
+  await tx
+    .delete(signInThrottle)
+    .where(
+      sql`${signInThrottle.key} = ${`account:${email}`} or ${signInThrottle.key} like ${`account-address:${email.replace(/[\\%_]/g, '\\$&')}|%`}`,
+    );
 }

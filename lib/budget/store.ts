@@ -8,39 +8,89 @@ import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import { getDesignBasis } from '@/lib/lines/store';
 import { isIncompleteLine } from '@/lib/lines/fields';
 
-export const budgetSchema = z.object({
-  totalKW: z.coerce.number({ error: 'Total budget must be a number (kW)' }).refine(Number.isFinite, { error: 'Total budget must be a number (kW)' }).min(0, { error: 'Total budget cannot be negative' }),
-  totalMWhPerYear: z.coerce.number({ error: 'Annual budget must be a number (MWh/yr)' }).refine(Number.isFinite, { error: 'Annual budget must be a number (MWh/yr)' }).min(0, { error: 'Annual budget cannot be negative' }),
-  allocations: z.array(z.object({
-    area: z.string().trim().min(1, { error: 'Name the area' }),
-    kW: z.coerce.number({ error: 'Allocation must be a number (kW)' }).refine(Number.isFinite, { error: 'Allocation must be a number (kW)' }).min(0, { error: 'Allocation cannot be negative' }),
-  })),
-}).superRefine((b, ctx) => {
-  const seen = new Set<string>();
-  b.allocations.forEach((a, i) => { if (seen.has(a.area)) ctx.addIssue({ code: 'custom', path: ['allocations', i, 'area'], message: `${a.area} is allocated twice` }); seen.add(a.area); });
-  const sum = b.allocations.reduce((s, a) => s + a.kW, 0);
-  if (sum > b.totalKW + 1e-9) ctx.addIssue({ code: 'custom', path: ['allocations'], message: `Allocations add up to ${sum.toFixed(1)} kW, more than the ${b.totalKW} kW budget` });
-});
+export const budgetSchema = z
+  .object({
+    totalKW: z.coerce
+      .number({ error: 'Total budget must be a number (kW)' })
+      .refine(Number.isFinite, { error: 'Total budget must be a number (kW)' })
+      .min(0, { error: 'Total budget cannot be negative' }),
+    totalMWhPerYear: z.coerce
+      .number({ error: 'Annual budget must be a number (MWh/yr)' })
+      .refine(Number.isFinite, { error: 'Annual budget must be a number (MWh/yr)' })
+      .min(0, { error: 'Annual budget cannot be negative' }),
+    allocations: z.array(
+      z.object({
+        area: z.string().trim().min(1, { error: 'Name the area' }),
+        kW: z.coerce
+          .number({ error: 'Allocation must be a number (kW)' })
+          .refine(Number.isFinite, { error: 'Allocation must be a number (kW)' })
+          .min(0, { error: 'Allocation cannot be negative' }),
+      }),
+    ),
+  })
+  .superRefine((b, ctx) => {
+    const seen = new Set<string>();
+    b.allocations.forEach((a, i) => {
+      if (seen.has(a.area))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['allocations', i, 'area'],
+          message: `${a.area} is allocated twice`,
+        });
+      seen.add(a.area);
+    });
+    const sum = b.allocations.reduce((s, a) => s + a.kW, 0);
+    if (sum > b.totalKW + 1e-9)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['allocations'],
+        message: `Allocations add up to ${sum.toFixed(1)} kW, more than the ${b.totalKW} kW budget`,
+      });
+  });
 export type Budget = z.output<typeof budgetSchema>;
 
 export async function getBudget({ projectId }: { projectId: string }): Promise<Budget | null> {
   const [b] = await db.select().from(budgets).where(eq(budgets.projectId, projectId));
-  return b ? { totalKW: b.totalKW, totalMWhPerYear: b.totalMWhPerYear, allocations: b.allocations as Budget['allocations'] } : null;
+  return b
+    ? {
+        totalKW: b.totalKW,
+        totalMWhPerYear: b.totalMWhPerYear,
+        allocations: b.allocations as Budget['allocations'],
+      }
+    : null;
 }
 
-export async function saveBudget({ projectId, userId, budget }: { projectId: string; userId: string; budget: unknown }) {
+export async function saveBudget({
+  projectId,
+  userId,
+  budget,
+}: {
+  projectId: string;
+  userId: string;
+  budget: unknown;
+}) {
   const r = budgetSchema.safeParse(budget);
   if (!r.success) {
     const fields: Record<string, string[]> = {};
     for (const i of r.error.issues) (fields[i.path.join('.') || 'budget'] ??= []).push(i.message);
     throw new AppError('invalid', Object.values(fields).flat().join('; '), fields);
   }
-  await db.insert(budgets).values({ projectId, ...r.data, updatedBy: userId }).onConflictDoUpdate({ target: budgets.projectId, set: { ...r.data, updatedBy: userId, updatedAt: new Date() } });
+  await db
+    .insert(budgets)
+    .values({ projectId, ...r.data, updatedBy: userId })
+    .onConflictDoUpdate({
+      target: budgets.projectId,
+      set: { ...r.data, updatedBy: userId, updatedAt: new Date() },
+    });
   return r.data;
 }
 
 export type Policy = 'chosen' | 'recommended' | 'economic-plus-one';
-export interface WhatIf { energyPricePerKWh?: number; hoursPerYear?: number; policy?: Policy }
+export interface WhatIf {
+  energyPricePerKWh?: number;
+  hoursPerYear?: number;
+  policy?: Policy;
+}
 
 type Cand = [number, unknown, number, number, number | null, number | null, boolean];
 
@@ -55,22 +105,49 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
   const price = whatIf.energyPricePerKWh ?? econ.energyPricePerKWh;
   const hours = whatIf.hoursPerYear ?? econ.hoursPerYear;
   const policy = whatIf.policy ?? 'chosen';
-  const rows = await db.select({
-    tag: lines.tag, area: lines.area, geometry: lines.geometry, lengthM: lines.lengthM, elbows: lines.elbows, tees: lines.tees, valves: lines.valves, flanges: lines.flanges,
-    result: lineResults, chosenMm: lineDesigns.thicknessMm,
-  }).from(lines)
-    .innerJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(eq(lines.projectId, projectId));
+  const rows = await db
+    .select({
+      tag: lines.tag,
+      area: lines.area,
+      geometry: lines.geometry,
+      lengthM: lines.lengthM,
+      elbows: lines.elbows,
+      tees: lines.tees,
+      valves: lines.valves,
+      flanges: lines.flanges,
+      result: lineResults,
+      chosenMm: lineDesigns.thicknessMm,
+    })
+    .from(lines)
+    .innerJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(eq(lines.projectId, projectId));
   const perArea = new Map<string, { bareKW: number; designedKW: number }>();
-  const perLine: { tag: string; area: string; designedKW: number; bareKW: number; fittingsKW: number; thicknessMm: number | null }[] = [];
-  let coldGainKW = 0, incompleteCount = 0, fittingsKW = 0, bareFittingsKW = 0;
+  const perLine: {
+    tag: string;
+    area: string;
+    designedKW: number;
+    bareKW: number;
+    fittingsKW: number;
+    thicknessMm: number | null;
+  }[] = [];
+  let coldGainKW = 0,
+    incompleteCount = 0,
+    fittingsKW = 0,
+    bareFittingsKW = 0;
   for (const { tag, area, geometry, lengthM, elbows, tees, valves, flanges, result, chosenMm } of rows) {
     // A pipe without its length yet is solved per metre but counts in no total.
-    if (isIncompleteLine({ geometry, lengthM })) { incompleteCount++; continue; }
+    if (isIncompleteLine({ geometry, lengthM })) {
+      incompleteCount++;
+      continue;
+    }
     const cands = result.candidates as Cand[];
     if (!cands.length) continue;
     const extent = cands[0][2] !== 0 ? result.bareHeatW / cands[0][2] : 0; // metres of pipe, or m² of surface
-    const econMm = (result.outcomes as { id: string; requiredMm: number | null }[]).find((o) => o.id === 'economic')?.requiredMm ?? null;
-    let mm: number | null = policy === 'chosen' ? chosenMm ?? result.recommendedMm : result.recommendedMm;
+    const econMm =
+      (result.outcomes as { id: string; requiredMm: number | null }[]).find((o) => o.id === 'economic')
+        ?.requiredMm ?? null;
+    let mm: number | null = policy === 'chosen' ? (chosenMm ?? result.recommendedMm) : result.recommendedMm;
     if (policy === 'economic-plus-one') {
       const base = Math.max(econMm ?? 0, result.recommendedMm ?? 0);
       const i = cands.findIndex((c) => c[0] === base);
@@ -81,34 +158,75 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     const counts = { geometry, lengthM, elbows, tees, valves, flanges };
     const fitW = lineFittingsW(basis, counts, c[2], cands[0][2], c[0] === 0);
     const bareFitW = lineFittingsW(basis, counts, cands[0][2], cands[0][2], true);
-    const designedW = c[2] * extent + fitW, bareW = result.bareHeatW + bareFitW;
-    if (bareW < 0) { coldGainKW += -designedW / 1000; continue; }
-    fittingsKW += fitW / 1000; bareFittingsKW += bareFitW / 1000;
+    const designedW = c[2] * extent + fitW,
+      bareW = result.bareHeatW + bareFitW;
+    if (bareW < 0) {
+      coldGainKW += -designedW / 1000;
+      continue;
+    }
+    fittingsKW += fitW / 1000;
+    bareFittingsKW += bareFitW / 1000;
     const a = perArea.get(area) ?? { bareKW: 0, designedKW: 0 };
-    a.bareKW += bareW / 1000; a.designedKW += designedW / 1000;
+    a.bareKW += bareW / 1000;
+    a.designedKW += designedW / 1000;
     perArea.set(area, a);
-    perLine.push({ tag, area, designedKW: designedW / 1000, bareKW: bareW / 1000, fittingsKW: fitW / 1000, thicknessMm: mm });
+    perLine.push({
+      tag,
+      area,
+      designedKW: designedW / 1000,
+      bareKW: bareW / 1000,
+      fittingsKW: fitW / 1000,
+      thicknessMm: mm,
+    });
   }
   const budget = await getBudget({ projectId });
   const totals = (kW: number) => {
     const mwh = (kW * hours) / 1000;
-    return { kW, mwhPerYear: mwh, costPerYear: (mwh * 1000 * price) / econ.efficiency, co2TonnesPerYear: (mwh / econ.efficiency) * econ.co2KgPerKWh };
+    return {
+      kW,
+      mwhPerYear: mwh,
+      costPerYear: (mwh * 1000 * price) / econ.efficiency,
+      co2TonnesPerYear: (mwh / econ.efficiency) * econ.co2KgPerKWh,
+    };
   };
   const bareKW = [...perArea.values()].reduce((s, a) => s + a.bareKW, 0);
   const designedKW = [...perArea.values()].reduce((s, a) => s + a.designedKW, 0);
-  const areas = [...perArea.entries()].sort((x, y) => x[0].localeCompare(y[0])).map(([area, v]) => {
-    const allocationKW = budget?.allocations.find((a) => a.area === area)?.kW ?? null;
-    return { area, ...v, allocationKW, over: allocationKW !== null && v.designedKW > allocationKW };
-  });
-  const warnings = areas.filter((a) => a.over).map((a) => `${a.area}: ${a.designedKW.toFixed(1)} kW designed against ${a.allocationKW!.toFixed(1)} kW allocated (${(a.designedKW - a.allocationKW!).toFixed(1)} kW over).`);
+  const areas = [...perArea.entries()]
+    .sort((x, y) => x[0].localeCompare(y[0]))
+    .map(([area, v]) => {
+      const allocationKW = budget?.allocations.find((a) => a.area === area)?.kW ?? null;
+      return { area, ...v, allocationKW, over: allocationKW !== null && v.designedKW > allocationKW };
+    });
+  const warnings = areas
+    .filter((a) => a.over)
+    .map(
+      (a) =>
+        `${a.area}: ${a.designedKW.toFixed(1)} kW designed against ${a.allocationKW!.toFixed(1)} kW allocated (${(a.designedKW - a.allocationKW!).toFixed(1)} kW over).`,
+    );
   const designed = totals(designedKW);
-  if (budget && designedKW > budget.totalKW) warnings.unshift(`Plant total ${designedKW.toFixed(1)} kW is over the ${budget.totalKW} kW budget.`);
-  if (budget && designed.mwhPerYear > budget.totalMWhPerYear) warnings.push(`Annual loss ${designed.mwhPerYear.toFixed(0)} MWh/yr is over the ${budget.totalMWhPerYear} MWh/yr budget.`);
+  if (budget && designedKW > budget.totalKW)
+    warnings.unshift(`Plant total ${designedKW.toFixed(1)} kW is over the ${budget.totalKW} kW budget.`);
+  if (budget && designed.mwhPerYear > budget.totalMWhPerYear)
+    warnings.push(
+      `Annual loss ${designed.mwhPerYear.toFixed(0)} MWh/yr is over the ${budget.totalMWhPerYear} MWh/yr budget.`,
+    );
   return {
-    policy, price, hours,
-    bare: totals(bareKW), designed, savings: totals(bareKW - designedKW), coldGainKW,
+    policy,
+    price,
+    hours,
+    bare: totals(bareKW),
+    designed,
+    savings: totals(bareKW - designedKW),
+    coldGainKW,
     /** Of the designed total: straight runs and fittings/supports (equivalent lengths); of the bare total, the bare fittings. */
-    straightKW: designedKW - fittingsKW, fittingsKW, bareFittingsKW,
-    areas, top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20), budget, warnings, lineCount: perLine.length, incompleteCount,
+    straightKW: designedKW - fittingsKW,
+    fittingsKW,
+    bareFittingsKW,
+    areas,
+    top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20),
+    budget,
+    warnings,
+    lineCount: perLine.length,
+    incompleteCount,
   };
 }

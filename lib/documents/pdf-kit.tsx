@@ -21,13 +21,20 @@ const FONT_DIR = path.join(process.cwd(), 'lib/documents/fonts');
 /** The renderer, with the fonts registered (once per process). */
 export function pdfRenderer(): Promise<RP> {
   loading ??= import('@react-pdf/renderer').then((m) => {
-    const mod = ((m as unknown as { default?: RP }).default && !(m as RP).Font ? (m as unknown as { default: RP }).default : m) as RP;
+    const mod = (
+      (m as unknown as { default?: RP }).default && !(m as RP).Font
+        ? (m as unknown as { default: RP }).default
+        : m
+    ) as RP;
     const f = (name: string) => path.join(FONT_DIR, name);
-    mod.Font.register({ family: 'Plex', fonts: [
-      { src: f('ibm-plex-sans-latin-400-normal.ttf') },
-      { src: f('ibm-plex-sans-latin-400-italic.ttf'), fontStyle: 'italic' },
-      { src: f('ibm-plex-sans-latin-600-normal.ttf'), fontWeight: 600 },
-    ] });
+    mod.Font.register({
+      family: 'Plex',
+      fonts: [
+        { src: f('ibm-plex-sans-latin-400-normal.ttf') },
+        { src: f('ibm-plex-sans-latin-400-italic.ttf'), fontStyle: 'italic' },
+        { src: f('ibm-plex-sans-latin-600-normal.ttf'), fontWeight: 600 },
+      ],
+    });
     mod.Font.register({ family: 'Math', src: f('noto-sans-math-latin-400-normal.ttf') });
     // Engineering text must never break inside a word or a number.
     mod.Font.registerHyphenationCallback((word) => [word]);
@@ -44,7 +51,10 @@ function r(): RP {
 
 /** Characters the shipped fonts lack, written with ones they have. */
 export function pdfSafe(s: string): string {
-  return s.replace(/₂/g, '2').replace(/\u00a0/g, ' ').replace(/\u202f/g, ' ');
+  return s
+    .replace(/₂/g, '2')
+    .replace(/\u00a0/g, ' ')
+    .replace(/\u202f/g, ' ');
 }
 
 export const INK = '#1f2a33';
@@ -61,12 +71,28 @@ export type Style = Record<string, string | number | undefined>;
 
 export function Txt({ children, style }: { children?: ReactNode; style?: Style | Style[] }) {
   const { Text } = r();
-  return <Text style={[LH, ...(Array.isArray(style) ? style : style ? [style] : [])] as never}>{children}</Text>;
+  return (
+    <Text style={[LH, ...(Array.isArray(style) ? style : style ? [style] : [])] as never}>{children}</Text>
+  );
 }
 
-export function Box({ children, style, wrap, minPresenceAhead }: { children?: ReactNode; style?: Style | Style[]; wrap?: boolean; minPresenceAhead?: number }) {
+export function Box({
+  children,
+  style,
+  wrap,
+  minPresenceAhead,
+}: {
+  children?: ReactNode;
+  style?: Style | Style[];
+  wrap?: boolean;
+  minPresenceAhead?: number;
+}) {
   const { View } = r();
-  return <View style={style as never} wrap={wrap} minPresenceAhead={minPresenceAhead}>{children}</View>;
+  return (
+    <View style={style as never} wrap={wrap} minPresenceAhead={minPresenceAhead}>
+      {children}
+    </View>
+  );
 }
 
 export interface FrameInfo {
@@ -83,10 +109,28 @@ export interface FrameInfo {
 }
 
 /** One A4 page with the title block on the first page and the footer with page numbers on every page. */
-export function FramedPage({ info, children, titleBlock = true }: { info: FrameInfo; children: ReactNode; titleBlock?: boolean }) {
+export function FramedPage({
+  info,
+  children,
+  titleBlock = true,
+}: {
+  info: FrameInfo;
+  children: ReactNode;
+  titleBlock?: boolean;
+}) {
   const { Page, Text, View } = r();
   return (
-    <Page size="A4" style={{ fontFamily: FONT as never, fontSize: 8.5, color: INK, paddingTop: 36, paddingBottom: 48, paddingHorizontal: 40 }}>
+    <Page
+      size="A4"
+      style={{
+        fontFamily: FONT as never,
+        fontSize: 8.5,
+        color: INK,
+        paddingTop: 36,
+        paddingBottom: 48,
+        paddingHorizontal: 40,
+      }}
+    >
       {titleBlock ? (
         <View style={{ flexDirection: 'row', borderWidth: 1, borderColor: INK, marginBottom: 12 }}>
           <View style={{ flex: 3, padding: 6, borderRightWidth: 1, borderColor: INK }}>
@@ -96,21 +140,60 @@ export function FramedPage({ info, children, titleBlock = true }: { info: FrameI
           </View>
           <View style={{ flex: 2, padding: 6 }}>
             <Text style={{ fontSize: 11, fontWeight: 600 }}>{pdfSafe(info.reference)}</Text>
-            {info.meta.map((m, i) => <Text key={i} style={{ fontSize: 7, color: MUTED }}>{pdfSafe(m)}</Text>)}
+            {info.meta.map((m, i) => (
+              <Text key={i} style={{ fontSize: 7, color: MUTED }}>
+                {pdfSafe(m)}
+              </Text>
+            ))}
           </View>
         </View>
       ) : null}
       {/* No lineHeight on the page: inherited by the dynamic page-number text, it hides it (texts set their own). */}
       {children}
-      <Text fixed style={{ position: 'absolute', bottom: 18, left: 40, right: 110, fontSize: 6.5, color: MUTED, borderTopWidth: 0.5, borderColor: RULE, paddingTop: 3 }}>{pdfSafe(info.footer)}</Text>
-      <Text fixed style={{ position: 'absolute', bottom: 18, right: 40, fontSize: 6.5 }} render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
+      <Text
+        fixed
+        style={{
+          position: 'absolute',
+          bottom: 18,
+          left: 40,
+          right: 110,
+          fontSize: 6.5,
+          color: MUTED,
+          borderTopWidth: 0.5,
+          borderColor: RULE,
+          paddingTop: 3,
+        }}
+      >
+        {pdfSafe(info.footer)}
+      </Text>
+      <Text
+        fixed
+        style={{ position: 'absolute', bottom: 18, right: 40, fontSize: 6.5 }}
+        render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`}
+      />
     </Page>
   );
 }
 
 export function Heading({ children, first = false }: { children: ReactNode; first?: boolean }) {
   const { Text } = r();
-  return <Text minPresenceAhead={60} style={{ fontSize: 10, fontWeight: 600, color: ACCENT, marginTop: first ? 0 : 10, marginBottom: 4, paddingBottom: 2, borderBottomWidth: 0.75, borderColor: ACCENT }}>{children}</Text>;
+  return (
+    <Text
+      minPresenceAhead={60}
+      style={{
+        fontSize: 10,
+        fontWeight: 600,
+        color: ACCENT,
+        marginTop: first ? 0 : 10,
+        marginBottom: 4,
+        paddingBottom: 2,
+        borderBottomWidth: 0.75,
+        borderColor: ACCENT,
+      }}
+    >
+      {children}
+    </Text>
+  );
 }
 
 /** Label/value pairs in two columns of pairs. */
@@ -121,7 +204,11 @@ export function Pairs({ items, columns = 2 }: { items: [string, string][]; colum
   return (
     <View>
       {rows.map((row, i) => (
-        <View key={i} wrap={false} style={{ flexDirection: 'row', borderBottomWidth: 0.25, borderColor: RULE, paddingVertical: 1.5 }}>
+        <View
+          key={i}
+          wrap={false}
+          style={{ flexDirection: 'row', borderBottomWidth: 0.25, borderColor: RULE, paddingVertical: 1.5 }}
+        >
           {row.map(([k, v], j) => (
             <View key={j} style={{ flex: 1, flexDirection: 'row', paddingRight: 6 }}>
               <Text style={{ width: columns === 1 ? 150 : 95, color: MUTED }}>{pdfSafe(k)}</Text>
@@ -135,22 +222,63 @@ export function Pairs({ items, columns = 2 }: { items: [string, string][]; colum
   );
 }
 
-export interface Column { header: string; width: number; align?: 'left' | 'right' }
+export interface Column {
+  header: string;
+  width: number;
+  align?: 'left' | 'right';
+}
 
 /** A ruled table; `widths` are flex weights. Rows may mark themselves shaded or alarmed. */
-export function Table({ columns, rows, fontSize = 7.5 }: { columns: Column[]; rows: { cells: string[]; shade?: boolean; alarm?: boolean; bold?: boolean }[]; fontSize?: number }) {
+export function Table({
+  columns,
+  rows,
+  fontSize = 7.5,
+}: {
+  columns: Column[];
+  rows: { cells: string[]; shade?: boolean; alarm?: boolean; bold?: boolean }[];
+  fontSize?: number;
+}) {
   const { View, Text } = r();
   const cell = (c: Column, text: string, key: number, extra: Style = {}) => (
-    <Text key={key} style={{ flex: c.width, textAlign: c.align ?? 'left', paddingHorizontal: 2, ...extra } as never}>{pdfSafe(text)}</Text>
+    <Text
+      key={key}
+      style={{ flex: c.width, textAlign: c.align ?? 'left', paddingHorizontal: 2, ...extra } as never}
+    >
+      {pdfSafe(text)}
+    </Text>
   );
   return (
     <View style={{ borderTopWidth: 0.75, borderBottomWidth: 0.75, borderColor: INK, fontSize }}>
-      <View fixed style={{ flexDirection: 'row', backgroundColor: SHADE, borderBottomWidth: 0.5, borderColor: INK, paddingVertical: 2 }}>
+      <View
+        fixed
+        style={{
+          flexDirection: 'row',
+          backgroundColor: SHADE,
+          borderBottomWidth: 0.5,
+          borderColor: INK,
+          paddingVertical: 2,
+        }}
+      >
         {columns.map((c, i) => cell(c, c.header, i, { fontWeight: 600 }))}
       </View>
       {rows.map((row, i) => (
-        <View key={i} wrap={false} style={{ flexDirection: 'row', paddingVertical: 1.5, borderBottomWidth: i === rows.length - 1 ? 0 : 0.25, borderColor: RULE, backgroundColor: row.shade ? '#f6f8f9' : undefined }}>
-          {columns.map((c, j) => cell(c, row.cells[j] ?? '', j, { color: row.alarm ? ALARM : INK, fontWeight: row.bold ? 600 : 400 }))}
+        <View
+          key={i}
+          wrap={false}
+          style={{
+            flexDirection: 'row',
+            paddingVertical: 1.5,
+            borderBottomWidth: i === rows.length - 1 ? 0 : 0.25,
+            borderColor: RULE,
+            backgroundColor: row.shade ? '#f6f8f9' : undefined,
+          }}
+        >
+          {columns.map((c, j) =>
+            cell(c, row.cells[j] ?? '', j, {
+              color: row.alarm ? ALARM : INK,
+              fontWeight: row.bold ? 600 : 400,
+            }),
+          )}
         </View>
       ))}
     </View>
@@ -158,12 +286,33 @@ export function Table({ columns, rows, fontSize = 7.5 }: { columns: Column[]; ro
 }
 
 /** A boxed note (cautions, warnings). */
-export function Note({ title, lines, tone = 'caution' }: { title: string; lines: string[]; tone?: 'caution' | 'plain' }) {
+export function Note({
+  title,
+  lines,
+  tone = 'caution',
+}: {
+  title: string;
+  lines: string[];
+  tone?: 'caution' | 'plain';
+}) {
   const { View, Text } = r();
   return (
-    <View wrap={false} style={{ borderWidth: 0.75, borderColor: tone === 'caution' ? '#b7791f' : RULE, backgroundColor: tone === 'caution' ? '#fdf6e7' : '#ffffff', padding: 5, marginTop: 6 }}>
+    <View
+      wrap={false}
+      style={{
+        borderWidth: 0.75,
+        borderColor: tone === 'caution' ? '#b7791f' : RULE,
+        backgroundColor: tone === 'caution' ? '#fdf6e7' : '#ffffff',
+        padding: 5,
+        marginTop: 6,
+      }}
+    >
       <Text style={{ fontWeight: 600, marginBottom: 2 }}>{title}</Text>
-      {lines.map((l, i) => <Text key={i} style={{ fontSize: 7.5 }}>{pdfSafe(l)}</Text>)}
+      {lines.map((l, i) => (
+        <Text key={i} style={{ fontSize: 7.5 }}>
+          {pdfSafe(l)}
+        </Text>
+      ))}
     </View>
   );
 }
@@ -176,7 +325,11 @@ export async function renderPdf(doc: () => ReactNode): Promise<Buffer> {
 
 export function Doc({ title, children }: { title: string; children: ReactNode }) {
   const { Document } = r();
-  return <Document title={pdfSafe(title)} author="Lagwise" creator="Lagwise" producer="Lagwise">{children}</Document>;
+  return (
+    <Document title={pdfSafe(title)} author="Lagwise" creator="Lagwise" producer="Lagwise">
+      {children}
+    </Document>
+  );
 }
 
 /** Line chart primitives for the cost curve and the budget bars. */

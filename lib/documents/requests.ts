@@ -5,7 +5,9 @@ import { lineFilterSchema, type LineFilter } from '@/lib/lines/filter';
 
 const exportSchema = lineFilterSchema.extend({
   format: z.enum(['xlsx', 'csv'], { error: 'Format: choose xlsx or csv.' }).default('xlsx'),
-  scope: z.enum(['filtered', 'all'], { error: 'Scope: choose the filtered lines or all lines.' }).default('filtered'),
+  scope: z
+    .enum(['filtered', 'all'], { error: 'Scope: choose the filtered lines or all lines.' })
+    .default('filtered'),
 });
 
 function parse<S extends z.ZodType>(schema: S, params: URLSearchParams): z.infer<S> {
@@ -18,7 +20,10 @@ function parse<S extends z.ZodType>(schema: S, params: URLSearchParams): z.infer
   return r.data;
 }
 
-export function readExportQuery(params: URLSearchParams): { format: 'xlsx' | 'csv'; filter: LineFilter | null } {
+export function readExportQuery(params: URLSearchParams): {
+  format: 'xlsx' | 'csv';
+  filter: LineFilter | null;
+} {
   const q = parse(exportSchema, params);
   return { format: q.format, filter: q.scope === 'all' ? null : { q: q.q, area: q.area, status: q.status } };
 }
@@ -31,6 +36,10 @@ export function readFilterQuery(params: URLSearchParams): LineFilter {
 /** Attachment headers with a file name reduced to safe characters by the caller. */
 export function download(body: Buffer | Uint8Array, fileName: string, type: string) {
   return new Response(new Uint8Array(body), {
-    headers: { 'content-type': type, 'content-disposition': `attachment; filename="${fileName}"`, 'cache-control': 'private, no-store' },
+    headers: {
+      'content-type': type,
+      'content-disposition': `attachment; filename="${fileName}"`,
+      'cache-control': 'private, no-store',
+    },
   });
 }

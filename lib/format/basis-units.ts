@@ -5,7 +5,15 @@
  */
 import { convert, type UnitSystem } from './index';
 
-export type FieldKind = 'temp' | 'tempDelta' | 'wind' | 'linearLoss' | 'moneyPerM' | 'moneyPerM2' | 'moneyPerM3' | 'none';
+export type FieldKind =
+  | 'temp'
+  | 'tempDelta'
+  | 'wind'
+  | 'linearLoss'
+  | 'moneyPerM'
+  | 'moneyPerM2'
+  | 'moneyPerM3'
+  | 'none';
 
 const MPH_MS = 0.44704; // 1 mi/h = 0.44704 m/s exactly (NIST SP 811 B.9)
 
@@ -22,25 +30,45 @@ export function fieldKind(name: string): FieldKind {
 }
 
 const TO_US: Record<FieldKind, (v: number) => number> = {
-  temp: convert.cToF, tempDelta: convert.kToDeltaF, wind: (ms) => ms / MPH_MS, linearLoss: convert.wPerMToBtuPerHFt,
-  moneyPerM: convert.perMToPerFt, moneyPerM2: convert.perM2ToPerFt2, moneyPerM3: convert.perM3ToPerFt3, none: (v) => v,
+  temp: convert.cToF,
+  tempDelta: convert.kToDeltaF,
+  wind: (ms) => ms / MPH_MS,
+  linearLoss: convert.wPerMToBtuPerHFt,
+  moneyPerM: convert.perMToPerFt,
+  moneyPerM2: convert.perM2ToPerFt2,
+  moneyPerM3: convert.perM3ToPerFt3,
+  none: (v) => v,
 };
 const FROM_US: Record<FieldKind, (v: number) => number> = {
-  temp: convert.fToC, tempDelta: (f) => f / 1.8, wind: (mph) => mph * MPH_MS, linearLoss: convert.btuPerHFtToWPerM,
-  moneyPerM: (x) => x / 0.3048, moneyPerM2: (x) => x / (0.3048 * 0.3048), moneyPerM3: (x) => x / (0.3048 * 0.3048 * 0.3048), none: (v) => v,
+  temp: convert.fToC,
+  tempDelta: (f) => f / 1.8,
+  wind: (mph) => mph * MPH_MS,
+  linearLoss: convert.btuPerHFtToWPerM,
+  moneyPerM: (x) => x / 0.3048,
+  moneyPerM2: (x) => x / (0.3048 * 0.3048),
+  moneyPerM3: (x) => x / (0.3048 * 0.3048 * 0.3048),
+  none: (v) => v,
 };
 
 export function kindUnit(kind: FieldKind, system: UnitSystem): string {
   const us = system === 'US';
   switch (kind) {
-    case 'temp': return us ? '°F' : '°C';
-    case 'tempDelta': return us ? '°F' : 'K';
-    case 'wind': return us ? 'mph' : 'm/s';
-    case 'linearLoss': return us ? 'Btu/h·ft' : 'W/m';
-    case 'moneyPerM': return us ? 'per ft' : 'per m';
-    case 'moneyPerM2': return us ? 'per ft²' : 'per m²';
-    case 'moneyPerM3': return us ? 'per ft³' : 'per m³';
-    default: return '';
+    case 'temp':
+      return us ? '°F' : '°C';
+    case 'tempDelta':
+      return us ? '°F' : 'K';
+    case 'wind':
+      return us ? 'mph' : 'm/s';
+    case 'linearLoss':
+      return us ? 'Btu/h·ft' : 'W/m';
+    case 'moneyPerM':
+      return us ? 'per ft' : 'per m';
+    case 'moneyPerM2':
+      return us ? 'per ft²' : 'per m²';
+    case 'moneyPerM3':
+      return us ? 'per ft³' : 'per m³';
+    default:
+      return '';
   }
 }
 
@@ -59,7 +87,13 @@ export function fromFormValue(kind: FieldKind, system: UnitSystem, shown: number
 }
 
 function valueAt(o: unknown, name: string): unknown {
-  return name.replace(/\[(\d+)\]/g, '.$1').split('.').reduce<unknown>((a, k) => (a && typeof a === 'object' ? (a as Record<string, unknown>)[k] : undefined), o);
+  return name
+    .replace(/\[(\d+)\]/g, '.$1')
+    .split('.')
+    .reduce<unknown>(
+      (a, k) => (a && typeof a === 'object' ? (a as Record<string, unknown>)[k] : undefined),
+      o,
+    );
 }
 
 /**

@@ -49,7 +49,8 @@ export const convert = {
   barToPsi: (bar: number) => (bar * 1e5) / 6894.757293168,
 };
 
-const missing = (v: number | null | undefined): v is null | undefined => v === null || v === undefined || !Number.isFinite(v);
+const missing = (v: number | null | undefined): v is null | undefined =>
+  v === null || v === undefined || !Number.isFinite(v);
 const DASH = '—';
 
 /** Groups thousands with a thin no-break space-free comma (en-US), no float noise. */
@@ -94,8 +95,12 @@ export function fractionalInches(inches: number): string {
   const sixteenths = Math.round(a * 16);
   if (Math.abs(sixteenths / 16 - a) > 0.002) return `${neg ? '-' : ''}${sig(a, 3)}"`;
   const whole = Math.floor(sixteenths / 16);
-  let num = sixteenths % 16, den = 16;
-  while (num > 0 && num % 2 === 0) { num /= 2; den /= 2; }
+  let num = sixteenths % 16,
+    den = 16;
+  while (num > 0 && num % 2 === 0) {
+    num /= 2;
+    den /= 2;
+  }
   const frac = num ? `${num}/${den}` : '';
   const body = whole && frac ? `${whole}-${frac}` : whole ? `${whole}` : frac || '0';
   return `${neg ? '-' : ''}${body}"`;
@@ -108,18 +113,88 @@ export interface FormatOptions {
   currency?: string;
 }
 
-export interface Units { temp: string; tempDelta: string; thickness: string; diameter: string; length: string; area: string; linearLoss: string; arealLoss: string; power: string; energy: string; conductivity: string; htc: string; pressure: string; mass: string }
+export interface Units {
+  temp: string;
+  tempDelta: string;
+  thickness: string;
+  diameter: string;
+  length: string;
+  area: string;
+  linearLoss: string;
+  arealLoss: string;
+  power: string;
+  energy: string;
+  conductivity: string;
+  htc: string;
+  pressure: string;
+  mass: string;
+}
 
-const SI_UNITS: Units = { temp: '°C', tempDelta: 'K', thickness: 'mm', diameter: 'mm', length: 'm', area: 'm²', linearLoss: 'W/m', arealLoss: 'W/m²', power: 'kW', energy: 'MWh', conductivity: 'W/(m·K)', htc: 'W/(m²·K)', pressure: 'bar(g)', mass: 'kg' };
-const US_UNITS: Units = { temp: '°F', tempDelta: '°F', thickness: 'in', diameter: 'in', length: 'ft', area: 'ft²', linearLoss: 'Btu/h·ft', arealLoss: 'Btu/h·ft²', power: 'Btu/h', energy: 'MMBtu', conductivity: 'Btu·in/(h·ft²·°F)', htc: 'Btu/(h·ft²·°F)', pressure: 'psig', mass: 'lb' };
+const SI_UNITS: Units = {
+  temp: '°C',
+  tempDelta: 'K',
+  thickness: 'mm',
+  diameter: 'mm',
+  length: 'm',
+  area: 'm²',
+  linearLoss: 'W/m',
+  arealLoss: 'W/m²',
+  power: 'kW',
+  energy: 'MWh',
+  conductivity: 'W/(m·K)',
+  htc: 'W/(m²·K)',
+  pressure: 'bar(g)',
+  mass: 'kg',
+};
+const US_UNITS: Units = {
+  temp: '°F',
+  tempDelta: '°F',
+  thickness: 'in',
+  diameter: 'in',
+  length: 'ft',
+  area: 'ft²',
+  linearLoss: 'Btu/h·ft',
+  arealLoss: 'Btu/h·ft²',
+  power: 'Btu/h',
+  energy: 'MMBtu',
+  conductivity: 'Btu·in/(h·ft²·°F)',
+  htc: 'Btu/(h·ft²·°F)',
+  pressure: 'psig',
+  mass: 'lb',
+};
 
 /** Currency codes offered in the design basis (ISO 4217); any valid code is accepted. */
-export const CURRENCIES = ['EUR', 'USD', 'GBP', 'CAD', 'AUD', 'NOK', 'SEK', 'DKK', 'CHF', 'PLN', 'JPY', 'CNY', 'INR', 'SGD', 'AED', 'SAR', 'BRL', 'MXN', 'ZAR'] as const;
+export const CURRENCIES = [
+  'EUR',
+  'USD',
+  'GBP',
+  'CAD',
+  'AUD',
+  'NOK',
+  'SEK',
+  'DKK',
+  'CHF',
+  'PLN',
+  'JPY',
+  'CNY',
+  'INR',
+  'SGD',
+  'AED',
+  'SAR',
+  'BRL',
+  'MXN',
+  'ZAR',
+] as const;
 
 /** True when Intl knows the code as a currency (ISO 4217 form: three letters). */
 export function isCurrencyCode(code: string): boolean {
   if (!/^[A-Z]{3}$/.test(code)) return false;
-  try { new Intl.NumberFormat('en-US', { style: 'currency', currency: code }); return true; } catch { return false; }
+  try {
+    new Intl.NumberFormat('en-US', { style: 'currency', currency: code });
+    return true;
+  } catch {
+    return false;
+  }
 }
 
 const moneyFormats = new Map<string, Intl.NumberFormat>();
@@ -127,7 +202,13 @@ function moneyFormat(currency: string, digits: number) {
   const key = `${currency}:${digits}`;
   let f = moneyFormats.get(key);
   if (!f) {
-    f = new Intl.NumberFormat('en-US', { style: 'currency', currency, currencyDisplay: 'code', minimumFractionDigits: digits, maximumFractionDigits: digits });
+    f = new Intl.NumberFormat('en-US', {
+      style: 'currency',
+      currency,
+      currencyDisplay: 'code',
+      minimumFractionDigits: digits,
+      maximumFractionDigits: digits,
+    });
     moneyFormats.set(key, f);
   }
   return f;
@@ -136,7 +217,9 @@ function moneyFormat(currency: string, digits: number) {
 /** Money in the project's currency: "EUR 1,234" (whole units) or with cents. Uses the ISO code, never an ambiguous symbol. */
 export function money(v: number | null | undefined, currency = 'EUR', digits = 0): string {
   if (missing(v)) return DASH;
-  return moneyFormat(currency, digits).format(Object.is(v, -0) ? 0 : v).replace(/\u00a0/g, ' ');
+  return moneyFormat(currency, digits)
+    .format(Object.is(v, -0) ? 0 : v)
+    .replace(/\u00a0/g, ' ');
 }
 
 export interface Formatter {
@@ -179,17 +262,23 @@ export function formatter(o: FormatOptions): Formatter {
   const currency = o.currency ?? 'EUR';
   const u = us ? US_UNITS : SI_UNITS;
   const withUnit = (s: string, unit: string) => (s === DASH ? DASH : `${s} ${unit}`);
-  const tempValue = (c: number | null | undefined) => (missing(c) ? DASH : fixed(us ? convert.cToF(c) : c, 1));
+  const tempValue = (c: number | null | undefined) =>
+    missing(c) ? DASH : fixed(us ? convert.cToF(c) : c, 1);
   const thickness = (mm: number | null | undefined) => {
     if (missing(mm)) return DASH;
     if (mm === 0) return 'bare';
     if (series === 'inch') return fractionalInches(convert.mmToIn(mm));
     return us ? `${sig(convert.mmToIn(mm), 3)} in` : `${sig(mm, 4)} mm`;
   };
-  const linearLoss = (w: number | null | undefined) => (missing(w) ? DASH : withUnit(sig(us ? convert.wPerMToBtuPerHFt(w) : w, 3), u.linearLoss));
-  const arealLoss = (w: number | null | undefined) => (missing(w) ? DASH : withUnit(sig(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 3), u.arealLoss));
+  const linearLoss = (w: number | null | undefined) =>
+    missing(w) ? DASH : withUnit(sig(us ? convert.wPerMToBtuPerHFt(w) : w, 3), u.linearLoss);
+  const arealLoss = (w: number | null | undefined) =>
+    missing(w) ? DASH : withUnit(sig(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 3), u.arealLoss);
   return {
-    system: o.unitSystem, series, currency, units: u,
+    system: o.unitSystem,
+    series,
+    currency,
+    units: u,
     temp: (c) => withUnit(tempValue(c), u.temp),
     tempValue,
     tempDelta: (k) => {
@@ -199,28 +288,49 @@ export function formatter(o: FormatOptions): Formatter {
       return `${v > 0 && s !== '0.0' ? '+' : ''}${s} ${u.tempDelta}`;
     },
     thickness,
-    thicknessValue: (mm) => (missing(mm) ? null : us || series === 'inch' ? Number(convert.mmToIn(mm).toFixed(4)) : Number(mm.toFixed(2))),
+    thicknessValue: (mm) =>
+      missing(mm)
+        ? null
+        : us || series === 'inch'
+          ? Number(convert.mmToIn(mm).toFixed(4))
+          : Number(mm.toFixed(2)),
     diameter: (mm) => (missing(mm) ? DASH : us ? `${sig(convert.mmToIn(mm), 4)} in` : `${sig(mm, 4)} mm`),
     length: (m) => (missing(m) ? DASH : withUnit(fixed(us ? convert.mToFt(m) : m, us ? 0 : 1), u.length)),
     area: (m2) => (missing(m2) ? DASH : withUnit(fixed(us ? convert.m2ToFt2(m2) : m2, us ? 0 : 1), u.area)),
     linearLoss,
     arealLoss,
     heatFlowPerUnit: (v, surface) => (surface ? arealLoss(v) : linearLoss(v)),
-    power: (w) => (missing(w) ? DASH : us ? withUnit(sig(convert.wToBtuPerH(w), 3), 'Btu/h') : withUnit(sig(w / 1000, 3), 'kW')),
+    power: (w) =>
+      missing(w)
+        ? DASH
+        : us
+          ? withUnit(sig(convert.wToBtuPerH(w), 3), 'Btu/h')
+          : withUnit(sig(w / 1000, 3), 'kW'),
     energy: (mwh) => (missing(mwh) ? DASH : withUnit(sig(us ? convert.mwhToMMBtu(mwh) : mwh, 3), u.energy)),
-    conductivity: (k) => (missing(k) ? DASH : withUnit(sig(us ? convert.wPerMKToBtuInPerHFt2F(k) : k, 3), u.conductivity)),
+    conductivity: (k) =>
+      missing(k) ? DASH : withUnit(sig(us ? convert.wPerMKToBtuInPerHFt2F(k) : k, 3), u.conductivity),
     htc: (h) => (missing(h) ? DASH : withUnit(sig(us ? convert.wPerM2KToBtuPerHFt2F(h) : h, 3), u.htc)),
     pressure: (b) => (missing(b) ? DASH : withUnit(sig(us ? convert.barToPsi(b) : b, 3), u.pressure)),
     mass: (kg) => (missing(kg) ? DASH : withUnit(sig(us ? convert.kgToLb(kg) : kg, 3), u.mass)),
     money: (v, digits = 0) => money(v, currency, digits),
-    moneyPerLength: (perM) => (missing(perM) ? DASH : `${money(us ? convert.perMToPerFt(perM) : perM, currency, 2)}/${u.length}`),
-    moneyPerArea: (perM2) => (missing(perM2) ? DASH : `${money(us ? convert.perM2ToPerFt2(perM2) : perM2, currency, 2)}/${u.area}`),
+    moneyPerLength: (perM) =>
+      missing(perM) ? DASH : `${money(us ? convert.perMToPerFt(perM) : perM, currency, 2)}/${u.length}`,
+    moneyPerArea: (perM2) =>
+      missing(perM2) ? DASH : `${money(us ? convert.perM2ToPerFt2(perM2) : perM2, currency, 2)}/${u.area}`,
   };
 }
 
 /** The formatter of a project's design basis. */
-export function formatterFor(basis: { unitSystem: UnitSystem; thicknessSeries?: ThicknessSeries; currency?: string }): Formatter {
-  return formatter({ unitSystem: basis.unitSystem, thicknessSeries: basis.thicknessSeries, currency: basis.currency });
+export function formatterFor(basis: {
+  unitSystem: UnitSystem;
+  thicknessSeries?: ThicknessSeries;
+  currency?: string;
+}): Formatter {
+  return formatter({
+    unitSystem: basis.unitSystem,
+    thicknessSeries: basis.thicknessSeries,
+    currency: basis.currency,
+  });
 }
 
 /** A recorded value written for people: numbers without noise, lists joined, objects as "key: value". */
@@ -230,14 +340,25 @@ export function readableValue(v: unknown): string {
   if (typeof v === 'boolean') return v ? 'yes' : 'no';
   if (typeof v === 'string') return v === '' ? '(empty)' : v;
   if (Array.isArray(v)) return v.length ? v.map(readableValue).join(', ') : '(none)';
-  if (typeof v === 'object') return Object.entries(v as Record<string, unknown>).map(([k, x]) => `${humanKey(k)}: ${readableValue(x)}`).join('; ');
+  if (typeof v === 'object')
+    return Object.entries(v as Record<string, unknown>)
+      .map(([k, x]) => `${humanKey(k)}: ${readableValue(x)}`)
+      .join('; ');
   return String(v);
 }
 
 /** A camelCase key as words: "requiredMm" → "required (mm)", "belowCriterion" → "below criterion". */
 export function humanKey(k: string): string {
   const unit = /(Mm|C|K|M|M2|WPerM|WPerM2)$/.exec(k);
-  const UNITS: Record<string, string> = { Mm: 'mm', C: '°C', K: 'K', M: 'm', M2: 'm²', WPerM: 'W/m', WPerM2: 'W/m²' };
+  const UNITS: Record<string, string> = {
+    Mm: 'mm',
+    C: '°C',
+    K: 'K',
+    M: 'm',
+    M2: 'm²',
+    WPerM: 'W/m',
+    WPerM2: 'W/m²',
+  };
   const base = unit && k.length > unit[0].length ? k.slice(0, -unit[0].length) : k;
   const words = base.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
   return unit && base !== k ? `${words} (${UNITS[unit[0]]})` : words;
@@ -250,22 +371,26 @@ export function humanKey(k: string): string {
 export function describeChanges(before: unknown, after: unknown): string[] {
   const flat = (v: unknown, prefix = '', out: Map<string, unknown> = new Map()) => {
     if (v && typeof v === 'object' && !Array.isArray(v)) {
-      for (const [k, x] of Object.entries(v as Record<string, unknown>)) flat(x, prefix ? `${prefix} › ${humanKey(k)}` : humanKey(k), out);
+      for (const [k, x] of Object.entries(v as Record<string, unknown>))
+        flat(x, prefix ? `${prefix} › ${humanKey(k)}` : humanKey(k), out);
     } else if (prefix) out.set(prefix, v);
     return out;
   };
-  const b = flat(before), a = flat(after);
+  const b = flat(before),
+    a = flat(after);
   const keys = [...new Set([...b.keys(), ...a.keys()])];
   const out: string[] = [];
   for (const k of keys) {
-    const x = b.get(k), y = a.get(k);
+    const x = b.get(k),
+      y = a.get(k);
     if ((x ?? null) === null && (y ?? null) === null) continue;
     if (JSON.stringify(x) === JSON.stringify(y)) continue;
     if (!b.has(k) || x === null || x === undefined) out.push(`${k}: ${readableValue(y)}`);
     else if (!a.has(k) || y === null || y === undefined) out.push(`${k}: ${readableValue(x)} → cleared`);
     else out.push(`${k}: ${readableValue(x)} → ${readableValue(y)}`);
   }
-  if (!out.length && after !== null && after !== undefined && typeof after !== 'object') out.push(readableValue(after));
+  if (!out.length && after !== null && after !== undefined && typeof after !== 'object')
+    out.push(readableValue(after));
   return out;
 }
 
@@ -278,14 +403,20 @@ export function localizeMessage(text: string, u: Formatter): string {
   // SI text is already in the project's units: only float noise is removed.
   if (u.system === 'SI' && u.series === 'mm') return text.replace(/-?\d+\.\d{7,}/g, (v) => sig(Number(v), 6));
   const n = '(-?\\d+(?:\\.\\d+)?)';
-  return text
-    .replace(new RegExp(`${n} ?°C`, 'g'), (_, v) => u.temp(Number(v)))
-    .replace(new RegExp(`${n} ?kW\\b`, 'g'), (_, v) => u.power(Number(v) * 1000))
-    .replace(new RegExp(`${n} ?W/m²`, 'g'), (_, v) => u.arealLoss(Number(v)))
-    .replace(new RegExp(`${n} ?W/m\\b`, 'g'), (_, v) => u.linearLoss(Number(v)))
-    .replace(new RegExp(`\\+ ?${n} ?K\\b`, 'g'), (_, v) => `+ ${u.tempDelta(Number(v)).replace(/^\+/, '')}`)
-    .replace(new RegExp(`${n} ?K\\b`, 'g'), (_, v) => u.tempDelta(Number(v)).replace(/^\+/, ''))
-    // A range of thicknesses names its unit once ("from 100 to 125 mm", "100–125 mm").
-    .replace(new RegExp(`${n}( to |–|-)${n} ?mm\\b`, 'g'), (_, a, sep, b) => `${u.thickness(Number(a))}${sep === ' to ' ? ' to ' : ' – '}${u.thickness(Number(b))}`)
-    .replace(new RegExp(`${n} ?mm\\b`, 'g'), (_, v) => u.thickness(Number(v)));
+  return (
+    text
+      .replace(new RegExp(`${n} ?°C`, 'g'), (_, v) => u.temp(Number(v)))
+      .replace(new RegExp(`${n} ?kW\\b`, 'g'), (_, v) => u.power(Number(v) * 1000))
+      .replace(new RegExp(`${n} ?W/m²`, 'g'), (_, v) => u.arealLoss(Number(v)))
+      .replace(new RegExp(`${n} ?W/m\\b`, 'g'), (_, v) => u.linearLoss(Number(v)))
+      .replace(new RegExp(`\\+ ?${n} ?K\\b`, 'g'), (_, v) => `+ ${u.tempDelta(Number(v)).replace(/^\+/, '')}`)
+      .replace(new RegExp(`${n} ?K\\b`, 'g'), (_, v) => u.tempDelta(Number(v)).replace(/^\+/, ''))
+      // A range of thicknesses names its unit once ("from 100 to 125 mm", "100–125 mm").
+      .replace(
+        new RegExp(`${n}( to |–|-)${n} ?mm\\b`, 'g'),
+        (_, a, sep, b) =>
+          `${u.thickness(Number(a))}${sep === ' to ' ? ' to ' : ' – '}${u.thickness(Number(b))}`,
+      )
+      .replace(new RegExp(`${n} ?mm\\b`, 'g'), (_, v) => u.thickness(Number(v)))
+  );
 }

@@ -12,11 +12,17 @@ const g = globalThis as unknown as { __lagwiseBoss?: Promise<PgBoss> };
 export function getBoss({ supervise = false }: { supervise?: boolean } = {}): Promise<PgBoss> {
   if (!g.__lagwiseBoss) {
     const boss = new PgBoss({
-      connectionString: env.databaseUrl(), schema: BOSS_SCHEMA, max: 4,
-      migrate: false, schedule: false, supervise,
+      connectionString: env.databaseUrl(),
+      schema: BOSS_SCHEMA,
+      max: 4,
+      migrate: false,
+      schedule: false,
+      supervise,
       maintenanceIntervalSeconds: 5,
     });
-    boss.on('error', (e) => { console.error('[jobs] queue error:', (e as { code?: string }).code ?? '', (e as Error).message); });
+    boss.on('error', (e) => {
+      console.error('[jobs] queue error:', (e as { code?: string }).code ?? '', (e as Error).message);
+    });
     g.__lagwiseBoss = boss.start().then(() => boss);
   }
   return g.__lagwiseBoss;

@@ -18,8 +18,11 @@ const progress = (jobId: string) => async (done: number, total: number) => {
 };
 
 export async function runJob(jobId: string): Promise<void> {
-  const [job] = await db.update(jobs).set({ state: 'running', attempts: sql`${jobs.attempts} + 1`, startedAt: new Date(), error: null })
-    .where(sql`${jobs.id} = ${jobId} and ${jobs.state} in ('queued', 'running')`).returning();
+  const [job] = await db
+    .update(jobs)
+    .set({ state: 'running', attempts: sql`${jobs.attempts} + 1`, startedAt: new Date(), error: null })
+    .where(sql`${jobs.id} = ${jobId} and ${jobs.state} in ('queued', 'running')`)
+    .returning();
   if (!job) return; // already finished (a retry after the result was committed)
   try {
     // The result and the job's "done" commit in the same transaction. A second runner of the same
@@ -30,12 +33,30 @@ export async function runJob(jobId: string): Promise<void> {
       if (now?.state !== 'running') return;
       let result: Record<string, unknown>;
       if (job.kind === 'import-solve') {
-        const input = job.input as { draftId: string; sheetName: string; headerRow?: number; mapping: ColumnMapping };
+        const input = job.input as {
+          draftId: string;
+          sheetName: string;
+          headerRow?: number;
+          mapping: ColumnMapping;
+        };
         const r = await commitDraft({ projectId: job.projectId, userId: job.createdBy ?? '', ...input, tx });
         const s = await solveProject({ projectId: job.projectId, tx, onProgress: progress(jobId) });
-        result = { revision: r.revision, lineCount: r.lineCount, warningCount: r.warningCount, added: r.diff.added.length, changed: r.diff.changed.length, removed: r.diff.removed.length, solved: s.solved };
+        result = {
+          revision: r.revision,
+          lineCount: r.lineCount,
+          warningCount: r.warningCount,
+          added: r.diff.added.length,
+          changed: r.diff.changed.length,
+          removed: r.diff.removed.length,
+          solved: s.solved,
+        };
       } else {
-        const s = await solveProject({ projectId: job.projectId, all: Boolean((job.input as { all?: boolean }).all), tx, onProgress: progress(jobId) });
+        const s = await solveProject({
+          projectId: job.projectId,
+          all: Boolean((job.input as { all?: boolean }).all),
+          tx,
+          onProgress: progress(jobId),
+        });
         result = { solved: s.solved };
       }
       await tx.update(jobs).set({ state: 'done', result, finishedAt: new Date() }).where(eq(jobs.id, jobId));
@@ -43,14 +64,26 @@ export async function runJob(jobId: string): Promise<void> {
   } catch (e) {
     if (isAppError(e)) {
       // The user's to fix (a changed draft, a validation problem): no retry, the sentence shown.
-      await db.update(jobs).set({ state: 'failed', error: e.message, finishedAt: new Date() }).where(sql`${jobs.id} = ${jobId} and ${jobs.state} <> 'done'`);
+      await db
+        .update(jobs)
+        .set({ state: 'failed', error: e.message, finishedAt: new Date() })
+        .where(sql`${jobs.id} = ${jobId} and ${jobs.state} <> 'done'`);
       return;
     }
     logUnexpected(`job ${job.kind}`, e);
     const last = job.attempts >= QUEUES[job.kind].retryLimit + 1;
-    await db.update(jobs).set(last
-      ? { state: 'failed', finishedAt: new Date(), error: `This ${job.kind === 'import-solve' ? 'import' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.` }
-      : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' }).where(sql`${jobs.id} = ${jobId} and ${jobs.state} <> 'done'`);
+    await db
+      .update(jobs)
+      .set(
+        last
+          ? {
+              state: 'failed',
+              finishedAt: new Date(),
+              error: `This ${job.kind === 'import-solve' ? 'import' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
+            }
+          : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' },
+      )
+      .where(sql`${jobs.id} = ${jobId} and ${jobs.state} <> 'done'`);
     throw e; // pg-boss retries
   }
 }

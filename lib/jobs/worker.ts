@@ -11,18 +11,27 @@ import { markAbandonedJobs, runJob } from './run';
 async function main() {
   const boss = await getBoss({ supervise: true });
   for (const name of Object.keys(QUEUES)) {
-    await boss.work<{ jobId: string }>(name, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => runJob(job.data.jobId));
+    await boss.work<{ jobId: string }>(name, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) =>
+      runJob(job.data.jobId),
+    );
   }
-  const sweep = setInterval(() => { markAbandonedJobs().catch((e) => console.error('[worker] sweep:', e?.code ?? '', e?.message)); }, 5_000);
+  const sweep = setInterval(() => {
+    markAbandonedJobs().catch((e) => console.error('[worker] sweep:', e?.code ?? '', e?.message));
+  }, 5_000);
   console.error(`[worker] working ${Object.keys(QUEUES).join(', ')} (pid ${process.pid})`);
   const stop = async () => {
     clearInterval(sweep);
     await stopBoss().catch(() => undefined);
-    await getPool().end().catch(() => undefined);
+    await getPool()
+      .end()
+      .catch(() => undefined);
     process.exit(0);
   };
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 }
 
-main().catch((e) => { console.error('[worker] could not start:', e?.code ?? '', e?.message); process.exit(1); });
+main().catch((e) => {
+  console.error('[worker] could not start:', e?.code ?? '', e?.message);
+  process.exit(1);
+});

@@ -19,10 +19,17 @@ const cache = new WeakMap<object, Catalogue>();
 
 function ownMaterialToLibraryForm(m: OwnMaterial): InsulationMaterial {
   return {
-    id: m.id, name: m.name, productForm: m.productForm,
+    id: m.id,
+    name: m.name,
+    productForm: m.productForm,
     conductivity: { type: 'table', points: [...m.kPoints].sort((a, b) => a[0] - b[0]) },
-    minServiceC: m.minServiceC, maxServiceC: m.maxServiceC, densityKgPerM3: m.densityKgPerM3, specificHeatJPerKgK: m.specificHeatJPerKgK,
-    thicknessesMm: m.thicknessesMm, maxLayerMm: m.maxLayerMm, maxLayers: m.maxLayers,
+    minServiceC: m.minServiceC,
+    maxServiceC: m.maxServiceC,
+    densityKgPerM3: m.densityKgPerM3,
+    specificHeatJPerKgK: m.specificHeatJPerKgK,
+    thicknessesMm: m.thicknessesMm,
+    maxLayerMm: m.maxLayerMm,
+    maxLayers: m.maxLayers,
     source: `Project data: ${m.source}`,
   };
 }
@@ -30,20 +37,41 @@ function ownMaterialToLibraryForm(m: OwnMaterial): InsulationMaterial {
 export function catalogueOf(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>): Catalogue {
   let c = cache.get(basis);
   if (c) return c;
-  const materials = new Map(LIBRARY_MATERIALS), jackets = new Map(LIBRARY_JACKETS), own = new Set<string>();
-  for (const m of basis.ownMaterials ?? []) { materials.set(m.id, ownMaterialToLibraryForm(m)); own.add(m.id); }
-  for (const j of basis.ownJackets ?? []) { jackets.set(j.id, { id: j.id, name: j.name, emittance: j.emittance, metal: j.metal, source: `Project data: ${j.source}` }); own.add(j.id); }
+  const materials = new Map(LIBRARY_MATERIALS),
+    jackets = new Map(LIBRARY_JACKETS),
+    own = new Set<string>();
+  for (const m of basis.ownMaterials ?? []) {
+    materials.set(m.id, ownMaterialToLibraryForm(m));
+    own.add(m.id);
+  }
+  for (const j of basis.ownJackets ?? []) {
+    jackets.set(j.id, {
+      id: j.id,
+      name: j.name,
+      emittance: j.emittance,
+      metal: j.metal,
+      source: `Project data: ${j.source}`,
+    });
+    own.add(j.id);
+  }
   c = { materials, jackets, own };
   cache.set(basis, c);
   return c;
 }
 
-
 /** A new id for a project entry: "own-" + the name's slug, unique within the catalogue. */
 export function ownId(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>, name: string): string {
-  const slug = name.toLowerCase().normalize('NFKD').replace(/[\u0300-\u036f]/g, '').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40) || 'entry';
+  const slug =
+    name
+      .toLowerCase()
+      .normalize('NFKD')
+      .replace(/[\u0300-\u036f]/g, '')
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 40) || 'entry';
   const c = catalogueOf(basis);
-  let id = `own-${slug}`, n = 2;
+  let id = `own-${slug}`,
+    n = 2;
   while (c.materials.has(id) || c.jackets.has(id)) id = `own-${slug}-${n++}`;
   return id;
 }

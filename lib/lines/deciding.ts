@@ -4,7 +4,15 @@
  * the worst margin to a limit. Whether a criterion applies comes from lib/thermal/rules.ts, the
  * one home of those rules. Server-side (the engine solves candidates the sweep did not reach).
  */
-import { compileConductivity, condensationControlApplies, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient } from '@/lib/thermal';
+import {
+  compileConductivity,
+  condensationControlApplies,
+  condensationLimit,
+  personnelProtectionApplies,
+  solveSteady,
+  solveVessel,
+  type Ambient,
+} from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -15,7 +23,16 @@ import type { LineInput } from '@/lib/lines/validate';
  * annual cost, layers within service limits, surface °C (condensation)]. Results stored before the
  * last field existed have seven entries.
  */
-export type CandidateRow = [number, [string, number][], number, number, number | null, number | null, boolean, (number | null)?];
+export type CandidateRow = [
+  number,
+  [string, number][],
+  number,
+  number,
+  number | null,
+  number | null,
+  boolean,
+  (number | null)?,
+];
 
 export interface DecidingLimits {
   /** Touch limit when personnel protection applies (the system's jacket: metal or not). */
@@ -26,8 +43,18 @@ export interface DecidingLimits {
   dewBasis: 'dew point' | 'frost point' | null;
 }
 
-export interface CandidateNumbers { mm: number; heatFlow: number; heatLossC: number; personnelC: number | null; condensationC: number | null; ok: boolean }
-export interface Margin { criterion: 'personnel' | 'condensation'; marginK: number }
+export interface CandidateNumbers {
+  mm: number;
+  heatFlow: number;
+  heatLossC: number;
+  personnelC: number | null;
+  condensationC: number | null;
+  ok: boolean;
+}
+export interface Margin {
+  criterion: 'personnel' | 'condensation';
+  marginK: number;
+}
 
 type LineFacts = Pick<LineInput, 'outdoor' | 'accessible' | 'normalTempC' | 'maxTempC' | 'purposes'>;
 
@@ -35,31 +62,54 @@ export function decidingLimits(basis: DesignBasis, line: LineFacts, jacketId: st
   const crit = criteriaFor(basis, line.outdoor);
   const jacket = jacketId ? catalogueOf(basis).jackets.get(jacketId) : undefined;
   const metal = jacket ? jacket.metal : true;
-  const hot = personnelProtectionApplies({ accessible: line.accessible, hottestC: line.maxTempC ?? line.normalTempC }, crit.conditions.personnel);
-  const cold = condensationControlApplies({ purposes: line.purposes, coldestC: line.normalTempC }, crit.conditions.condensation, crit.dewPointMarginK);
+  const hot = personnelProtectionApplies(
+    { accessible: line.accessible, hottestC: line.maxTempC ?? line.normalTempC },
+    crit.conditions.personnel,
+  );
+  const cold = condensationControlApplies(
+    { purposes: line.purposes, coldestC: line.normalTempC },
+    crit.conditions.condensation,
+    crit.dewPointMarginK,
+  );
   const th = cold ? condensationLimit(crit.conditions.condensation, crit.dewPointMarginK) : null;
   return {
     personnelLimitC: hot ? (metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC) : null,
-    condensationNeedC: th ? th.needC : null, dewPointC: th ? th.valueC : null, dewBasis: th ? th.basis : null,
+    condensationNeedC: th ? th.needC : null,
+    dewPointC: th ? th.valueC : null,
+    dewBasis: th ? th.basis : null,
   };
 }
 
 /** The candidate rows as numbers, with the temperatures the sweep did not reach solved here. */
-export function candidateNumbers(basis: DesignBasis, line: LineInput, jacketId: string | null, rows: CandidateRow[], limits: DecidingLimits): CandidateNumbers[] {
+export function candidateNumbers(
+  basis: DesignBasis,
+  line: LineInput,
+  jacketId: string | null,
+  rows: CandidateRow[],
+  limits: DecidingLimits,
+): CandidateNumbers[] {
   let solver: ReturnType<typeof surfaceSolver> | null = null;
   return rows.map((c) => {
-    let personnelC = c[4] ?? null, condensationC = c[7] ?? null;
-    if (limits.personnelLimitC !== null && personnelC === null) personnelC = (solver ??= surfaceSolver(basis, line, jacketId))('personnel', c[1]);
-    if (limits.condensationNeedC !== null && condensationC === null) condensationC = (solver ??= surfaceSolver(basis, line, jacketId))('condensation', c[1]);
+    let personnelC = c[4] ?? null,
+      condensationC = c[7] ?? null;
+    if (limits.personnelLimitC !== null && personnelC === null)
+      personnelC = (solver ??= surfaceSolver(basis, line, jacketId))('personnel', c[1]);
+    if (limits.condensationNeedC !== null && condensationC === null)
+      condensationC = (solver ??= surfaceSolver(basis, line, jacketId))('condensation', c[1]);
     return { mm: c[0], heatFlow: c[2], heatLossC: c[3], personnelC, condensationC, ok: c[6] };
   });
 }
 
 /** The smallest margin to an applicable temperature limit (negative: the limit is not met). */
-export function worstMargin(c: Pick<CandidateNumbers, 'personnelC' | 'condensationC'>, limits: DecidingLimits): Margin | null {
+export function worstMargin(
+  c: Pick<CandidateNumbers, 'personnelC' | 'condensationC'>,
+  limits: DecidingLimits,
+): Margin | null {
   const m: Margin[] = [];
-  if (limits.personnelLimitC !== null && c.personnelC !== null) m.push({ criterion: 'personnel', marginK: limits.personnelLimitC - c.personnelC });
-  if (limits.condensationNeedC !== null && c.condensationC !== null) m.push({ criterion: 'condensation', marginK: c.condensationC - limits.condensationNeedC });
+  if (limits.personnelLimitC !== null && c.personnelC !== null)
+    m.push({ criterion: 'personnel', marginK: limits.personnelLimitC - c.personnelC });
+  if (limits.condensationNeedC !== null && c.condensationC !== null)
+    m.push({ criterion: 'condensation', marginK: c.condensationC - limits.condensationNeedC });
   return m.length ? m.reduce((a, b) => (b.marginK < a.marginK ? b : a)) : null;
 }
 
@@ -68,16 +118,37 @@ function surfaceSolver(basis: DesignBasis, l: LineInput, jacketId: string | null
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);
-  const D = (c.pipeOuterDiameterMm ?? 0) / 1000, H = c.heightM ?? 1;
+  const D = (c.pipeOuterDiameterMm ?? 0) / 1000,
+    H = c.heightM ?? 1;
   return (kind: 'personnel' | 'condensation', layerRows: [string, number][]): number | null => {
     const mats = layerRows.map(([id, mm]) => ({ m: cat.materials.get(id), mm }));
     if (mats.some((x) => !x.m)) return null;
-    const layers = mats.map(({ m, mm }) => ({ thicknessM: mm / 1000, conductivity: compileConductivity(m!.conductivity), name: m!.name, minServiceC: m!.minServiceC, maxServiceC: m!.maxServiceC }));
+    const layers = mats.map(({ m, mm }) => ({
+      thicknessM: mm / 1000,
+      conductivity: compileConductivity(m!.conductivity),
+      name: m!.name,
+      minServiceC: m!.minServiceC,
+      maxServiceC: m!.maxServiceC,
+    }));
     const jacket = layers.length ? cat.jackets.get(jacketId ?? '') : undefined;
     const cond = kind === 'personnel' ? crit.conditions.personnel : crit.conditions.condensation;
-    const processC = kind === 'personnel' ? l.maxTempC ?? l.normalTempC : l.normalTempC;
-    const ambient: Ambient = { airC: cond.airC, surroundingsC: cond.surroundingsC ?? cond.airC, windMs: cond.windMs, emittance: jacket?.emittance ?? 0.8 };
-    if (c.geometry === 'vessel') return solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers }).worstSurfaceC;
-    return solveSteady({ geometry: c.geometry, pipeOuterDiameterM: D, heightM: H, characteristicLengthM: 1, layers, processC, ambient }).surfaceC;
+    const processC = kind === 'personnel' ? (l.maxTempC ?? l.normalTempC) : l.normalTempC;
+    const ambient: Ambient = {
+      airC: cond.airC,
+      surroundingsC: cond.surroundingsC ?? cond.airC,
+      windMs: cond.windMs,
+      emittance: jacket?.emittance ?? 0.8,
+    };
+    if (c.geometry === 'vessel')
+      return solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers }).worstSurfaceC;
+    return solveSteady({
+      geometry: c.geometry,
+      pipeOuterDiameterM: D,
+      heightM: H,
+      characteristicLengthM: 1,
+      layers,
+      processC,
+      ambient,
+    }).surfaceC;
   };
 }

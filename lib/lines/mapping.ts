@@ -11,20 +11,39 @@ export interface ColumnMapping {
 
 /** Lower-case words only, accents dropped: "Op. Temp [°F]" → "op temp f", "Länge" → "lange", "T/T" → "tt". */
 export function normalizeHeader(h: string): string {
-  return String(h ?? '').toLowerCase().replace(/\bt\s*[/-]\s*t\b/g, 'tt').replace(/°/g, ' ').replace(/[²]/g, '2').replace(/ß/g, 'ss')
-    .normalize('NFD').replace(/[\u0300-\u036f]/g, '').replace(/[^a-z0-9]+/g, ' ').trim();
+  return String(h ?? '')
+    .toLowerCase()
+    .replace(/\bt\s*[/-]\s*t\b/g, 'tt')
+    .replace(/°/g, ' ')
+    .replace(/[²]/g, '2')
+    .replace(/ß/g, 'ss')
+    .normalize('NFD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .replace(/[^a-z0-9]+/g, ' ')
+    .trim();
 }
 
 const UNIT_HINTS: [RegExp, string][] = [
-  [/(^|\s)(deg\s*)?f(\s|$)|fahrenheit/, '°F'], [/(^|\s)(deg\s*)?c(\s|$)|celsius/, '°C'],
-  [/(^|\s)mm(\s|$)/, 'mm'], [/(^|\s)(in|inch|inches)(\s|$)/, 'in'],
-  [/(^|\s)(ft|feet)(\s|$)/, 'ft'], [/(^|\s)m(\s|$)/, 'm'],
-  [/ft2|sq ft|square feet/, 'ft²'], [/m2|sq m/, 'm²'],
-  [/psig|psi/, 'psig'], [/kpa/, 'kPa(g)'], [/bar/, 'bar(g)'],
-  [/kg h|kg hr/, 'kg/h'], [/t h|tph/, 't/h'], [/lb h|lb hr/, 'lb/h'], [/kg s/, 'kg/s'],
-  [/btu/, 'Btu/(lb·°F)'], [/kj/, 'kJ/(kg·K)'],
+  [/(^|\s)(deg\s*)?f(\s|$)|fahrenheit/, '°F'],
+  [/(^|\s)(deg\s*)?c(\s|$)|celsius/, '°C'],
+  [/(^|\s)mm(\s|$)/, 'mm'],
+  [/(^|\s)(in|inch|inches)(\s|$)/, 'in'],
+  [/(^|\s)(ft|feet)(\s|$)/, 'ft'],
+  [/(^|\s)m(\s|$)/, 'm'],
+  [/ft2|sq ft|square feet/, 'ft²'],
+  [/m2|sq m/, 'm²'],
+  [/psig|psi/, 'psig'],
+  [/kpa/, 'kPa(g)'],
+  [/bar/, 'bar(g)'],
+  [/kg h|kg hr/, 'kg/h'],
+  [/t h|tph/, 't/h'],
+  [/lb h|lb hr/, 'lb/h'],
+  [/kg s/, 'kg/s'],
+  [/btu/, 'Btu/(lb·°F)'],
+  [/kj/, 'kJ/(kg·K)'],
   // A size column: "DN", "Size (mm)", "Nennweite" hold DN numbers; "NPS", "Size (in)" inches.
-  [/(^|\s)(dn|mm|nennweite|nw)(\s|$)/, 'DN'], [/(^|\s)(nps|in|inch|inches|zoll)(\s|$)/, 'NPS'],
+  [/(^|\s)(dn|mm|nennweite|nw)(\s|$)/, 'DN'],
+  [/(^|\s)(nps|in|inch|inches|zoll)(\s|$)/, 'NPS'],
 ];
 
 function unitFromHeader(norm: string, key: LineFieldKey): string | undefined {
@@ -36,13 +55,19 @@ function unitFromHeader(norm: string, key: LineFieldKey): string | undefined {
 
 /** Strips unit words so "Length (ft)" matches the synonym "length". */
 function stripUnits(norm: string): string {
-  return norm.replace(/\b(deg|c|f|mm|in|inch|inches|ft|feet|m|m2|ft2|psig|psi|kpa|bar|barg|g|kg|h|hr|s|t|lb|kj|btu|k|dn|zoll)\b/g, ' ').replace(/\s+/g, ' ').trim();
+  return norm
+    .replace(
+      /\b(deg|c|f|mm|in|inch|inches|ft|feet|m|m2|ft2|psig|psi|kpa|bar|barg|g|kg|h|hr|s|t|lb|kj|btu|k|dn|zoll)\b/g,
+      ' ',
+    )
+    .replace(/\s+/g, ' ')
+    .trim();
 }
 
 const PASSES: ((n: string, syn: string) => boolean)[] = [
   (n, s) => n === s,
   (n, s) => stripUnits(n) === s,
-  (n, s) => s.length >= 4 && (` ${n} `).includes(` ${s} `),
+  (n, s) => s.length >= 4 && ` ${n} `.includes(` ${s} `),
 ];
 
 /**
@@ -55,7 +80,12 @@ export function matchHeader(header: string): { key: LineFieldKey; pass: number }
   const hit = MATCH_CACHE.get(n);
   if (hit !== undefined) return hit;
   let found: { key: LineFieldKey; pass: number } | null = null;
-  for (let p = 0; p < PASSES.length && !found; p++) for (const f of FIELDS) if (f.synonyms.some((s) => PASSES[p](n, s))) { found = { key: f.key, pass: p }; break; }
+  for (let p = 0; p < PASSES.length && !found; p++)
+    for (const f of FIELDS)
+      if (f.synonyms.some((s) => PASSES[p](n, s))) {
+        found = { key: f.key, pass: p };
+        break;
+      }
   if (MATCH_CACHE.size > 5000) MATCH_CACHE.clear();
   MATCH_CACHE.set(n, found);
   return found;
@@ -68,7 +98,10 @@ const MATCH_CACHE = new Map<string, { key: LineFieldKey; pass: number } | null>(
  * then a synonym contained in the header. Each column is used at most once; units come from the
  * header where it names one. A remembered mapping (by header text) wins when headers match.
  */
-export function suggestMapping(headers: string[], remembered?: { headers: string[]; mapping: ColumnMapping }): ColumnMapping {
+export function suggestMapping(
+  headers: string[],
+  remembered?: { headers: string[]; mapping: ColumnMapping },
+): ColumnMapping {
   const norm = headers.map(normalizeHeader);
   const columns: ColumnMapping['columns'] = {};
   const units: ColumnMapping['units'] = {};
@@ -78,14 +111,21 @@ export function suggestMapping(headers: string[], remembered?: { headers: string
     for (const [key, idx] of Object.entries(remembered.mapping.columns) as [LineFieldKey, number][]) {
       const header = remembered.headers[idx];
       const at = headers.findIndex((h) => h === header);
-      if (at >= 0 && !used.has(at)) { columns[key] = at; used.add(at); if (remembered.mapping.units[key]) units[key] = remembered.mapping.units[key]; }
+      if (at >= 0 && !used.has(at)) {
+        columns[key] = at;
+        used.add(at);
+        if (remembered.mapping.units[key]) units[key] = remembered.mapping.units[key];
+      }
     }
   }
   for (const pass of PASSES) {
     for (const f of FIELDS) {
       if (columns[f.key] !== undefined) continue;
       const idx = norm.findIndex((n, i) => !used.has(i) && n && f.synonyms.some((s) => pass(n, s)));
-      if (idx >= 0) { columns[f.key] = idx; used.add(idx); }
+      if (idx >= 0) {
+        columns[f.key] = idx;
+        used.add(idx);
+      }
     }
   }
   for (const [key, idx] of Object.entries(columns) as [LineFieldKey, number][]) {

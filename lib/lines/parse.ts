@@ -1,5 +1,14 @@
 import ExcelJS from 'exceljs';
-import { CsvLimitError, CsvQuoteError, decodeText, DELIMITER_NAME, splitCsv, usesDecimalComma, type Delimiter, type TextEncodingName } from './decode';
+import {
+  CsvLimitError,
+  CsvQuoteError,
+  decodeText,
+  DELIMITER_NAME,
+  splitCsv,
+  usesDecimalComma,
+  type Delimiter,
+  type TextEncodingName,
+} from './decode';
 import { checkWorkbookZip, SHEET_LIMITS, ZipLimitError } from './zip-guard';
 import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
@@ -48,13 +57,22 @@ export interface ParsedFile {
 export function viewSheet(s: StoredSheet, headerRow = s.headerRow): ParsedSheet {
   const v = headerView(s.grid, headerRow);
   return {
-    name: s.name, hidden: s.hidden, headerRow, headerRows: v.headerRows, headers: v.headers, rows: s.grid.slice(v.dataStart),
-    formulaCells: s.formulaCells, mergedCells: s.mergedCells, decimalComma: s.decimalComma,
+    name: s.name,
+    hidden: s.hidden,
+    headerRow,
+    headerRows: v.headerRows,
+    headers: v.headers,
+    rows: s.grid.slice(v.dataStart),
+    formulaCells: s.formulaCells,
+    mergedCells: s.mergedCells,
+    decimalComma: s.decimalComma,
   };
 }
 
 export function describeCsv(f: ParsedFile): string | null {
-  return f.kind === 'csv' && f.encoding && f.delimiter ? `${f.encoding}, ${DELIMITER_NAME[f.delimiter]}-separated` : null;
+  return f.kind === 'csv' && f.encoding && f.delimiter
+    ? `${f.encoding}, ${DELIMITER_NAME[f.delimiter]}-separated`
+    : null;
 }
 
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
@@ -64,8 +82,13 @@ export const MAX_COLUMNS = SHEET_LIMITS.maxColumns;
 export class ParseError extends Error {}
 
 export function columnLetter(index: number): string {
-  let s = '', n = index + 1;
-  while (n > 0) { const m = (n - 1) % 26; s = String.fromCharCode(65 + m) + s; n = Math.floor((n - 1) / 26); }
+  let s = '',
+    n = index + 1;
+  while (n > 0) {
+    const m = (n - 1) % 26;
+    s = String.fromCharCode(65 + m) + s;
+    n = Math.floor((n - 1) / 26);
+  }
   return s;
 }
 
@@ -80,7 +103,8 @@ function plain(v: unknown): { value: CellValue; formula: boolean } {
       const r = plain(o.result);
       return { value: r.value, formula: true };
     }
-    if ('richText' in o && Array.isArray(o.richText)) return plain((o.richText as { text: string }[]).map((t) => t.text).join(''));
+    if ('richText' in o && Array.isArray(o.richText))
+      return plain((o.richText as { text: string }[]).map((t) => t.text).join(''));
     if ('text' in o) return plain(o.text);
     if ('error' in o) return { value: null, formula: false };
   }
@@ -116,55 +140,101 @@ function fromCsv(text: string): { sheet: StoredSheet; delimiter: Delimiter } {
   const { rows, delimiter } = splitCsv(text, { maxRows: MAX_ROWS, maxColumns: MAX_COLUMNS });
   const grid: GridRow[] = [];
   rows.forEach((cells, i) => {
-    if (cells.some((c) => c !== '')) grid.push({ row: i + 1, cells: cells.map((c) => (c === '' ? null : c)) });
+    if (cells.some((c) => c !== ''))
+      grid.push({ row: i + 1, cells: cells.map((c) => (c === '' ? null : c)) });
   });
-  const sheet: StoredSheet = { name: 'CSV', hidden: false, grid, headerRow: detectHeaderRow(grid), formulaCells: [], mergedCells: [], decimalComma: usesDecimalComma(rows, delimiter) };
+  const sheet: StoredSheet = {
+    name: 'CSV',
+    hidden: false,
+    grid,
+    headerRow: detectHeaderRow(grid),
+    formulaCells: [],
+    mergedCells: [],
+    decimalComma: usesDecimalComma(rows, delimiter),
+  };
   return { sheet, delimiter };
 }
 
 /** Reads an uploaded .xlsx or .csv into sheets of plain cell values; throws ParseError with a user message. */
 export async function parseUpload(fileName: string, bytes: Buffer): Promise<ParsedFile> {
   if (bytes.length === 0) throw new ParseError('The file is empty.');
-  if (bytes.length > MAX_UPLOAD_BYTES) throw new ParseError(`The file is ${(bytes.length / 1048576).toFixed(1)} MB; the limit is 20 MB. Split the line list or remove unused sheets.`);
+  if (bytes.length > MAX_UPLOAD_BYTES)
+    throw new ParseError(
+      `The file is ${(bytes.length / 1048576).toFixed(1)} MB; the limit is 20 MB. Split the line list or remove unused sheets.`,
+    );
   const lower = fileName.toLowerCase();
   const isZip = bytes[0] === 0x50 && bytes[1] === 0x4b;
   const isOle = bytes[0] === 0xd0 && bytes[1] === 0xcf && bytes[2] === 0x11 && bytes[3] === 0xe0;
   let sheets: StoredSheet[];
   let csv: Pick<ParsedFile, 'encoding' | 'delimiter'> = {};
   if (lower.endsWith('.xlsx') || lower.endsWith('.xlsm')) {
-    if (isOle) throw new ParseError('This workbook is password-protected (encrypted) or in the old .xls format. Remove the password, or save it as .xlsx, and upload again.');
-    if (!isZip) throw new ParseError('This file is not a valid .xlsx workbook (it may be corrupt or renamed). Open it in a spreadsheet program and save it as .xlsx.');
+    if (isOle)
+      throw new ParseError(
+        'This workbook is password-protected (encrypted) or in the old .xls format. Remove the password, or save it as .xlsx, and upload again.',
+      );
+    if (!isZip)
+      throw new ParseError(
+        'This file is not a valid .xlsx workbook (it may be corrupt or renamed). Open it in a spreadsheet program and save it as .xlsx.',
+      );
     // The zip directory and a streaming count of rows and columns first: nothing is held in
     // memory beyond a 16 KB step until the limits are known to hold.
-    try { await checkWorkbookZip(bytes); }
-    catch (e) { if (e instanceof ZipLimitError) throw new ParseError(e.message); throw e; }
+    try {
+      await checkWorkbookZip(bytes);
+    } catch (e) {
+      if (e instanceof ZipLimitError) throw new ParseError(e.message);
+      throw e;
+    }
     const wb = new ExcelJS.Workbook();
-    try { await wb.xlsx.load(bytes as unknown as ArrayBuffer); }
-    catch { throw new ParseError('This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.'); }
+    try {
+      await wb.xlsx.load(bytes as unknown as ArrayBuffer);
+    } catch {
+      throw new ParseError(
+        'This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.',
+      );
+    }
     sheets = wb.worksheets.map(fromWorksheet);
   } else if (lower.endsWith('.csv') || lower.endsWith('.tsv')) {
-    if (isZip || isOle) throw new ParseError('This file is a spreadsheet workbook renamed to .csv. Upload it with its own extension (.xlsx), or save it as CSV.');
+    if (isZip || isOle)
+      throw new ParseError(
+        'This file is a spreadsheet workbook renamed to .csv. Upload it with its own extension (.xlsx), or save it as CSV.',
+      );
     const { text, encoding } = decodeText(bytes);
-    if (text.includes('\u0000')) throw new ParseError('This .csv file holds binary data, not text. Save the line list as CSV (or .xlsx) and upload again.');
+    if (text.includes('\u0000'))
+      throw new ParseError(
+        'This .csv file holds binary data, not text. Save the line list as CSV (or .xlsx) and upload again.',
+      );
     let read: ReturnType<typeof fromCsv>;
-    try { read = fromCsv(text); }
-    catch (e) {
+    try {
+      read = fromCsv(text);
+    } catch (e) {
       if (e instanceof CsvLimitError) {
-        throw new ParseError(e.kind === 'columns'
-          ? `This CSV file has ${e.count.toLocaleString('en')} fields in row ${e.row}; the limit is ${MAX_COLUMNS} columns. Delete the unused columns on the right (or check the field separator) and upload again.`
-          : `This CSV file has more than ${MAX_ROWS.toLocaleString('en')} rows with data (row ${e.row.toLocaleString('en')} is past the limit); the limit is ${MAX_ROWS.toLocaleString('en')} rows. Split the line list into files of at most that many rows.`);
+        throw new ParseError(
+          e.kind === 'columns'
+            ? `This CSV file has ${e.count.toLocaleString('en')} fields in row ${e.row}; the limit is ${MAX_COLUMNS} columns. Delete the unused columns on the right (or check the field separator) and upload again.`
+            : `This CSV file has more than ${MAX_ROWS.toLocaleString('en')} rows with data (row ${e.row.toLocaleString('en')} is past the limit); the limit is ${MAX_ROWS.toLocaleString('en')} rows. Split the line list into files of at most that many rows.`,
+        );
       }
-      if (e instanceof CsvQuoteError) throw new ParseError(`This CSV file could not be read: a quoted field in row ${e.row} is not closed, so the rest of the file would run into one cell. Check the quotes in that row and upload again.`);
+      if (e instanceof CsvQuoteError)
+        throw new ParseError(
+          `This CSV file could not be read: a quoted field in row ${e.row} is not closed, so the rest of the file would run into one cell. Check the quotes in that row and upload again.`,
+        );
       throw e;
     }
     sheets = [read.sheet];
     csv = { encoding, delimiter: read.delimiter };
   } else if (lower.endsWith('.xls')) {
-    throw new ParseError('Old .xls workbooks are not read. Save the file as .xlsx (or CSV UTF-8) and upload again.');
+    throw new ParseError(
+      'Old .xls workbooks are not read. Save the file as .xlsx (or CSV UTF-8) and upload again.',
+    );
   } else {
     throw new ParseError('Upload the line list as an .xlsx workbook or a .csv file.');
   }
-  if (sheets.length === 0 || sheets.every((s) => s.grid.length === 0)) throw new ParseError('The file has no sheet with data.');
-  for (const s of sheets) if (s.grid.length > MAX_ROWS) throw new ParseError(`Sheet "${s.name}" has ${s.grid.length.toLocaleString('en')} rows; the limit is ${MAX_ROWS.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`);
+  if (sheets.length === 0 || sheets.every((s) => s.grid.length === 0))
+    throw new ParseError('The file has no sheet with data.');
+  for (const s of sheets)
+    if (s.grid.length > MAX_ROWS)
+      throw new ParseError(
+        `Sheet "${s.name}" has ${s.grid.length.toLocaleString('en')} rows; the limit is ${MAX_ROWS.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`,
+      );
   return { kind: csv.encoding ? 'csv' : 'xlsx', sheets, ...csv };
 }

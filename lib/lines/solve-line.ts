@@ -1,7 +1,13 @@
 import { createHash } from 'node:crypto';
 import {
-  CALCULATION_VERSION, barGaugeToMPaAbs, recommendLine, seriesOf,
-  type Criteria, type LineCase, type MaterialSystem, type Recommendation,
+  CALCULATION_VERSION,
+  barGaugeToMPaAbs,
+  recommendLine,
+  seriesOf,
+  type Criteria,
+  type LineCase,
+  type MaterialSystem,
+  type Recommendation,
 } from '@/lib/thermal';
 import type { DesignBasis } from './design-basis';
 import { isSurfaceGeometry } from './fields';
@@ -9,17 +15,28 @@ import { catalogueOf } from './catalogue';
 import type { LineInput } from './validate';
 
 /** The material system the design basis gives a line (by its normal temperature), with any jacket override (library or the project's own). */
-export function systemForLine(basis: DesignBasis, line: Pick<LineInput, 'normalTempC' | 'jacketId'> & Partial<Pick<LineInput, 'geometry'>>, cache = new Map<string, MaterialSystem>()): MaterialSystem {
-  const band = basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ?? basis.systems[basis.systems.length - 1];
+export function systemForLine(
+  basis: DesignBasis,
+  line: Pick<LineInput, 'normalTempC' | 'jacketId'> & Partial<Pick<LineInput, 'geometry'>>,
+  cache = new Map<string, MaterialSystem>(),
+): MaterialSystem {
+  const band =
+    basis.systems.find((s) => line.normalTempC >= s.fromC && line.normalTempC < s.toC) ??
+    basis.systems[basis.systems.length - 1];
   const cat = catalogueOf(basis);
-  const jacket = (line.jacketId && cat.jackets.has(line.jacketId)) ? line.jacketId : band.jacketId;
+  const jacket = line.jacketId && cat.jackets.has(line.jacketId) ? line.jacketId : band.jacketId;
   // Vessels and flat surfaces take the band's blanket or board when it names one.
-  const outerId = line.geometry && isSurfaceGeometry(line.geometry) && band.flatOuterId ? band.flatOuterId : band.outerId;
+  const outerId =
+    line.geometry && isSurfaceGeometry(line.geometry) && band.flatOuterId ? band.flatOuterId : band.outerId;
   const key = `${outerId}|${band.innerId ?? ''}|${jacket}|${basis.thicknessSeries}`;
   let s = cache.get(key);
   if (!s) {
     const outer = cat.materials.get(outerId)!;
-    s = { outer, inner: band.innerId ? cat.materials.get(band.innerId) : undefined, jacket: cat.jackets.get(jacket)! };
+    s = {
+      outer,
+      inner: band.innerId ? cat.materials.get(band.innerId) : undefined,
+      jacket: cat.jackets.get(jacket)!,
+    };
     if (basis.thicknessSeries === 'inch' && outer.inchSeries) s.series = seriesOf(outer, 'inch');
     cache.set(key, s);
   }
@@ -33,7 +50,9 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
       heatLoss: basis.conditions.heatLoss[side],
       personnel: basis.conditions.personnel[side],
       condensation: basis.conditions.condensation[side],
-      freeze: outdoor ? basis.conditions.freeze : { airC: Math.max(basis.conditions.freeze.airC, 5), windMs: 0 },
+      freeze: outdoor
+        ? basis.conditions.freeze
+        : { airC: Math.max(basis.conditions.freeze.airC, 5), windMs: 0 },
     },
     touchLimitMetalC: basis.touchLimitMetalC,
     touchLimitNonMetalC: basis.touchLimitNonMetalC,
@@ -58,27 +77,68 @@ export function vesselDiameterM(areaM2: number, heightM: number): number {
 
 export function lineCaseFor(l: LineInput): LineCase {
   const base = {
-    normalTempC: l.normalTempC, maxTempC: l.maxTempC ?? undefined, purposes: l.purposes, accessible: l.accessible,
-    steamPressureMPaAbs: l.steamPressureBarG !== null && l.steamPressureBarG !== undefined && l.steamPressureBarG >= 0 ? barGaugeToMPaAbs(l.steamPressureBarG) : undefined,
-    massFlowKgPerS: l.flowKgPerS ?? undefined, fluidCpJPerKgK: l.fluidCpKJPerKgK ? l.fluidCpKJPerKgK * 1000 : undefined,
+    normalTempC: l.normalTempC,
+    maxTempC: l.maxTempC ?? undefined,
+    purposes: l.purposes,
+    accessible: l.accessible,
+    steamPressureMPaAbs:
+      l.steamPressureBarG !== null && l.steamPressureBarG !== undefined && l.steamPressureBarG >= 0
+        ? barGaugeToMPaAbs(l.steamPressureBarG)
+        : undefined,
+    massFlowKgPerS: l.flowKgPerS ?? undefined,
+    fluidCpJPerKgK: l.fluidCpKJPerKgK ? l.fluidCpKJPerKgK * 1000 : undefined,
   };
   if (l.geometry === 'vessel') {
-    const H = l.heightM ?? 1, A = l.surfaceAreaM2 ?? 1;
-    return { ...base, geometry: 'vessel', pipeOuterDiameterMm: vesselDiameterM(A, H) * 1000, heightM: H, areaM2: A };
+    const H = l.heightM ?? 1,
+      A = l.surfaceAreaM2 ?? 1;
+    return {
+      ...base,
+      geometry: 'vessel',
+      pipeOuterDiameterMm: vesselDiameterM(A, H) * 1000,
+      heightM: H,
+      areaM2: A,
+    };
   }
-  if (l.geometry === 'flat') return { ...base, geometry: 'vertical-wall', heightM: l.heightM ?? 2, areaM2: l.surfaceAreaM2 ?? 1 };
+  if (l.geometry === 'flat')
+    return { ...base, geometry: 'vertical-wall', heightM: l.heightM ?? 2, areaM2: l.surfaceAreaM2 ?? 1 };
   const counted = l.elbows + l.tees + l.valves + l.flanges > 0;
   return {
-    ...base, geometry: l.geometry, pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined, heightM: l.heightM ?? 6, lengthM: l.lengthM ?? 1,
+    ...base,
+    geometry: l.geometry,
+    pipeOuterDiameterMm: l.outsideDiameterMm ?? undefined,
+    heightM: l.heightM ?? 6,
+    lengthM: l.lengthM ?? 1,
     // The line's own fitting counts price its fittings item by item (else an allowance).
-    fittings: counted ? { elbows: l.elbows, tees: l.tees, valves: l.valves, flangePairs: l.flanges } : undefined,
+    fittings: counted
+      ? { elbows: l.elbows, tees: l.tees, valves: l.valves, flangePairs: l.flanges }
+      : undefined,
   };
 }
 
 /** Hash of everything the answer depends on: calculation version, design basis (or its JSON, when hashing many lines) and the line's inputs. */
 export function inputHash(basis: DesignBasis | string, l: LineInput): string {
-  const relevant = [CALCULATION_VERSION, l.geometry, l.outsideDiameterMm, l.lengthM, l.surfaceAreaM2, l.heightM, l.normalTempC, l.maxTempC, l.steamPressureBarG, l.flowKgPerS, l.fluidCpKJPerKgK, [...l.purposes].sort(), l.outdoor, l.accessible, l.jacketId];
-  return createHash('sha1').update(typeof basis === 'string' ? basis : JSON.stringify(basis)).update(JSON.stringify(relevant)).digest('hex').slice(0, 20);
+  const relevant = [
+    CALCULATION_VERSION,
+    l.geometry,
+    l.outsideDiameterMm,
+    l.lengthM,
+    l.surfaceAreaM2,
+    l.heightM,
+    l.normalTempC,
+    l.maxTempC,
+    l.steamPressureBarG,
+    l.flowKgPerS,
+    l.fluidCpKJPerKgK,
+    [...l.purposes].sort(),
+    l.outdoor,
+    l.accessible,
+    l.jacketId,
+  ];
+  return createHash('sha1')
+    .update(typeof basis === 'string' ? basis : JSON.stringify(basis))
+    .update(JSON.stringify(relevant))
+    .digest('hex')
+    .slice(0, 20);
 }
 
 export interface SolvedLine {
@@ -90,12 +150,16 @@ export interface SolvedLine {
   perUnit: 'W/m' | 'W/m²';
 }
 
-export function solveLine(basis: DesignBasis, l: LineInput, systems?: Map<string, MaterialSystem>): SolvedLine {
+export function solveLine(
+  basis: DesignBasis,
+  l: LineInput,
+  systems?: Map<string, MaterialSystem>,
+): SolvedLine {
   const system = systemForLine(basis, l, systems);
   const c = lineCaseFor(l);
   const r = recommendLine(c, system, criteriaFor(basis, l.outdoor));
   const areal = isSurfaceGeometry(l.geometry);
-  const extent = areal ? c.areaM2 ?? 1 : c.lengthM ?? 1;
+  const extent = areal ? (c.areaM2 ?? 1) : (c.lengthM ?? 1);
   const chosen = r.candidates.find((x) => x.totalMm === r.recommendedMm);
   return {
     recommendation: r,

@@ -16,7 +16,11 @@ function currentProvenance<V>(basisRevision: number, inputVersion: V) {
 type Provenance = ReturnType<typeof currentProvenance<number>>;
 const KEYS = Object.keys(currentProvenance(0, 0)) as (keyof Provenance)[];
 
-export function isResultStale(result: Provenance | null | undefined, line: { inputVersion: number }, basisRevision: number): boolean {
+export function isResultStale(
+  result: Provenance | null | undefined,
+  line: { inputVersion: number },
+  basisRevision: number,
+): boolean {
   if (!result) return true;
   const cur = currentProvenance(basisRevision, line.inputVersion);
   return KEYS.some((k) => result[k] !== cur[k]);
@@ -25,12 +29,22 @@ export function isResultStale(result: Provenance | null | undefined, line: { inp
 /** The same rule over `lines` left-joined with `line_results`. */
 export function staleSql(basisRevision: number): SQL<boolean> {
   const cur = currentProvenance(basisRevision, lines.inputVersion);
-  return sql<boolean>`(${lineResults.lineId} is null or ${sql.join(KEYS.map((k) => sql`${lineResults[k]} <> ${cur[k]}`), sql` or `)})`;
+  return sql<boolean>`(${lineResults.lineId} is null or ${sql.join(
+    KEYS.map((k) => sql`${lineResults[k]} <> ${cur[k]}`),
+    sql` or `,
+  )})`;
 }
 
 /** The design basis' revision as stored (1 before the first save, as `getDesignBasis` answers). */
-export async function basisRevisionOf(exec: Tx | typeof db, projectId: string, lock?: 'share'): Promise<number> {
-  const q = exec.select({ revision: designBases.revision }).from(designBases).where(eq(designBases.projectId, projectId));
+export async function basisRevisionOf(
+  exec: Tx | typeof db,
+  projectId: string,
+  lock?: 'share',
+): Promise<number> {
+  const q = exec
+    .select({ revision: designBases.revision })
+    .from(designBases)
+    .where(eq(designBases.projectId, projectId));
   const [row] = lock ? await q.for(lock) : await q;
   return row?.revision ?? 1;
 }
@@ -44,7 +58,8 @@ export function lineFilterSql(projectId: string, f: LineFilter, basisRevision: n
   if (f.q) where.push(or(ilike(lines.tag, `%${f.q}%`), ilike(lines.service, `%${f.q}%`))!);
   if (f.area) where.push(eq(lines.area, f.area));
   if (f.status === 'stale') where.push(staleSql(basisRevision));
-  if (f.status === 'flagged') where.push(sql`(${lineDesigns.belowCriterion} is not null or cardinality(${lineResults.unmet}) > 0)`);
+  if (f.status === 'flagged')
+    where.push(sql`(${lineDesigns.belowCriterion} is not null or cardinality(${lineResults.unmet}) > 0)`);
   if (f.status === 'overridden') where.push(eq(lineDesigns.source, 'manual'));
   if (f.status === 'undecided') where.push(sql`${lineDesigns.lineId} is null`);
   if (f.status === 'redecide') where.push(eq(lineDesigns.needsRedecision, true));

@@ -4,11 +4,26 @@
  */
 import { and, asc, count, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
 import { db, type Tx } from '@/db/client';
-import { columnMappings, designBases, importDrafts, lineDesigns, lineListRevisions, lineResults, lines, type Line } from '@/db/schema';
+import {
+  columnMappings,
+  designBases,
+  importDrafts,
+  lineDesigns,
+  lineListRevisions,
+  lineResults,
+  lines,
+  type Line,
+} from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { CALCULATION_VERSION, HARD_CRITERIA, type MaterialSystem } from '@/lib/thermal';
 import { actorName, writeAudit } from '@/lib/audit';
-import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis, type OwnJacket, type OwnMaterial } from './design-basis';
+import {
+  DEFAULT_DESIGN_BASIS,
+  designBasisSchema,
+  type DesignBasis,
+  type OwnJacket,
+  type OwnMaterial,
+} from './design-basis';
 import { catalogueOf, ownId } from './catalogue';
 import { diffLineLists, fieldChanges, THERMAL_FIELDS, type LineListDiff } from './diff';
 import { suggestMapping, type ColumnMapping } from './mapping';
@@ -20,18 +35,30 @@ import { isResultStale, lineFilterSql, staleSql } from './stale';
 import type { CandidateRow } from './deciding';
 import type { LineFilter } from './filter';
 
-export { acceptRecommendations, applyBulkAccept, previewBulkAccept, undoBulkAccept, type BulkItem, type BulkPreview } from './bulk-accept';
+export {
+  acceptRecommendations,
+  applyBulkAccept,
+  previewBulkAccept,
+  undoBulkAccept,
+  type BulkItem,
+  type BulkPreview,
+} from './bulk-accept';
 
 // ---------- design basis ----------
 
 /** The system as built: only the materials of the layers actually chosen (inner first); the outer material when bare. */
 function systemLabelOf(system: MaterialSystem, layers: { materialId: string }[]): string {
   const ids = [...new Set(layers.map((l) => l.materialId))];
-  const name = (id: string) => (id === system.inner?.id ? system.inner.name : id === system.outer.id ? system.outer.name : id);
+  const name = (id: string) =>
+    id === system.inner?.id ? system.inner.name : id === system.outer.id ? system.outer.name : id;
   return ids.length ? ids.map(name).join(' + ') : system.outer.name;
 }
 
-export async function getDesignBasis({ projectId }: { projectId: string }): Promise<{ basis: DesignBasis; revision: number }> {
+export async function getDesignBasis({
+  projectId,
+}: {
+  projectId: string;
+}): Promise<{ basis: DesignBasis; revision: number }> {
   const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
   if (row) return { basis: designBasisSchema.parse(row.basis), revision: row.revision };
   await db.insert(designBases).values({ projectId, basis: DEFAULT_DESIGN_BASIS }).onConflictDoNothing();
@@ -42,37 +69,87 @@ export async function getDesignBasis({ projectId }: { projectId: string }): Prom
  * Runs `fn` in a transaction holding the project's design-basis row locked, with the stored basis
  * (the default row is created first when the project has none). Every basis write goes through it.
  */
-async function withLockedBasis<T>(projectId: string, fn: (tx: Tx, row: { revision: number }, current: DesignBasis) => Promise<T>): Promise<T> {
+async function withLockedBasis<T>(
+  projectId: string,
+  fn: (tx: Tx, row: { revision: number }, current: DesignBasis) => Promise<T>,
+): Promise<T> {
   await getDesignBasis({ projectId });
   return db.transaction(async (tx) => {
-    const [row] = await tx.select().from(designBases).where(eq(designBases.projectId, projectId)).for('update');
+    const [row] = await tx
+      .select()
+      .from(designBases)
+      .where(eq(designBases.projectId, projectId))
+      .for('update');
     return fn(tx, row, designBasisSchema.parse(row.basis));
   });
 }
 
 /** Writes the basis in the locked transaction, bumping the revision when `bump`; returns the new revision. */
 async function writeBasis(tx: Tx, projectId: string, userId: string, basis: DesignBasis, bump: boolean) {
-  const [saved] = await tx.update(designBases).set({ basis, revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`, updatedBy: userId, updatedAt: new Date() })
-    .where(eq(designBases.projectId, projectId)).returning();
+  const [saved] = await tx
+    .update(designBases)
+    .set({
+      basis,
+      revision: bump ? sql`${designBases.revision} + 1` : sql`${designBases.revision}`,
+      updatedBy: userId,
+      updatedAt: new Date(),
+    })
+    .where(eq(designBases.projectId, projectId))
+    .returning();
   return saved.revision;
 }
 
-export async function saveDesignBasis({ projectId, userId, basis }: { projectId: string; userId: string; basis: DesignBasis }) {
+export async function saveDesignBasis({
+  projectId,
+  userId,
+  basis,
+}: {
+  projectId: string;
+  userId: string;
+  basis: DesignBasis;
+}) {
   // jsonb does not keep key order, so compare with sorted keys.
-  const canon = (v: unknown): unknown => (Array.isArray(v) ? v.map(canon) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canon((v as Record<string, unknown>)[k])])) : v);
+  const canon = (v: unknown): unknown =>
+    Array.isArray(v)
+      ? v.map(canon)
+      : v && typeof v === 'object'
+        ? Object.fromEntries(
+            Object.keys(v)
+              .sort()
+              .map((k) => [k, canon((v as Record<string, unknown>)[k])]),
+          )
+        : v;
   const json = (v: unknown) => JSON.stringify(canon(v));
   return withLockedBasis(projectId, async (tx, row, current) => {
     // What changed, by section; the display unit system and the currency label change no result, so
     // they alone keep the revision (nothing goes stale).
-    const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])]
-      .filter((k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]));
+    const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])].filter(
+      (k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]),
+    );
     if (!changed.length) return { revision: row.revision };
-    const revision = await writeBasis(tx, projectId, userId, basis, changed.some((k) => k !== 'unitSystem' && k !== 'currency'));
-    await writeAudit(tx, [{
-      projectId, actorId: userId, actorName: await actorName(userId), action: 'design basis saved',
-      before: { revision: row.revision, ...Object.fromEntries(changed.map((k) => [k, (current as Record<string, unknown>)[k]])) },
-      after: { revision, ...Object.fromEntries(changed.map((k) => [k, (basis as Record<string, unknown>)[k]])) },
-    }]);
+    const revision = await writeBasis(
+      tx,
+      projectId,
+      userId,
+      basis,
+      changed.some((k) => k !== 'unitSystem' && k !== 'currency'),
+    );
+    await writeAudit(tx, [
+      {
+        projectId,
+        actorId: userId,
+        actorName: await actorName(userId),
+        action: 'design basis saved',
+        before: {
+          revision: row.revision,
+          ...Object.fromEntries(changed.map((k) => [k, (current as Record<string, unknown>)[k]])),
+        },
+        after: {
+          revision,
+          ...Object.fromEntries(changed.map((k) => [k, (basis as Record<string, unknown>)[k]])),
+        },
+      },
+    ]);
     return { revision };
   });
 }
@@ -84,77 +161,191 @@ export async function saveDesignBasis({ projectId, userId, basis }: { projectId:
  * with an audit entry. `change` returns the new basis (reading in the same transaction) or throws an
  * AppError with the reason.
  */
-async function changeBasis(o: { projectId: string; userId: string; action: string; after: unknown }, change: (b: DesignBasis, tx: Tx) => DesignBasis | Promise<DesignBasis>) {
+async function changeBasis(
+  o: { projectId: string; userId: string; action: string; after: unknown },
+  change: (b: DesignBasis, tx: Tx) => DesignBasis | Promise<DesignBasis>,
+) {
   return withLockedBasis(o.projectId, async (tx, _row, current) => {
     const next = designBasisSchema.safeParse(await change(current, tx));
     if (!next.success) throw new AppError('invalid', next.error.issues.map((i) => i.message).join('; '));
     const revision = await writeBasis(tx, o.projectId, o.userId, next.data, true);
-    await writeAudit(tx, [{ projectId: o.projectId, actorId: o.userId, actorName: await actorName(o.userId), action: o.action, after: o.after }]);
+    await writeAudit(tx, [
+      {
+        projectId: o.projectId,
+        actorId: o.userId,
+        actorName: await actorName(o.userId),
+        action: o.action,
+        after: o.after,
+      },
+    ]);
     return { revision, basis: next.data };
   });
 }
 
-export async function addOwnMaterial(o: { projectId: string; userId: string; material: Omit<OwnMaterial, 'id'>; pricePerM3?: number }) {
+export async function addOwnMaterial(o: {
+  projectId: string;
+  userId: string;
+  material: Omit<OwnMaterial, 'id'>;
+  pricePerM3?: number;
+}) {
   let id = '';
-  const r = await changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material added', after: { name: o.material.name, source: o.material.source } }, (b) => {
-    if (b.ownMaterials.some((m) => m.name.toLowerCase() === o.material.name.toLowerCase())) throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
-    id = ownId(b, o.material.name);
-    const prices = o.pricePerM3 === undefined ? b.prices : { ...b.prices, materialPerM3: { ...b.prices.materialPerM3, [id]: o.pricePerM3 } };
-    return { ...b, ownMaterials: [...b.ownMaterials, { ...o.material, id }], prices };
-  });
+  const r = await changeBasis(
+    {
+      projectId: o.projectId,
+      userId: o.userId,
+      action: 'project material added',
+      after: { name: o.material.name, source: o.material.source },
+    },
+    (b) => {
+      if (b.ownMaterials.some((m) => m.name.toLowerCase() === o.material.name.toLowerCase()))
+        throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
+      id = ownId(b, o.material.name);
+      const prices =
+        o.pricePerM3 === undefined
+          ? b.prices
+          : { ...b.prices, materialPerM3: { ...b.prices.materialPerM3, [id]: o.pricePerM3 } };
+      return { ...b, ownMaterials: [...b.ownMaterials, { ...o.material, id }], prices };
+    },
+  );
   return { ...r, id };
 }
 
 export async function addOwnJacket(o: { projectId: string; userId: string; jacket: Omit<OwnJacket, 'id'> }) {
   let id = '';
-  const r = await changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project jacket added', after: { name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source } }, (b) => {
-    if (b.ownJackets.some((j) => j.name.toLowerCase() === o.jacket.name.toLowerCase())) throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
-    id = ownId(b, o.jacket.name);
-    return { ...b, ownJackets: [...b.ownJackets, { ...o.jacket, id }] };
-  });
+  const r = await changeBasis(
+    {
+      projectId: o.projectId,
+      userId: o.userId,
+      action: 'project jacket added',
+      after: { name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source },
+    },
+    (b) => {
+      if (b.ownJackets.some((j) => j.name.toLowerCase() === o.jacket.name.toLowerCase()))
+        throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
+      id = ownId(b, o.jacket.name);
+      return { ...b, ownJackets: [...b.ownJackets, { ...o.jacket, id }] };
+    },
+  );
   return { ...r, id };
 }
 
 /** Changes a project material's data in place (same id, so the bands and designs that use it follow). */
-export async function updateOwnMaterial(o: { projectId: string; userId: string; id: string; material: Omit<OwnMaterial, 'id'>; pricePerM3?: number }) {
-  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material changed', after: { id: o.id, name: o.material.name, source: o.material.source } }, (b) => {
-    const i = b.ownMaterials.findIndex((m) => m.id === o.id);
-    if (i < 0) throw new AppError('not_found', 'That project material does not exist (it may have been removed).');
-    if (b.ownMaterials.some((m) => m.id !== o.id && m.name.toLowerCase() === o.material.name.toLowerCase())) throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
-    const materialPerM3 = { ...b.prices.materialPerM3 };
-    if (o.pricePerM3 === undefined) delete materialPerM3[o.id]; else materialPerM3[o.id] = o.pricePerM3;
-    const ownMaterials = b.ownMaterials.map((m, j) => (j === i ? { ...o.material, id: o.id } : m));
-    return { ...b, ownMaterials, prices: { ...b.prices, materialPerM3 } };
-  });
+export async function updateOwnMaterial(o: {
+  projectId: string;
+  userId: string;
+  id: string;
+  material: Omit<OwnMaterial, 'id'>;
+  pricePerM3?: number;
+}) {
+  return changeBasis(
+    {
+      projectId: o.projectId,
+      userId: o.userId,
+      action: 'project material changed',
+      after: { id: o.id, name: o.material.name, source: o.material.source },
+    },
+    (b) => {
+      const i = b.ownMaterials.findIndex((m) => m.id === o.id);
+      if (i < 0)
+        throw new AppError('not_found', 'That project material does not exist (it may have been removed).');
+      if (b.ownMaterials.some((m) => m.id !== o.id && m.name.toLowerCase() === o.material.name.toLowerCase()))
+        throw new AppError('conflict', `The project already has a material called "${o.material.name}".`);
+      const materialPerM3 = { ...b.prices.materialPerM3 };
+      if (o.pricePerM3 === undefined) delete materialPerM3[o.id];
+      else materialPerM3[o.id] = o.pricePerM3;
+      const ownMaterials = b.ownMaterials.map((m, j) => (j === i ? { ...o.material, id: o.id } : m));
+      return { ...b, ownMaterials, prices: { ...b.prices, materialPerM3 } };
+    },
+  );
 }
 
 /** Changes a project jacket in place. */
-export async function updateOwnJacket(o: { projectId: string; userId: string; id: string; jacket: Omit<OwnJacket, 'id'> }) {
-  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project jacket changed', after: { id: o.id, name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source } }, (b) => {
-    const i = b.ownJackets.findIndex((j) => j.id === o.id);
-    if (i < 0) throw new AppError('not_found', 'That project jacket does not exist (it may have been removed).');
-    if (b.ownJackets.some((j) => j.id !== o.id && j.name.toLowerCase() === o.jacket.name.toLowerCase())) throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
-    return { ...b, ownJackets: b.ownJackets.map((j, k) => (k === i ? { ...o.jacket, id: o.id } : j)) };
-  });
+export async function updateOwnJacket(o: {
+  projectId: string;
+  userId: string;
+  id: string;
+  jacket: Omit<OwnJacket, 'id'>;
+}) {
+  return changeBasis(
+    {
+      projectId: o.projectId,
+      userId: o.userId,
+      action: 'project jacket changed',
+      after: { id: o.id, name: o.jacket.name, emittance: o.jacket.emittance, source: o.jacket.source },
+    },
+    (b) => {
+      const i = b.ownJackets.findIndex((j) => j.id === o.id);
+      if (i < 0)
+        throw new AppError('not_found', 'That project jacket does not exist (it may have been removed).');
+      if (b.ownJackets.some((j) => j.id !== o.id && j.name.toLowerCase() === o.jacket.name.toLowerCase()))
+        throw new AppError('conflict', `The project already has a jacket called "${o.jacket.name}".`);
+      return { ...b, ownJackets: b.ownJackets.map((j, k) => (k === i ? { ...o.jacket, id: o.id } : j)) };
+    },
+  );
 }
 
 /** Removes a project entry; refused while a material band, a line's jacket or a chosen design uses it. */
 export async function removeOwnEntry(o: { projectId: string; userId: string; id: string }) {
-  return changeBasis({ projectId: o.projectId, userId: o.userId, action: 'project material or jacket removed', after: { id: o.id } }, async (b, tx) => {
-    const cat = catalogueOf(b);
-    const name = cat.own.has(o.id) ? (cat.materials.get(o.id) ?? cat.jackets.get(o.id))!.name : null;
-    if (!name) throw new AppError('not_found', 'That project material or jacket does not exist (it may have been removed already).');
-    const bands = b.systems.map((s, i) => (s.outerId === o.id || s.innerId === o.id || s.flatOuterId === o.id || s.jacketId === o.id ? i + 1 : 0)).filter(Boolean);
-    if (bands.length) throw new AppError('conflict', `"${name}" is used by material band ${bands.join(', ')} of the specification; choose another there first.`);
-    const [{ n: designs }] = await tx.select({ n: count() }).from(lineDesigns)
-      .where(and(eq(lineDesigns.projectId, o.projectId), sql`${lineDesigns.layers} @> ${JSON.stringify([{ materialId: o.id }])}::jsonb`));
-    if (designs > 0) throw new AppError('conflict', `"${name}" is in ${designs} chosen line design${designs === 1 ? '' : 's'}; choose those thicknesses again before removing it.`);
-    const [{ n: overrides }] = await tx.select({ n: count() }).from(lines).where(and(eq(lines.projectId, o.projectId), eq(lines.jacketId, o.id)));
-    if (overrides > 0) throw new AppError('conflict', `"${name}" is the jacket override of ${overrides} line${overrides === 1 ? '' : 's'} in the line list.`);
-    const materialPerM3 = { ...b.prices.materialPerM3 };
-    delete materialPerM3[o.id];
-    return { ...b, ownMaterials: b.ownMaterials.filter((m) => m.id !== o.id), ownJackets: b.ownJackets.filter((j) => j.id !== o.id), prices: { ...b.prices, materialPerM3 } };
-  });
+  return changeBasis(
+    {
+      projectId: o.projectId,
+      userId: o.userId,
+      action: 'project material or jacket removed',
+      after: { id: o.id },
+    },
+    async (b, tx) => {
+      const cat = catalogueOf(b);
+      const name = cat.own.has(o.id) ? (cat.materials.get(o.id) ?? cat.jackets.get(o.id))!.name : null;
+      if (!name)
+        throw new AppError(
+          'not_found',
+          'That project material or jacket does not exist (it may have been removed already).',
+        );
+      const bands = b.systems
+        .map((s, i) =>
+          s.outerId === o.id || s.innerId === o.id || s.flatOuterId === o.id || s.jacketId === o.id
+            ? i + 1
+            : 0,
+        )
+        .filter(Boolean);
+      if (bands.length)
+        throw new AppError(
+          'conflict',
+          `"${name}" is used by material band ${bands.join(', ')} of the specification; choose another there first.`,
+        );
+      const [{ n: designs }] = await tx
+        .select({ n: count() })
+        .from(lineDesigns)
+        .where(
+          and(
+            eq(lineDesigns.projectId, o.projectId),
+            sql`${lineDesigns.layers} @> ${JSON.stringify([{ materialId: o.id }])}::jsonb`,
+          ),
+        );
+      if (designs > 0)
+        throw new AppError(
+          'conflict',
+          `"${name}" is in ${designs} chosen line design${designs === 1 ? '' : 's'}; choose those thicknesses again before removing it.`,
+        );
+      const [{ n: overrides }] = await tx
+        .select({ n: count() })
+        .from(lines)
+        .where(and(eq(lines.projectId, o.projectId), eq(lines.jacketId, o.id)));
+      if (overrides > 0)
+        throw new AppError(
+          'conflict',
+          `"${name}" is the jacket override of ${overrides} line${overrides === 1 ? '' : 's'} in the line list.`,
+        );
+      const materialPerM3 = { ...b.prices.materialPerM3 };
+      delete materialPerM3[o.id];
+      return {
+        ...b,
+        ownMaterials: b.ownMaterials.filter((m) => m.id !== o.id),
+        ownJackets: b.ownJackets.filter((j) => j.id !== o.id),
+        prices: { ...b.prices, materialPerM3 },
+      };
+    },
+  );
 }
 
 // ---------- upload, mapping, preview, import ----------
@@ -162,7 +353,10 @@ export async function removeOwnEntry(o: { projectId: string; userId: string; id:
 /** Jacket ids and names (lower case) → id, for reading a line list's jacket column. */
 async function jacketNames(projectId: string) {
   const m = new Map<string, string>();
-  for (const j of catalogueOf((await getDesignBasis({ projectId })).basis).jackets.values()) { m.set(j.id, j.id); m.set(j.name.toLowerCase(), j.id); }
+  for (const j of catalogueOf((await getDesignBasis({ projectId })).basis).jackets.values()) {
+    m.set(j.id, j.id);
+    m.set(j.name.toLowerCase(), j.id);
+  }
   return m;
 }
 
@@ -193,38 +387,85 @@ export interface DraftSummary {
   remembered: { headers: string[]; mapping: ColumnMapping } | null;
 }
 
-export async function createDraft({ projectId, userId, fileName, bytes }: { projectId: string; userId: string; fileName: string; bytes: Buffer }): Promise<DraftSummary> {
+export async function createDraft({
+  projectId,
+  userId,
+  fileName,
+  bytes,
+}: {
+  projectId: string;
+  userId: string;
+  fileName: string;
+  bytes: Buffer;
+}): Promise<DraftSummary> {
   let parsed: ParsedFile;
-  try { parsed = await parseUpload(fileName, bytes); }
-  catch (e) { if (e instanceof ParseError) throw new AppError('invalid', e.message, { file: [e.message] }); throw e; }
+  try {
+    parsed = await parseUpload(fileName, bytes);
+  } catch (e) {
+    if (e instanceof ParseError) throw new AppError('invalid', e.message, { file: [e.message] });
+    throw e;
+  }
   const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
-  const mem = remembered ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping } : undefined;
-  const [draft] = await db.insert(importDrafts).values({ projectId, createdBy: userId, fileName, parsed }).returning({ id: importDrafts.id });
+  const mem = remembered
+    ? { headers: remembered.headers as string[], mapping: remembered.mapping as ColumnMapping }
+    : undefined;
+  const [draft] = await db
+    .insert(importDrafts)
+    .values({ projectId, createdBy: userId, fileName, parsed })
+    .returning({ id: importDrafts.id });
   const sheets = parsed.sheets.map((stored): DraftSheet => {
     const s = viewSheet(stored);
     return {
-      name: s.name, hidden: s.hidden, headerRow: s.headerRow, headers: s.headers, rowCount: s.rows.length,
-      topRows: stored.grid.slice(0, HEADER_SCAN_ROWS + 1), gridRows: stored.grid.length, suggested: suggestMapping(s.headers, mem),
+      name: s.name,
+      hidden: s.hidden,
+      headerRow: s.headerRow,
+      headers: s.headers,
+      rowCount: s.rows.length,
+      topRows: stored.grid.slice(0, HEADER_SCAN_ROWS + 1),
+      gridRows: stored.grid.length,
+      suggested: suggestMapping(s.headers, mem),
     };
   });
   const visible = sheets.find((s) => !s.hidden && s.rowCount > 0) ?? sheets[0];
-  return { draftId: draft.id, fileName, sheets, defaultSheet: visible.name, readAs: describeCsv(parsed), remembered: mem ?? null };
+  return {
+    draftId: draft.id,
+    fileName,
+    sheets,
+    defaultSheet: visible.name,
+    readAs: describeCsv(parsed),
+    remembered: mem ?? null,
+  };
 }
 
 async function loadDraft(projectId: string, draftId: string) {
-  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(draftId)) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
-  const [d] = await db.select().from(importDrafts).where(and(eq(importDrafts.id, draftId), eq(importDrafts.projectId, projectId)));
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(draftId))
+    throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
+  const [d] = await db
+    .select()
+    .from(importDrafts)
+    .where(and(eq(importDrafts.id, draftId), eq(importDrafts.projectId, projectId)));
   if (!d) throw new AppError('not_found', 'This upload is no longer available; upload the file again.');
   return d;
 }
 
 /** The sheet seen from the chosen header row (the detected one when none is given). */
 function sheetOf(parsed: ParsedFile, sheetName: string, headerRow?: number) {
-  if (!Array.isArray(parsed?.sheets) || parsed.sheets.some((x) => !Array.isArray(x.grid))) throw new AppError('not_found', 'This upload was read by an earlier version of Lagwise; upload the file again.');
+  if (!Array.isArray(parsed?.sheets) || parsed.sheets.some((x) => !Array.isArray(x.grid)))
+    throw new AppError(
+      'not_found',
+      'This upload was read by an earlier version of Lagwise; upload the file again.',
+    );
   const s = parsed.sheets.find((x) => x.name === sheetName);
-  if (!s) throw new AppError('invalid', `The workbook has no sheet "${sheetName}".`, { sheet: ['Choose one of the workbook\'s sheets.'] });
+  if (!s)
+    throw new AppError('invalid', `The workbook has no sheet "${sheetName}".`, {
+      sheet: ["Choose one of the workbook's sheets."],
+    });
   if (headerRow !== undefined && !s.grid.some((r) => r.row === headerRow)) {
-    throw new AppError('invalid', `Row ${headerRow} of sheet "${sheetName}" is empty or beyond its end; choose a row with the column names as the header row.`, { headerRow: ['Choose a row with the column names.'] });
+    throw new AppError(
+      'invalid',
+      `Row ${headerRow} of sheet "${sheetName}" is empty or beyond its end; choose a row with the column names as the header row.`,
+      { headerRow: ['Choose a row with the column names.'] },
+    );
   }
   return viewSheet(s, headerRow);
 }
@@ -232,29 +473,78 @@ function sheetOf(parsed: ParsedFile, sheetName: string, headerRow?: number) {
 /** A stored line as the engine's and the diff's input. */
 export function inputOf(l: Line): LineInput {
   return {
-    tag: l.tag, service: l.service, area: l.area, geometry: l.geometry, nps: l.nps, outsideDiameterMm: l.outsideDiameterMm, lengthM: l.lengthM,
-    surfaceAreaM2: l.surfaceAreaM2, heightM: l.heightM, normalTempC: l.normalTempC, maxTempC: l.maxTempC, steamPressureBarG: l.steamPressureBarG,
-    flowKgPerS: l.flowKgPerS, fluidCpKJPerKgK: l.fluidCpKJPerKgK, elbows: l.elbows, tees: l.tees, valves: l.valves, flanges: l.flanges,
-    purposes: l.purposes as LineInput['purposes'], outdoor: l.outdoor, accessible: l.accessible, accessHeightM: l.accessHeightM, jacketId: l.jacketId, notes: l.notes,
+    tag: l.tag,
+    service: l.service,
+    area: l.area,
+    geometry: l.geometry,
+    nps: l.nps,
+    outsideDiameterMm: l.outsideDiameterMm,
+    lengthM: l.lengthM,
+    surfaceAreaM2: l.surfaceAreaM2,
+    heightM: l.heightM,
+    normalTempC: l.normalTempC,
+    maxTempC: l.maxTempC,
+    steamPressureBarG: l.steamPressureBarG,
+    flowKgPerS: l.flowKgPerS,
+    fluidCpKJPerKgK: l.fluidCpKJPerKgK,
+    elbows: l.elbows,
+    tees: l.tees,
+    valves: l.valves,
+    flanges: l.flanges,
+    purposes: l.purposes as LineInput['purposes'],
+    outdoor: l.outdoor,
+    accessible: l.accessible,
+    accessHeightM: l.accessHeightM,
+    jacketId: l.jacketId,
+    notes: l.notes,
   };
 }
 
 export interface Preview {
-  issues: RowIssue[]; errorCount: number; warningCount: number; lineCount: number; diff: LineListDiff; previousRevision: number;
+  issues: RowIssue[];
+  errorCount: number;
+  warningCount: number;
+  lineCount: number;
+  diff: LineListDiff;
+  previousRevision: number;
   /** Values the file uses that need an answer in the mapping step. */
   unknownValues: UnknownValue[];
 }
 
-export interface DraftChoice { projectId: string; draftId: string; sheetName: string; headerRow?: number; mapping: ColumnMapping }
+export interface DraftChoice {
+  projectId: string;
+  draftId: string;
+  sheetName: string;
+  headerRow?: number;
+  mapping: ColumnMapping;
+}
 
-export async function previewDraft({ projectId, draftId, sheetName, headerRow, mapping }: DraftChoice): Promise<Preview> {
+export async function previewDraft({
+  projectId,
+  draftId,
+  sheetName,
+  headerRow,
+  mapping,
+}: DraftChoice): Promise<Preview> {
   const d = await loadDraft(projectId, draftId);
-  const v = validateSheet(sheetOf(d.parsed as ParsedFile, sheetName, headerRow), mapping, await jacketNames(projectId));
+  const v = validateSheet(
+    sheetOf(d.parsed as ParsedFile, sheetName, headerRow),
+    mapping,
+    await jacketNames(projectId),
+  );
   const current = await db.select().from(lines).where(eq(lines.projectId, projectId));
-  const [rev] = await db.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+  const [rev] = await db
+    .select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` })
+    .from(lineListRevisions)
+    .where(eq(lineListRevisions.projectId, projectId));
   return {
-    issues: v.issues, errorCount: v.errorCount, warningCount: v.warningCount, lineCount: v.lines.length, diff: diffLineLists(current.map(inputOf), v.lines),
-    previousRevision: Number(rev.n), unknownValues: v.unknownValues,
+    issues: v.issues,
+    errorCount: v.errorCount,
+    warningCount: v.warningCount,
+    lineCount: v.lines.length,
+    diff: diffLineLists(current.map(inputOf), v.lines),
+    previousRevision: Number(rev.n),
+    unknownValues: v.unknownValues,
   };
 }
 
@@ -266,61 +556,153 @@ const CHUNK = 1000;
  * is marked for re-decision with the reason.
  */
 /** Imports a validated draft. Inside `tx` (the import + solve job) it is a savepoint of that transaction. */
-export async function commitDraft({ projectId, draftId, sheetName, headerRow, mapping, userId, tx: outer }: DraftChoice & { userId: string; tx?: Tx }) {
+export async function commitDraft({
+  projectId,
+  draftId,
+  sheetName,
+  headerRow,
+  mapping,
+  userId,
+  tx: outer,
+}: DraftChoice & { userId: string; tx?: Tx }) {
   const d = await loadDraft(projectId, draftId);
-  if (d.importedRevision) throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
+  if (d.importedRevision)
+    throw new AppError('conflict', `This upload was already imported as revision ${d.importedRevision}.`);
   const sheet = sheetOf(d.parsed as ParsedFile, sheetName, headerRow);
   const v = validateSheet(sheet, mapping, await jacketNames(projectId));
   if (v.errorCount > 0) {
-    const first = v.issues.filter((i) => i.severity === 'error').slice(0, 5).map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);
-    throw new AppError('invalid', `Nothing was imported: ${v.errorCount} problem${v.errorCount === 1 ? '' : 's'} to fix first (${first.join('; ')}${v.errorCount > 5 ? '; …' : ''}).`);
+    const first = v.issues
+      .filter((i) => i.severity === 'error')
+      .slice(0, 5)
+      .map((i) => `row ${i.row}${i.column ? `, column ${i.column}` : ''}: ${i.message}`);
+    throw new AppError(
+      'invalid',
+      `Nothing was imported: ${v.errorCount} problem${v.errorCount === 1 ? '' : 's'} to fix first (${first.join('; ')}${v.errorCount > 5 ? '; …' : ''}).`,
+    );
   }
   return (outer ?? db).transaction(async (tx) => {
     // Serialise imports of one project.
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${projectId}))`);
     const current = await tx.select().from(lines).where(eq(lines.projectId, projectId));
     const byTag = new Map(current.map((l) => [l.tag.toUpperCase(), l]));
-    const [rev] = await tx.select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+    const [rev] = await tx
+      .select({ n: sql<number>`coalesce(max(${lineListRevisions.number}), 0)` })
+      .from(lineListRevisions)
+      .where(eq(lineListRevisions.projectId, projectId));
     const number = Number(rev.n) + 1;
     const diff = diffLineLists(current.map(inputOf), v.lines);
 
     const rows = v.lines.map((l) => {
       const old = byTag.get(l.tag.toUpperCase());
-      const thermal = old ? fieldChanges(inputOf(old), l).filter((c) => THERMAL_FIELDS.includes(c.field)) : [];
+      const thermal = old
+        ? fieldChanges(inputOf(old), l).filter((c) => THERMAL_FIELDS.includes(c.field))
+        : [];
       const { sourceRow: _row, ...input } = l;
       void _row;
-      return { ...input, projectId, revision: number, inputVersion: old ? old.inputVersion + (thermal.length ? 1 : 0) : 1, _thermal: thermal, _old: old };
+      return {
+        ...input,
+        projectId,
+        revision: number,
+        inputVersion: old ? old.inputVersion + (thermal.length ? 1 : 0) : 1,
+        _thermal: thermal,
+        _old: old,
+      };
     });
     for (let i = 0; i < rows.length; i += CHUNK) {
-      const chunk = rows.slice(i, i + CHUNK).map(({ _thermal, _old, ...r }) => { void _thermal; void _old; return r; });
-      await tx.insert(lines).values(chunk).onConflictDoUpdate({
-        target: [lines.projectId, lines.tag],
-        set: Object.fromEntries(['service', 'area', 'geometry', 'nps', 'outside_diameter_mm', 'length_m', 'surface_area_m2', 'height_m', 'normal_temp_c', 'max_temp_c',
-          'steam_pressure_bar_g', 'flow_kg_per_s', 'fluid_cp_kj_per_kg_k', 'elbows', 'tees', 'valves', 'flanges', 'purposes', 'outdoor', 'accessible', 'access_height_m',
-          'jacket_id', 'notes', 'input_version', 'revision'].map((c) => [camel(c), sql.raw(`excluded.${c}`)])),
+      const chunk = rows.slice(i, i + CHUNK).map(({ _thermal, _old, ...r }) => {
+        void _thermal;
+        void _old;
+        return r;
       });
+      await tx
+        .insert(lines)
+        .values(chunk)
+        .onConflictDoUpdate({
+          target: [lines.projectId, lines.tag],
+          set: Object.fromEntries(
+            [
+              'service',
+              'area',
+              'geometry',
+              'nps',
+              'outside_diameter_mm',
+              'length_m',
+              'surface_area_m2',
+              'height_m',
+              'normal_temp_c',
+              'max_temp_c',
+              'steam_pressure_bar_g',
+              'flow_kg_per_s',
+              'fluid_cp_kj_per_kg_k',
+              'elbows',
+              'tees',
+              'valves',
+              'flanges',
+              'purposes',
+              'outdoor',
+              'accessible',
+              'access_height_m',
+              'jacket_id',
+              'notes',
+              'input_version',
+              'revision',
+            ].map((c) => [camel(c), sql.raw(`excluded.${c}`)]),
+          ),
+        });
     }
-    const removedIds = current.filter((l) => diff.removed.some((t) => t.toUpperCase() === l.tag.toUpperCase())).map((l) => l.id);
-    for (let i = 0; i < removedIds.length; i += CHUNK) await tx.delete(lines).where(inArray(lines.id, removedIds.slice(i, i + CHUNK)));
+    const removedIds = current
+      .filter((l) => diff.removed.some((t) => t.toUpperCase() === l.tag.toUpperCase()))
+      .map((l) => l.id);
+    for (let i = 0; i < removedIds.length; i += CHUNK)
+      await tx.delete(lines).where(inArray(lines.id, removedIds.slice(i, i + CHUNK)));
     // Decisions on lines whose thermal inputs changed must be taken again.
-    const changedIds = rows.filter((r) => r._old && r._thermal.length).map((r) => ({ id: r._old!.id, why: r._thermal.map((c) => c.field).join(', ') }));
+    const changedIds = rows
+      .filter((r) => r._old && r._thermal.length)
+      .map((r) => ({ id: r._old!.id, why: r._thermal.map((c) => c.field).join(', ') }));
     for (const c of changedIds) {
-      await tx.update(lineDesigns).set({ needsRedecision: true, redecisionReason: `Revision ${number} changed ${c.why}` }).where(eq(lineDesigns.lineId, c.id));
+      await tx
+        .update(lineDesigns)
+        .set({ needsRedecision: true, redecisionReason: `Revision ${number} changed ${c.why}` })
+        .where(eq(lineDesigns.lineId, c.id));
     }
-    await tx.insert(lineListRevisions).values({ projectId, number, fileName: d.fileName, sheetName, lineCount: v.lines.length, diff, createdBy: userId });
-    await tx.insert(columnMappings).values({ projectId, headers: sheet.headers, mapping }).onConflictDoUpdate({ target: columnMappings.projectId, set: { headers: sheet.headers, mapping, updatedAt: new Date() } });
+    await tx
+      .insert(lineListRevisions)
+      .values({
+        projectId,
+        number,
+        fileName: d.fileName,
+        sheetName,
+        lineCount: v.lines.length,
+        diff,
+        createdBy: userId,
+      });
+    await tx
+      .insert(columnMappings)
+      .values({ projectId, headers: sheet.headers, mapping })
+      .onConflictDoUpdate({
+        target: columnMappings.projectId,
+        set: { headers: sheet.headers, mapping, updatedAt: new Date() },
+      });
     await tx.update(importDrafts).set({ importedRevision: number }).where(eq(importDrafts.id, draftId));
     return { revision: number, diff, lineCount: v.lines.length, warningCount: v.warningCount };
   });
 }
 
-function camel(snake: string) { return snake.replace(/_([a-z0-9])/g, (_, c) => c.toUpperCase()); }
+function camel(snake: string) {
+  return snake.replace(/_([a-z0-9])/g, (_, c) => c.toUpperCase());
+}
 
 // ---------- solve ----------
 
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
-export async function solveProject({ projectId, all = false, tx: outer, onProgress }: {
-  projectId: string; all?: boolean;
+export async function solveProject({
+  projectId,
+  all = false,
+  tx: outer,
+  onProgress,
+}: {
+  projectId: string;
+  all?: boolean;
   /** The import + solve job's transaction: the new lines and their results become visible together. */
   tx?: Tx;
   /** Called after each chunk is solved and written (lines done, lines to do). */
@@ -328,7 +710,10 @@ export async function solveProject({ projectId, all = false, tx: outer, onProgre
 }) {
   const { basis, revision } = await getDesignBasis({ projectId });
   const staleCond = all ? sql`true` : staleSql(revision);
-  const todo = await (outer ?? db).select({ line: lines }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+  const todo = await (outer ?? db)
+    .select({ line: lines })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
   const systems = new Map<string, MaterialSystem>();
   const basisJson = JSON.stringify(basis); // hashed with every line: serialised once
@@ -339,16 +724,50 @@ export async function solveProject({ projectId, all = false, tx: outer, onProgre
     const r = s.recommendation;
     const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
     return {
-      lineId: line.id, projectId, calcVersion: CALCULATION_VERSION, basisRevision: revision, inputVersion: line.inputVersion, inputHash: inputHash(basisJson, input),
-      recommendedMm: r.recommendedMm, governing: r.governing, layers: r.layers, systemLabel: systemLabelOf(s.system, r.layers), jacketId: s.system.jacket.id,
-      outcomes: r.outcomes, unmet: r.unmet, warnings: r.warnings,
+      lineId: line.id,
+      projectId,
+      calcVersion: CALCULATION_VERSION,
+      basisRevision: revision,
+      inputVersion: line.inputVersion,
+      inputHash: inputHash(basisJson, input),
+      recommendedMm: r.recommendedMm,
+      governing: r.governing,
+      layers: r.layers,
+      systemLabel: systemLabelOf(s.system, r.layers),
+      jacketId: s.system.jacket.id,
+      outcomes: r.outcomes,
+      unmet: r.unmet,
+      warnings: r.warnings,
       // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
       // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
-      candidates: r.candidates.map((c) => [c.totalMm, c.layers.map((l) => [l.materialId, l.thicknessMm]), round(c.heatLoss.heatFlow, 6), round(c.heatLoss.surfaceC, 2), c.personnel ? round(c.personnel.surfaceC, 2) : null, c.annualCost === undefined ? null : round(c.annualCost, 3), c.serviceLimitOk, c.condensation ? round(c.condensation.surfaceC, 2) : null]),
-      design: r.design ? { profileC: r.design.profileC, overall: r.design.overall, convective: r.design.convectiveWPerM2K, radiative: r.design.radiativeWPerM2K } : null,
-      heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null, totalHeatW: s.totalHeatW, bareHeatW: s.bareHeatW, surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
-      personnelSurfaceC: chosen?.personnel?.surfaceC ?? null, annualMWh: r.annual?.energyMWh ?? null, annualCost: r.annual?.cost ?? null, co2Tonnes: r.annual?.co2Tonnes ?? null,
-      condensateKgPerH: r.condensateKgPerHour ?? null, solvedAt: new Date(),
+      candidates: r.candidates.map((c) => [
+        c.totalMm,
+        c.layers.map((l) => [l.materialId, l.thicknessMm]),
+        round(c.heatLoss.heatFlow, 6),
+        round(c.heatLoss.surfaceC, 2),
+        c.personnel ? round(c.personnel.surfaceC, 2) : null,
+        c.annualCost === undefined ? null : round(c.annualCost, 3),
+        c.serviceLimitOk,
+        c.condensation ? round(c.condensation.surfaceC, 2) : null,
+      ]),
+      design: r.design
+        ? {
+            profileC: r.design.profileC,
+            overall: r.design.overall,
+            convective: r.design.convectiveWPerM2K,
+            radiative: r.design.radiativeWPerM2K,
+          }
+        : null,
+      heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null,
+      totalHeatW: s.totalHeatW,
+      bareHeatW: s.bareHeatW,
+      surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
+      personnelSurfaceC: chosen?.personnel?.surfaceC ?? null,
+      annualMWh: r.annual?.energyMWh ?? null,
+      annualCost: r.annual?.cost ?? null,
+      co2Tonnes: r.annual?.co2Tonnes ?? null,
+      condensateKgPerH: r.condensateKgPerHour ?? null,
+      solvedAt: new Date(),
     };
   };
   // Solved and written a chunk at a time, so only one chunk of results is held in memory.
@@ -357,10 +776,20 @@ export async function solveProject({ projectId, all = false, tx: outer, onProgre
       const t0 = Date.now();
       const results = todo.slice(i, i + SOLVE_CHUNK).map(shape);
       solveMs += Date.now() - t0;
-      await tx.insert(lineResults).values(results).onConflictDoUpdate({
-        target: lineResults.lineId,
-        set: Object.fromEntries(Object.keys(results[0]).filter((k) => k !== 'lineId').map((k) => [k, sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`)])),
-      });
+      await tx
+        .insert(lineResults)
+        .values(results)
+        .onConflictDoUpdate({
+          target: lineResults.lineId,
+          set: Object.fromEntries(
+            Object.keys(results[0])
+              .filter((k) => k !== 'lineId')
+              .map((k) => [
+                k,
+                sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`),
+              ]),
+          ),
+        });
       if (onProgress) await onProgress(Math.min(todo.length, i + SOLVE_CHUNK), todo.length);
     }
   });
@@ -374,48 +803,110 @@ const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
 
 // ---------- reading ----------
 
-export type LineSort = 'tag' | 'area' | 'normalTempC' | 'outsideDiameterMm' | 'recommendedMm' | 'heatFlowPerUnit' | 'surfaceTempC' | 'governing';
-export interface LineQuery extends LineFilter { projectId: string; page: number; size: number; sort: LineSort; dir: 'asc' | 'desc' }
+export type LineSort =
+  | 'tag'
+  | 'area'
+  | 'normalTempC'
+  | 'outsideDiameterMm'
+  | 'recommendedMm'
+  | 'heatFlowPerUnit'
+  | 'surfaceTempC'
+  | 'governing';
+export interface LineQuery extends LineFilter {
+  projectId: string;
+  page: number;
+  size: number;
+  sort: LineSort;
+  dir: 'asc' | 'desc';
+}
 
 export async function listLines(o: LineQuery) {
   const { revision } = await getDesignBasis({ projectId: o.projectId });
   const stale = staleSql(revision);
   const where = [lineFilterSql(o.projectId, o, revision)];
   const sortCol = {
-    tag: lines.tag, area: lines.area, normalTempC: lines.normalTempC, outsideDiameterMm: lines.outsideDiameterMm,
-    recommendedMm: lineResults.recommendedMm, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC, governing: lineResults.governing,
+    tag: lines.tag,
+    area: lines.area,
+    normalTempC: lines.normalTempC,
+    outsideDiameterMm: lines.outsideDiameterMm,
+    recommendedMm: lineResults.recommendedMm,
+    heatFlowPerUnit: lineResults.heatFlowPerUnit,
+    surfaceTempC: lineResults.surfaceTempC,
+    governing: lineResults.governing,
   }[o.sort];
   // Only the columns the table shows: the candidate table (the bulk of a result) is read by
   // lib/lines/picker.ts when a picker opens.
-  const base = db.select({
-    id: lines.id, tag: lines.tag, service: lines.service, area: lines.area, geometry: lines.geometry, nps: lines.nps, outsideDiameterMm: lines.outsideDiameterMm,
-    normalTempC: lines.normalTempC,
-    recommendedMm: lineResults.recommendedMm, governing: lineResults.governing, heatFlowPerUnit: lineResults.heatFlowPerUnit, surfaceTempC: lineResults.surfaceTempC,
-    unmet: lineResults.unmet, solved: sql<boolean>`${lineResults.lineId} is not null`, jacketId: lineResults.jacketId,
-    // The facts that decide which limits apply, and the one candidate at the chosen (or else the
-    // recommended) thickness for the worst-margin column; the full candidate table stays in the
-    // database until a picker asks for it.
-    outdoor: lines.outdoor, accessible: lines.accessible, maxTempC: lines.maxTempC, purposes: lines.purposes,
-    shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, 'strict $[*] ? (@[0] == $mm)', jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
-    chosenMm: lineDesigns.thicknessMm, source: lineDesigns.source, belowCriterion: lineDesigns.belowCriterion, needsRedecision: lineDesigns.needsRedecision, designVersion: lineDesigns.version,
-    stale,
-  }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where));
+  const base = db
+    .select({
+      id: lines.id,
+      tag: lines.tag,
+      service: lines.service,
+      area: lines.area,
+      geometry: lines.geometry,
+      nps: lines.nps,
+      outsideDiameterMm: lines.outsideDiameterMm,
+      normalTempC: lines.normalTempC,
+      recommendedMm: lineResults.recommendedMm,
+      governing: lineResults.governing,
+      heatFlowPerUnit: lineResults.heatFlowPerUnit,
+      surfaceTempC: lineResults.surfaceTempC,
+      unmet: lineResults.unmet,
+      solved: sql<boolean>`${lineResults.lineId} is not null`,
+      jacketId: lineResults.jacketId,
+      // The facts that decide which limits apply, and the one candidate at the chosen (or else the
+      // recommended) thickness for the worst-margin column; the full candidate table stays in the
+      // database until a picker asks for it.
+      outdoor: lines.outdoor,
+      accessible: lines.accessible,
+      maxTempC: lines.maxTempC,
+      purposes: lines.purposes,
+      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, 'strict $[*] ? (@[0] == $mm)', jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+      chosenMm: lineDesigns.thicknessMm,
+      source: lineDesigns.source,
+      belowCriterion: lineDesigns.belowCriterion,
+      needsRedecision: lineDesigns.needsRedecision,
+      designVersion: lineDesigns.version,
+      stale,
+    })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(and(...where));
   const [rows, [{ total }]] = await Promise.all([
-    base.orderBy(o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`, asc(lines.tag)).limit(o.size).offset(o.page * o.size),
-    db.select({ total: count() }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id)).where(and(...where)),
+    base
+      .orderBy(
+        o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
+        asc(lines.tag),
+      )
+      .limit(o.size)
+      .offset(o.page * o.size),
+    db
+      .select({ total: count() })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(and(...where)),
   ]);
   return { rows, total, page: o.page, size: o.size };
 }
 
 export async function listAreas({ projectId }: { projectId: string }) {
-  const r = await db.selectDistinct({ area: lines.area }).from(lines).where(eq(lines.projectId, projectId)).orderBy(asc(lines.area));
+  const r = await db
+    .selectDistinct({ area: lines.area })
+    .from(lines)
+    .where(eq(lines.projectId, projectId))
+    .orderBy(asc(lines.area));
   return r.map((x) => x.area);
 }
 
 export async function getLine({ projectId, lineId }: { projectId: string; lineId: string }) {
-  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(lineId)) throw new AppError('not_found');
-  const [row] = await db.select({ line: lines, result: lineResults, design: lineDesigns }).from(lines)
-    .leftJoin(lineResults, eq(lineResults.lineId, lines.id)).leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(lineId))
+    throw new AppError('not_found');
+  const [row] = await db
+    .select({ line: lines, result: lineResults, design: lineDesigns })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
     .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));
   if (!row) throw new AppError('not_found');
   const { revision } = await getDesignBasis({ projectId });
@@ -424,7 +915,11 @@ export async function getLine({ projectId, lineId }: { projectId: string; lineId
 }
 
 export async function listRevisions({ projectId }: { projectId: string }) {
-  return db.select().from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId)).orderBy(desc(lineListRevisions.number));
+  return db
+    .select()
+    .from(lineListRevisions)
+    .where(eq(lineListRevisions.projectId, projectId))
+    .orderBy(desc(lineListRevisions.number));
 }
 
 // ---------- design picks ----------
@@ -435,32 +930,89 @@ const HARD: ReadonlySet<string> = HARD_CRITERIA;
  * Saves the chosen thickness for a line. `expectedVersion` is the design version the user saw
  * (0 when there was none); a different stored version means someone else saved first.
  */
-export async function pickDesign(o: { projectId: string; lineId: string; userId: string; thicknessMm: number; reason?: string; expectedVersion: number }) {
+export async function pickDesign(o: {
+  projectId: string;
+  lineId: string;
+  userId: string;
+  thicknessMm: number;
+  reason?: string;
+  expectedVersion: number;
+}) {
   return db.transaction(async (tx) => {
-    const [row] = await tx.select({ line: lines, result: lineResults }).from(lines).leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-      .where(and(eq(lines.id, o.lineId), eq(lines.projectId, o.projectId))).for('update', { of: lines });
+    const [row] = await tx
+      .select({ line: lines, result: lineResults })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .where(and(eq(lines.id, o.lineId), eq(lines.projectId, o.projectId)))
+      .for('update', { of: lines });
     if (!row) throw new AppError('not_found');
     if (!row.result) throw new AppError('conflict', 'Solve the line before choosing its thickness.');
     const cand = (row.result.candidates as CandidateRow[]).find((c) => c[0] === o.thicknessMm);
-    if (!cand) throw new AppError('invalid', `${o.thicknessMm} mm is not a candidate of this line's material system.`, { thicknessMm: ['Choose one of the candidate thicknesses.'] });
-    const below = (row.result.outcomes as { id: string; requiredMm: number | null }[]).filter((x) => HARD.has(x.id) && x.requiredMm !== null && o.thicknessMm < x.requiredMm!).map((x) => x.id);
+    if (!cand)
+      throw new AppError(
+        'invalid',
+        `${o.thicknessMm} mm is not a candidate of this line's material system.`,
+        { thicknessMm: ['Choose one of the candidate thicknesses.'] },
+      );
+    const below = (row.result.outcomes as { id: string; requiredMm: number | null }[])
+      .filter((x) => HARD.has(x.id) && x.requiredMm !== null && o.thicknessMm < x.requiredMm!)
+      .map((x) => x.id);
     const manual = o.thicknessMm !== row.result.recommendedMm;
-    if (below.length && !o.reason?.trim()) throw new AppError('invalid', `This thickness is below what ${below.join(' and ')} requires; give a reason to keep it.`, { reason: ['A reason is required for a pick below a hard criterion.'] });
-    if (manual && !o.reason?.trim()) throw new AppError('invalid', 'Give a reason for choosing another thickness than the recommendation.', { reason: ['A reason is required for a manual pick.'] });
-    const [existing] = await tx.select().from(lineDesigns).where(eq(lineDesigns.lineId, o.lineId)).for('update');
-    if ((existing?.version ?? 0) !== o.expectedVersion) throw new AppError('conflict', 'Someone else changed this line\'s design while you were looking at it. Reload to see their choice, then decide again.');
+    if (below.length && !o.reason?.trim())
+      throw new AppError(
+        'invalid',
+        `This thickness is below what ${below.join(' and ')} requires; give a reason to keep it.`,
+        { reason: ['A reason is required for a pick below a hard criterion.'] },
+      );
+    if (manual && !o.reason?.trim())
+      throw new AppError('invalid', 'Give a reason for choosing another thickness than the recommendation.', {
+        reason: ['A reason is required for a manual pick.'],
+      });
+    const [existing] = await tx
+      .select()
+      .from(lineDesigns)
+      .where(eq(lineDesigns.lineId, o.lineId))
+      .for('update');
+    if ((existing?.version ?? 0) !== o.expectedVersion)
+      throw new AppError(
+        'conflict',
+        "Someone else changed this line's design while you were looking at it. Reload to see their choice, then decide again.",
+      );
     const values = {
-      lineId: o.lineId, projectId: o.projectId, thicknessMm: o.thicknessMm, layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
-      source: manual ? 'manual' as const : 'recommended' as const, reason: o.reason?.trim() || null, belowCriterion: below.length ? below.join(',') : null,
-      needsRedecision: false, redecisionReason: null, decidedBy: o.userId, decidedAt: new Date(), version: (existing?.version ?? row.line.lastDesignVersion) + 1,
+      lineId: o.lineId,
+      projectId: o.projectId,
+      thicknessMm: o.thicknessMm,
+      layers: cand[1].map(([materialId, thicknessMm]) => ({ materialId, thicknessMm })),
+      source: manual ? ('manual' as const) : ('recommended' as const),
+      reason: o.reason?.trim() || null,
+      belowCriterion: below.length ? below.join(',') : null,
+      needsRedecision: false,
+      redecisionReason: null,
+      decidedBy: o.userId,
+      decidedAt: new Date(),
+      version: (existing?.version ?? row.line.lastDesignVersion) + 1,
     };
     if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
     else await tx.insert(lineDesigns).values(values);
-    await writeAudit(tx, [{
-      projectId: o.projectId, lineId: o.lineId, tag: row.line.tag, actorId: o.userId, actorName: await actorName(o.userId), action: 'design pick',
-      before: existing ? { thicknessMm: existing.thicknessMm, source: existing.source, reason: existing.reason } : null,
-      after: { thicknessMm: values.thicknessMm, source: values.source, reason: values.reason, belowCriterion: values.belowCriterion },
-    }]);
+    await writeAudit(tx, [
+      {
+        projectId: o.projectId,
+        lineId: o.lineId,
+        tag: row.line.tag,
+        actorId: o.userId,
+        actorName: await actorName(o.userId),
+        action: 'design pick',
+        before: existing
+          ? { thicknessMm: existing.thicknessMm, source: existing.source, reason: existing.reason }
+          : null,
+        after: {
+          thicknessMm: values.thicknessMm,
+          source: values.source,
+          reason: values.reason,
+          belowCriterion: values.belowCriterion,
+        },
+      },
+    ]);
     return { version: values.version, source: values.source, belowCriterion: values.belowCriterion };
   });
 }

@@ -6,7 +6,11 @@
 export type HeadType = 'ellipsoidal' | 'hemispherical' | 'torispherical' | 'flat' | 'cone-roof';
 
 export const HEAD_LABEL: Record<HeadType, string> = {
-  ellipsoidal: '2:1 semi-ellipsoidal', hemispherical: 'Hemispherical', torispherical: 'Torispherical (ASME F&D)', flat: 'Flat', 'cone-roof': 'Cone roof (tank)',
+  ellipsoidal: '2:1 semi-ellipsoidal',
+  hemispherical: 'Hemispherical',
+  torispherical: 'Torispherical (ASME F&D)',
+  flat: 'Flat',
+  'cone-roof': 'Cone roof (tank)',
 };
 
 /**
@@ -16,7 +20,8 @@ export const HEAD_LABEL: Record<HeadType, string> = {
  * Check: D = 1 m → e = 0.8660, A = 0.7854 + 0.1134 · 2.634 = 1.0840 m² [X].
  */
 export function ellipsoidalHeadAreaM2(diameterM: number): number {
-  const a = diameterM / 2, b = diameterM / 4;
+  const a = diameterM / 2,
+    b = diameterM / 4;
   const e = Math.sqrt(1 - (b * b) / (a * a));
   return Math.PI * a * a + ((Math.PI * b * b) / (2 * e)) * Math.log((1 + e) / (1 - e));
 }
@@ -35,7 +40,9 @@ export function hemisphericalHeadAreaM2(diameterM: number): number {
  * Check: D = 1 m → α = 0.4871 rad, A₁ = 0.7308, A₂ = 0.1997, A = 0.9306 m² [X].
  */
 export function torisphericalHeadAreaM2(diameterM: number, crownRatio = 1, knuckleRatio = 0.06): number {
-  const R = crownRatio * diameterM, r = knuckleRatio * diameterM, c = diameterM / 2 - r;
+  const R = crownRatio * diameterM,
+    r = knuckleRatio * diameterM,
+    c = diameterM / 2 - r;
   const alpha = Math.asin(c / (R - r));
   const crown = 2 * Math.PI * R * R * (1 - Math.cos(alpha));
   const knuckle = 2 * Math.PI * r * (c * (Math.PI / 2 - alpha) + r * Math.cos(alpha));
@@ -64,21 +71,48 @@ export function coneRoofAreaM2(diameterM: number, slope = 1 / 16): number {
 export function vesselAreaM2(diameterM: number, shellLengthM: number, head: HeadType): number {
   const shell = Math.PI * diameterM * shellLengthM;
   switch (head) {
-    case 'ellipsoidal': return shell + 2 * ellipsoidalHeadAreaM2(diameterM);
-    case 'hemispherical': return shell + 2 * hemisphericalHeadAreaM2(diameterM);
-    case 'torispherical': return shell + 2 * torisphericalHeadAreaM2(diameterM);
-    case 'flat': return shell + 2 * flatHeadAreaM2(diameterM);
-    case 'cone-roof': return shell + coneRoofAreaM2(diameterM);
+    case 'ellipsoidal':
+      return shell + 2 * ellipsoidalHeadAreaM2(diameterM);
+    case 'hemispherical':
+      return shell + 2 * hemisphericalHeadAreaM2(diameterM);
+    case 'torispherical':
+      return shell + 2 * torisphericalHeadAreaM2(diameterM);
+    case 'flat':
+      return shell + 2 * flatHeadAreaM2(diameterM);
+    case 'cone-roof':
+      return shell + coneRoofAreaM2(diameterM);
   }
 }
 
 /** Head words from equipment lists (English, German, French, Spanish, Dutch); null when not one of ours. */
 export function parseHeadType(v: string): HeadType | null {
-  const s = v.toLowerCase().replace(/ß/g, 'ss').normalize('NFD').replace(/[\u0300-\u036f]/g, '').replace(/[^a-z0-9]+/g, ' ').trim();
-  if (/^(2 1( se| semi ellipsoidal| ellipsoidal| elliptical| ell)?|(semi )?ellipsoidal|se|ell|elliptical|ellipsoid|elliptisch|korbbogen|elliptique|elipsoidal|elliptische?)( heads?)?$/.test(s)) return 'ellipsoidal';
-  if (/^(hemi|hemispherical|hemisphere|hs|halbkugel|hemispherique|semiesferico|halfbolvormig)( heads?)?$/.test(s)) return 'hemispherical';
-  if (/^(tori|torispherical|f ?& ?d|f d|fd|flanged (and|&) dished|klopper|klepper|torispherique|torisferico|torisferisch)( heads?)?$/.test(s)) return 'torispherical';
+  const s = v
+    .toLowerCase()
+    .replace(/ß/g, 'ss')
+    .normalize('NFD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .replace(/[^a-z0-9]+/g, ' ')
+    .trim();
+  if (
+    /^(2 1( se| semi ellipsoidal| ellipsoidal| elliptical| ell)?|(semi )?ellipsoidal|se|ell|elliptical|ellipsoid|elliptisch|korbbogen|elliptique|elipsoidal|elliptische?)( heads?)?$/.test(
+      s,
+    )
+  )
+    return 'ellipsoidal';
+  if (
+    /^(hemi|hemispherical|hemisphere|hs|halbkugel|hemispherique|semiesferico|halfbolvormig)( heads?)?$/.test(
+      s,
+    )
+  )
+    return 'hemispherical';
+  if (
+    /^(tori|torispherical|f ?& ?d|f d|fd|flanged (and|&) dished|klopper|klepper|torispherique|torisferico|torisferisch)( heads?)?$/.test(
+      s,
+    )
+  )
+    return 'torispherical';
   if (/^(flat|plain|flach|plat|plano|vlak|flat plate|flat heads?)( heads?)?$/.test(s)) return 'flat';
-  if (/^(cone|cone roof|conical|conical roof|cr|kegeldach|toit conique|techo conico|kegeldak)$/.test(s)) return 'cone-roof';
+  if (/^(cone|cone roof|conical|conical roof|cr|kegeldach|toit conique|techo conico|kegeldak)$/.test(s))
+    return 'cone-roof';
   return null;
 }

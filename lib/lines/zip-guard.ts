@@ -31,17 +31,29 @@ export const SHEET_LIMITS = {
 
 export class ZipLimitError extends Error {}
 
-interface Entry { name: string; method: number; compressedSize: number; uncompressedSize: number; localHeaderOffset: number }
+interface Entry {
+  name: string;
+  method: number;
+  compressedSize: number;
+  uncompressedSize: number;
+  localHeaderOffset: number;
+}
 
 const MB = (n: number) => `${(n / 1048576).toFixed(0)} MB`;
 
 /** Reads the central directory; throws ZipLimitError with a sentence for the user. */
 export function readZipDirectory(buf: Buffer): Entry[] {
-  const corrupt = () => new ZipLimitError('This .xlsx workbook could not be read: its zip directory is damaged. Save it again as .xlsx and upload it.');
+  const corrupt = () =>
+    new ZipLimitError(
+      'This .xlsx workbook could not be read: its zip directory is damaged. Save it again as .xlsx and upload it.',
+    );
   // End of central directory: 22 bytes plus a comment of up to 65,535 bytes, at the very end.
   let eocd = -1;
   for (let i = buf.length - 22; i >= Math.max(0, buf.length - 22 - 65_535); i--) {
-    if (buf.readUInt32LE(i) === 0x06054b50) { eocd = i; break; }
+    if (buf.readUInt32LE(i) === 0x06054b50) {
+      eocd = i;
+      break;
+    }
   }
   if (eocd < 0) throw corrupt();
   let count = buf.readUInt16LE(eocd + 10);
@@ -58,7 +70,9 @@ export function readZipDirectory(buf: Buffer): Entry[] {
     cdOffset = Number(buf.readBigUInt64LE(z64 + 48));
   }
   if (count > ZIP_LIMITS.maxEntries) {
-    throw new ZipLimitError(`This workbook holds ${count} files inside its zip; the limit is ${ZIP_LIMITS.maxEntries}. Save the line list alone in a new workbook and upload that.`);
+    throw new ZipLimitError(
+      `This workbook holds ${count} files inside its zip; the limit is ${ZIP_LIMITS.maxEntries}. Save the line list alone in a new workbook and upload that.`,
+    );
   }
   if (cdOffset + cdSize > buf.length) throw corrupt();
   const entries: Entry[] = [];
@@ -69,36 +83,59 @@ export function readZipDirectory(buf: Buffer): Entry[] {
     const method = buf.readUInt16LE(p + 10);
     let compressedSize = buf.readUInt32LE(p + 20);
     let uncompressedSize = buf.readUInt32LE(p + 24);
-    const nameLen = buf.readUInt16LE(p + 28), extraLen = buf.readUInt16LE(p + 30), commentLen = buf.readUInt16LE(p + 32);
+    const nameLen = buf.readUInt16LE(p + 28),
+      extraLen = buf.readUInt16LE(p + 30),
+      commentLen = buf.readUInt16LE(p + 32);
     let localHeaderOffset = buf.readUInt32LE(p + 42);
     const name = buf.toString('utf8', p + 46, p + 46 + nameLen);
     // Zip64 extra field (id 1): the 64-bit values, in order, for each 32-bit field set to 0xffffffff.
     let x = p + 46 + nameLen;
     const xEnd = x + extraLen;
     while (x + 4 <= xEnd) {
-      const id = buf.readUInt16LE(x), len = buf.readUInt16LE(x + 2);
+      const id = buf.readUInt16LE(x),
+        len = buf.readUInt16LE(x + 2);
       if (id === 1) {
         let q = x + 4;
-        if (uncompressedSize === 0xffffffff && q + 8 <= x + 4 + len) { uncompressedSize = Number(buf.readBigUInt64LE(q)); q += 8; }
-        if (compressedSize === 0xffffffff && q + 8 <= x + 4 + len) { compressedSize = Number(buf.readBigUInt64LE(q)); q += 8; }
-        if (localHeaderOffset === 0xffffffff && q + 8 <= x + 4 + len) { localHeaderOffset = Number(buf.readBigUInt64LE(q)); q += 8; }
+        if (uncompressedSize === 0xffffffff && q + 8 <= x + 4 + len) {
+          uncompressedSize = Number(buf.readBigUInt64LE(q));
+          q += 8;
+        }
+        if (compressedSize === 0xffffffff && q + 8 <= x + 4 + len) {
+          compressedSize = Number(buf.readBigUInt64LE(q));
+          q += 8;
+        }
+        if (localHeaderOffset === 0xffffffff && q + 8 <= x + 4 + len) {
+          localHeaderOffset = Number(buf.readBigUInt64LE(q));
+          q += 8;
+        }
       }
       x += 4 + len;
     }
     p = xEnd + commentLen;
     if (method !== 0 && method !== 8) {
-      throw new ZipLimitError(`This workbook stores "${name}" with a compression method spreadsheet programs do not use. Save it again as .xlsx and upload it.`);
+      throw new ZipLimitError(
+        `This workbook stores "${name}" with a compression method spreadsheet programs do not use. Save it again as .xlsx and upload it.`,
+      );
     }
     if (localHeaderOffset + 30 + compressedSize > buf.length) throw corrupt();
     if (uncompressedSize > ZIP_LIMITS.maxEntryUncompressedBytes) {
-      throw new ZipLimitError(`This workbook's part "${name}" unpacks to ${MB(uncompressedSize)}; the limit is ${MB(ZIP_LIMITS.maxEntryUncompressedBytes)} per part. Remove unused sheets, images or formatting, or split the line list.`);
+      throw new ZipLimitError(
+        `This workbook's part "${name}" unpacks to ${MB(uncompressedSize)}; the limit is ${MB(ZIP_LIMITS.maxEntryUncompressedBytes)} per part. Remove unused sheets, images or formatting, or split the line list.`,
+      );
     }
-    if (uncompressedSize > 1024 * 1024 && uncompressedSize > ZIP_LIMITS.maxRatio * Math.max(1, compressedSize)) {
-      throw new ZipLimitError(`This workbook's part "${name}" is compressed ${Math.round(uncompressedSize / Math.max(1, compressedSize))} to 1; the limit is ${ZIP_LIMITS.maxRatio} to 1, which real spreadsheets stay far below. The file is refused as a possible zip bomb; save it again as .xlsx from a spreadsheet program.`);
+    if (
+      uncompressedSize > 1024 * 1024 &&
+      uncompressedSize > ZIP_LIMITS.maxRatio * Math.max(1, compressedSize)
+    ) {
+      throw new ZipLimitError(
+        `This workbook's part "${name}" is compressed ${Math.round(uncompressedSize / Math.max(1, compressedSize))} to 1; the limit is ${ZIP_LIMITS.maxRatio} to 1, which real spreadsheets stay far below. The file is refused as a possible zip bomb; save it again as .xlsx from a spreadsheet program.`,
+      );
     }
     total += uncompressedSize;
     if (total > ZIP_LIMITS.maxTotalUncompressedBytes) {
-      throw new ZipLimitError(`This workbook unpacks to more than ${MB(ZIP_LIMITS.maxTotalUncompressedBytes)}, the limit. Remove unused sheets, images or formatting, or split the line list.`);
+      throw new ZipLimitError(
+        `This workbook unpacks to more than ${MB(ZIP_LIMITS.maxTotalUncompressedBytes)}, the limit. Remove unused sheets, images or formatting, or split the line list.`,
+      );
     }
     entries.push({ name, method, compressedSize, uncompressedSize, localHeaderOffset });
   }
@@ -113,7 +150,11 @@ function columnIndex(letters: string): number {
 
 function columnName(n: number): string {
   let s = '';
-  while (n > 0) { const m = (n - 1) % 26; s = String.fromCharCode(65 + m) + s; n = Math.floor((n - 1) / 26); }
+  while (n > 0) {
+    const m = (n - 1) % 26;
+    s = String.fromCharCode(65 + m) + s;
+    n = Math.floor((n - 1) / 26);
+  }
   return s;
 }
 
@@ -130,23 +171,33 @@ class SheetScanner {
   private tail = '';
   private static TOKEN = /<row[\s>/]|<c(?=[\s>/])(?:[^>]*?\sr="([A-Z]{1,4})\d*")?[^>]*>|<v[\s>]|<is[\s>]/g;
 
-  constructor(private readonly sheetName: string, private readonly cellsBefore: () => number) {}
+  constructor(
+    private readonly sheetName: string,
+    private readonly cellsBefore: () => number,
+  ) {}
 
   push(text: string) {
     const s = this.tail + text;
     const cut = s.lastIndexOf('>') + 1;
     this.tail = s.slice(cut);
-    if (this.tail.length > 65_536) throw new ZipLimitError(`Sheet "${this.sheetName}" holds a cell or tag too long to read. Save the workbook again as .xlsx and upload it.`);
+    if (this.tail.length > 65_536)
+      throw new ZipLimitError(
+        `Sheet "${this.sheetName}" holds a cell or tag too long to read. Save the workbook again as .xlsx and upload it.`,
+      );
     this.scan(s.slice(0, cut));
   }
 
-  end() { this.closeRow(); }
+  end() {
+    this.closeRow();
+  }
 
   private closeRow() {
     if (this.rowHasValue) {
       this.rows++;
       if (this.rows > SHEET_LIMITS.maxRows) {
-        throw new ZipLimitError(`Sheet "${this.sheetName}" has more than ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows with data; the limit is ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`);
+        throw new ZipLimitError(
+          `Sheet "${this.sheetName}" has more than ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows with data; the limit is ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`,
+        );
       }
     }
     this.rowHasValue = false;
@@ -167,11 +218,15 @@ class SheetScanner {
         if (this.column > this.maxColumn) {
           this.maxColumn = this.column;
           if (this.maxColumn > SHEET_LIMITS.maxColumns) {
-            throw new ZipLimitError(`Sheet "${this.sheetName}" has data in column ${columnName(this.maxColumn)} (column ${this.maxColumn}); the limit is ${SHEET_LIMITS.maxColumns} columns (up to ${columnName(SHEET_LIMITS.maxColumns)}). Delete the unused columns on the right and upload again.`);
+            throw new ZipLimitError(
+              `Sheet "${this.sheetName}" has data in column ${columnName(this.maxColumn)} (column ${this.maxColumn}); the limit is ${SHEET_LIMITS.maxColumns} columns (up to ${columnName(SHEET_LIMITS.maxColumns)}). Delete the unused columns on the right and upload again.`,
+            );
           }
         }
         if (this.cellsBefore() + this.cells > SHEET_LIMITS.maxCells) {
-          throw new ZipLimitError(`The workbook has more than ${SHEET_LIMITS.maxCells.toLocaleString('en')} cells with data; that is the limit. Remove unused sheets or columns, or split the line list.`);
+          throw new ZipLimitError(
+            `The workbook has more than ${SHEET_LIMITS.maxCells.toLocaleString('en')} cells with data; that is the limit. Remove unused sheets or columns, or split the line list.`,
+          );
         }
       }
     }
@@ -184,23 +239,38 @@ function sheetNames(buf: Buffer, entries: Entry[]): Map<string, string> {
   const wb = entries.find((e) => e.name === 'xl/workbook.xml');
   const rels = entries.find((e) => e.name === 'xl/_rels/workbook.xml.rels');
   if (!wb || !rels) return out;
-  const small = (e: Entry) => (e.uncompressedSize <= 8 * 1024 * 1024 ? inflateWhole(buf, e).toString('utf8') : '');
+  const small = (e: Entry) =>
+    e.uncompressedSize <= 8 * 1024 * 1024 ? inflateWhole(buf, e).toString('utf8') : '';
   const targets = new Map<string, string>();
   for (const m of small(rels).matchAll(/<Relationship\b[^>]*>/g)) {
-    const id = /\sId="([^"]+)"/.exec(m[0])?.[1], target = /\sTarget="([^"]+)"/.exec(m[0])?.[1];
+    const id = /\sId="([^"]+)"/.exec(m[0])?.[1],
+      target = /\sTarget="([^"]+)"/.exec(m[0])?.[1];
     if (id && target) targets.set(id, target.startsWith('/') ? target.slice(1) : `xl/${target}`);
   }
   for (const m of small(wb).matchAll(/<sheet\b[^>]*>/g)) {
-    const name = /\sname="([^"]*)"/.exec(m[0])?.[1], id = /\sr:id="([^"]+)"/.exec(m[0])?.[1];
+    const name = /\sname="([^"]*)"/.exec(m[0])?.[1],
+      id = /\sr:id="([^"]+)"/.exec(m[0])?.[1];
     const part = id ? targets.get(id) : undefined;
-    if (name !== undefined && part) out.set(part, name.replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&apos;/g, "'"));
+    if (name !== undefined && part)
+      out.set(
+        part,
+        name
+          .replace(/&amp;/g, '&')
+          .replace(/&lt;/g, '<')
+          .replace(/&gt;/g, '>')
+          .replace(/&quot;/g, '"')
+          .replace(/&apos;/g, "'"),
+      );
   }
   return out;
 }
 
 function dataOf(buf: Buffer, e: Entry): Buffer {
   const lh = e.localHeaderOffset;
-  if (buf.readUInt32LE(lh) !== 0x04034b50) throw new ZipLimitError('This .xlsx workbook could not be read: its zip directory is damaged. Save it again as .xlsx and upload it.');
+  if (buf.readUInt32LE(lh) !== 0x04034b50)
+    throw new ZipLimitError(
+      'This .xlsx workbook could not be read: its zip directory is damaged. Save it again as .xlsx and upload it.',
+    );
   const start = lh + 30 + buf.readUInt16LE(lh + 26) + buf.readUInt16LE(lh + 28);
   return buf.subarray(start, start + e.compressedSize);
 }
@@ -208,11 +278,17 @@ function dataOf(buf: Buffer, e: Entry): Buffer {
 function inflateWhole(buf: Buffer, e: Entry): Buffer {
   const data = dataOf(buf, e);
   if (e.method === 0) return data;
-  try { return zlib.inflateRawSync(data, { maxOutputLength: Math.max(1, e.uncompressedSize) }); }
-  catch { throw lying(e); }
+  try {
+    return zlib.inflateRawSync(data, { maxOutputLength: Math.max(1, e.uncompressedSize) });
+  } catch {
+    throw lying(e);
+  }
 }
 
-const lying = (e: Entry) => new ZipLimitError(`This workbook's part "${e.name}" unpacks to more than its zip directory declares. The file is refused as a possible zip bomb; save it again as .xlsx from a spreadsheet program.`);
+const lying = (e: Entry) =>
+  new ZipLimitError(
+    `This workbook's part "${e.name}" unpacks to more than its zip directory declares. The file is refused as a possible zip bomb; save it again as .xlsx from a spreadsheet program.`,
+  );
 
 /**
  * Inflates one entry as a stream (zlib's own 16 KB steps), never holding more than a step, counting
@@ -223,7 +299,9 @@ async function streamEntry(buf: Buffer, e: Entry, onText: ((s: string) => void) 
   const decoder = new TextDecoder('utf-8');
   if (e.method === 0) {
     if (data.length !== e.uncompressedSize) throw lying(e);
-    if (onText) for (let i = 0; i < data.length; i += 65_536) onText(decoder.decode(data.subarray(i, i + 65_536), { stream: true }));
+    if (onText)
+      for (let i = 0; i < data.length; i += 65_536)
+        onText(decoder.decode(data.subarray(i, i + 65_536), { stream: true }));
     return;
   }
   const inflate = zlib.createInflateRaw();
@@ -237,12 +315,20 @@ async function streamEntry(buf: Buffer, e: Entry, onText: ((s: string) => void) 
     }
   } catch (err) {
     if (err instanceof ZipLimitError) throw err;
-    throw new ZipLimitError(`This .xlsx workbook could not be read: the part "${e.name}" is damaged. Save it again as .xlsx and upload it.`);
-  } finally { inflate.destroy(); }
+    throw new ZipLimitError(
+      `This .xlsx workbook could not be read: the part "${e.name}" is damaged. Save it again as .xlsx and upload it.`,
+    );
+  } finally {
+    inflate.destroy();
+  }
   if (produced !== e.uncompressedSize) throw lying(e);
 }
 
-export interface ZipCheck { entries: number; uncompressedBytes: number; sheets: { name: string; rows: number; columns: number }[] }
+export interface ZipCheck {
+  entries: number;
+  uncompressedBytes: number;
+  sheets: { name: string; rows: number; columns: number }[];
+}
 
 /** Throws ZipLimitError naming the limit crossed; returns what it counted. */
 export async function checkWorkbookZip(buf: Buffer): Promise<ZipCheck> {
@@ -253,7 +339,10 @@ export async function checkWorkbookZip(buf: Buffer): Promise<ZipCheck> {
   for (const e of entries) {
     if (e.name.endsWith('/')) continue;
     const isSheet = /^xl\/worksheets\/[^/]+\.xml$/.test(e.name);
-    if (!isSheet) { await streamEntry(buf, e, null); continue; }
+    if (!isSheet) {
+      await streamEntry(buf, e, null);
+      continue;
+    }
     const name = names.get(e.name) ?? e.name.replace(/^.*\//, '').replace(/\.xml$/, '');
     const scanner = new SheetScanner(name, () => cells);
     await streamEntry(buf, e, (s) => scanner.push(s));
@@ -261,5 +350,9 @@ export async function checkWorkbookZip(buf: Buffer): Promise<ZipCheck> {
     cells += scanner.cells;
     sheets.push({ name, rows: scanner.rows, columns: scanner.maxColumn });
   }
-  return { entries: entries.length, uncompressedBytes: entries.reduce((a, e) => a + e.uncompressedSize, 0), sheets };
+  return {
+    entries: entries.length,
+    uncompressedBytes: entries.reduce((a, e) => a + e.uncompressedSize, 0),
+    sheets,
+  };
 }

@@ -13,7 +13,13 @@ import { dirname } from 'node:path';
 import { randomUUID } from 'node:crypto';
 
 export interface SinkMessage {
-  id: string; receivedAt: string; from: string; to: string[]; subject: string; text: string; html: string;
+  id: string;
+  receivedAt: string;
+  from: string;
+  to: string[];
+  subject: string;
+  text: string;
+  html: string;
 }
 
 const smtpPort = Number(process.env.MAIL_SINK_SMTP_PORT ?? 2525);
@@ -22,7 +28,10 @@ const file = process.env.MAIL_SINK_FILE ?? '.data/mail/messages.jsonl';
 
 mkdirSync(dirname(file), { recursive: true });
 const messages: SinkMessage[] = existsSync(file)
-  ? readFileSync(file, 'utf8').split('\n').filter(Boolean).map((l) => JSON.parse(l))
+  ? readFileSync(file, 'utf8')
+      .split('\n')
+      .filter(Boolean)
+      .map((l) => JSON.parse(l))
   : [];
 
 const smtp = new SMTPServer({
@@ -52,18 +61,34 @@ const smtp = new SMTPServer({
 
 const http = createServer((req, res) => {
   const url = new URL(req.url ?? '/', 'http://x');
-  if (url.pathname === '/health') { res.end('ok'); return; }
-  if (url.pathname !== '/messages') { res.statusCode = 404; res.end(); return; }
+  if (url.pathname === '/health') {
+    res.end('ok');
+    return;
+  }
+  if (url.pathname !== '/messages') {
+    res.statusCode = 404;
+    res.end();
+    return;
+  }
   if (req.method === 'DELETE') {
-    messages.length = 0; writeFileSync(file, ''); res.statusCode = 204; res.end(); return;
+    messages.length = 0;
+    writeFileSync(file, '');
+    res.statusCode = 204;
+    res.end();
+    return;
   }
   const to = url.searchParams.get('to')?.toLowerCase();
-  const list = messages.filter((m) => !to || m.to.includes(to)).slice().reverse();
+  const list = messages
+    .filter((m) => !to || m.to.includes(to))
+    .slice()
+    .reverse();
   res.setHeader('content-type', 'application/json');
   res.end(JSON.stringify(list));
 });
 
-smtp.on('error', (e) => { console.error('[mail] smtp error', e.message); });
+smtp.on('error', (e) => {
+  console.error('[mail] smtp error', e.message);
+});
 smtp.listen(smtpPort, '127.0.0.1', () => {
   http.listen(httpPort, '127.0.0.1', () => {
     console.error(`[mail] sink: SMTP 127.0.0.1:${smtpPort}, mailbox http://127.0.0.1:${httpPort}/messages`);
@@ -71,5 +96,9 @@ smtp.listen(smtpPort, '127.0.0.1', () => {
 });
 
 for (const sig of ['SIGTERM', 'SIGINT'] as const) {
-  process.on(sig, () => { smtp.close(() => process.exit(0)); http.close(); setTimeout(() => process.exit(0), 500).unref(); });
+  process.on(sig, () => {
+    smtp.close(() => process.exit(0));
+    http.close();
+    setTimeout(() => process.exit(0), 500).unref();
+  });
 }

@@ -4,7 +4,15 @@
  * a warning sign does nothing for a sweating line, and drip protection nothing for a hot one.
  * Pure: the review queue (client) and the store share it.
  */
-export const DISPOSITIONS = ['insulate', 'guard', 'warning-sign', 'not-accessible', 'vapour-retarder-repair', 'drip-protection', 'returned'] as const;
+export const DISPOSITIONS = [
+  'insulate',
+  'guard',
+  'warning-sign',
+  'not-accessible',
+  'vapour-retarder-repair',
+  'drip-protection',
+  'returned',
+] as const;
 export type Disposition = (typeof DISPOSITIONS)[number];
 
 export const DISPOSITION_LABEL: Record<Disposition, string> = {
@@ -23,7 +31,14 @@ export const BURN_DISPOSITIONS: Disposition[] = ['insulate', 'guard', 'warning-s
 export const SWEAT_DISPOSITIONS: Disposition[] = ['insulate', 'vapour-retarder-repair', 'drip-protection'];
 
 /** Dispositions that accept or work around a surface, or return it: each needs a comment saying why or where. */
-export const NEEDS_COMMENT: Disposition[] = ['guard', 'warning-sign', 'not-accessible', 'vapour-retarder-repair', 'drip-protection', 'returned'];
+export const NEEDS_COMMENT: Disposition[] = [
+  'guard',
+  'warning-sign',
+  'not-accessible',
+  'vapour-retarder-repair',
+  'drip-protection',
+  'returned',
+];
 
 /**
  * The dispositions that fit an item with these flag types: the burn list for a hot surface, the sweat
@@ -33,7 +48,9 @@ export const NEEDS_COMMENT: Disposition[] = ['guard', 'warning-sign', 'not-acces
  */
 export function dispositionsFor(flagTypes: readonly string[]): Disposition[] {
   let allowed: Disposition[] | null = null;
-  const meet = (list: Disposition[]) => { allowed = allowed ? allowed.filter((d) => list.includes(d)) : [...list]; };
+  const meet = (list: Disposition[]) => {
+    allowed = allowed ? allowed.filter((d) => list.includes(d)) : [...list];
+  };
   if (flagTypes.includes('hot-surface')) meet(BURN_DISPOSITIONS);
   if (flagTypes.includes('sweating')) meet(SWEAT_DISPOSITIONS);
   return allowed ? [...(allowed as Disposition[]), 'returned'] : [...DISPOSITIONS];

@@ -1,4 +1,14 @@
-import { compileConductivity, condensationControlApplies, condensationLimit, personnelProtectionApplies, solveSteady, solveVessel, type Ambient, type Conductivity, type InsulationMaterial } from '@/lib/thermal';
+import {
+  compileConductivity,
+  condensationControlApplies,
+  condensationLimit,
+  personnelProtectionApplies,
+  solveSteady,
+  solveVessel,
+  type Ambient,
+  type Conductivity,
+  type InsulationMaterial,
+} from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
@@ -13,7 +23,13 @@ export const FLAG_LABEL: Record<FlagType, string> = {
   blocked: 'Missing data blocks a decision',
 };
 
-export interface Flag { type: FlagType; message: string; valueC?: number; limitC?: number; conditions?: string }
+export interface Flag {
+  type: FlagType;
+  message: string;
+  valueC?: number;
+  limitC?: number;
+  conditions?: string;
+}
 
 export interface FlagInput {
   line: LineInput;
@@ -28,7 +44,14 @@ export interface FlagInput {
 
 // Compiled per material object: a project's own entry may be replaced under the same id.
 const conds = new WeakMap<InsulationMaterial, Conductivity>();
-const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compileConductivity(m.conductivity); conds.set(m, c); } return c; };
+const k = (m: InsulationMaterial) => {
+  let c = conds.get(m);
+  if (!c) {
+    c = compileConductivity(m.conductivity);
+    conds.set(m, c);
+  }
+  return c;
+};
 
 /**
  * The flags of one line under the design basis, each with the numbers behind it. Personnel
@@ -39,54 +62,113 @@ const k = (m: InsulationMaterial) => { let c = conds.get(m); if (!c) { c = compi
 export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const flags: Flag[] = [];
   const l = f.line;
-  if (!f.solved || f.stale) flags.push({ type: 'blocked', message: f.solved ? 'Results are stale: solve the line again before deciding.' : 'The line has not been solved.' });
-  if (f.unmet.length) flags.push({ type: 'blocked', message: `No standard thickness meets ${f.unmet.join(', ')}.` });
-  if (f.design?.belowCriterion) flags.push({ type: 'below-criterion', message: `The chosen thickness is below what ${f.design.belowCriterion} requires.` });
+  if (!f.solved || f.stale)
+    flags.push({
+      type: 'blocked',
+      message: f.solved
+        ? 'Results are stale: solve the line again before deciding.'
+        : 'The line has not been solved.',
+    });
+  if (f.unmet.length)
+    flags.push({ type: 'blocked', message: `No standard thickness meets ${f.unmet.join(', ')}.` });
+  if (f.design?.belowCriterion)
+    flags.push({
+      type: 'below-criterion',
+      message: `The chosen thickness is below what ${f.design.belowCriterion} requires.`,
+    });
 
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);
   const missing = (f.design?.layers ?? []).filter((x) => !cat.materials.has(x.materialId));
   if (missing.length) {
-    flags.push({ type: 'blocked', message: `The chosen design uses ${missing.map((x) => x.materialId).join(', ')}, which is no longer in the library or the project's materials: choose the thickness again.` });
+    flags.push({
+      type: 'blocked',
+      message: `The chosen design uses ${missing.map((x) => x.materialId).join(', ')}, which is no longer in the library or the project's materials: choose the thickness again.`,
+    });
     return flags;
   }
   const layers = (f.design?.layers ?? []).map((x) => {
     const m = cat.materials.get(x.materialId)!;
-    return { thicknessM: x.thicknessMm / 1000, conductivity: k(m), name: m.name, minServiceC: m.minServiceC, maxServiceC: m.maxServiceC };
+    return {
+      thicknessM: x.thicknessMm / 1000,
+      conductivity: k(m),
+      name: m.name,
+      minServiceC: m.minServiceC,
+      maxServiceC: m.maxServiceC,
+    };
   });
   const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
   const metal = jacket ? jacket.metal : true;
-  const D = (c.pipeOuterDiameterMm ?? 0) / 1000, H = c.heightM ?? 1;
+  const D = (c.pipeOuterDiameterMm ?? 0) / 1000,
+    H = c.heightM ?? 1;
   /** Outside surface temperature (the worst part of a vessel: shell, top or bottom head) and the solver's warnings. */
   const surface = (processC: number, ambient: Ambient) => {
     if (c.geometry === 'vessel') {
       const v = solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers });
-      return { surfaceC: v.worstSurfaceC, warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])] };
+      return {
+        surfaceC: v.worstSurfaceC,
+        warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])],
+      };
     }
-    return solveSteady({ geometry: c.geometry, pipeOuterDiameterM: D, heightM: H, characteristicLengthM: 1, layers, processC, ambient });
+    return solveSteady({
+      geometry: c.geometry,
+      pipeOuterDiameterM: D,
+      heightM: H,
+      characteristicLengthM: 1,
+      layers,
+      processC,
+      ambient,
+    });
   };
   const hotC = l.maxTempC ?? l.normalTempC;
 
   const pc = crit.conditions.personnel;
   if (personnelProtectionApplies({ accessible: l.accessible, hottestC: hotC }, pc)) {
-    const r = surface(hotC, { airC: pc.airC, surroundingsC: pc.surroundingsC ?? pc.airC, windMs: pc.windMs, emittance });
+    const r = surface(hotC, {
+      airC: pc.airC,
+      surroundingsC: pc.surroundingsC ?? pc.airC,
+      windMs: pc.windMs,
+      emittance,
+    });
     const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
     if (r.surfaceC > limit) {
-      flags.push({ type: 'hot-surface', valueC: r.surfaceC, limitC: limit, conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`, message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.` });
+      flags.push({
+        type: 'hot-surface',
+        valueC: r.surfaceC,
+        limitC: limit,
+        conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`,
+        message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.`,
+      });
     }
     if (r.warnings.some((w) => w.includes('service temperature'))) {
-      flags.push({ type: 'interface-limit', message: r.warnings.filter((w) => w.includes('service temperature')).join('; ') });
+      flags.push({
+        type: 'interface-limit',
+        message: r.warnings.filter((w) => w.includes('service temperature')).join('; '),
+      });
     }
   }
   const cc = crit.conditions.condensation;
-  if (condensationControlApplies({ purposes: l.purposes, coldestC: l.normalTempC }, cc, basis.dewPointMarginK)) {
-    const r = surface(l.normalTempC, { airC: cc.airC, surroundingsC: cc.surroundingsC ?? cc.airC, windMs: cc.windMs, emittance });
+  if (
+    condensationControlApplies({ purposes: l.purposes, coldestC: l.normalTempC }, cc, basis.dewPointMarginK)
+  ) {
+    const r = surface(l.normalTempC, {
+      airC: cc.airC,
+      surroundingsC: cc.surroundingsC ?? cc.airC,
+      windMs: cc.windMs,
+      emittance,
+    });
     const th = condensationLimit(cc, basis.dewPointMarginK);
     const need = th.needC;
     if (r.surfaceC < need) {
-      flags.push({ type: 'sweating', valueC: r.surfaceC, limitC: need, conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`, message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).` });
+      flags.push({
+        type: 'sweating',
+        valueC: r.surfaceC,
+        limitC: need,
+        conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`,
+        message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).`,
+      });
     }
   }
   return flags;

@@ -12,10 +12,16 @@ import { logUnexpected } from '@/lib/log';
 type Ctx<T> = { user: User; input: T };
 type ProjectCtx<T> = Ctx<T> & Awaited<ReturnType<typeof getProjectAccess>>;
 
-function toReply(submission: { reply: (o?: object) => SubmissionResult<string[]> }, e: unknown): SubmissionResult<string[]> {
-  if (isAppError(e)) return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields });
+function toReply(
+  submission: { reply: (o?: object) => SubmissionResult<string[]> },
+  e: unknown,
+): SubmissionResult<string[]> {
+  if (isAppError(e))
+    return submission.reply({ formErrors: e.fields ? [] : [e.message], fieldErrors: e.fields });
   logUnexpected('action', e);
-  return submission.reply({ formErrors: ['Something went wrong on our side. Nothing was saved; try again.'] });
+  return submission.reply({
+    formErrors: ['Something went wrong on our side. Nothing was saved; try again.'],
+  });
 }
 
 /**
@@ -38,7 +44,10 @@ export function formAction<S extends z.ZodType, R>(opts: {
       let ctx: Ctx<z.infer<S>> | ProjectCtx<z.infer<S>> = { user, input: submission.value };
       if (opts.projectIdField) {
         const projectId = String(formData.get(opts.projectIdField) ?? '');
-        ctx = { ...ctx, ...(await getProjectAccess({ userId: user.id, projectId, action: opts.permission })) };
+        ctx = {
+          ...ctx,
+          ...(await getProjectAccess({ userId: user.id, projectId, action: opts.permission })),
+        };
       } else if (opts.permission) {
         throw new AppError('forbidden'); // permission without a scope cannot be decided
       }
@@ -46,19 +55,31 @@ export function formAction<S extends z.ZodType, R>(opts: {
       // conform's reset reply carries no status; the form's success message needs one.
       return { ...submission.reply({ resetForm: true }), status: 'success' as const, data };
     } catch (e) {
-      if (e && typeof e === 'object' && 'digest' in e && String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT')) throw e;
+      if (
+        e &&
+        typeof e === 'object' &&
+        'digest' in e &&
+        String((e as { digest: string }).digest).startsWith('NEXT_REDIRECT')
+      )
+        throw e;
       return toReply(submission, e);
     }
   };
 }
 
-export type ActionResult<R> = { ok: true; data: R } | { ok: false; error: string; fields?: Record<string, string[]> };
+export type ActionResult<R> =
+  | { ok: true; data: R }
+  | { ok: false; error: string; fields?: Record<string, string[]> };
 
 /**
  * The wrapper for JSON-style server actions on a project (not forms): session → project access and
  * role → zod parse → handler. Errors come back as a message (and field messages), never thrown.
  */
-export function projectAction<S extends z.ZodType, R>(permission: Action, schema: S, handler: (ctx: ProjectCtx<z.infer<S>>) => Promise<R>) {
+export function projectAction<S extends z.ZodType, R>(
+  permission: Action,
+  schema: S,
+  handler: (ctx: ProjectCtx<z.infer<S>>) => Promise<R>,
+) {
   return async (projectId: string, input: unknown): Promise<ActionResult<R>> => {
     try {
       const { user } = await validateRequest();
@@ -66,11 +87,17 @@ export function projectAction<S extends z.ZodType, R>(permission: Action, schema
       const access = await getProjectAccess({ userId: user.id, projectId, action: permission });
       // A schema's own messages are sentences for the user; where a schema has none, zod's wording
       // (and the field path) is replaced by one plain sentence: the browser sent something we did not expect.
-      const parsed = schema.safeParse(input, { error: () => 'This request is not valid; reload the page and try again.' });
+      const parsed = schema.safeParse(input, {
+        error: () => 'This request is not valid; reload the page and try again.',
+      });
       if (!parsed.success) {
         const fields: Record<string, string[]> = {};
         for (const i of parsed.error.issues) (fields[i.path.join('.') || 'input'] ??= []).push(i.message);
-        throw new AppError('invalid', [...new Set(parsed.error.issues.map((i) => i.message))].join(' '), fields);
+        throw new AppError(
+          'invalid',
+          [...new Set(parsed.error.issues.map((i) => i.message))].join(' '),
+          fields,
+        );
       }
       return { ok: true, data: await handler({ user, input: parsed.data, ...access }) };
     } catch (e) {

@@ -24,7 +24,10 @@ export const UNKNOWN_ADDRESS = 'unknown';
 
 export function clientAddressFrom(h: HeaderSource, hops = trustedProxyHops()): string {
   if (hops <= 0) return UNKNOWN_ADDRESS;
-  const list = (h.get('x-forwarded-for') ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+  const list = (h.get('x-forwarded-for') ?? '')
+    .split(',')
+    .map((s) => s.trim())
+    .filter(Boolean);
   if (list.length === 0) return UNKNOWN_ADDRESS;
   // The nearest trusted proxy appended the address it saw last; `hops` proxies → that many from the right.
   const candidate = list[Math.max(0, list.length - hops)];

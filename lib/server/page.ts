@@ -21,7 +21,9 @@ export async function loadOrganization(organizationId: string, action: Action) {
 
 /** Awaits a lookup and turns its `not_found` into the 404 page. */
 export async function orNotFound<T>(p: Promise<T>): Promise<T> {
-  try { return await p; } catch (e) {
+  try {
+    return await p;
+  } catch (e) {
     if (isAppError(e) && e.code === 'not_found') notFound();
     throw e;
   }

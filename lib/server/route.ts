@@ -8,9 +8,16 @@ import { env } from '@/lib/env';
 import { logUnexpected } from '@/lib/log';
 
 export function errorResponse(e: unknown) {
-  if (isAppError(e)) return NextResponse.json({ error: { code: e.code, message: e.message, fields: e.fields } }, { status: e.status });
+  if (isAppError(e))
+    return NextResponse.json(
+      { error: { code: e.code, message: e.message, fields: e.fields } },
+      { status: e.status },
+    );
   logUnexpected('route', e);
-  return NextResponse.json({ error: { code: 'internal', message: 'Something went wrong on our side.' } }, { status: 500 });
+  return NextResponse.json(
+    { error: { code: 'internal', message: 'Something went wrong on our side.' } },
+    { status: 500 },
+  );
 }
 
 /** Mutating requests must come from our own origin and carry JSON. */
@@ -20,9 +27,14 @@ function checkMutation(req: NextRequest) {
   if (origin) {
     // "null" (sandboxed frames, file: pages, some redirects) and anything unparsable is not our origin.
     let originHost: string | null = null;
-    try { originHost = new URL(origin).host; } catch { originHost = null; }
+    try {
+      originHost = new URL(origin).host;
+    } catch {
+      originHost = null;
+    }
     const allowed = new Set([host, new URL(env.appUrl()).host]);
-    if (!originHost || !allowed.has(originHost)) throw new AppError('forbidden', 'Cross-site request refused.');
+    if (!originHost || !allowed.has(originHost))
+      throw new AppError('forbidden', 'Cross-site request refused.');
   } else if (req.headers.get('sec-fetch-site') === 'cross-site') {
     throw new AppError('forbidden', 'Cross-site request refused.');
   }
@@ -53,7 +65,11 @@ export function route<P>(handler: (ctx: { req: NextRequest; user: User; params: 
 
 export async function readJson<S extends z.ZodType>(req: NextRequest, schema: S): Promise<z.infer<S>> {
   let body: unknown;
-  try { body = await req.json(); } catch { throw new AppError('invalid', 'The body is not valid JSON.'); }
+  try {
+    body = await req.json();
+  } catch {
+    throw new AppError('invalid', 'The body is not valid JSON.');
+  }
   const r = schema.safeParse(body);
   if (!r.success) throw new AppError('invalid', 'Some fields are not valid.', fieldsFromZod(r.error));
   return r.data;

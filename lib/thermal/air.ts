@@ -1,5 +1,7 @@
 // Constants repeated here (not imported) because this is the innermost loop of every solve.
-const KELVIN = 273.15, R_AIR = 287.05287, STANDARD_PRESSURE = 101325;
+const KELVIN = 273.15,
+  R_AIR = 287.05287,
+  STANDARD_PRESSURE = 101325;
 
 /**
  * Dry air at 101.325 kPa, properties at a film temperature.
@@ -21,8 +23,11 @@ export interface AirProperties {
 }
 
 // Dry air cp, J/(kg·K), at 200…1000 K every 50 K (Incropera Table A.4, recalled from memory).
-const CP_T0 = 200, CP_DT = 50;
-const CP = [1007, 1006, 1007, 1009, 1014, 1021, 1030, 1040, 1051, 1063, 1075, 1087, 1099, 1110, 1121, 1131, 1141];
+const CP_T0 = 200,
+  CP_DT = 50;
+const CP = [
+  1007, 1006, 1007, 1009, 1014, 1021, 1030, 1040, 1051, 1063, 1075, 1087, 1099, 1110, 1121, 1131, 1141,
+];
 
 function cpAir(T: number): number {
   const x = (T - CP_T0) / CP_DT;
@@ -42,18 +47,29 @@ export function airPropertiesAt(T: number, pressurePa = STANDARD_PRESSURE): AirP
   return { k, nu: mu / rho, pr: (mu * cp) / k, beta: 1 / T };
 }
 
-
 /**
  * Film properties for the solver's inner loop: the formulas above evaluated once on a 0.5 K grid
  * from 150 K to 1300 K (with the Prandtl factors of the correlations) and interpolated linearly —
  * within 2e-6 of the formulas (tested; largest at the kinks of the cp table), at a fraction of their
  * cost. `filmAt` fills `FILM`.
  */
-const G0 = 150, GDT = 0.5, GN = Math.round((1300 - G0) / GDT) + 1;
-const GK = new Float64Array(GN), GNU = new Float64Array(GN), GPR = new Float64Array(GN), GCYL = new Float64Array(GN), GPLATE = new Float64Array(GN), GCB = new Float64Array(GN);
-function exactFilm(T: number, out: { k: number; nu: number; pr: number; fCyl: number; fPlate: number; fCb: number }) {
+const G0 = 150,
+  GDT = 0.5,
+  GN = Math.round((1300 - G0) / GDT) + 1;
+const GK = new Float64Array(GN),
+  GNU = new Float64Array(GN),
+  GPR = new Float64Array(GN),
+  GCYL = new Float64Array(GN),
+  GPLATE = new Float64Array(GN),
+  GCB = new Float64Array(GN);
+function exactFilm(
+  T: number,
+  out: { k: number; nu: number; pr: number; fCyl: number; fPlate: number; fCb: number },
+) {
   const a = airPropertiesAt(T);
-  out.k = a.k; out.nu = a.nu; out.pr = a.pr;
+  out.k = a.k;
+  out.nu = a.nu;
+  out.pr = a.pr;
   out.fCyl = Math.pow(1 + Math.pow(0.559 / a.pr, 9 / 16), 8 / 27);
   out.fPlate = Math.pow(1 + Math.pow(0.492 / a.pr, 9 / 16), 8 / 27);
   out.fCb = Math.cbrt(a.pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / a.pr, 2 / 3)));
@@ -61,15 +77,24 @@ function exactFilm(T: number, out: { k: number; nu: number; pr: number; fCyl: nu
 export const FILM = { k: 0, nu: 0, pr: 0, fCyl: 0, fPlate: 0, fCb: 0, beta: 0 };
 for (let i = 0; i < GN; i++) {
   exactFilm(G0 + i * GDT, FILM);
-  GK[i] = FILM.k; GNU[i] = FILM.nu; GPR[i] = FILM.pr; GCYL[i] = FILM.fCyl; GPLATE[i] = FILM.fPlate; GCB[i] = FILM.fCb;
+  GK[i] = FILM.k;
+  GNU[i] = FILM.nu;
+  GPR[i] = FILM.pr;
+  GCYL[i] = FILM.fCyl;
+  GPLATE[i] = FILM.fPlate;
+  GCB[i] = FILM.fCb;
 }
 
 /** Film properties at T (K) into FILM; outside the grid the formulas are evaluated directly. */
 export function filmAt(T: number): typeof FILM {
   FILM.beta = 1 / T;
   const x = (T - G0) / GDT;
-  if (!(x >= 0 && x < GN - 1)) { exactFilm(T, FILM); return FILM; }
-  const i = x | 0, f = x - i;
+  if (!(x >= 0 && x < GN - 1)) {
+    exactFilm(T, FILM);
+    return FILM;
+  }
+  const i = x | 0,
+    f = x - i;
   FILM.k = GK[i] + (GK[i + 1] - GK[i]) * f;
   FILM.nu = GNU[i] + (GNU[i + 1] - GNU[i]) * f;
   FILM.pr = GPR[i] + (GPR[i + 1] - GPR[i]) * f;

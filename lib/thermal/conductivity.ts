@@ -7,9 +7,9 @@
 
 export type ConductivitySpec =
   | { type: 'constant'; k: number }
-  | { type: 'linear'; a: number; b: number }            // k = a + b·T
-  | { type: 'table'; points: [number, number][] }       // piecewise linear, constant beyond the ends
-  | { type: 'polynomial'; coefficients: number[] };     // k = Σ cᵢ·Tⁱ
+  | { type: 'linear'; a: number; b: number } // k = a + b·T
+  | { type: 'table'; points: [number, number][] } // piecewise linear, constant beyond the ends
+  | { type: 'polynomial'; coefficients: number[] }; // k = Σ cᵢ·Tⁱ
 
 export interface Conductivity {
   /** k at T, W/(m·K). */
@@ -85,8 +85,16 @@ function table(points: [number, number][]): Conductivity {
 }
 
 function polynomial(c: number[]): Conductivity {
-  const kAt = (T: number) => { let s = 0; for (let i = c.length - 1; i >= 0; i--) s = s * T + c[i]; return s; };
-  const Fat = (T: number) => { let s = 0; for (let i = c.length - 1; i >= 0; i--) s = s * T + c[i] / (i + 1); return s * T; };
+  const kAt = (T: number) => {
+    let s = 0;
+    for (let i = c.length - 1; i >= 0; i--) s = s * T + c[i];
+    return s;
+  };
+  const Fat = (T: number) => {
+    let s = 0;
+    for (let i = c.length - 1; i >= 0; i--) s = s * T + c[i] / (i + 1);
+    return s * T;
+  };
   return {
     k: kAt,
     integral: (T1, T2) => Fat(T2) - Fat(T1),
@@ -108,10 +116,14 @@ function polynomial(c: number[]): Conductivity {
 
 export function compileConductivity(spec: ConductivitySpec): Conductivity {
   switch (spec.type) {
-    case 'constant': return linear(spec.k, 0);
-    case 'linear': return linear(spec.a, spec.b);
-    case 'table': return table(spec.points);
-    case 'polynomial': return polynomial(spec.coefficients);
+    case 'constant':
+      return linear(spec.k, 0);
+    case 'linear':
+      return linear(spec.a, spec.b);
+    case 'table':
+      return table(spec.points);
+    case 'polynomial':
+      return polynomial(spec.coefficients);
   }
 }
 

@@ -4,7 +4,11 @@
  * Each correlation exposes its validity range as data; `checkRange` turns it into a warning.
  */
 
-export interface ValidityRange { variable: 'Ra' | 'Re' | 'RePr'; min: number; max: number }
+export interface ValidityRange {
+  variable: 'Ra' | 'Re' | 'RePr';
+  min: number;
+  max: number;
+}
 
 /**
  * Natural convection, long horizontal isothermal cylinder (length scale: outside diameter).
@@ -18,7 +22,8 @@ export function nusseltHorizontalCylinderChurchillChu(ra: number, pr: number): n
   return nusseltHorizontalCylinderChurchillChuWithFactor(ra, prFactorHorizontalCylinderChurchillChu(pr));
 }
 /** The Prandtl part of the horizontal-cylinder equation, [1 + (0.559/Pr)^(9/16)]^(8/27). */
-export const prFactorHorizontalCylinderChurchillChu = (pr: number) => Math.pow(1 + Math.pow(0.559 / pr, 9 / 16), 8 / 27);
+export const prFactorHorizontalCylinderChurchillChu = (pr: number) =>
+  Math.pow(1 + Math.pow(0.559 / pr, 9 / 16), 8 / 27);
 /** The same equation with its Prandtl factor given (the solver tabulates it against film temperature). */
 export function nusseltHorizontalCylinderChurchillChuWithFactor(ra: number, prFactor: number): number {
   const s = 0.6 + (0.387 * Math.sqrt(Math.cbrt(ra))) / prFactor;
@@ -39,7 +44,8 @@ export function nusseltVerticalPlateChurchillChu(ra: number, pr: number): number
   return nusseltVerticalPlateChurchillChuWithFactor(ra, prFactorVerticalPlateChurchillChu(pr));
 }
 /** [1 + (0.492/Pr)^(9/16)]^(8/27). */
-export const prFactorVerticalPlateChurchillChu = (pr: number) => Math.pow(1 + Math.pow(0.492 / pr, 9 / 16), 8 / 27);
+export const prFactorVerticalPlateChurchillChu = (pr: number) =>
+  Math.pow(1 + Math.pow(0.492 / pr, 9 / 16), 8 / 27);
 export function nusseltVerticalPlateChurchillChuWithFactor(ra: number, prFactor: number): number {
   const s = 0.825 + (0.387 * Math.sqrt(Math.cbrt(ra))) / prFactor;
   return s * s;
@@ -87,7 +93,8 @@ export function nusseltCrossflowCylinderChurchillBernstein(re: number, pr: numbe
   return nusseltCrossflowCylinderChurchillBernsteinWithFactor(re, prFactorChurchillBernstein(pr));
 }
 /** Pr^⅓ / [1 + (0.4/Pr)^⅔]^¼. */
-export const prFactorChurchillBernstein = (pr: number) => Math.cbrt(pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / pr, 2 / 3)));
+export const prFactorChurchillBernstein = (pr: number) =>
+  Math.cbrt(pr) / Math.sqrt(Math.sqrt(1 + Math.pow(0.4 / pr, 2 / 3)));
 export function nusseltCrossflowCylinderChurchillBernsteinWithFactor(re: number, prFactor: number): number {
   const a = 0.62 * Math.sqrt(re) * prFactor;
   // (Re/282000)^(5/8) as the fifth power of an eighth root (three square roots) and y^(4/5) as
@@ -97,7 +104,11 @@ export function nusseltCrossflowCylinderChurchillBernsteinWithFactor(re: number,
   const r2 = r8 * r8;
   return 0.3 + a * Math.exp(0.8 * Math.log(1 + r2 * r2 * r8));
 }
-nusseltCrossflowCylinderChurchillBernstein.range = { variable: 'RePr', min: 0.2, max: Infinity } as ValidityRange;
+nusseltCrossflowCylinderChurchillBernstein.range = {
+  variable: 'RePr',
+  min: 0.2,
+  max: Infinity,
+} as ValidityRange;
 
 /**
  * Forced convection, flat plate in parallel flow, average over length L.
@@ -117,7 +128,8 @@ nusseltFlatPlateAverage.range = { variable: 'Re', min: 0, max: 1e8 } as Validity
 export const NATURAL_CONVECTION = {
   'horizontal-cylinder-churchill-chu': nusseltHorizontalCylinderChurchillChu,
   'vertical-plate-churchill-chu': nusseltVerticalPlateChurchillChu,
-  'horizontal-plate-assisted-lloyd-moran': (ra: number, _pr: number) => nusseltHorizontalPlateAssistedLloydMoran(ra),
+  'horizontal-plate-assisted-lloyd-moran': (ra: number, _pr: number) =>
+    nusseltHorizontalPlateAssistedLloydMoran(ra),
   'horizontal-plate-opposed-mcadams': (ra: number, _pr: number) => nusseltHorizontalPlateOpposedMcAdams(ra),
 } as const;
 
@@ -127,7 +139,10 @@ export const FORCED_CONVECTION = {
   'flat-plate-average': nusseltFlatPlateAverage,
 } as const;
 
-export const CORRELATION_RANGES: Record<keyof typeof NATURAL_CONVECTION | keyof typeof FORCED_CONVECTION, ValidityRange> = {
+export const CORRELATION_RANGES: Record<
+  keyof typeof NATURAL_CONVECTION | keyof typeof FORCED_CONVECTION,
+  ValidityRange
+> = {
   'horizontal-cylinder-churchill-chu': nusseltHorizontalCylinderChurchillChu.range,
   'vertical-plate-churchill-chu': nusseltVerticalPlateChurchillChu.range,
   'horizontal-plate-assisted-lloyd-moran': nusseltHorizontalPlateAssistedLloydMoran.range,

@@ -27,9 +27,20 @@ export const DEFAULT_CRITERIA: Criteria = {
 
 /** Material systems per service band (a starting specification, common practice). */
 export function defaultSystemFor(tempC: number): MaterialSystem {
-  if (tempC < 0) return { outer: materialById('polyisocyanurate')!, jacket: jacketById('aluminium-oxidised')!, inner: materialById('cellular-glass')! };
+  if (tempC < 0)
+    return {
+      outer: materialById('polyisocyanurate')!,
+      jacket: jacketById('aluminium-oxidised')!,
+      inner: materialById('cellular-glass')!,
+    };
   if (tempC < 20) return { outer: materialById('elastomeric-foam')!, jacket: jacketById('pvc')! };
-  if (tempC <= 120) return { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
-  if (tempC <= 600) return { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
-  return { outer: materialById('mineral-wool-pipe')!, inner: materialById('calcium-silicate')!, jacket: jacketById('stainless-steel')! };
+  if (tempC <= 120)
+    return { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
+  if (tempC <= 600)
+    return { outer: materialById('mineral-wool-pipe')!, jacket: jacketById('aluminium-oxidised')! };
+  return {
+    outer: materialById('mineral-wool-pipe')!,
+    inner: materialById('calcium-silicate')!,
+    jacket: jacketById('stainless-steel')!,
+  };
 }

@@ -55,9 +55,21 @@ export interface CoolingEconomics {
 }
 
 /** Energy bought per kWh of heat lost (hot) or gained (cold), its price and CO₂, per the service. */
-export function energyTerms(econ: Economics, cold: boolean): { boughtPerHeat: number; pricePerKWh: number; co2KgPerKWh: number } {
-  if (cold && econ.cooling) return { boughtPerHeat: 1 / econ.cooling.cop, pricePerKWh: econ.cooling.electricityPricePerKWh, co2KgPerKWh: econ.cooling.co2KgPerKWh };
-  return { boughtPerHeat: 1 / econ.efficiency, pricePerKWh: econ.energyPricePerKWh, co2KgPerKWh: econ.co2KgPerKWh };
+export function energyTerms(
+  econ: Economics,
+  cold: boolean,
+): { boughtPerHeat: number; pricePerKWh: number; co2KgPerKWh: number } {
+  if (cold && econ.cooling)
+    return {
+      boughtPerHeat: 1 / econ.cooling.cop,
+      pricePerKWh: econ.cooling.electricityPricePerKWh,
+      co2KgPerKWh: econ.cooling.co2KgPerKWh,
+    };
+  return {
+    boughtPerHeat: 1 / econ.efficiency,
+    pricePerKWh: econ.energyPricePerKWh,
+    co2KgPerKWh: econ.co2KgPerKWh,
+  };
 }
 
 export interface PriceModel {
@@ -96,7 +108,12 @@ export const CO2_NATURAL_GAS_KG_PER_KWH = (56100 / 1e12) * 3.6e6;
 export const DEFAULT_COOLING: CoolingEconomics = { electricityPricePerKWh: 0.15, cop: 3, co2KgPerKWh: 0.35 };
 
 export const DEFAULT_ECONOMICS: Economics = {
-  energyPricePerKWh: 0.045, efficiency: 0.85, hoursPerYear: 8000, discountRate: 0.08, lifeYears: 15, escalationRate: 0.02,
+  energyPricePerKWh: 0.045,
+  efficiency: 0.85,
+  hoursPerYear: 8000,
+  discountRate: 0.08,
+  lifeYears: 15,
+  escalationRate: 0.02,
   co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH,
   cooling: DEFAULT_COOLING,
   economicChoice: 'optimum',
@@ -104,14 +121,40 @@ export const DEFAULT_ECONOMICS: Economics = {
 };
 
 export const DEFAULT_PRICES: PriceModel = {
-  materialPerM3: { 'mineral-wool-pipe': 450, 'mineral-wool-blanket': 300, 'calcium-silicate': 900, 'cellular-glass': 1400, 'polyisocyanurate': 700, 'elastomeric-foam': 1500, 'aerogel-blanket': 9000, perlite: 800 },
-  defaultMaterialPerM3: 600, wasteFraction: 0.1, labourPerMPerLayer: 18, labourPerM2PerLayer: 22, jacketPerM2: 35, fittingsAllowanceFraction: 0.15,
+  materialPerM3: {
+    'mineral-wool-pipe': 450,
+    'mineral-wool-blanket': 300,
+    'calcium-silicate': 900,
+    'cellular-glass': 1400,
+    polyisocyanurate: 700,
+    'elastomeric-foam': 1500,
+    'aerogel-blanket': 9000,
+    perlite: 800,
+  },
+  defaultMaterialPerM3: 600,
+  wasteFraction: 0.1,
+  labourPerMPerLayer: 18,
+  labourPerM2PerLayer: 22,
+  jacketPerM2: 35,
+  fittingsAllowanceFraction: 0.15,
   // Placeholder contractor rates (not from a published source): set the project's own.
   labourByNps: [
-    { maxNps: 2, perMPerLayer: 18 }, { maxNps: 4, perMPerLayer: 24 }, { maxNps: 8, perMPerLayer: 32 },
-    { maxNps: 12, perMPerLayer: 42 }, { maxNps: 1000, perMPerLayer: 55 },
+    { maxNps: 2, perMPerLayer: 18 },
+    { maxNps: 4, perMPerLayer: 24 },
+    { maxNps: 8, perMPerLayer: 32 },
+    { maxNps: 12, perMPerLayer: 42 },
+    { maxNps: 1000, perMPerLayer: 55 },
   ],
-  jacketPerM2ById: { 'aluminium-oxidised': 35, 'aluminium-bright': 35, 'stainless-steel': 70, 'galvanised-steel': 40, 'galvanised-steel-dusty': 40, 'painted-metal': 45, pvc: 22, 'mastic-cloth': 28 },
+  jacketPerM2ById: {
+    'aluminium-oxidised': 35,
+    'aluminium-bright': 35,
+    'stainless-steel': 70,
+    'galvanised-steel': 40,
+    'galvanised-steel-dusty': 40,
+    'painted-metal': 45,
+    pvc: 22,
+    'mastic-cloth': 28,
+  },
   accessoriesPerM: 3,
   accessoriesPerM2: 4,
   fittingItem: { elbow: 25, tee: 35, valve: 90, flangePair: 45 },
@@ -120,6 +163,8 @@ export const DEFAULT_PRICES: PriceModel = {
 /** Pipe labour per metre per layer for a nominal size (inches), from the band table or the flat rate. */
 export function labourPerMFor(prices: PriceModel, npsInches: number | undefined): number {
   if (!prices.labourByNps?.length || npsInches === undefined) return prices.labourPerMPerLayer;
-  const band = prices.labourByNps.find((b) => npsInches <= b.maxNps + 1e-9) ?? prices.labourByNps[prices.labourByNps.length - 1];
+  const band =
+    prices.labourByNps.find((b) => npsInches <= b.maxNps + 1e-9) ??
+    prices.labourByNps[prices.labourByNps.length - 1];
   return band.perMPerLayer;
 }

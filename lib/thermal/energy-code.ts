@@ -29,13 +29,69 @@ export interface EnergyCodeRow {
 }
 
 export const ASHRAE_90_1_TABLE_6_8_3_1: readonly EnergyCodeRow[] = [
-  { service: 'heating', fromF: 350, toF: Infinity, kLow: 0.32, kHigh: 0.34, meanRatingF: 250, thicknessIn: [4.5, 5.0, 5.0, 5.0, 5.0] },
-  { service: 'heating', fromF: 251, toF: 350, kLow: 0.29, kHigh: 0.31, meanRatingF: 200, thicknessIn: [3.0, 4.0, 4.5, 4.5, 4.5] },
-  { service: 'heating', fromF: 201, toF: 251, kLow: 0.27, kHigh: 0.30, meanRatingF: 150, thicknessIn: [2.5, 2.5, 2.5, 3.0, 3.0] },
-  { service: 'heating', fromF: 141, toF: 201, kLow: 0.25, kHigh: 0.29, meanRatingF: 125, thicknessIn: [1.5, 1.5, 2.0, 2.0, 2.0] },
-  { service: 'heating', fromF: 105, toF: 141, kLow: 0.22, kHigh: 0.28, meanRatingF: 100, thicknessIn: [1.0, 1.0, 1.5, 1.5, 1.5] },
-  { service: 'cooling', fromF: 40, toF: 60.0001, kLow: 0.21, kHigh: 0.27, meanRatingF: 75, thicknessIn: [0.5, 0.5, 1.0, 1.0, 1.0] },
-  { service: 'cooling', fromF: -Infinity, toF: 40, kLow: 0.20, kHigh: 0.26, meanRatingF: 50, thicknessIn: [0.5, 1.0, 1.0, 1.0, 1.5] },
+  {
+    service: 'heating',
+    fromF: 350,
+    toF: Infinity,
+    kLow: 0.32,
+    kHigh: 0.34,
+    meanRatingF: 250,
+    thicknessIn: [4.5, 5.0, 5.0, 5.0, 5.0],
+  },
+  {
+    service: 'heating',
+    fromF: 251,
+    toF: 350,
+    kLow: 0.29,
+    kHigh: 0.31,
+    meanRatingF: 200,
+    thicknessIn: [3.0, 4.0, 4.5, 4.5, 4.5],
+  },
+  {
+    service: 'heating',
+    fromF: 201,
+    toF: 251,
+    kLow: 0.27,
+    kHigh: 0.3,
+    meanRatingF: 150,
+    thicknessIn: [2.5, 2.5, 2.5, 3.0, 3.0],
+  },
+  {
+    service: 'heating',
+    fromF: 141,
+    toF: 201,
+    kLow: 0.25,
+    kHigh: 0.29,
+    meanRatingF: 125,
+    thicknessIn: [1.5, 1.5, 2.0, 2.0, 2.0],
+  },
+  {
+    service: 'heating',
+    fromF: 105,
+    toF: 141,
+    kLow: 0.22,
+    kHigh: 0.28,
+    meanRatingF: 100,
+    thicknessIn: [1.0, 1.0, 1.5, 1.5, 1.5],
+  },
+  {
+    service: 'cooling',
+    fromF: 40,
+    toF: 60.0001,
+    kLow: 0.21,
+    kHigh: 0.27,
+    meanRatingF: 75,
+    thicknessIn: [0.5, 0.5, 1.0, 1.0, 1.0],
+  },
+  {
+    service: 'cooling',
+    fromF: -Infinity,
+    toF: 40,
+    kLow: 0.2,
+    kHigh: 0.26,
+    meanRatingF: 50,
+    thicknessIn: [0.5, 1.0, 1.0, 1.0, 1.5],
+  },
 ];
 
 /** 1 W/(m·K) in Btu·in/(h·ft²·°F). */
@@ -63,7 +119,12 @@ export function npsBand(outsideDiameterMm: number): number {
 }
 
 /** The footnote's equivalent thickness, in: T = r·[(1 + t/r)^(K/k) − 1]. */
-export function equivalentThicknessIn(o: { radiusIn: number; tableIn: number; kActual: number; kUpper: number }): number {
+export function equivalentThicknessIn(o: {
+  radiusIn: number;
+  tableIn: number;
+  kActual: number;
+  kUpper: number;
+}): number {
   return o.radiusIn * (Math.pow(1 + o.tableIn / o.radiusIn, o.kActual / o.kUpper) - 1);
 }
 
@@ -83,12 +144,30 @@ export interface EnergyCodeMinimum {
  * The energy-code minimum for a pipe at a fluid temperature with insulation whose conductivity
  * (W/(m·K)) at a mean temperature (°C) is given. Null when the table sets no minimum.
  */
-export function energyCodeMinimum(o: { fluidC: number; outsideDiameterMm: number; conductivityAt: (meanC: number) => number }): EnergyCodeMinimum | null {
+export function energyCodeMinimum(o: {
+  fluidC: number;
+  outsideDiameterMm: number;
+  conductivityAt: (meanC: number) => number;
+}): EnergyCodeMinimum | null {
   const row = energyCodeRow(o.fluidC);
   if (!row) return null;
   const tableIn = row.thicknessIn[npsBand(o.outsideDiameterMm)];
   const kActual = o.conductivityAt(fToC(row.meanRatingF)) * W_PER_MK_IN_BTU_IN;
   const inRange = kActual >= row.kLow - 1e-9 && kActual <= row.kHigh + 1e-9;
-  const minimumIn = inRange ? tableIn : equivalentThicknessIn({ radiusIn: o.outsideDiameterMm / 2 / 25.4, tableIn, kActual, kUpper: row.kHigh });
-  return { code: 'ashrae-90.1', row, tableMm: tableIn * 25.4, minimumMm: minimumIn * 25.4, kActual, corrected: !inRange };
+  const minimumIn = inRange
+    ? tableIn
+    : equivalentThicknessIn({
+        radiusIn: o.outsideDiameterMm / 2 / 25.4,
+        tableIn,
+        kActual,
+        kUpper: row.kHigh,
+      });
+  return {
+    code: 'ashrae-90.1',
+    row,
+    tableMm: tableIn * 25.4,
+    minimumMm: minimumIn * 25.4,
+    kActual,
+    corrected: !inRange,
+  };
 }

@@ -56,15 +56,29 @@ export interface FittingsHeat {
  * Heat flow of a run's fittings: counts × equivalent lengths × the heat loss per metre of the
  * insulated (q′) or the bare (q′_bare) pipe. `lengthM` is the straight run (for supports per metre).
  */
-export function fittingsHeatLoss(o: { counts: FittingCounts; lengthM: number; insulatedWPerM: number; bareWPerM: number; lengths?: EquivalentLengths }): FittingsHeat {
+export function fittingsHeatLoss(o: {
+  counts: FittingCounts;
+  lengthM: number;
+  insulatedWPerM: number;
+  bareWPerM: number;
+  lengths?: EquivalentLengths;
+}): FittingsHeat {
   const L = o.lengths ?? DEFAULT_EQUIVALENT_LENGTHS;
   const c = o.counts;
   const bare = !!c.valvesBare;
-  const insulatedEquivalentM = (c.elbows ?? 0) * L.elbowM + (c.tees ?? 0) * L.teeM
-    + (bare ? 0 : (c.valves ?? 0) * L.valveM + (c.flangePairs ?? 0) * L.flangePairM)
-    + (c.supportsPerM ?? 0) * o.lengthM * L.supportM;
-  const bareEquivalentM = bare ? (c.valves ?? 0) * L.bareValveM + (c.flangePairs ?? 0) * L.bareFlangePairM : 0;
-  return { fittingsW: insulatedEquivalentM * o.insulatedWPerM + bareEquivalentM * o.bareWPerM, insulatedEquivalentM, bareEquivalentM };
+  const insulatedEquivalentM =
+    (c.elbows ?? 0) * L.elbowM +
+    (c.tees ?? 0) * L.teeM +
+    (bare ? 0 : (c.valves ?? 0) * L.valveM + (c.flangePairs ?? 0) * L.flangePairM) +
+    (c.supportsPerM ?? 0) * o.lengthM * L.supportM;
+  const bareEquivalentM = bare
+    ? (c.valves ?? 0) * L.bareValveM + (c.flangePairs ?? 0) * L.bareFlangePairM
+    : 0;
+  return {
+    fittingsW: insulatedEquivalentM * o.insulatedWPerM + bareEquivalentM * o.bareWPerM,
+    insulatedEquivalentM,
+    bareEquivalentM,
+  };
 }
 
 /**
@@ -74,7 +88,12 @@ export function fittingsHeatLoss(o: { counts: FittingCounts; lengthM: number; in
  */
 export const DEFAULT_TRACING_SAFETY_FACTOR = 1.2; // 20 % margin: common practice [recalled]
 
-export function heatTracingDuty(o: { heatLossWPerM: number; safetyFactor?: number; fittingsExtraM?: number; lengthM?: number }): { heatLossWPerM: number; requiredWPerM: number } {
+export function heatTracingDuty(o: {
+  heatLossWPerM: number;
+  safetyFactor?: number;
+  fittingsExtraM?: number;
+  lengthM?: number;
+}): { heatLossWPerM: number; requiredWPerM: number } {
   const sf = o.safetyFactor ?? DEFAULT_TRACING_SAFETY_FACTOR;
   const spread = o.fittingsExtraM && o.lengthM ? 1 + o.fittingsExtraM / o.lengthM : 1;
   return { heatLossWPerM: o.heatLossWPerM, requiredWPerM: Math.max(0, o.heatLossWPerM) * spread * sf };

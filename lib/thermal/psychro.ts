@@ -25,9 +25,10 @@ export function dewPointC(airC: number, relativeHumidityPct: number): number {
  * ASHRAE Handbook—Fundamentals convention (as psychrolib implements it).
  */
 export function frostPointC(airC: number, relativeHumidityPct: number): number {
-  const sat = airC <= 0
-    ? 6.1121 * Math.exp((ICE.a * airC) / (ICE.b + airC))
-    : 6.1094 * Math.exp((WATER.a * airC) / (WATER.b + airC));
+  const sat =
+    airC <= 0
+      ? 6.1121 * Math.exp((ICE.a * airC) / (ICE.b + airC))
+      : 6.1094 * Math.exp((WATER.a * airC) / (WATER.b + airC));
   return invert(ICE, Math.log(((relativeHumidityPct / 100) * sat) / 6.1121));
 }
 
@@ -35,7 +36,10 @@ export function frostPointC(airC: number, relativeHumidityPct: number): number {
  * The temperature a cold surface must stay above to stay dry: the dew point, or the frost point
  * when the dew point is below 0 °C (moisture then deposits as frost).
  */
-export function condensationThresholdC(airC: number, relativeHumidityPct: number): { valueC: number; basis: 'dew point' | 'frost point' } {
+export function condensationThresholdC(
+  airC: number,
+  relativeHumidityPct: number,
+): { valueC: number; basis: 'dew point' | 'frost point' } {
   const dp = dewPointC(airC, relativeHumidityPct);
   if (dp >= 0) return { valueC: dp, basis: 'dew point' };
   return { valueC: frostPointC(airC, relativeHumidityPct), basis: 'frost point' };

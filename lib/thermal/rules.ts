@@ -16,7 +16,10 @@ export const ALWAYS_CHECK_CONDENSATION_BELOW_C = 10;
  * is above the personnel-condition air: a burn does not depend on why the line is insulated.
  * `accessible` unknown counts as within reach.
  */
-export function personnelProtectionApplies(o: { accessible?: boolean | null; hottestC: number }, personnel: ConditionSet): boolean {
+export function personnelProtectionApplies(
+  o: { accessible?: boolean | null; hottestC: number },
+  personnel: ConditionSet,
+): boolean {
   return o.accessible !== false && o.hottestC > personnel.airC;
 }
 
@@ -32,10 +35,21 @@ export function condensationLimit(condensation: ConditionSet, marginK: number) {
  * surface, bare or thinly insulated, could sweat. Compared with the condensation conditions' own
  * air, never the annual heat-loss air.
  */
-export function condensationControlApplies(o: { purposes: readonly Purpose[]; coldestC: number }, condensation: ConditionSet, marginK: number): boolean {
+export function condensationControlApplies(
+  o: { purposes: readonly Purpose[]; coldestC: number },
+  condensation: ConditionSet,
+  marginK: number,
+): boolean {
   const asked = o.purposes.includes('condensationControl') || o.coldestC < ALWAYS_CHECK_CONDENSATION_BELOW_C;
   return asked && o.coldestC < condensationLimit(condensation, marginK).needC;
 }
 
 /** Criteria a pick may not go below without a stated reason (it then stays flagged for review); the economic one is advice. */
-export const HARD_CRITERIA: ReadonlySet<CriterionId> = new Set<CriterionId>(['personnel', 'condensation', 'heatLossLimit', 'processDrop', 'freeze', 'energyCode']);
+export const HARD_CRITERIA: ReadonlySet<CriterionId> = new Set<CriterionId>([
+  'personnel',
+  'condensation',
+  'heatLossLimit',
+  'processDrop',
+  'freeze',
+  'energyCode',
+]);

@@ -1,12 +1,20 @@
 import type { Conductivity } from './conductivity';
 import { brentRoot } from './roots';
 import {
-  CONVECTIVE_SLOPE, convectionDetail, isPipe, radiativeFlux, surfaceFlux, surfaceWarnings,
-  type Ambient, type Geometry, type OuterShape,
+  CONVECTIVE_SLOPE,
+  convectionDetail,
+  isPipe,
+  radiativeFlux,
+  surfaceFlux,
+  surfaceWarnings,
+  type Ambient,
+  type Geometry,
+  type OuterShape,
 } from './surface';
 // The inner loop's imports bound once to local constants (see surface.ts: loaders reach an import
 // through an accessor on every use).
-const flux = surfaceFlux, slopeOfConvection = CONVECTIVE_SLOPE;
+const flux = surfaceFlux,
+  slopeOfConvection = CONVECTIVE_SLOPE;
 
 /** One solid layer, inside to outside. */
 export interface SolidLayer {
@@ -59,7 +67,13 @@ export interface SteadyResult {
   iterations: number;
 }
 
-export interface Element { film: boolean; factor: number; cond: Conductivity | undefined; r1: number; r2: number }
+export interface Element {
+  film: boolean;
+  factor: number;
+  cond: Conductivity | undefined;
+  r1: number;
+  r2: number;
+}
 
 /** Builds the resistance chain: inner film, wall, layers — each with its geometric factor. */
 // One constructor so every element has the same hidden class (monomorphic access in the loops).
@@ -74,7 +88,9 @@ function buildChain(c: SteadyCase) {
   let r = pipe ? c.pipeOuterDiameterM / 2 - wallT : 0; // for walls r is the depth from the process face
   const rInner = r;
   if (c.innerFilmWPerM2K) {
-    els.push(el(true, pipe ? 1 / (c.innerFilmWPerM2K * 2 * Math.PI * r) : 1 / c.innerFilmWPerM2K, undefined, r, r));
+    els.push(
+      el(true, pipe ? 1 / (c.innerFilmWPerM2K * 2 * Math.PI * r) : 1 / c.innerFilmWPerM2K, undefined, r, r),
+    );
   }
   const solids = c.wall ? [{ thicknessM: wallT, conductivity: c.wall.conductivity }, ...c.layers] : c.layers;
   for (const l of solids) {
@@ -100,10 +116,15 @@ function march(els: Element[], Tp: number, Q: number, out?: { [i: number]: numbe
 /** dTs/dQ along the chain: from ∫k dT = Q·f per element, k(T_in)·dT_in − k(T_out)·dT_out = f·dQ. */
 const SLOPE = { dTsdQ: 0 };
 function marchSlope(els: Element[], Tp: number, Q: number): number {
-  let T = Tp, d = 0;
+  let T = Tp,
+    d = 0;
   for (let i = 0; i < els.length; i++) {
     const e = els[i];
-    if (e.film) { T -= Q * e.factor; d -= e.factor; continue; }
+    if (e.film) {
+      T -= Q * e.factor;
+      d -= e.factor;
+      continue;
+    }
     const kin = e.cond!.k(T);
     const Tout = e.cond!.solveOut(T, Q * e.factor);
     if (Tout !== Tout) return NaN;
@@ -125,42 +146,78 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
  * saved per solve); the tolerance is relative to the heat flow itself.
  */
 const HEAT = { Q: 0, iterations: 0 };
-function solveHeatFlow(els: Element[], Tp: number, sgn: number, area: number, shape: OuterShape, amb: Ambient, guess: number): typeof HEAT {
-  let lo = 0, hi = sgn * Infinity; // g(lo) has the sign sgn, g(hi) the opposite (or zero)
+function solveHeatFlow(
+  els: Element[],
+  Tp: number,
+  sgn: number,
+  area: number,
+  shape: OuterShape,
+  amb: Ambient,
+  guess: number,
+): typeof HEAT {
+  let lo = 0,
+    hi = sgn * Infinity; // g(lo) has the sign sgn, g(hi) the opposite (or zero)
   let Qb = NaN; // evaluated on demand (no closure: this is the hot path)
   let Q = guess;
-  if (!(guess * sgn > 0 && Number.isFinite(guess))) { Qb = area * flux(shape, Tp, amb); hi = Qb; Q = 0.5 * Qb; }
+  if (!(guess * sgn > 0 && Number.isFinite(guess))) {
+    Qb = area * flux(shape, Tp, amb);
+    hi = Qb;
+    Q = 0.5 * Qb;
+  }
   const tol = Math.abs(Q) * 1e-7;
-  let prevTs = NaN, prevFlux = NaN;
+  let prevTs = NaN,
+    prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
     const Ts = marchSlope(els, Tp, Q);
-    if (Ts !== Ts) { hi = Q; Q = 0.5 * (lo + hi); continue; }
+    if (Ts !== Ts) {
+      hi = Q;
+      Q = 0.5 * (lo + hi);
+      continue;
+    }
     const dTsdQ = SLOPE.dTsdQ;
     const q = flux(shape, Ts, amb);
     const g = area * q - Q;
-    if (Math.abs(g) <= tol) { HEAT.Q = Q; HEAT.iterations = it; return HEAT; }
-    if (g * sgn > 0) lo = Q; else hi = Q;
+    if (Math.abs(g) <= tol) {
+      HEAT.Q = Q;
+      HEAT.iterations = it;
+      return HEAT;
+    }
+    if (g * sgn > 0) lo = Q;
+    else hi = Q;
     let dflux: number;
     if (amb.fixedCoefficientWPerM2K !== undefined) dflux = amb.fixedCoefficientWPerM2K;
-    else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts))) dflux = (q - prevFlux) / (Ts - prevTs); // secant on the surface law
+    else if (prevTs === prevTs && Math.abs(Ts - prevTs) > 1e-9 * (1 + Math.abs(Ts)))
+      dflux = (q - prevFlux) / (Ts - prevTs); // secant on the surface law
     else {
       const t = Ts + 273.15;
       dflux = slopeOfConvection.value + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
     }
-    prevTs = Ts; prevFlux = q;
+    prevTs = Ts;
+    prevFlux = q;
     const dg = area * dflux * dTsdQ - 1; // negative
     let next = Q - g / dg;
     if (!((next - lo) * sgn > 0 && (hi - next) * sgn > 0)) {
-      if (Qb !== Qb) { Qb = area * flux(shape, Tp, amb); if ((hi - Qb) * sgn > 0) hi = Qb; }
+      if (Qb !== Qb) {
+        Qb = area * flux(shape, Tp, amb);
+        if ((hi - Qb) * sgn > 0) hi = Qb;
+      }
       next = 0.5 * (lo + hi);
     }
-    if (Math.abs(next - Q) <= tol) { HEAT.Q = next; HEAT.iterations = it; return HEAT; }
+    if (Math.abs(next - Q) <= tol) {
+      HEAT.Q = next;
+      HEAT.iterations = it;
+      return HEAT;
+    }
     Q = next;
   }
   const b = Qb === Qb ? Qb : area * flux(shape, Tp, amb);
-  const g = (q: number) => { const t = march(els, Tp, q); return t === t ? area * flux(shape, t, amb) - q : -b; };
+  const g = (q: number) => {
+    const t = march(els, Tp, q);
+    return t === t ? area * flux(shape, t, amb) - q : -b;
+  };
   const r = brentRoot(g, 0, b, b, g(b), Math.abs(b) * 1e-10);
-  HEAT.Q = r.x; HEAT.iterations = 40 + r.iterations;
+  HEAT.Q = r.x;
+  HEAT.iterations = 40 + r.iterations;
   return HEAT;
 }
 
@@ -181,15 +238,35 @@ export interface PreparedChain {
 
 export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): PreparedChain {
   const { els, rInner, rOuter, pipe } = buildChain(c as SteadyCase);
-  const shape: OuterShape = { geometry: c.geometry, diameterM: 2 * rOuter, heightM: c.heightM, characteristicLengthM: c.characteristicLengthM };
+  const shape: OuterShape = {
+    geometry: c.geometry,
+    diameterM: 2 * rOuter,
+    heightM: c.heightM,
+    characteristicLengthM: c.characteristicLengthM,
+  };
   const fast: Element[] = [];
   for (const e of els) {
     const last = fast[fast.length - 1];
     if (last && !e.film && !last.film && last.cond === e.cond) {
-      fast[fast.length - 1] = el(false, pipe ? Math.log(e.r2 / last.r1) / (2 * Math.PI) : last.factor + e.factor, e.cond, last.r1, e.r2);
+      fast[fast.length - 1] = el(
+        false,
+        pipe ? Math.log(e.r2 / last.r1) / (2 * Math.PI) : last.factor + e.factor,
+        e.cond,
+        last.r1,
+        e.r2,
+      );
     } else fast.push(e);
   }
-  return { els, fast, rInner, rOuter, pipe, shape, area: pipe ? 2 * Math.PI * rOuter : 1, temps: new Array<number>(els.length).fill(0) };
+  return {
+    els,
+    fast,
+    rInner,
+    rOuter,
+    pipe,
+    shape,
+    area: pipe ? 2 * Math.PI * rOuter : 1,
+    temps: new Array<number>(els.length).fill(0),
+  };
 }
 
 /**
@@ -197,7 +274,13 @@ export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): Prepa
  * coefficient h and the ratio of the true conduction resistance to its k-at-mean-temperature
  * estimate.
  */
-export interface ChainSolution { Q: number; Ts: number; iterations: number; h: number; resistanceRatio: number }
+export interface ChainSolution {
+  Q: number;
+  Ts: number;
+  iterations: number;
+  h: number;
+  resistanceRatio: number;
+}
 const SOLUTION: ChainSolution = { Q: 0, Ts: 0, iterations: 0, h: 0, resistanceRatio: 1 };
 
 /**
@@ -206,18 +289,37 @@ const SOLUTION: ChainSolution = { Q: 0, Ts: 0, iterations: 0, h: 0, resistanceRa
  * and valid until the next call (copy what you keep). `hintH` / `hintRatio` come from a neighbouring
  * solve (e.g. the previous thickness); 0 and 1 mean none.
  */
-export function solveChain(chain: PreparedChain, processC: number, amb: Ambient, hintH = 0, hintRatio = 1): ChainSolution {
+export function solveChain(
+  chain: PreparedChain,
+  processC: number,
+  amb: Ambient,
+  hintH = 0,
+  hintRatio = 1,
+): ChainSolution {
   const ratio = hintRatio > 0 ? hintRatio : 1;
-  const els = chain.els, fast = chain.fast, area = chain.area, shape = chain.shape;
+  const els = chain.els,
+    fast = chain.fast,
+    area = chain.area,
+    shape = chain.shape;
   const Tp = processC;
   const out = SOLUTION;
   // The sign of the heat flow is the sign of the outside loss at the process temperature; it is
   // plain when the process is hotter (or colder) than both the air and the surroundings.
-  const dA = Tp - amb.airC, dR = Tp - amb.surroundingsC;
-  let sgn = amb.fixedCoefficientWPerM2K !== undefined || amb.emittance === 0 ? Math.sign(dA)
-    : dA > 0 && dR >= 0 ? 1 : dA < 0 && dR <= 0 ? -1 : Math.sign(surfaceFlux(shape, Tp, amb));
+  const dA = Tp - amb.airC,
+    dR = Tp - amb.surroundingsC;
+  let sgn =
+    amb.fixedCoefficientWPerM2K !== undefined || amb.emittance === 0
+      ? Math.sign(dA)
+      : dA > 0 && dR >= 0
+        ? 1
+        : dA < 0 && dR <= 0
+          ? -1
+          : Math.sign(surfaceFlux(shape, Tp, amb));
   if (dA === 0 && (dR === 0 || amb.emittance === 0 || amb.fixedCoefficientWPerM2K !== undefined)) sgn = 0;
-  let Q = 0, iterations = 0, Rc = 0, h0 = 5;
+  let Q = 0,
+    iterations = 0,
+    Rc = 0,
+    h0 = 5;
   if (els.length === 0) Q = sgn === 0 ? 0 : area * surfaceFlux(shape, Tp, amb);
   else if (sgn !== 0) {
     // First guess: series resistances, k at the mean of process and air, and the surface coefficient
@@ -229,20 +331,39 @@ export function solveChain(chain: PreparedChain, processC: number, amb: Ambient,
       h0 = Ts0 !== amb.airC ? surfaceFlux(shape, Ts0, amb) / (Ts0 - amb.airC) : 0;
       if (!(h0 > 0)) h0 = 5;
     }
-    for (let i = 0; i < fast.length; i++) { const e = fast[i]; Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm); }
-    const r = solveHeatFlow(fast, Tp, sgn, area, shape, amb, (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)));
-    Q = r.Q; iterations = r.iterations;
+    for (let i = 0; i < fast.length; i++) {
+      const e = fast[i];
+      Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm);
+    }
+    const r = solveHeatFlow(
+      fast,
+      Tp,
+      sgn,
+      area,
+      shape,
+      amb,
+      (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)),
+    );
+    Q = r.Q;
+    iterations = r.iterations;
   }
   const Ts = els.length ? march(els, Tp, Q, chain.temps) : Tp;
   const dTs = Ts - amb.airC;
-  out.Q = Q; out.Ts = Ts; out.iterations = iterations;
+  out.Q = Q;
+  out.Ts = Ts;
+  out.iterations = iterations;
   out.h = dTs !== 0 && Q !== 0 ? Q / area / dTs : h0;
   out.resistanceRatio = Q !== 0 && Rc > 0 ? (Tp - Ts) / Q / Rc : 1;
   return out;
 }
 
 /** The highest / lowest temperature each insulation layer sees in the last solve of the chain. */
-export function layerFaceTemps(chain: PreparedChain, processC: number, layerCount: number, i: number): [number, number] {
+export function layerFaceTemps(
+  chain: PreparedChain,
+  processC: number,
+  layerCount: number,
+  i: number,
+): [number, number] {
   const first = chain.els.length - layerCount;
   const hot = first + i - 1 >= 0 ? chain.temps[first + i - 1] : processC;
   const cold = chain.temps[first + i];
@@ -262,14 +383,19 @@ export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): Ste
 }
 
 /** `solveSteady` on a chain already prepared from the same case (geometry, sizes and layers). */
-export function solvePrepared(chain: PreparedChain, c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
+export function solvePrepared(
+  chain: PreparedChain,
+  c: SteadyCase,
+  hintCoefficientWPerM2K?: number,
+): SteadyResult {
   const { els, rInner, rOuter, pipe, shape } = chain;
   const Tp = c.processC;
   const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K ?? 0);
   const temps = Array.from(chain.temps);
 
   const warnings: string[] = [];
-  const detail = c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient) : undefined;
+  const detail =
+    c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient) : undefined;
   if (detail) warnings.push(...surfaceWarnings(detail));
   const dTs = Ts - c.ambient.airC;
   const hConv = detail ? detail.h : c.ambient.fixedCoefficientWPerM2K!;
@@ -283,8 +409,14 @@ export function solvePrepared(chain: PreparedChain, c: SteadyCase, hintCoefficie
   c.layers.forEach((l, i) => {
     const [hi, lo] = layerFaceTemps(chain, Tp, c.layers.length, i);
     const label = l.name ?? `layer ${i + 1}`;
-    if (l.maxServiceC !== undefined && hi > l.maxServiceC + 1e-9) warnings.push(`${label}: ${hi.toFixed(1)} °C exceeds its maximum service temperature of ${l.maxServiceC} °C`);
-    if (l.minServiceC !== undefined && lo < l.minServiceC - 1e-9) warnings.push(`${label}: ${lo.toFixed(1)} °C is below its minimum service temperature of ${l.minServiceC} °C`);
+    if (l.maxServiceC !== undefined && hi > l.maxServiceC + 1e-9)
+      warnings.push(
+        `${label}: ${hi.toFixed(1)} °C exceeds its maximum service temperature of ${l.maxServiceC} °C`,
+      );
+    if (l.minServiceC !== undefined && lo < l.minServiceC - 1e-9)
+      warnings.push(
+        `${label}: ${lo.toFixed(1)} °C is below its minimum service temperature of ${l.minServiceC} °C`,
+      );
   });
 
   const dT = Tp - c.ambient.airC;
@@ -298,7 +430,15 @@ export function solvePrepared(chain: PreparedChain, c: SteadyCase, hintCoefficie
     : { outerSurface: { valueWPerM2K: u }, innerSurface: { valueWPerM2K: u } };
 
   return {
-    heatFlow: Q, surfaceC: Ts, interfacesC, profileC, convectiveWPerM2K: hConv, radiativeWPerM2K: hRad,
-    outerDiameterM: pipe ? 2 * rOuter : undefined, overall, warnings, iterations,
+    heatFlow: Q,
+    surfaceC: Ts,
+    interfacesC,
+    profileC,
+    convectiveWPerM2K: hConv,
+    radiativeWPerM2K: hRad,
+    outerDiameterM: pipe ? 2 * rOuter : undefined,
+    overall,
+    warnings,
+    iterations,
   };
 }

@@ -17,7 +17,7 @@ export const btuPerHFtToWPerM = (b: number) => (b * BTU) / (3600 * 0.3048);
 export const wPerM2ToBtuPerHFt2 = (w: number) => (w * 3600 * 0.3048 * 0.3048) / BTU;
 export const btuPerHFt2ToWPerM2 = (b: number) => (b * BTU) / (3600 * 0.3048 * 0.3048);
 /** Thermal conductivity: W/(m·K) ↔ Btu·in/(h·ft²·°F); 1 Btu·in/(h·ft²·°F) = 0.144228 W/(m·K). */
-const K_FACTOR = (BTU / 3600) * 0.0254 / (0.3048 * 0.3048) * 1.8;
+const K_FACTOR = (((BTU / 3600) * 0.0254) / (0.3048 * 0.3048)) * 1.8;
 export const wPerMKToBtuInPerHFt2F = (k: number) => k / K_FACTOR;
 export const btuInPerHFt2FToWPerMK = (k: number) => k * K_FACTOR;
 /** Heat transfer coefficient: W/(m²·K) ↔ Btu/(h·ft²·°F). */

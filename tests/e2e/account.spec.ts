@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { mailboxLink, signIn, signUpConfirmed } from './helpers';
 
-test('sign up (confirmed from the mailed link) creates an organization; a password reset link arrives in the mailbox and works', async ({ page }) => {
+test('sign up (confirmed from the mailed link) creates an organization; a password reset link arrives in the mailbox and works', async ({
+  page,
+}) => {
   const email = `e2e.${Date.now()}@example.com`;
   await page.goto('/sign-up');
   await page.getByLabel('Your name').fill('Piet Tester');
@@ -12,7 +14,9 @@ test('sign up (confirmed from the mailed link) creates an organization; a passwo
   await expect(page.getByText('Use at least 12 characters.')).toBeVisible();
   await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
   await page.getByRole('button', { name: 'Create account' }).click();
-  await expect(page.getByRole('status')).toHaveText('Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.');
+  await expect(page.getByRole('status')).toHaveText(
+    'Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.',
+  );
   await page.goto(await mailboxLink(page, email, 'Create my account'));
   await expect(page.getByText(`Account ${email} with the organization Tester Chemicals.`)).toBeVisible();
   await page.getByRole('button', { name: 'Create my account' }).click();
@@ -71,13 +75,23 @@ test('sign-up with an address that has an account answers exactly as for a new o
   await page.getByLabel('Password', { exact: true }).fill('granite-elbow-jacket');
   await page.getByLabel('Organization').fill('Copycat Ltd');
   await page.getByRole('button', { name: 'Create account' }).click();
-  await expect(page.getByRole('status')).toHaveText('Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.');
+  await expect(page.getByRole('status')).toHaveText(
+    'Check your e-mail: we sent a message to that address to finish creating your account. The link works once and expires in 24 hours.',
+  );
   await expect(page.getByText(/already exists|already has an account/)).toHaveCount(0);
 });
 
-test('a signed-in user changes the password: the current one is required, the other browser is signed out, a notice is mailed', async ({ page, browser }) => {
+test('a signed-in user changes the password: the current one is required, the other browser is signed out, a notice is mailed', async ({
+  page,
+  browser,
+}) => {
   const email = `pwchange.${Date.now()}@example.com`;
-  await signUpConfirmed(page, { name: 'Pia Change', email, password: 'granite-elbow-jacket', organization: 'Change Chemicals' });
+  await signUpConfirmed(page, {
+    name: 'Pia Change',
+    email,
+    password: 'granite-elbow-jacket',
+    organization: 'Change Chemicals',
+  });
 
   const other = await browser.newContext();
   const p2 = await other.newPage();
@@ -91,7 +105,9 @@ test('a signed-in user changes the password: the current one is required, the ot
   await page.getByLabel('Current password').fill('granite-elbow-jacket');
   await page.getByLabel('New password').fill('copper-saddle-weld');
   await page.getByRole('button', { name: 'Change password' }).click();
-  await expect(page.getByRole('status')).toHaveText('Password changed. Every other session was signed out, and a notice went to your address.');
+  await expect(page.getByRole('status')).toHaveText(
+    'Password changed. Every other session was signed out, and a notice went to your address.',
+  );
   // This browser stays signed in; the other one is out.
   await page.goto('/projects');
   await expect(page.getByTestId('user-email')).toHaveText(email);

@@ -6,9 +6,14 @@ test('the contractor downloads the issued bill and reaches nothing else', async 
   const c = demo('contractor');
   await signIn(page, c.email, c.password);
   const id = await openDemoProject(page);
-  await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Bill of quantities' }).click();
+  await page
+    .getByRole('navigation', { name: 'Project' })
+    .getByRole('link', { name: 'Bill of quantities' })
+    .click();
   await expect(page.getByRole('button', { name: /Issue revision/ })).toHaveCount(0);
-  await expect(page.getByRole('table', { name: 'Material summary' })).toContainText('Mineral wool pipe section');
+  await expect(page.getByRole('table', { name: 'Material summary' })).toContainText(
+    'Mineral wool pipe section',
+  );
   const dl = page.waitForEvent('download');
   await page.getByRole('link', { name: 'Download issue 1 (.xlsx)' }).click();
   const file = await dl;
@@ -29,12 +34,19 @@ test('the contractor downloads the issued bill and reaches nothing else', async 
   }
 });
 
-test('the owner sees the area over its allocation flagged and can ask what-if questions', async ({ page }) => {
+test('the owner sees the area over its allocation flagged and can ask what-if questions', async ({
+  page,
+}) => {
   const o = demo('owner');
   await signIn(page, o.email, o.password);
   await openDemoProject(page);
-  await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Heat-loss budget' }).click();
-  await expect(page.getByRole('alert').filter({ hasText: 'Over budget' })).toContainText(/U30 Polymerisation: .* kW designed against .* kW allocated/);
+  await page
+    .getByRole('navigation', { name: 'Project' })
+    .getByRole('link', { name: 'Heat-loss budget' })
+    .click();
+  await expect(page.getByRole('alert').filter({ hasText: 'Over budget' })).toContainText(
+    /U30 Polymerisation: .* kW designed against .* kW allocated/,
+  );
   await expect(page.locator('tr[data-area="U30 Polymerisation"]')).toContainText('over allocation');
   await expect(page.locator('tr[data-area="U20 Boiler house"]')).not.toContainText('over allocation');
   await expect(page.getByRole('img', { name: 'Heat loss per area against allocation' })).toBeVisible();

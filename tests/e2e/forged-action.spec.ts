@@ -16,22 +16,42 @@ async function captureAddJacket(page: Page, projectId: string, name: string) {
   let captured: Request | null = null;
   await page.route(`**/projects/${projectId}/design-basis`, async (route) => {
     const r = route.request();
-    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+    if (r.method() === 'POST' && r.headers()['next-action']) {
+      captured = r;
+      await route.abort();
+    } else await route.continue();
   });
   await form.getByRole('button', { name: 'Add jacket' }).click();
   await expect.poll(() => captured !== null).toBe(true);
   await page.unroute(`**/projects/${projectId}/design-basis`);
   const r = captured as unknown as Request;
   const h = r.headers();
-  return { url: r.url(), body: r.postDataBuffer()!, headers: { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin } };
+  return {
+    url: r.url(),
+    body: r.postDataBuffer()!,
+    headers: {
+      'content-type': h['content-type'],
+      'next-action': h['next-action'],
+      'next-router-state-tree': h['next-router-state-tree'] ?? '',
+      accept: 'text/x-component',
+      origin: new URL(r.url()).origin,
+    },
+  };
 }
 
 async function jacketNames(page: Page, projectId: string) {
   await page.goto(`/projects/${projectId}/design-basis`);
-  return page.getByRole('table', { name: 'Project jackets' }).locator('tbody tr td:first-child').allTextContents();
+  return page
+    .getByRole('table', { name: 'Project jackets' })
+    .locator('tbody tr td:first-child')
+    .allTextContents();
 }
 
-test('a captured "add jacket" action replayed by a contractor, a reviewer and an anonymous caller is refused and changes nothing', async ({ page, browser, baseURL }) => {
+test('a captured "add jacket" action replayed by a contractor, a reviewer and an anonymous caller is refused and changes nothing', async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   await signIn(page, demo('engineer').email, demo('engineer').password);
   await page.getByLabel('Code').fill(`E2E-F${Date.now().toString().slice(-6)}`);
   await page.getByLabel('Name').fill('E2E forged actions');
@@ -64,7 +84,11 @@ test('a captured "add jacket" action replayed by a contractor, a reviewer and an
   expect(await jacketNames(page, projectId)).toContain('Replayed cladding');
 });
 
-test('a captured "send domain proof" action replayed by an engineer is refused; the owner\'s proof link, confirmed, makes the domain count', async ({ page, browser, baseURL }) => {
+test('a captured "send domain proof" action replayed by an engineer is refused; the owner\'s proof link, confirmed, makes the domain count', async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   const domain = `labs-${Date.now().toString().slice(-6)}.korvane.example`;
   await signIn(page, demo('owner').email, demo('owner').password);
   await page.getByRole('link', { name: 'Members' }).first().click();
@@ -79,7 +103,10 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   let captured: Request | null = null;
   await page.route(settingsGlob, async (route) => {
     const r = route.request();
-    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+    if (r.method() === 'POST' && r.headers()['next-action']) {
+      captured = r;
+      await route.abort();
+    } else await route.continue();
   });
   await page.getByTestId(`domain-${domain}`).getByLabel(`Mailbox at ${domain}`).selectOption('hostmaster');
   await page.getByRole('button', { name: `Send proof link for ${domain}` }).click();
@@ -87,7 +114,13 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   await page.unroute(settingsGlob);
   const r = captured as unknown as Request;
   const h = r.headers();
-  const headers = { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin };
+  const headers = {
+    'content-type': h['content-type'],
+    'next-action': h['next-action'],
+    'next-router-state-tree': h['next-router-state-tree'] ?? '',
+    accept: 'text/x-component',
+    origin: new URL(r.url()).origin,
+  };
 
   const ctx = await browser.newContext({ baseURL });
   const p = await ctx.newPage();
@@ -95,7 +128,11 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   const res = await p.request.post(r.url(), { headers, data: r.postDataBuffer()! });
   expect(await res.text()).toContain('Your role in this organization does not allow that.');
   await ctx.close();
-  const mails = await (await page.request.get(`http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}/messages?to=${encodeURIComponent(`hostmaster@${domain}`)}`)).json();
+  const mails = await (
+    await page.request.get(
+      `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}/messages?to=${encodeURIComponent(`hostmaster@${domain}`)}`,
+    )
+  ).json();
   expect(mails).toHaveLength(0);
 
   // Control: the owner's own request sends the link; whoever reads hostmaster@ confirms it.
@@ -105,33 +142,59 @@ test('a captured "send domain proof" action replayed by an engineer is refused; 
   await page.getByRole('button', { name: `Confirm ${domain} for Korvane Polymers` }).click();
   await expect(page.getByRole('status')).toHaveText(`${domain} is confirmed for Korvane Polymers.`);
   await page.goto(settingsUrl);
-  await expect(page.getByTestId(`domain-${domain}`)).toContainText(`${domain} · proven (hostmaster@${domain})`);
+  await expect(page.getByTestId(`domain-${domain}`)).toContainText(
+    `${domain} · proven (hostmaster@${domain})`,
+  );
   await page.getByLabel('Allowed e-mail domains').fill('korvane.example');
   await page.getByRole('button', { name: 'Save company sign-in' }).click();
   await expect(page.getByTestId(`domain-${domain}`)).toHaveCount(0);
 });
 
-test('a captured bulk accept replayed by a reviewer and a contractor is refused and changes nothing', async ({ page, browser, baseURL }) => {
+test('a captured bulk accept replayed by a reviewer and a contractor is refused and changes nothing', async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   test.slow(); // a project with an import, then three sessions
   await signIn(page, demo('engineer').email, demo('engineer').password);
-  const projectId = await createProjectWithLines(page, 'E2E forged bulk accept', [lineRow('F-1', '4', 180, 'H,P'), lineRow('F-2', '2', 120, 'H,P')]);
-  const undecided = async () => (await (await page.request.get(`/api/v1/projects/${projectId}/lines?status=undecided`)).json()).total as number;
+  const projectId = await createProjectWithLines(page, 'E2E forged bulk accept', [
+    lineRow('F-1', '4', 180, 'H,P'),
+    lineRow('F-2', '2', 120, 'H,P'),
+  ]);
+  const undecided = async () =>
+    (await (await page.request.get(`/api/v1/projects/${projectId}/lines?status=undecided`)).json())
+      .total as number;
   await expect(page.locator('tr[data-tag="F-2"]')).toBeVisible();
   await page.getByRole('button', { name: 'Accept recommendation for the filtered lines' }).click();
   const dialog = page.getByRole('dialog', { name: 'Accept the recommendation for the filtered lines?' });
-  await expect(dialog.locator('#bulk-accept-counts')).toHaveText('This changes 2 lines and leaves 0 lines alone.');
+  await expect(dialog.locator('#bulk-accept-counts')).toHaveText(
+    'This changes 2 lines and leaves 0 lines alone.',
+  );
   // Capture the confirmation's request (the preview has been answered already) without letting it through.
   let captured: Request | null = null;
   await page.route(`**/projects/${projectId}/lines`, async (route) => {
     const r = route.request();
-    if (r.method() === 'POST' && r.headers()['next-action']) { captured = r; await route.abort(); } else await route.continue();
+    if (r.method() === 'POST' && r.headers()['next-action']) {
+      captured = r;
+      await route.abort();
+    } else await route.continue();
   });
   await dialog.getByRole('button', { name: 'Accept for 2 lines' }).click();
   await expect.poll(() => captured !== null).toBe(true);
   await page.unroute(`**/projects/${projectId}/lines`);
   const r = captured as unknown as Request;
   const h = r.headers();
-  const req = { url: r.url(), body: r.postDataBuffer()!, headers: { 'content-type': h['content-type'], 'next-action': h['next-action'], 'next-router-state-tree': h['next-router-state-tree'] ?? '', accept: 'text/x-component', origin: new URL(r.url()).origin } };
+  const req = {
+    url: r.url(),
+    body: r.postDataBuffer()!,
+    headers: {
+      'content-type': h['content-type'],
+      'next-action': h['next-action'],
+      'next-router-state-tree': h['next-router-state-tree'] ?? '',
+      accept: 'text/x-component',
+      origin: new URL(r.url()).origin,
+    },
+  };
   expect(await undecided()).toBe(2);
 
   for (const key of ['contractor', 'reviewer'] as const) {

@@ -15,7 +15,9 @@ export async function signIn(page: Page, email: string, password: string) {
 
 export async function openDemoProject(page: Page) {
   await page.getByRole('link', { name: 'Brack Point steam network upgrade' }).click();
-  await expect(page.getByRole('heading', { level: 1, name: 'Brack Point steam network upgrade' })).toBeVisible();
+  await expect(
+    page.getByRole('heading', { level: 1, name: 'Brack Point steam network upgrade' }),
+  ).toBeVisible();
   return page.url().split('/projects/')[1];
 }
 
@@ -24,8 +26,32 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { TEMPLATE_HEADERS, lineListWorkbook } from '../../seed/line-list';
 
-export const lineRow = (tag: string, nps: string, temp: number, purpose: string, extra: Record<string, string | number> = {}): (string | number | null)[] =>
-  TEMPLATE_HEADERS.map((h) => ({ 'Line tag': tag, Service: 'E2E service', Area: 'E2E', Geometry: 'Horizontal pipe', NPS: nps, 'Length (m)': 40, 'Normal temp (°C)': temp, 'Max temp (°C)': temp + 10, Purpose: purpose, Location: 'Outdoor', Accessible: 'yes', ...extra } as Record<string, string | number>)[h] ?? null);
+export const lineRow = (
+  tag: string,
+  nps: string,
+  temp: number,
+  purpose: string,
+  extra: Record<string, string | number> = {},
+): (string | number | null)[] =>
+  TEMPLATE_HEADERS.map(
+    (h) =>
+      (
+        ({
+          'Line tag': tag,
+          Service: 'E2E service',
+          Area: 'E2E',
+          Geometry: 'Horizontal pipe',
+          NPS: nps,
+          'Length (m)': 40,
+          'Normal temp (°C)': temp,
+          'Max temp (°C)': temp + 10,
+          Purpose: purpose,
+          Location: 'Outdoor',
+          Accessible: 'yes',
+          ...extra,
+        }) as Record<string, string | number>
+      )[h] ?? null,
+  );
 
 /** As a signed-in engineer on /projects: a new project with the given lines imported and solved. Returns its id. */
 export async function createProjectWithLines(page: Page, name: string, rows: (string | number | null)[][]) {
@@ -49,13 +75,25 @@ export async function createProjectWithLines(page: Page, name: string, rows: (st
  * The newest message to an address in the local SMTP sink, and the URL behind one of its links
  * (the text part ends each link as "Label: URL"). The app itself never shows other people's mail.
  */
-export async function mailLink(to: string, subject: RegExp, label: string, opts: { text?: RegExp; after?: Date } = {}): Promise<{ url: string; text: string }> {
+export async function mailLink(
+  to: string,
+  subject: RegExp,
+  label: string,
+  opts: { text?: RegExp; after?: Date } = {},
+): Promise<{ url: string; text: string }> {
   const sink = `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? 2536}`;
   const deadline = Date.now() + 15_000;
   const escaped = label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
   for (;;) {
-    const list: { subject: string; text: string; receivedAt: string }[] = await (await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)).json();
-    const m = list.find((x) => subject.test(x.subject) && (!opts.after || new Date(x.receivedAt) >= opts.after) && (!opts.text || opts.text.test(x.text)));
+    const list: { subject: string; text: string; receivedAt: string }[] = await (
+      await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)
+    ).json();
+    const m = list.find(
+      (x) =>
+        subject.test(x.subject) &&
+        (!opts.after || new Date(x.receivedAt) >= opts.after) &&
+        (!opts.text || opts.text.test(x.text)),
+    );
     if (m) {
       const hit = m.text.match(new RegExp(`${escaped}: (\\S+)`));
       if (!hit) throw new Error(`no "${label}" link in "${m.subject}"`);
@@ -75,7 +113,9 @@ export async function mailboxLink(_page: Page, to: string, linkName: string): Pr
   const escaped = linkName.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
   const deadline = Date.now() + 15_000;
   for (;;) {
-    const list: { text: string }[] = await (await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)).json();
+    const list: { text: string }[] = await (
+      await fetch(`${sink}/messages?to=${encodeURIComponent(to.toLowerCase())}`)
+    ).json();
     for (const m of list) {
       const hit = m.text.match(new RegExp(`${escaped}: (\\S+)`));
       if (hit) return hit[1];
@@ -86,7 +126,10 @@ export async function mailboxLink(_page: Page, to: string, linkName: string): Pr
 }
 
 /** Signs up a new account through the mailed confirmation link and lands signed in on /projects. */
-export async function signUpConfirmed(page: Page, o: { name: string; email: string; password: string; organization: string }) {
+export async function signUpConfirmed(
+  page: Page,
+  o: { name: string; email: string; password: string; organization: string },
+) {
   await page.goto('/sign-up');
   await page.getByLabel('Your name').fill(o.name);
   await page.getByLabel('Work e-mail').fill(o.email);

@@ -5,7 +5,9 @@ import { join } from 'node:path';
 import { demo, lineRow, signIn } from './helpers';
 import { lineListWorkbook } from '../../seed/line-list';
 
-test('an import runs as a background job: a progress bar with counts, and it finishes after leaving the page and coming back', async ({ page }) => {
+test('an import runs as a background job: a progress bar with counts, and it finishes after leaving the page and coming back', async ({
+  page,
+}) => {
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
   await page.getByLabel('Code').fill(`E2E-${Date.now().toString().slice(-7)}`);
@@ -17,7 +19,9 @@ test('an import runs as a background job: a progress bar with counts, and it fin
 
   const n = 800;
   const sizes = ['1', '2', '3', '4', '6', '8'];
-  const rows = Array.from({ length: n }, (_, i) => lineRow(`J-${1000 + i}`, sizes[i % sizes.length], 120 + (i % 200), 'H,P'));
+  const rows = Array.from({ length: n }, (_, i) =>
+    lineRow(`J-${1000 + i}`, sizes[i % sizes.length], 120 + (i % 200), 'H,P'),
+  );
   const file = join(mkdtempSync(join(tmpdir(), 'lagwise-e2e-')), 'lines.xlsx');
   writeFileSync(file, await lineListWorkbook(rows));
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
@@ -34,6 +38,10 @@ test('an import runs as a background job: a progress bar with counts, and it fin
   await page.goto(`/projects/${id}/lines`);
   await expect(page.getByText(`${n} lines`, { exact: true })).toBeVisible({ timeout: 120_000 });
   await page.getByText('Recent jobs', { exact: true }).click();
-  await expect(page.getByRole('list', { name: 'Recent jobs' }).getByText(new RegExp(`Import and solve · done · ${n} lines solved`))).toBeVisible();
+  await expect(
+    page
+      .getByRole('list', { name: 'Recent jobs' })
+      .getByText(new RegExp(`Import and solve · done · ${n} lines solved`)),
+  ).toBeVisible();
   await expect(page.getByRole('progressbar')).toHaveCount(0);
 });

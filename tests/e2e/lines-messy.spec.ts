@@ -17,9 +17,13 @@ async function newProject(page: Page, name: string) {
   return id;
 }
 
-const lineCount = async (page: Page, id: string) => ((await (await page.request.get(`/api/v1/projects/${id}/lines?size=10`)).json()) as { total: number }).total;
+const lineCount = async (page: Page, id: string) =>
+  ((await (await page.request.get(`/api/v1/projects/${id}/lines?size=10`)).json()) as { total: number })
+    .total;
 
-test('a client workbook with title rows: header row, mapping, value questions, check, import — and nothing imports when stopped halfway', async ({ page }) => {
+test('a client workbook with title rows: header row, mapping, value questions, check, import — and nothing imports when stopped halfway', async ({
+  page,
+}) => {
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
   const id = await newProject(page, 'Client workbook');
@@ -32,7 +36,9 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   await page.getByRole('button', { name: 'Read file' }).click();
   const headerRow = page.getByLabel('Header row (the column names)');
   await expect(headerRow).toHaveValue('4');
-  await expect(page.getByLabel('Rows to read')).toHaveText('4 rows below the header; rows above row 4 are not read.');
+  await expect(page.getByLabel('Rows to read')).toHaveText(
+    '4 rows below the header; rows above row 4 are not read.',
+  );
   await expect(page.getByLabel('Column for Line / equipment tag')).toHaveValue('0');
   await expect(page.getByLabel('Unit for Normal operating temperature')).toHaveValue('°F');
   await expect(page.getByLabel('Unit for Length')).toHaveValue('ft');
@@ -43,7 +49,9 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   await headerRow.selectOption('2');
   await expect(page.getByLabel('Column for Line / equipment tag')).toHaveValue('');
   await page.getByRole('button', { name: 'Check the rows' }).click();
-  await expect(page.getByRole('table', { name: 'Problems found' })).toContainText('No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size');
+  await expect(page.getByRole('table', { name: 'Problems found' })).toContainText(
+    'No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size',
+  );
   await headerRow.selectOption('4');
   await expect(page.getByLabel('Column for Line / equipment tag')).toHaveValue('0');
 
@@ -69,10 +77,16 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   await page.getByLabel('Meaning of Platform (Indoor / outdoor)').selectOption('outdoor');
   await expect(page.getByText('All answered — check the rows again.')).toBeVisible();
   await page.getByRole('button', { name: 'Check the rows again' }).click();
-  await expect(page.getByRole('status', { name: 'Check result' })).toContainText('4 lines ready · 0 errors · 1 warnings');
-  await expect(page.getByRole('table', { name: 'Problems found' })).toContainText('Cell D6 holds a formula; its last calculated value was used.');
+  await expect(page.getByRole('status', { name: 'Check result' })).toContainText(
+    '4 lines ready · 0 errors · 1 warnings',
+  );
+  await expect(page.getByRole('table', { name: 'Problems found' })).toContainText(
+    'Cell D6 holds a formula; its last calculated value was used.',
+  );
   await page.getByRole('button', { name: 'Import 4 lines' }).click();
-  await expect(page.getByText(/Revision 1 imported: 4 lines \(4 added, 0 changed, 0 removed\); 4 solved\./)).toBeVisible();
+  await expect(
+    page.getByText(/Revision 1 imported: 4 lines \(4 added, 0 changed, 0 removed\); 4 solved\./),
+  ).toBeVisible();
   await expect(page.locator('tr[data-tag="40-ST-102"]')).toBeVisible();
   expect(await lineCount(page, id)).toBe(4);
 
@@ -84,7 +98,9 @@ test('a client workbook with title rows: header row, mapping, value questions, c
   await expect(page.getByRole('table', { name: 'Values to answer' })).toHaveCount(0);
 });
 
-test('a Windows-1252 semicolon CSV says how it was read and imports with decimal commas', async ({ page }) => {
+test('a Windows-1252 semicolon CSV says how it was read and imports with decimal commas', async ({
+  page,
+}) => {
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
   const id = await newProject(page, 'European CSV');
@@ -92,13 +108,17 @@ test('a Windows-1252 semicolon CSV says how it was read and imports with decimal
   writeFileSync(file, semicolon1252Csv());
   await page.getByLabel(FILE_LABEL).setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
-  await expect(page.getByLabel('How the file was read')).toHaveText('Read as Windows-1252, semicolon-separated.');
+  await expect(page.getByLabel('How the file was read')).toHaveText(
+    'Read as Windows-1252, semicolon-separated.',
+  );
   await expect(page.getByLabel('Unit for Nominal size (NPS or DN)')).toHaveValue('DN');
   await page.getByRole('button', { name: 'Check the rows' }).click();
   await page.getByLabel('Meaning of Rohrbrücke (Indoor / outdoor)').selectOption('outdoor');
   await page.getByRole('button', { name: 'Check the rows again' }).click();
   await page.getByRole('button', { name: 'Import 4 lines' }).click();
   await expect(page.getByText(/Revision 1 imported: 4 lines/)).toBeVisible();
-  const lines = (await (await page.request.get(`/api/v1/projects/${id}/lines?size=10&sort=tag&dir=asc`)).json()) as { rows: { tag: string; nps: string | null }[] };
+  const lines = (await (
+    await page.request.get(`/api/v1/projects/${id}/lines?size=10&sort=tag&dir=asc`)
+  ).json()) as { rows: { tag: string; nps: string | null }[] };
   expect(lines.rows.map((r) => r.tag)).toEqual(['F-3001', 'K-2001', 'S-1001', 'S-1002']);
 });

@@ -7,7 +7,24 @@ import { demo, openDemoProject, signIn } from './helpers';
 import { TEMPLATE_HEADERS, lineListWorkbook } from '../../seed/line-list';
 
 const row = (tag: string, nps: string, temp: number, purpose: string): (string | number | null)[] =>
-  TEMPLATE_HEADERS.map((h) => ({ 'Line tag': tag, Service: 'E2E service', Area: 'E2E', Geometry: 'Horizontal pipe', NPS: nps, 'Length (m)': 40, 'Normal temp (°C)': temp, 'Max temp (°C)': temp + 10, Purpose: purpose, Location: 'Outdoor', Accessible: 'yes' } as Record<string, string | number>)[h] ?? null);
+  TEMPLATE_HEADERS.map(
+    (h) =>
+      (
+        ({
+          'Line tag': tag,
+          Service: 'E2E service',
+          Area: 'E2E',
+          Geometry: 'Horizontal pipe',
+          NPS: nps,
+          'Length (m)': 40,
+          'Normal temp (°C)': temp,
+          'Max temp (°C)': temp + 10,
+          Purpose: purpose,
+          Location: 'Outdoor',
+          Accessible: 'yes',
+        }) as Record<string, string | number>
+      )[h] ?? null,
+  );
 
 test('engineer: template, upload, map, import, results, pick, reload', async ({ page }) => {
   const u = demo('engineer');
@@ -30,7 +47,14 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
 
   const dir = mkdtempSync(join(tmpdir(), 'lagwise-e2e-'));
   const file = join(dir, 'filled.xlsx');
-  writeFileSync(file, await lineListWorkbook([row('E-101', '4', 180, 'H,P'), row('E-102', '2', 90, 'H,P'), row('E-103', '3', 6, 'C')]));
+  writeFileSync(
+    file,
+    await lineListWorkbook([
+      row('E-101', '4', 180, 'H,P'),
+      row('E-102', '2', 90, 'H,P'),
+      row('E-103', '3', 6, 'C'),
+    ]),
+  );
   await page.getByLabel('Line-list file (.xlsx or .csv, up to 20 MB)').setInputFiles(file);
   await page.getByRole('button', { name: 'Read file' }).click();
   await expect(page.getByLabel('Column for Line / equipment tag')).toHaveValue('0');
@@ -38,7 +62,9 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
   await page.getByRole('button', { name: 'Check the rows' }).click();
   await expect(page.getByRole('status', { name: 'Check result' })).toContainText('3 lines ready · 0 errors');
   await page.getByRole('button', { name: 'Import 3 lines' }).click();
-  await expect(page.getByText(/Revision 1 imported: 3 lines \(3 added, 0 changed, 0 removed\); 3 solved\./)).toBeVisible();
+  await expect(
+    page.getByText(/Revision 1 imported: 3 lines \(3 added, 0 changed, 0 removed\); 3 solved\./),
+  ).toBeVisible();
 
   const r101 = page.locator('tr[data-tag="E-101"]');
   await expect(r101).toBeVisible();
@@ -53,7 +79,9 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
   const select = page.getByLabel('Thickness for E-101');
   await select.focus(); // opening the picker loads its thickness options
   await expect(select.locator('option[value="0"]')).toBeAttached();
-  const options = await select.locator('option').evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
+  const options = await select
+    .locator('option')
+    .evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
   const next = options[options.indexOf(String(rec)) + 1];
   await select.selectOption(next);
   await page.getByLabel('Reason for E-101').fill('One size up for the wind at the jetty');
@@ -66,9 +94,13 @@ test('engineer: template, upload, map, import, results, pick, reload', async ({ 
   // The line detail shows the choice and the overall coefficient with its reference areas.
   await page.locator('tr[data-tag="E-101"] a').click();
   await expect(page.getByText('(manual pick)')).toBeVisible();
-  await expect(page.getByText('Reason: One size up for the wind at the jetty', { exact: true })).toBeVisible();
+  await expect(
+    page.getByText('Reason: One size up for the wind at the jetty', { exact: true }),
+  ).toBeVisible();
   // The record reads as changes, not JSON.
-  await expect(page.getByRole('table', { name: 'Audit trail' })).toContainText('reason: One size up for the wind at the jetty');
+  await expect(page.getByRole('table', { name: 'Audit trail' })).toContainText(
+    'reason: One size up for the wind at the jetty',
+  );
   await expect(page.getByText('U referred to the outer surface')).toBeVisible();
   await expect(page.getByRole('img', { name: 'Heat loss and annual cost against thickness' })).toBeVisible();
 });
@@ -101,7 +133,10 @@ test('a file with errors is refused with row and column, and nothing is imported
   await expect(page.getByRole('alert').filter({ hasText: /xlsx workbook or a \.csv/ })).toBeVisible();
 });
 
-test('the safety reviewer reads the line list without edit controls; the contractor cannot open it', async ({ page, browser }) => {
+test('the safety reviewer reads the line list without edit controls; the contractor cannot open it', async ({
+  page,
+  browser,
+}) => {
   const r = demo('reviewer');
   await signIn(page, r.email, r.password);
   await openDemoProject(page);

@@ -1,7 +1,10 @@
 import { expect, test } from '@playwright/test';
 import { createProjectWithLines, demo, lineRow, signIn } from './helpers';
 
-test('an engineer adds a project material with its data; a bad table line is named; the specification can then choose it; a reviewer only reads', async ({ page, browser }) => {
+test('an engineer adds a project material with its data; a bad table line is named; the specification can then choose it; a reviewer only reads', async ({
+  page,
+  browser,
+}) => {
   await signIn(page, demo('engineer').email, demo('engineer').password);
   const projectId = await createProjectWithLines(page, 'E2E own materials', [lineRow('OM-1', '4', 200, 'H')]);
   await page.goto(`/projects/${projectId}/design-basis`);
@@ -22,7 +25,9 @@ test('an engineer adds a project material with its data; a bad table line is nam
   await form.getByRole('button', { name: 'Add material' }).click();
   await expect(form.getByRole('status')).toContainText('Material added.');
   const table = page.getByRole('table', { name: 'Project materials' });
-  await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText('0.021 at 50 °C … 0.03 at 300 °C (3 points)');
+  await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText(
+    '0.021 at 50 °C … 0.03 at 300 °C (3 points)',
+  );
   await expect(table).toContainText('Scenario data sheet rev 1');
   // Change it in place: the form fills with its values and saves under the same id.
   await table.getByRole('button', { name: 'Change Scenario microporous section' }).click();
@@ -31,18 +36,26 @@ test('an engineer adds a project material with its data; a bad table line is nam
   await edit.getByLabel('Source of the data').fill('Scenario data sheet rev 2');
   await edit.getByRole('button', { name: 'Save changes' }).click();
   await expect(page.getByRole('status').filter({ hasText: 'Material changed.' })).toBeVisible();
-  await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText('Scenario data sheet rev 2');
+  await expect(table.getByRole('row', { name: /Scenario microporous section/ })).toContainText(
+    'Scenario data sheet rev 2',
+  );
   await expect(table.getByRole('row')).toHaveCount(2); // header + the one material
   // The specification bands offer it.
   await page.reload();
-  await expect(page.getByLabel('Band 3 material').locator('option', { hasText: 'Scenario microporous section (project)' })).toHaveCount(1);
+  await expect(
+    page
+      .getByLabel('Band 3 material')
+      .locator('option', { hasText: 'Scenario microporous section (project)' }),
+  ).toHaveCount(1);
   await page.screenshot({ path: 'test-results/own-materials.png', fullPage: true });
 
   const ctx = await browser.newContext();
   const reviewer = await ctx.newPage();
   await signIn(reviewer, demo('reviewer').email, demo('reviewer').password);
   await reviewer.goto(`/projects/${projectId}/design-basis`);
-  await expect(reviewer.getByRole('table', { name: 'Project materials' })).toContainText('Scenario microporous section');
+  await expect(reviewer.getByRole('table', { name: 'Project materials' })).toContainText(
+    'Scenario microporous section',
+  );
   await expect(reviewer.getByRole('form', { name: 'Add a project material' })).toHaveCount(0);
   await expect(reviewer.getByRole('button', { name: /Remove/ })).toHaveCount(0);
   await ctx.close();

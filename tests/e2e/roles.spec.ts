@@ -1,14 +1,27 @@
 import { expect, test } from '@playwright/test';
 import { demo, openDemoProject, other, signIn } from './helpers';
 
-const ALL = ['Overview', 'Line list', 'Design basis', 'Safety review', 'Heat-loss budget', 'Bill of quantities', 'Members'];
+const ALL = [
+  'Overview',
+  'Line list',
+  'Design basis',
+  'Safety review',
+  'Heat-loss budget',
+  'Bill of quantities',
+  'Members',
+];
 const NAV: Record<string, string[]> = {
   owner: ALL,
   engineer: ALL,
   reviewer: ALL,
   contractor: ['Overview', 'Bill of quantities'],
 };
-const ROLE_LABEL: Record<string, string> = { owner: 'Owner', engineer: 'Engineer', reviewer: 'Safety reviewer', contractor: 'Contractor' };
+const ROLE_LABEL: Record<string, string> = {
+  owner: 'Owner',
+  engineer: 'Engineer',
+  reviewer: 'Safety reviewer',
+  contractor: 'Contractor',
+};
 
 for (const key of ['owner', 'engineer', 'reviewer', 'contractor'] as const) {
   test(`${key} signs in and sees the navigation of the role`, async ({ page }) => {
@@ -77,6 +90,8 @@ test('wrong password shows the generic message and keeps the e-mail typed', asyn
   await page.getByLabel('E-mail', { exact: true }).fill('engineer@korvane.example');
   await page.getByLabel('Password', { exact: true }).fill('definitely-wrong-1');
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByRole('alert').filter({ hasText: /./ })).toHaveText('E-mail or password is not right.');
+  await expect(page.getByRole('alert').filter({ hasText: /./ })).toHaveText(
+    'E-mail or password is not right.',
+  );
   await expect(page.getByLabel('E-mail', { exact: true })).toHaveValue('engineer@korvane.example');
 });

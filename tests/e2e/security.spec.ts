@@ -32,9 +32,13 @@ test('the development mailbox does not exist in a production build, signed in or
   expect(await r.text()).not.toContain('reset-password');
 });
 
-test('pages and API routes carry the security headers; each page gets its own nonce and runs under it', async ({ page }) => {
+test('pages and API routes carry the security headers; each page gets its own nonce and runs under it', async ({
+  page,
+}) => {
   const violations: string[] = [];
-  page.on('console', (m) => { if (/Content Security Policy/i.test(m.text())) violations.push(m.text()); });
+  page.on('console', (m) => {
+    if (/Content Security Policy/i.test(m.text())) violations.push(m.text());
+  });
   const a = await page.request.get('/sign-in');
   const b = await page.request.get('/sign-in');
   expectSecurityHeaders(a, 'page');
@@ -72,10 +76,19 @@ test('sign-off and bill pages cannot be framed by another site', async ({ page }
   }
 });
 
-test('one account under attack is throttled whatever X-Forwarded-For says; other accounts still sign in', async ({ page, playwright, baseURL }) => {
+test('one account under attack is throttled whatever X-Forwarded-For says; other accounts still sign in', async ({
+  page,
+  playwright,
+  baseURL,
+}) => {
   // A fresh account, so no demo account is locked for the other tests.
   const email = `target.${Date.now()}@example.com`;
-  await signUpConfirmed(page, { name: 'Tess Target', email, password: 'granite-elbow-target', organization: 'Target Works' });
+  await signUpConfirmed(page, {
+    name: 'Tess Target',
+    email,
+    password: 'granite-elbow-target',
+    organization: 'Target Works',
+  });
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/sign-in$/);
 
@@ -85,16 +98,23 @@ test('one account under attack is throttled whatever X-Forwarded-For says; other
     await page.getByLabel('E-mail', { exact: true }).fill(email);
     await page.getByLabel('Password', { exact: true }).fill(`wrong-password-${i}`);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await expect(page.getByRole('alert').filter({ hasText: 'E-mail or password is not right.' })).toBeVisible();
+    await expect(
+      page.getByRole('alert').filter({ hasText: 'E-mail or password is not right.' }),
+    ).toBeVisible();
   }
   await page.setExtraHTTPHeaders({ 'x-forwarded-for': '203.0.113.77' });
   await page.getByLabel('E-mail', { exact: true }).fill(email);
   await page.getByLabel('Password', { exact: true }).fill('granite-elbow-target');
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page.getByRole('alert').filter({ hasText: /Too many failed sign-ins\. Wait \d+ seconds/ })).toBeVisible();
+  await expect(
+    page.getByRole('alert').filter({ hasText: /Too many failed sign-ins\. Wait \d+ seconds/ }),
+  ).toBeVisible();
 
   // Another person signs in at the same moment, from the same (unknown) address.
-  const ctx = await playwright.chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox'] });
+  const ctx = await playwright.chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    args: ['--no-sandbox'],
+  });
   const other = await ctx.newPage({ baseURL });
   const eng = demo('engineer');
   await signIn(other, eng.email, eng.password);
@@ -104,13 +124,18 @@ test('one account under attack is throttled whatever X-Forwarded-For says; other
 test('refusals answer 413, 403 and 404 rather than 500', async ({ page, baseURL }) => {
   // An oversized sign-in post (a server action) and an oversized line-list upload.
   const big = Buffer.alloc(25 * 1024 * 1024, 0x61);
-  const signInPost = await page.request.post('/sign-in', { data: big, headers: { 'content-type': 'text/plain;charset=UTF-8', 'next-action': 'x' } });
+  const signInPost = await page.request.post('/sign-in', {
+    data: big,
+    headers: { 'content-type': 'text/plain;charset=UTF-8', 'next-action': 'x' },
+  });
   expect(signInPost.status()).toBe(413);
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
   const id = await openDemoProject(page);
   const upload = await page.request.post(`/projects/${id}/lines`, {
-    multipart: { file: { name: 'lines.csv', mimeType: 'text/csv', buffer: Buffer.alloc(21 * 1024 * 1024 + 10, 0x61) } },
+    multipart: {
+      file: { name: 'lines.csv', mimeType: 'text/csv', buffer: Buffer.alloc(21 * 1024 * 1024 + 10, 0x61) },
+    },
     headers: { 'next-action': 'x' },
   });
   expect(upload.status()).toBe(413);
@@ -118,25 +143,45 @@ test('refusals answer 413, 403 and 404 rather than 500', async ({ page, baseURL 
 
   const nullOrigin = await page.request.post('/api/v1/calc', { data: [], headers: { origin: 'null' } });
   expect(nullOrigin.status()).toBe(403);
-  expect((await page.request.post('/api/v1/calc', { data: [], headers: { origin: 'not a url' } })).status()).toBe(403);
+  expect(
+    (await page.request.post('/api/v1/calc', { data: [], headers: { origin: 'not a url' } })).status(),
+  ).toBe(403);
 
   expect((await page.request.get(`/api/v1/projects/${id}/boq/1`)).status()).toBe(200);
   for (const n of ['0x1', '1e0', '01', '+1', '1.0']) {
-    expect((await page.request.get(`/api/v1/projects/${id}/boq/${encodeURIComponent(n)}`)).status(), n).toBe(404);
+    expect((await page.request.get(`/api/v1/projects/${id}/boq/${encodeURIComponent(n)}`)).status(), n).toBe(
+      404,
+    );
   }
-  expect((await page.request.get('/api/v1/projects/------------------------------------')).status()).toBe(404);
+  expect((await page.request.get('/api/v1/projects/------------------------------------')).status()).toBe(
+    404,
+  );
 
   // A conductivity table far beyond any declared curve is refused before any CPU is spent.
   const points = Array.from({ length: 5000 }, (_, i) => [i / 10, 0.04]);
   const heavy = await page.request.post('/api/v1/calc', {
-    data: [{ geometry: 'horizontal-pipe', pipeOuterDiameterMm: 60.3, processTempC: 100, ambientTempC: 20, surfaceEmittance: 0.9, layers: [{ thicknessMm: 25, conductivity: { type: 'table', points } }] }],
+    data: [
+      {
+        geometry: 'horizontal-pipe',
+        pipeOuterDiameterMm: 60.3,
+        processTempC: 100,
+        ambientTempC: 20,
+        surfaceEmittance: 0.9,
+        layers: [{ thicknessMm: 25, conductivity: { type: 'table', points } }],
+      },
+    ],
     headers: { origin: baseURL! },
   });
   expect(heavy.status()).toBe(400);
-  expect((await heavy.json()).error.fields['0.layers.0.conductivity.points'][0]).toBe('a conductivity table may have at most 200 points');
+  expect((await heavy.json()).error.fields['0.layers.0.conductivity.points'][0]).toBe(
+    'a conductivity table may have at most 200 points',
+  );
 });
 
-test('the session cookie lasts as long as the session (30 days), not ~400 days', async ({ page, context }) => {
+test('the session cookie lasts as long as the session (30 days), not ~400 days', async ({
+  page,
+  context,
+}) => {
   const u = demo('reviewer');
   await signIn(page, u.email, u.password);
   const cookie = (await context.cookies()).find((c) => c.name === 'lagwise_session')!;
@@ -159,10 +204,17 @@ test('a failing write leaves no request data in the server log', async ({ page }
   const marker = `MARKER-${Date.now()}-CONFIDENTIAL`;
   const csv = `Line tag,Service,NPS\n${marker}\u0000,${marker},4\n`;
   const before = readFileSync(log, 'utf8').length;
-  await page.getByLabel(/Line-list file/).setInputFiles({ name: 'nul.csv', mimeType: 'text/csv', buffer: Buffer.from(csv, 'utf8') });
+  await page
+    .getByLabel(/Line-list file/)
+    .setInputFiles({ name: 'nul.csv', mimeType: 'text/csv', buffer: Buffer.from(csv, 'utf8') });
   await page.getByRole('button', { name: 'Read file' }).click();
   // Whatever the reader makes of the file, the answer is a sentence and nothing is half-written.
-  await expect(page.locator('p[role="alert"]').or(page.getByRole('button', { name: 'Check the rows' })).first()).toBeVisible();
+  await expect(
+    page
+      .locator('p[role="alert"]')
+      .or(page.getByRole('button', { name: 'Check the rows' }))
+      .first(),
+  ).toBeVisible();
   const added = readFileSync(log, 'utf8').slice(before);
   expect(added).not.toContain(marker);
   expect(added).not.toMatch(/params:/);

@@ -13,11 +13,16 @@ async function recommendedOption(page: Page, tag: string) {
   return { select, value: (await opt.getAttribute('value'))!, label: (await opt.textContent())! };
 }
 
-test('a US-units project shows inches, °F, Btu/h·ft and its currency on the line page, picker, budget and bill', async ({ page }) => {
+test('a US-units project shows inches, °F, Btu/h·ft and its currency on the line page, picker, budget and bill', async ({
+  page,
+}) => {
   const eng = demo('engineer');
   await signIn(page, eng.email, eng.password);
   // 220 °C = 428 °F, 40 m = 131 ft (÷ 0.3048), touch limit 60 °C = 140 °F: exact conversions (NIST SP 811).
-  const id = await createProjectWithLines(page, 'US units walk', [lineRow('US-1', '4', 220, 'H,P'), lineRow('US-2', '2', 160, 'H,P')]);
+  const id = await createProjectWithLines(page, 'US units walk', [
+    lineRow('US-1', '4', 220, 'H,P'),
+    lineRow('US-2', '2', 160, 'H,P'),
+  ]);
 
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Design basis' }).click();
   const rev0 = Number((await page.getByTestId('basis-revision').innerText()).replace(/\D/g, ''));
@@ -25,14 +30,18 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   await page.getByLabel('Nominal thicknesses').selectOption('inch');
   await page.getByLabel('Currency').selectOption('USD');
   await page.getByRole('button', { name: 'Save design basis' }).click();
-  await expect(page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` })).toBeVisible();
+  await expect(
+    page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` }),
+  ).toBeVisible();
   // The form now speaks the project's units: 60 °C shows as 140 °F, the 2 K dew-point margin as 3.6 °F.
   await page.reload();
   await expect(page.getByLabel('Touch limit, metal jacket °F')).toHaveValue('140');
   await expect(page.getByLabel('Dew-point margin °F')).toHaveValue('3.6');
   // Saving unchanged values converts back to the same SI numbers: no new revision.
   await page.getByRole('button', { name: 'Save design basis' }).click();
-  await expect(page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` })).toBeVisible();
+  await expect(
+    page.getByRole('status').filter({ hasText: `Saved as design-basis revision ${rev0 + 1}.` }),
+  ).toBeVisible();
   await expect(page.getByTestId('basis-revision')).toHaveText(`Revision ${rev0 + 1}`);
 
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
@@ -69,26 +78,36 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   await expect(page.getByTestId('recommended')).toHaveText(rec);
   await expect(page.getByTestId('rec-personnel')).toHaveText(/^\d+\.\d °F \(limit 140\.0 °F\)$/);
   const cands = page.getByRole('table', { name: 'Candidates' });
-  await expect(cands.getByRole('columnheader', { name: 'Surface (personnel) · limit 140.0 °F' })).toBeVisible();
+  await expect(
+    cands.getByRole('columnheader', { name: 'Surface (personnel) · limit 140.0 °F' }),
+  ).toBeVisible();
   await expect(cands.locator(`tr[data-mm="${value}"]`)).toContainText(`${rec} ★`);
   await expect(cands.locator('tr[data-mm="0"] td').nth(3)).toHaveText(`${barePersonnelF.toFixed(1)} °F`);
   await expect(page.getByText(/Annual energy \/ cost \/ CO₂/)).toBeVisible();
   await expect(page.locator('dd', { hasText: /MMBtu · USD [\d,]+ ·/ })).toBeVisible();
-  await expect(page.locator('dd', { hasText: /^[\d.,]+ Btu\/h·ft · [\d,]+ Btu\/h for the line/ })).toBeVisible();
+  await expect(
+    page.locator('dd', { hasText: /^[\d.,]+ Btu\/h·ft · [\d,]+ Btu\/h for the line/ }),
+  ).toBeVisible();
   // The record shows readable changes, no raw JSON.
   const audit = page.getByRole('table', { name: 'Audit trail' });
   await expect(audit).toContainText(`thickness: ${rec}`);
   await expect(audit).not.toContainText('{"');
   await page.screenshot({ path: `${SHOTS}/line-page-us.png`, fullPage: true });
 
-  await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Heat-loss budget' }).click();
+  await page
+    .getByRole('navigation', { name: 'Project' })
+    .getByRole('link', { name: 'Heat-loss budget' })
+    .click();
   const totals = page.getByRole('table', { name: 'Totals' });
   await expect(totals.getByRole('columnheader', { name: 'Cost per year (USD)' })).toBeVisible();
   await expect(totals.locator('tr', { hasText: 'Designed' })).toContainText(/[\d,]+ Btu\/h/);
   await expect(totals.locator('tr', { hasText: 'Designed' })).toContainText(/USD [\d,]+/);
   await expect(totals.locator('tr', { hasText: 'Designed' })).toContainText(/MMBtu/);
 
-  await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Bill of quantities' }).click();
+  await page
+    .getByRole('navigation', { name: 'Project' })
+    .getByRole('link', { name: 'Bill of quantities' })
+    .click();
   await page.getByRole('button', { name: 'Issue revision 1' }).click();
   const summary = page.getByRole('table', { name: 'Material summary' });
   await expect(summary).toContainText(`${rec}`);
@@ -98,10 +117,16 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   expect(id).toBeTruthy();
 });
 
-test('dispositions fit the hazard and a second review round carries over unchanged decisions', async ({ page, browser }) => {
+test('dispositions fit the hazard and a second review round carries over unchanged decisions', async ({
+  page,
+  browser,
+}) => {
   const eng = demo('engineer');
   await signIn(page, eng.email, eng.password);
-  const id = await createProjectWithLines(page, 'Carry-over walk', [lineRow('CW-H', '4', 220, 'H'), lineRow('CW-C', '2', 5, 'C')]);
+  const id = await createProjectWithLines(page, 'Carry-over walk', [
+    lineRow('CW-H', '4', 220, 'H'),
+    lineRow('CW-C', '2', 5, 'C'),
+  ]);
   // The SI picker, for the screenshot: °C and mm, the personnel temperature beside its 60 °C limit.
   const { label } = await recommendedOption(page, 'CW-H');
   expect(label).toMatch(/personnel \d+\.\d °C \(limit 60\.0 °C\)/);
@@ -109,31 +134,55 @@ test('dispositions fit the hazard and a second review round carries over unchang
   expect(cLabel).toMatch(/condensation \d+\.\d °C \(min \d+\.\d °C\)/);
   await page.screenshot({ path: `${SHOTS}/picker-si.png` });
   await page.locator('tr[data-tag="CW-H"]').getByRole('link', { name: 'CW-H' }).click();
-  await expect(page.getByRole('table', { name: 'Candidates' }).getByRole('columnheader', { name: 'Surface (personnel) · limit 60.0 °C' })).toBeVisible();
+  await expect(
+    page
+      .getByRole('table', { name: 'Candidates' })
+      .getByRole('columnheader', { name: 'Surface (personnel) · limit 60.0 °C' }),
+  ).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/line-page-si.png`, fullPage: true });
 
   await page.goto(`/projects/${id}/review`);
   const asked1 = new Date(Date.now() - 2000);
   await page.getByRole('button', { name: 'Request a review of the flagged lines' }).click();
-  await expect(page.getByRole('status').filter({ hasText: /Round 1 requested for 2 lines; 1 reviewer notified/ })).toBeVisible();
+  await expect(
+    page.getByRole('status').filter({ hasText: /Round 1 requested for 2 lines; 1 reviewer notified/ }),
+  ).toBeVisible();
 
   const ctx = await browser.newContext();
   const rp = await ctx.newPage();
   const rev = demo('reviewer');
   await signIn(rp, rev.email, rev.password);
-  const m1 = await mailLink(rev.email, /Safety review requested: .* round 1 \(2 lines\)/, 'Open review round 1', { after: asked1 });
+  const m1 = await mailLink(
+    rev.email,
+    /Safety review requested: .* round 1 \(2 lines\)/,
+    'Open review round 1',
+    { after: asked1 },
+  );
   await rp.goto(m1.url);
   await expect(rp.getByRole('heading', { level: 1, name: 'Review round 1' })).toBeVisible();
   // Sweating lines get the sweat list; a warning sign is not offered.
   await rp.getByLabel('Flag', { exact: true }).selectOption('sweating');
   const disp = rp.getByLabel('Disposition', { exact: true });
-  await expect(disp.locator('option')).toHaveText(['Choose…', 'Insulate for protection (back to the engineer with the thickness)', 'Repair or seal the vapour retarder', 'Accepted with drip protection (drip tray or drain)', 'Returned to the engineer']);
+  await expect(disp.locator('option')).toHaveText([
+    'Choose…',
+    'Insulate for protection (back to the engineer with the thickness)',
+    'Repair or seal the vapour retarder',
+    'Accepted with drip protection (drip tray or drain)',
+    'Returned to the engineer',
+  ]);
   await disp.selectOption('drip-protection');
   await rp.getByLabel('Comment (required to accept or return)').fill('Drip tray under the chiller header');
   await rp.getByRole('button', { name: 'Apply to all 1 shown' }).click();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 1 open · 1 decided · 0 re-opened');
   await rp.getByLabel('Flag', { exact: true }).selectOption('hot-surface');
-  await expect(disp.locator('option')).toHaveText(['Choose…', 'Insulate for protection (back to the engineer with the thickness)', 'Guard or cage (stand-off shield)', 'Warning sign and restricted access', 'Accepted as not accessible (out of reach in operation)', 'Returned to the engineer']);
+  await expect(disp.locator('option')).toHaveText([
+    'Choose…',
+    'Insulate for protection (back to the engineer with the thickness)',
+    'Guard or cage (stand-off shield)',
+    'Warning sign and restricted access',
+    'Accepted as not accessible (out of reach in operation)',
+    'Returned to the engineer',
+  ]);
   await disp.selectOption('guard');
   await rp.getByLabel('Comment (required to accept or return)').fill('Mesh guard at the walkway');
   await rp.getByRole('button', { name: 'Apply to all 1 shown' }).click();
@@ -145,15 +194,36 @@ test('dispositions fit the hazard and a second review round carries over unchang
   await page.goto(`/projects/${id}/review`);
   const asked2 = new Date(Date.now() - 2000);
   await page.getByRole('button', { name: 'Request a review of the flagged lines' }).click();
-  await expect(page.getByRole('status').filter({ hasText: 'Round 2 requested for 2 lines (2 decisions carried over: line, design and flags unchanged)' })).toBeVisible();
-  const m2 = await mailLink(rev.email, /Safety review requested: .* round 2 \(2 lines\)/, 'Open review round 2', { after: asked2 });
-  expect(m2.text).toContain('2 decisions carried over from earlier signed-off rounds (line, design and flags unchanged); 0 to decide.');
+  await expect(
+    page
+      .getByRole('status')
+      .filter({
+        hasText: 'Round 2 requested for 2 lines (2 decisions carried over: line, design and flags unchanged)',
+      }),
+  ).toBeVisible();
+  const m2 = await mailLink(
+    rev.email,
+    /Safety review requested: .* round 2 \(2 lines\)/,
+    'Open review round 2',
+    { after: asked2 },
+  );
+  expect(m2.text).toContain(
+    '2 decisions carried over from earlier signed-off rounds (line, design and flags unchanged); 0 to decide.',
+  );
   await rp.goto(m2.url);
   await expect(rp.getByRole('heading', { level: 1, name: 'Review round 2' })).toBeVisible();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 0 open · 2 decided · 0 re-opened');
-  await expect(rp.getByTestId('carried-summary')).toContainText('2 decisions carried over from earlier signed-off rounds');
-  await expect(rp.locator('tr[data-tag="CW-C"]')).toContainText('Accepted with drip protection (drip tray or drain)');
-  await expect(rp.getByTestId('carried-CW-C')).toHaveText('Carried over from round 1: line, design and flags unchanged.');
-  await expect(rp.getByTestId('carried-CW-H')).toHaveText('Carried over from round 1: line, design and flags unchanged.');
+  await expect(rp.getByTestId('carried-summary')).toContainText(
+    '2 decisions carried over from earlier signed-off rounds',
+  );
+  await expect(rp.locator('tr[data-tag="CW-C"]')).toContainText(
+    'Accepted with drip protection (drip tray or drain)',
+  );
+  await expect(rp.getByTestId('carried-CW-C')).toHaveText(
+    'Carried over from round 1: line, design and flags unchanged.',
+  );
+  await expect(rp.getByTestId('carried-CW-H')).toHaveText(
+    'Carried over from round 1: line, design and flags unchanged.',
+  );
   await ctx.close();
 });

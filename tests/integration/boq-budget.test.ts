@@ -12,13 +12,43 @@ import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
 
 const row = (tag: string, o: Record<string, string | number | null> = {}) =>
-  TEMPLATE_HEADERS.map((h) => (h in o ? o[h] : ({ 'Line tag': tag, Area: 'North', Geometry: 'Horizontal pipe', NPS: '4', 'Length (m)': 100, 'Normal temp (°C)': 150, 'Max temp (°C)': 160, Purpose: 'H', Location: 'Outdoor', Accessible: 'no', Elbows: 2 } as Record<string, string | number>)[h] ?? null));
+  TEMPLATE_HEADERS.map((h) =>
+    h in o
+      ? o[h]
+      : ((
+          {
+            'Line tag': tag,
+            Area: 'North',
+            Geometry: 'Horizontal pipe',
+            NPS: '4',
+            'Length (m)': 100,
+            'Normal temp (°C)': 150,
+            'Max temp (°C)': 160,
+            Purpose: 'H',
+            Location: 'Outdoor',
+            Accessible: 'no',
+            Elbows: 2,
+          } as Record<string, string | number>
+        )[h] ?? null),
+  );
 
-let projectId = '', userId = '';
+let projectId = '',
+  userId = '';
 async function importRows(rows: (string | number | null)[][]) {
-  const d = await lineStore.createDraft({ projectId, userId, fileName: 'b.xlsx', bytes: await lineListWorkbook(rows) });
+  const d = await lineStore.createDraft({
+    projectId,
+    userId,
+    fileName: 'b.xlsx',
+    bytes: await lineListWorkbook(rows),
+  });
   const s = d.sheets[0];
-  await lineStore.commitDraft({ projectId, draftId: d.draftId, sheetName: s.name, mapping: s.suggested, userId });
+  await lineStore.commitDraft({
+    projectId,
+    draftId: d.draftId,
+    sheetName: s.name,
+    mapping: s.suggested,
+    userId,
+  });
   await lineStore.solveProject({ projectId });
 }
 async function readBook(n: number) {
@@ -29,13 +59,27 @@ async function readBook(n: number) {
 }
 
 beforeAll(async () => {
-  const o = await auth.signUp({ name: 'Bill Owner', email: `boq.${randomUUID().slice(0, 8)}@example.com`, password: 'annular-volume-check', organizationName: 'BOQ Org' });
+  const o = await auth.signUp({
+    name: 'Bill Owner',
+    email: `boq.${randomUUID().slice(0, 8)}@example.com`,
+    password: 'annular-volume-check',
+    organizationName: 'BOQ Org',
+  });
   userId = o.userId;
-  const [p] = await db.insert(projects).values({ organizationId: o.organizationId, code: 'BQ-1', name: 'Bill test' }).returning();
+  const [p] = await db
+    .insert(projects)
+    .values({ organizationId: o.organizationId, code: 'BQ-1', name: 'Bill test' })
+    .returning();
   projectId = p.id;
-  await importRows([row('N-1'), row('N-2', { Area: 'South', NPS: '2', 'Length (m)': 50 }), row('=CMD|calc', { Service: '@SUM(A1)', 'Length (m)': 20 })]);
+  await importRows([
+    row('N-1'),
+    row('N-2', { Area: 'South', NPS: '2', 'Length (m)': 50 }),
+    row('=CMD|calc', { Service: '@SUM(A1)', 'Length (m)': 20 }),
+  ]);
 });
-afterAll(async () => { await getPool().end(); });
+afterAll(async () => {
+  await getPool().end();
+});
 
 describe('bill of quantities on PostgreSQL', () => {
   it('refuses to issue with no decided line', async () => {
@@ -47,9 +91,28 @@ describe('bill of quantities on PostgreSQL', () => {
     const first = await boq.issueBill({ projectId, userId });
     expect(first).toMatchObject({ number: 1, counted: 2, pending: 1 });
     const wb1 = await readBook(1);
-    expect(wb1.worksheets.map((w) => w.name)).toEqual(['Summary', 'Fittings', 'Jacketing', 'Vessels and flat', 'Line schedule', 'Change from previous', 'Notes']);
+    expect(wb1.worksheets.map((w) => w.name)).toEqual([
+      'Summary',
+      'Fittings',
+      'Jacketing',
+      'Vessels and flat',
+      'Line schedule',
+      'Change from previous',
+      'Notes',
+    ]);
     const sum1 = wb1.getWorksheet('Summary')!;
-    expect(sum1.getRow(1).values).toEqual([undefined, 'Material', 'Product form', 'Layer', 'Size', 'Thickness (mm)', 'Length incl. waste (m)', 'Outer-face area (m²)', 'Volume (m³)', 'Material at design-basis price (EUR)']);
+    expect(sum1.getRow(1).values).toEqual([
+      undefined,
+      'Material',
+      'Product form',
+      'Layer',
+      'Size',
+      'Thickness (mm)',
+      'Length incl. waste (m)',
+      'Outer-face area (m²)',
+      'Volume (m³)',
+      'Material at design-basis price (EUR)',
+    ]);
     expect(sum1.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
     expect(sum1.autoFilter).toBeTruthy();
     const lengths1 = sum1.getColumn(6).values.slice(2) as number[];
@@ -57,7 +120,7 @@ describe('bill of quantities on PostgreSQL', () => {
     expect(lengths1.reduce((a, b) => a + b, 0)).toBeCloseTo((101.2 + 21.2) * 1.05, 2);
     expect(typeof lengths1[0]).toBe('number');
     const sched = wb1.getWorksheet('Line schedule')!;
-    const tags = (sched.getColumn(1).values.slice(2) as string[]);
+    const tags = sched.getColumn(1).values.slice(2) as string[];
     expect(tags).toContain("'=CMD|calc"); // written as text, never as a formula
     const injected = sched.getRow(tags.indexOf("'=CMD|calc") + 2).getCell(1);
     expect(injected.type).toBe(ExcelJS.ValueType.String);
@@ -104,7 +167,18 @@ describe('heat-loss budget', () => {
   it('flags an area over its allocation, and the what-if policy changes the totals without saving', async () => {
     const base = await budget.dashboard({ projectId });
     const north = base.areas.find((a) => a.area === 'North')!;
-    await budget.saveBudget({ projectId, userId, budget: { totalKW: 100, totalMWhPerYear: 900, allocations: [{ area: 'North', kW: north.designedKW * 0.5 }, { area: 'South', kW: 10 }] } });
+    await budget.saveBudget({
+      projectId,
+      userId,
+      budget: {
+        totalKW: 100,
+        totalMWhPerYear: 900,
+        allocations: [
+          { area: 'North', kW: north.designedKW * 0.5 },
+          { area: 'South', kW: 10 },
+        ],
+      },
+    });
     const d = await budget.dashboard({ projectId });
     expect(d.areas.find((a) => a.area === 'North')!.over).toBe(true);
     expect(d.warnings[0]).toMatch(/^North: .* kW designed against .* kW allocated/);
@@ -115,9 +189,40 @@ describe('heat-loss budget', () => {
     expect((await budget.getBudget({ projectId }))!.totalKW).toBe(100);
   });
   it('refuses non-numeric and negative entries by field', async () => {
-    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 'lots', totalMWhPerYear: 10, allocations: [] } }), 'invalid', /Total budget must be a number/);
-    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 50, totalMWhPerYear: 10, allocations: [{ area: 'North', kW: -5 }] } }), 'invalid', /Allocation cannot be negative/);
-    await expectAppError(budget.saveBudget({ projectId, userId, budget: { totalKW: 5, totalMWhPerYear: 10, allocations: [{ area: 'North', kW: 4 }, { area: 'South', kW: 4 }] } }), 'invalid', /more than the 5 kW budget/);
+    await expectAppError(
+      budget.saveBudget({
+        projectId,
+        userId,
+        budget: { totalKW: 'lots', totalMWhPerYear: 10, allocations: [] },
+      }),
+      'invalid',
+      /Total budget must be a number/,
+    );
+    await expectAppError(
+      budget.saveBudget({
+        projectId,
+        userId,
+        budget: { totalKW: 50, totalMWhPerYear: 10, allocations: [{ area: 'North', kW: -5 }] },
+      }),
+      'invalid',
+      /Allocation cannot be negative/,
+    );
+    await expectAppError(
+      budget.saveBudget({
+        projectId,
+        userId,
+        budget: {
+          totalKW: 5,
+          totalMWhPerYear: 10,
+          allocations: [
+            { area: 'North', kW: 4 },
+            { area: 'South', kW: 4 },
+          ],
+        },
+      }),
+      'invalid',
+      /more than the 5 kW budget/,
+    );
     expect((await budget.getBudget({ projectId }))!.totalKW).toBe(100);
   });
 });

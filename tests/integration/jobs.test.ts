@@ -20,7 +20,8 @@ import { demoLineRows, lineListWorkbook } from '../../seed/line-list';
 
 process.env.JOB_EXPIRE_SECONDS = '20'; // a job whose worker vanished is handed out again after 20 s
 
-let userId = '', organizationId = '';
+let userId = '',
+  organizationId = '';
 const children: ChildProcess[] = [];
 
 async function newProject(code: string) {
@@ -29,7 +30,12 @@ async function newProject(code: string) {
 }
 
 async function draftOf(projectId: string, n: number) {
-  const d = await store.createDraft({ projectId, userId, fileName: 'jobs.xlsx', bytes: await lineListWorkbook(demoLineRows(n, 7)) });
+  const d = await store.createDraft({
+    projectId,
+    userId,
+    fileName: 'jobs.xlsx',
+    bytes: await lineListWorkbook(demoLineRows(n, 7)),
+  });
   const s = d.sheets.find((x) => x.name === d.defaultSheet)!;
   return { draftId: d.draftId, sheetName: s.name, mapping: s.suggested };
 }
@@ -45,15 +51,24 @@ async function until<T>(what: () => Promise<T>, ok: (v: T) => boolean, ms: numbe
 }
 
 function startWorker(): ChildProcess {
-  const c = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], { env: { ...process.env }, stdio: ['ignore', 'ignore', 'pipe'] });
+  const c = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], {
+    env: { ...process.env },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
   c.stderr!.on('data', () => undefined);
   children.push(c);
   return c;
 }
 
 beforeAll(async () => {
-  const owner = await auth.signUp({ name: 'Job Tester', email: `jobs.${randomUUID().slice(0, 8)}@example.com`, password: 'copper-riser-gasket', organizationName: 'Job Test Org' });
-  userId = owner.userId; organizationId = owner.organizationId;
+  const owner = await auth.signUp({
+    name: 'Job Tester',
+    email: `jobs.${randomUUID().slice(0, 8)}@example.com`,
+    password: 'copper-riser-gasket',
+    organizationName: 'Job Test Org',
+  });
+  userId = owner.userId;
+  organizationId = owner.organizationId;
 });
 afterAll(async () => {
   for (const c of children) if (c.exitCode === null) c.kill('SIGKILL');
@@ -62,22 +77,44 @@ afterAll(async () => {
 });
 
 describe('jobs on PostgreSQL', () => {
-  it('two workers share the queue: every job is taken by exactly one of them, once', { timeout: 120_000 }, async () => {
+  it('two workers share the queue: every job is taken by exactly one of them, once', {
+    timeout: 120_000,
+  }, async () => {
     const ids: string[] = [];
     for (let i = 0; i < 6; i++) {
       const projectId = await newProject(`J2-${i}`);
-      ids.push((await enqueueJob({ projectId, userId, kind: 'import-solve', input: await draftOf(projectId, 12) })).id);
+      ids.push(
+        (await enqueueJob({ projectId, userId, kind: 'import-solve', input: await draftOf(projectId, 12) }))
+          .id,
+      );
     }
     const taken: { worker: string; jobId: string }[] = [];
-    const bosses = ['A', 'B'].map((name) => ({ name, boss: new PgBoss({ connectionString: process.env.DATABASE_URL!, schema: BOSS_SCHEMA, migrate: false, supervise: false, schedule: false }) }));
+    const bosses = ['A', 'B'].map((name) => ({
+      name,
+      boss: new PgBoss({
+        connectionString: process.env.DATABASE_URL!,
+        schema: BOSS_SCHEMA,
+        migrate: false,
+        supervise: false,
+        schedule: false,
+      }),
+    }));
     for (const { name, boss } of bosses) {
       await boss.start();
-      await boss.work<{ jobId: string }>('import-solve', { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
-        taken.push({ worker: name, jobId: job.data.jobId });
-        await runJob(job.data.jobId);
-      });
+      await boss.work<{ jobId: string }>(
+        'import-solve',
+        { batchSize: 1, pollingIntervalSeconds: 0.5 },
+        async ([job]) => {
+          taken.push({ worker: name, jobId: job.data.jobId });
+          await runJob(job.data.jobId);
+        },
+      );
     }
-    const rows = await until(async () => Promise.all(ids.map(jobRow)), (rs) => rs.every((r) => r.state === 'done'), 90_000);
+    const rows = await until(
+      async () => Promise.all(ids.map(jobRow)),
+      (rs) => rs.every((r) => r.state === 'done'),
+      90_000,
+    );
     for (const { boss } of bosses) await boss.stop({ graceful: true, wait: true, timeout: 5_000 });
     expect(rows.map((r) => r.state)).toEqual(ids.map(() => 'done'));
     expect(rows.map((r) => r.attempts)).toEqual(ids.map(() => 1));
@@ -89,34 +126,60 @@ describe('jobs on PostgreSQL', () => {
     }
   });
 
-  it('an import + solve survives its worker being killed mid-solve: nothing half-current, then it finishes', { timeout: 240_000 }, async () => {
+  it('an import + solve survives its worker being killed mid-solve: nothing half-current, then it finishes', {
+    timeout: 240_000,
+  }, async () => {
     const projectId = await newProject('JK-1');
     const n = 1_500;
-    const job = await enqueueJob({ projectId, userId, kind: 'import-solve', input: await draftOf(projectId, n) });
+    const job = await enqueueJob({
+      projectId,
+      userId,
+      kind: 'import-solve',
+      input: await draftOf(projectId, n),
+    });
     const first = startWorker();
-    const mid = await until(() => jobRow(job.id), (r) => r.state === 'running' && r.done > 0 && r.done < r.total, 120_000);
+    const mid = await until(
+      () => jobRow(job.id),
+      (r) => r.state === 'running' && r.done > 0 && r.done < r.total,
+      120_000,
+    );
     expect(mid.done).toBeGreaterThan(0);
     first.kill('SIGKILL');
     await new Promise((r) => first.once('exit', r));
 
     // The killed transaction rolled back: no revision, no lines, no results are current.
-    const [{ n: lineCount }] = await db.select({ n: count() }).from(lines).where(eq(lines.projectId, projectId));
-    const [{ n: revCount }] = await db.select({ n: count() }).from(lineListRevisions).where(eq(lineListRevisions.projectId, projectId));
+    const [{ n: lineCount }] = await db
+      .select({ n: count() })
+      .from(lines)
+      .where(eq(lines.projectId, projectId));
+    const [{ n: revCount }] = await db
+      .select({ n: count() })
+      .from(lineListRevisions)
+      .where(eq(lineListRevisions.projectId, projectId));
     expect([lineCount, revCount]).toEqual([0, 0]);
 
     startWorker();
-    const done = await until(() => jobRow(job.id), (r) => r.state === 'done' || r.state === 'failed', 200_000);
+    const done = await until(
+      () => jobRow(job.id),
+      (r) => r.state === 'done' || r.state === 'failed',
+      200_000,
+    );
     expect(done.state).toBe('done');
     expect(done.attempts).toBeGreaterThanOrEqual(2);
     expect(done.result).toMatchObject({ revision: 1, solved: done.result!.lineCount });
-    const [{ n: solved }] = await db.select({ n: count() }).from(lineResults).where(eq(lineResults.projectId, projectId));
+    const [{ n: solved }] = await db
+      .select({ n: count() })
+      .from(lineResults)
+      .where(eq(lineResults.projectId, projectId));
     expect(solved).toBe(done.result!.lineCount);
   });
 
   it('a second import or solve of a project waits its turn with a sentence', async () => {
     const projectId = await newProject('JQ-1');
     await enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } });
-    await expect(enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } })).rejects.toThrow(/still running; wait for it to finish/);
+    await expect(enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } })).rejects.toThrow(
+      /still running; wait for it to finish/,
+    );
     await db.delete(jobs).where(eq(jobs.projectId, projectId));
   });
 });

@@ -7,11 +7,30 @@ import * as u from '@/lib/thermal/units';
 
 describe('ASME B36.10M outside diameters (as listed in ChEDL fluids piping.py, which cites B36.10M)', () => {
   const table: [string, number][] = [
-    ['1/2', 21.3], ['3/4', 26.7], ['1', 33.4], ['1-1/4', 42.2], ['1-1/2', 48.3], ['2', 60.3], ['2-1/2', 73.0], ['3', 88.9],
-    ['3-1/2', 101.6], ['4', 114.3], ['5', 141.3], ['6', 168.3], ['8', 219.1], ['10', 273.0], ['12', 323.8], ['14', 355.6],
-    ['16', 406.4], ['18', 457], ['20', 508], ['22', 559], ['24', 610],
+    ['1/2', 21.3],
+    ['3/4', 26.7],
+    ['1', 33.4],
+    ['1-1/4', 42.2],
+    ['1-1/2', 48.3],
+    ['2', 60.3],
+    ['2-1/2', 73.0],
+    ['3', 88.9],
+    ['3-1/2', 101.6],
+    ['4', 114.3],
+    ['5', 141.3],
+    ['6', 168.3],
+    ['8', 219.1],
+    ['10', 273.0],
+    ['12', 323.8],
+    ['14', 355.6],
+    ['16', 406.4],
+    ['18', 457],
+    ['20', 508],
+    ['22', 559],
+    ['24', 610],
   ];
-  for (const [nps, od] of table) it(`NPS ${nps} → ${od} mm`, () => expect(pipeByNps(nps)?.outsideDiameterMm).toBe(od));
+  for (const [nps, od] of table)
+    it(`NPS ${nps} → ${od} mm`, () => expect(pipeByNps(nps)?.outsideDiameterMm).toBe(od));
   it('DN and NPS spellings', () => {
     expect(pipeByDn(150)?.nps).toBe('6');
     expect(parseNps('1 1/2')).toBe(1.5);
@@ -23,7 +42,16 @@ describe('ASME B36.10M outside diameters (as listed in ChEDL fluids piping.py, w
 
 describe('dew point against psychrolib (ASHRAE Hyland–Wexler)', () => {
   psychrolib.SetUnitSystem(psychrolib.SI);
-  const cases: [number, number][] = [[20, 50], [20, 60], [23, 60], [25, 80], [30, 85], [32, 90], [35, 80], [10, 80]];
+  const cases: [number, number][] = [
+    [20, 50],
+    [20, 60],
+    [23, 60],
+    [25, 80],
+    [30, 85],
+    [32, 90],
+    [35, 80],
+    [10, 80],
+  ];
   for (const [t, rh] of cases) {
     it(`${t} °C, ${rh} % RH within 0.05 K`, () => {
       const ours = dewPointC(t, rh);
@@ -36,7 +64,10 @@ describe('dew point against psychrolib (ASHRAE Hyland–Wexler)', () => {
     expect(dewPointC(20, 50)).toBeCloseTo(9.261, 2);
   });
   it('below 0 °C the frost point is used, and agrees with psychrolib (over ice) within 0.1 K', () => {
-    for (const [t, rh] of [[0, 90], [-10, 80]] as [number, number][]) {
+    for (const [t, rh] of [
+      [0, 90],
+      [-10, 80],
+    ] as [number, number][]) {
       expect(Math.abs(frostPointC(t, rh) - psychrolib.GetTDewPointFromRelHum(t, rh / 100))).toBeLessThan(0.1);
     }
     expect(condensationThresholdC(-10, 80).basis).toBe('frost point');

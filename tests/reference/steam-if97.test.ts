@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { region1, region2, saturatedSteamAtPressure, saturationPressureMPa, saturationTemperatureK } from '@/lib/thermal/steam';
+import {
+  region1,
+  region2,
+  saturatedSteamAtPressure,
+  saturationPressureMPa,
+  saturationTemperatureK,
+} from '@/lib/thermal/steam';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
@@ -17,7 +23,9 @@ describe('IAPWS-IF97 verification values', () => {
     expect(Math.abs(saturationTemperatureK(10) - 0.584149488e3)).toBeLessThan(1e-6);
   });
   it('region 1 — Table 5', () => {
-    const a = region1(300, 3), b = region1(300, 80), c = region1(500, 3);
+    const a = region1(300, 3),
+      b = region1(300, 80),
+      c = region1(500, 3);
     expect(rel(a.v, 0.100215168e-2)).toBeLessThan(1e-7);
     expect(rel(a.h, 0.115331273e3)).toBeLessThan(1e-7);
     expect(rel(a.u, 0.112324818e3)).toBeLessThan(1e-7);
@@ -30,7 +38,9 @@ describe('IAPWS-IF97 verification values', () => {
     expect(rel(c.cp, 0.465580682e1)).toBeLessThan(1e-7);
   });
   it('region 2 — Table 15', () => {
-    const a = region2(300, 0.0035), b = region2(700, 0.0035), c = region2(700, 30);
+    const a = region2(300, 0.0035),
+      b = region2(700, 0.0035),
+      c = region2(700, 30);
     expect(rel(a.v, 0.394913866e2)).toBeLessThan(1e-7);
     expect(rel(a.h, 0.254991145e4)).toBeLessThan(1e-7);
     expect(rel(a.s, 0.852238967e1)).toBeLessThan(1e-7);
@@ -46,7 +56,12 @@ describe('IAPWS-IF97 verification values', () => {
 describe('saturated steam on the line (regression against IF97 via the iapws library [X])', () => {
   // Team reference notes §5.1, computed with Debian's python3-iapws 1.5.3.
   const table: [number, number, number][] = [
-    [1.01325, 99.974, 2256.54], [2, 120.212, 2201.56], [5, 151.836, 2107.92], [10, 179.886, 2014.44], [20, 212.385, 1889.76], [40, 250.358, 1713.47],
+    [1.01325, 99.974, 2256.54],
+    [2, 120.212, 2201.56],
+    [5, 151.836, 2107.92],
+    [10, 179.886, 2014.44],
+    [20, 212.385, 1889.76],
+    [40, 250.358, 1713.47],
   ];
   for (const [bar, t, hfg] of table) {
     it(`${bar} bar(a): ${t} °C, h_fg ${hfg} kJ/kg`, () => {

@@ -1,11 +1,18 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { clientAddressFrom, isLoopbackRequest, trustedProxyHops, UNKNOWN_ADDRESS } from '@/lib/server/client-address';
+import {
+  clientAddressFrom,
+  isLoopbackRequest,
+  trustedProxyHops,
+  UNKNOWN_ADDRESS,
+} from '@/lib/server/client-address';
 
 const h = (xff?: string) => new Headers(xff === undefined ? {} : { 'x-forwarded-for': xff });
 
 describe('client address: forwarded headers believed only behind declared proxies', () => {
   const saved = { ...process.env };
-  afterEach(() => { process.env = { ...saved }; });
+  afterEach(() => {
+    process.env = { ...saved };
+  });
 
   it('ignores X-Forwarded-For without TRUST_PROXY (a client can write anything there)', () => {
     delete process.env.TRUST_PROXY;

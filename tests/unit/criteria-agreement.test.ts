@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { condensationControlApplies, personnelProtectionApplies, ALWAYS_CHECK_CONDENSATION_BELOW_C, type Purpose } from '@/lib/thermal';
+import {
+  condensationControlApplies,
+  personnelProtectionApplies,
+  ALWAYS_CHECK_CONDENSATION_BELOW_C,
+  type Purpose,
+} from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS, type DesignBasis } from '@/lib/lines/design-basis';
 import { suggestMapping } from '@/lib/lines/mapping';
 import { validateSheet, type LineInput } from '@/lib/lines/validate';
@@ -15,7 +20,8 @@ import { TEMPLATE_HEADERS, demoLineRows } from '../../seed/line-list';
  */
 function disagreements(basis: DesignBasis, lines: LineInput[]) {
   const out: string[] = [];
-  let personnel = 0, condensation = 0;
+  let personnel = 0,
+    condensation = 0;
   for (const l of lines) {
     const s = solveLine(basis, l);
     const r = s.recommendation;
@@ -23,40 +29,82 @@ function disagreements(basis: DesignBasis, lines: LineInput[]) {
     if (r.outcomes.some((o) => o.id === 'condensation')) condensation++;
     if (r.recommendedMm === null) continue; // no candidate at all: the review blocks it as unmet
     const flags = flagsForLine(basis, {
-      line: l, design: r.recommendedMm > 0 ? { layers: r.layers, belowCriterion: null } : null,
-      jacketId: r.recommendedMm > 0 ? s.system.jacket.id : null, solved: true, stale: false, unmet: r.unmet,
+      line: l,
+      design: r.recommendedMm > 0 ? { layers: r.layers, belowCriterion: null } : null,
+      jacketId: r.recommendedMm > 0 ? s.system.jacket.id : null,
+      solved: true,
+      stale: false,
+      unmet: r.unmet,
     });
     for (const f of flags) {
-      if (f.type === 'hot-surface' && !r.unmet.includes('personnel')) out.push(`${l.tag}: recommended ${r.recommendedMm} mm but flagged ${f.message}`);
-      if (f.type === 'sweating' && !r.unmet.includes('condensation')) out.push(`${l.tag}: recommended ${r.recommendedMm} mm but flagged ${f.message}`);
+      if (f.type === 'hot-surface' && !r.unmet.includes('personnel'))
+        out.push(`${l.tag}: recommended ${r.recommendedMm} mm but flagged ${f.message}`);
+      if (f.type === 'sweating' && !r.unmet.includes('condensation'))
+        out.push(`${l.tag}: recommended ${r.recommendedMm} mm but flagged ${f.message}`);
     }
   }
   return { out, personnel, condensation };
 }
 
 const sheet = (rows: (string | number | null)[][]): ParsedSheet => ({
-  name: 'Lines', hidden: false, headerRow: 1, headers: [...TEMPLATE_HEADERS], rows: rows.map((cells, i) => ({ row: i + 2, cells })), formulaCells: [], mergedCells: [],
+  name: 'Lines',
+  hidden: false,
+  headerRow: 1,
+  headers: [...TEMPLATE_HEADERS],
+  rows: rows.map((cells, i) => ({ row: i + 2, cells })),
+  formulaCells: [],
+  mergedCells: [],
 });
 
 function rng(seed: number) {
-  return () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
+  return () => {
+    seed = (seed * 1103515245 + 12345) % 2147483648;
+    return seed / 2147483648;
+  };
 }
 
 /** A generated project across the whole range: −60…450 °C, pipes, vessels and flat surfaces, any purposes, in and out of reach. */
 function generatedLines(count: number): LineInput[] {
   const r = rng(20261202);
-  const pick = <T,>(a: readonly T[]) => a[Math.floor(r() * a.length)];
+  const pick = <T>(a: readonly T[]) => a[Math.floor(r() * a.length)];
   const sizes = [21.3, 33.4, 60.3, 88.9, 114.3, 168.3, 219.1, 323.9, 508];
-  const purposeSets: Purpose[][] = [['heatConservation'], ['personnelProtection'], ['condensationControl'], ['heatConservation', 'personnelProtection'], ['processControl'], ['freezeProtection'], []];
+  const purposeSets: Purpose[][] = [
+    ['heatConservation'],
+    ['personnelProtection'],
+    ['condensationControl'],
+    ['heatConservation', 'personnelProtection'],
+    ['processControl'],
+    ['freezeProtection'],
+    [],
+  ];
   return Array.from({ length: count }, (_, i) => {
     const geometry = pick(['horizontal-pipe', 'horizontal-pipe', 'vertical-pipe', 'vessel', 'flat'] as const);
     const normalTempC = Math.round(-60 + r() * 510);
     return {
-      tag: `G-${i}`, service: 'generated', area: 'G', geometry, nps: null,
-      outsideDiameterMm: geometry.includes('pipe') ? pick(sizes) : null, lengthM: 20, surfaceAreaM2: geometry.includes('pipe') ? null : 5 + r() * 60,
-      heightM: geometry.includes('pipe') ? null : 2 + r() * 8, normalTempC, maxTempC: r() < 0.5 ? normalTempC + Math.round(r() * 30) : null,
-      steamPressureBarG: null, flowKgPerS: null, fluidCpKJPerKgK: null, elbows: 0, tees: 0, valves: 0, flanges: 0,
-      purposes: pick(purposeSets), outdoor: r() < 0.6, accessible: r() < 0.7, accessHeightM: null, jacketId: null, notes: '',
+      tag: `G-${i}`,
+      service: 'generated',
+      area: 'G',
+      geometry,
+      nps: null,
+      outsideDiameterMm: geometry.includes('pipe') ? pick(sizes) : null,
+      lengthM: 20,
+      surfaceAreaM2: geometry.includes('pipe') ? null : 5 + r() * 60,
+      heightM: geometry.includes('pipe') ? null : 2 + r() * 8,
+      normalTempC,
+      maxTempC: r() < 0.5 ? normalTempC + Math.round(r() * 30) : null,
+      steamPressureBarG: null,
+      flowKgPerS: null,
+      fluidCpKJPerKgK: null,
+      elbows: 0,
+      tees: 0,
+      valves: 0,
+      flanges: 0,
+      purposes: pick(purposeSets),
+      outdoor: r() < 0.6,
+      accessible: r() < 0.7,
+      accessHeightM: null,
+      jacketId: null,
+      notes: '',
     };
   });
 }
@@ -65,11 +113,27 @@ describe('one rule per criterion: recommendation and review agree', () => {
   it('applies condensation control against the condensation conditions, not the annual air', () => {
     const cond = { airC: 30, windMs: 0, relativeHumidityPct: 80 }; // dew point ≈ 26.2 °C (Magnus form, [X])
     // A 12 °C chilled-water line in a 10 °C annual mean: colder than the dew point of a humid summer day.
-    expect(condensationControlApplies({ purposes: ['condensationControl'], coldestC: 12 }, cond, 2)).toBe(true);
-    expect(condensationControlApplies({ purposes: ['condensationControl'], coldestC: 28.5 }, cond, 2)).toBe(false);
+    expect(condensationControlApplies({ purposes: ['condensationControl'], coldestC: 12 }, cond, 2)).toBe(
+      true,
+    );
+    expect(condensationControlApplies({ purposes: ['condensationControl'], coldestC: 28.5 }, cond, 2)).toBe(
+      false,
+    );
     // Below 10 °C it is checked even when the line list asks only for heat conservation (common practice).
-    expect(condensationControlApplies({ purposes: ['heatConservation'], coldestC: ALWAYS_CHECK_CONDENSATION_BELOW_C - 0.1 }, cond, 2)).toBe(true);
-    expect(condensationControlApplies({ purposes: ['heatConservation'], coldestC: ALWAYS_CHECK_CONDENSATION_BELOW_C }, cond, 2)).toBe(false);
+    expect(
+      condensationControlApplies(
+        { purposes: ['heatConservation'], coldestC: ALWAYS_CHECK_CONDENSATION_BELOW_C - 0.1 },
+        cond,
+        2,
+      ),
+    ).toBe(true);
+    expect(
+      condensationControlApplies(
+        { purposes: ['heatConservation'], coldestC: ALWAYS_CHECK_CONDENSATION_BELOW_C },
+        cond,
+        2,
+      ),
+    ).toBe(false);
   });
 
   it('applies personnel protection to every accessible surface hotter than the personnel air, whatever the purpose', () => {

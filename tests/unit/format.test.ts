@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { convert, describeChanges, fixed, formatter, fractionalInches, isCurrencyCode, money, sig } from '@/lib/format';
+import {
+  convert,
+  describeChanges,
+  fixed,
+  formatter,
+  fractionalInches,
+  isCurrencyCode,
+  money,
+  sig,
+} from '@/lib/format';
 
 describe('significant figures and fixed decimals', () => {
   it('drops float noise', () => {
@@ -106,10 +115,16 @@ describe('the formatter', () => {
 
 describe('readable audit changes', () => {
   it('turns before/after records into sentences of changes', () => {
-    expect(describeChanges({ thicknessMm: 25, source: 'recommended' }, { thicknessMm: 40, source: 'manual', reason: 'spec' }))
-      .toEqual(['thickness (mm): 25 → 40', 'source: recommended → manual', 'reason: spec']);
+    expect(
+      describeChanges(
+        { thicknessMm: 25, source: 'recommended' },
+        { thicknessMm: 40, source: 'manual', reason: 'spec' },
+      ),
+    ).toEqual(['thickness (mm): 25 → 40', 'source: recommended → manual', 'reason: spec']);
     expect(describeChanges(null, { disposition: 'guard', comment: null })).toEqual(['disposition: guard']);
-    expect(describeChanges({ a: { bC: 1.10000000000002 } }, { a: { bC: 2 } })).toEqual(['a › b (°C): 1.1 → 2']);
+    expect(describeChanges({ a: { bC: 1.10000000000002 } }, { a: { bC: 2 } })).toEqual([
+      'a › b (°C): 1.1 → 2',
+    ]);
   });
 });
 
@@ -117,11 +132,19 @@ describe('engine messages in the project units', () => {
   it('rewrites SI quantities of a message', async () => {
     const { localizeMessage } = await import('@/lib/format');
     const us = formatter({ unitSystem: 'US', thicknessSeries: 'inch' });
-    expect(localizeMessage('Surface ≤ 60 °C at 35 °C still air (metal jacket limit).', us)).toBe('Surface ≤ 140.0 °F at 95.0 °F still air (metal jacket limit).');
+    expect(localizeMessage('Surface ≤ 60 °C at 35 °C still air (metal jacket limit).', us)).toBe(
+      'Surface ≤ 140.0 °F at 95.0 °F still air (metal jacket limit).',
+    );
     expect(localizeMessage('Heat flow ≤ 50 W/m.', us)).toBe('Heat flow ≤ 52 Btu/h·ft.');
-    expect(localizeMessage('dew point 20.0 °C + 2 K margin; 38.1 mm', us)).toBe('dew point 68.0 °F + 3.6 °F margin; 1-1/2"');
-    expect(localizeMessage('Within 2 % of the minimum from 76.2 to 101.6 mm (optimum 101.6 mm).', us)).toBe('Within 2 % of the minimum from 3" to 4" (optimum 4").');
-    expect(localizeMessage('Heat flow ≤ 165.10000000000002 W/m² over 60 °C', formatter({ unitSystem: 'SI' }))).toBe('Heat flow ≤ 165.1 W/m² over 60 °C');
+    expect(localizeMessage('dew point 20.0 °C + 2 K margin; 38.1 mm', us)).toBe(
+      'dew point 68.0 °F + 3.6 °F margin; 1-1/2"',
+    );
+    expect(localizeMessage('Within 2 % of the minimum from 76.2 to 101.6 mm (optimum 101.6 mm).', us)).toBe(
+      'Within 2 % of the minimum from 3" to 4" (optimum 4").',
+    );
+    expect(
+      localizeMessage('Heat flow ≤ 165.10000000000002 W/m² over 60 °C', formatter({ unitSystem: 'SI' })),
+    ).toBe('Heat flow ≤ 165.1 W/m² over 60 °C');
     expect(localizeMessage('U30: 12.5 kW designed', us)).toBe('U30: 42,652 Btu/h designed'); // 12.5 kW × 3412.142 Btu/h per kW = 42 651.8 [X]
   });
 });
@@ -143,16 +166,24 @@ describe('the design-basis form in US units', () => {
     const walk = (o: unknown, path: string) => {
       if (typeof o === 'number') fd.append(path, String(toFormValue(fieldKind(path), 'US', o)));
       else if (Array.isArray(o)) o.forEach((x, i) => walk(x, `${path}[${i}]`));
-      else if (o && typeof o === 'object') for (const [k, v] of Object.entries(o)) walk(v, path ? `${path}.${k}` : k);
+      else if (o && typeof o === 'object')
+        for (const [k, v] of Object.entries(o)) walk(v, path ? `${path}.${k}` : k);
     };
     walk(DEFAULT_DESIGN_BASIS, '');
     const back = formDataToSi(fd, 'US', DEFAULT_DESIGN_BASIS);
     for (const [k, v] of back.entries()) {
-      const si = k.replace(/\[(\d+)\]/g, '.$1').split('.').reduce<unknown>((a, p) => (a as Record<string, unknown>)[p], DEFAULT_DESIGN_BASIS);
+      const si = k
+        .replace(/\[(\d+)\]/g, '.$1')
+        .split('.')
+        .reduce<unknown>((a, p) => (a as Record<string, unknown>)[p], DEFAULT_DESIGN_BASIS);
       expect([k, Number(v)]).toEqual([k, si]);
     }
     // A changed field is converted: 150 °F = 65.5556 °C.
-    const one = new FormData(); one.append('touchLimitMetalC', '150');
-    expect(Number(formDataToSi(one, 'US', DEFAULT_DESIGN_BASIS).get('touchLimitMetalC'))).toBeCloseTo(65.5556, 4);
+    const one = new FormData();
+    one.append('touchLimitMetalC', '150');
+    expect(Number(formDataToSi(one, 'US', DEFAULT_DESIGN_BASIS).get('touchLimitMetalC'))).toBeCloseTo(
+      65.5556,
+      4,
+    );
   });
 });

@@ -7,7 +7,11 @@ import { createProject, getOrganizationAccess } from '@/db/queries/projects';
 const create = formAction({
   schema: formSchemas.createProject,
   handler: async ({ user, input }) => {
-    await getOrganizationAccess({ userId: user.id, organizationId: input.organizationId, action: 'project.create' });
+    await getOrganizationAccess({
+      userId: user.id,
+      organizationId: input.organizationId,
+      action: 'project.create',
+    });
     return createProject(input);
   },
 });

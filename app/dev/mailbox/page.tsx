@@ -22,19 +22,32 @@ export default async function MailboxPage() {
   let messages: SinkMessage[] = [];
   let error = '';
   try {
-    const r = await fetch(`${env.mailSinkHttpUrl()}/messages?to=${encodeURIComponent(user.email.toLowerCase())}`, { cache: 'no-store' });
+    const r = await fetch(
+      `${env.mailSinkHttpUrl()}/messages?to=${encodeURIComponent(user.email.toLowerCase())}`,
+      { cache: 'no-store' },
+    );
     messages = await r.json();
-  } catch { error = `The mail sink at ${env.mailSinkHttpUrl()} is not answering. npm run dev starts it.`; }
+  } catch {
+    error = `The mail sink at ${env.mailSinkHttpUrl()} is not answering. npm run dev starts it.`;
+  }
   return (
     <main className="mx-auto max-w-4xl px-6 py-8">
       <h1 className="mb-1">Development mailbox</h1>
-      <p className="mb-4 text-sm text-ink-600">Messages Lagwise sent to {user.email} through the local SMTP sink. Nothing here left this machine.</p>
-      {error ? <p role="alert" className="caution">{error}</p> : null}
+      <p className="mb-4 text-sm text-ink-600">
+        Messages Lagwise sent to {user.email} through the local SMTP sink. Nothing here left this machine.
+      </p>
+      {error ? (
+        <p role="alert" className="caution">
+          {error}
+        </p>
+      ) : null}
       {messages.length === 0 && !error ? <p className="text-sm text-ink-500">No messages yet.</p> : null}
       <ul className="space-y-3">
         {messages.map((m) => (
           <li key={m.id} className="panel p-4">
-            <div className="text-xs text-ink-500">{m.receivedAt} · to {m.to.join(', ')}</div>
+            <div className="text-xs text-ink-500">
+              {m.receivedAt} · to {m.to.join(', ')}
+            </div>
             <div className="font-medium">{m.subject}</div>
             <pre className="mt-2 whitespace-pre-wrap text-sm">{m.text}</pre>
           </li>

@@ -8,8 +8,16 @@ export default async function LinkCompanyPage({ params }: { params: Promise<{ to
   return (
     <>
       <h1 className="mb-1">Link your company account</h1>
-      <p className="mb-4 text-sm text-ink-600">This works only in the browser where you signed in with the company account, within 15 minutes.</p>
-      <SimpleForm action={linkCompanyAccountAction} schema="token" submitLabel="Link my company account" hidden={{ token }} fields={[]} />
+      <p className="mb-4 text-sm text-ink-600">
+        This works only in the browser where you signed in with the company account, within 15 minutes.
+      </p>
+      <SimpleForm
+        action={linkCompanyAccountAction}
+        schema="token"
+        submitLabel="Link my company account"
+        hidden={{ token }}
+        fields={[]}
+      />
     </>
   );
 }

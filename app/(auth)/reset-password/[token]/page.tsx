@@ -8,8 +8,21 @@ export default async function ResetPasswordPage({ params }: { params: Promise<{ 
   return (
     <>
       <h1 className="mb-4">Choose a new password</h1>
-      <SimpleForm action={resetPasswordAction} schema="resetPassword" submitLabel="Save password" hidden={{ token }}
-        fields={[{ name: 'password', label: 'New password', type: 'password', autoComplete: 'new-password', hint: 'At least 12 characters. Signing in elsewhere ends when you save.' }]} />
+      <SimpleForm
+        action={resetPasswordAction}
+        schema="resetPassword"
+        submitLabel="Save password"
+        hidden={{ token }}
+        fields={[
+          {
+            name: 'password',
+            label: 'New password',
+            type: 'password',
+            autoComplete: 'new-password',
+            hint: 'At least 12 characters. Signing in elsewhere ends when you save.',
+          },
+        ]}
+      />
     </>
   );
 }

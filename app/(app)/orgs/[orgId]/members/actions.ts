@@ -6,7 +6,8 @@ import { getOrganizationAccess } from '@/db/queries/projects';
 import * as auth from '@/lib/auth/service';
 
 /** Members are organization-scoped: the role is checked on the organization named in the form. */
-const assertOwner = (userId: string, organizationId: string) => getOrganizationAccess({ userId, organizationId, action: 'members.manage' });
+const assertOwner = (userId: string, organizationId: string) =>
+  getOrganizationAccess({ userId, organizationId, action: 'members.manage' });
 
 export const inviteAction = formAction({
   schema: formSchemas.invite,

@@ -11,7 +11,13 @@ export const metadata = { title: 'Bill of quantities' };
 export default async function BoqPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
   const { project, role, allowed } = await loadProject(projectId, 'boq.read');
-  if (!allowed) return <><h1 className="mb-4">Bill of quantities</h1><Denied what="The bill of quantities" /></>;
+  if (!allowed)
+    return (
+      <>
+        <h1 className="mb-4">Bill of quantities</h1>
+        <Denied what="The bill of quantities" />
+      </>
+    );
   const issues = await listIssues({ projectId: project.id });
   const canIssue = can(role, 'boq.issue');
   const preview = canIssue ? await previewBill({ projectId: project.id }) : null;
@@ -20,46 +26,137 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
   const u = formatterFor(basis);
   const us = u.system === 'US';
   const prices = materialPricesByName(basis);
-  const vol = (m3: number) => (us ? `${fixed(m3 / (0.3048 * 0.3048 * 0.3048), 2)} ft³` : `${fixed(m3, 3)} m³`);
-  const materialCost = latest ? latest.quantities.materials.reduce((a, m) => a + (prices[m.material] ?? 0) * m.volumeM3, 0) : 0;
+  const vol = (m3: number) =>
+    us ? `${fixed(m3 / (0.3048 * 0.3048 * 0.3048), 2)} ft³` : `${fixed(m3, 3)} m³`;
+  const materialCost = latest
+    ? latest.quantities.materials.reduce((a, m) => a + (prices[m.material] ?? 0) * m.volumeM3, 0)
+    : 0;
   return (
     <>
       <h1 className="mb-3">Bill of quantities</h1>
       {canIssue && preview ? (
-        <section className="panel mb-6 flex flex-wrap items-center justify-between gap-4 p-4" aria-label="Next issue">
-          <p className="text-sm">Not yet issued: <strong>{preview.counted}</strong> lines decided and cleared, <strong>{preview.pending}</strong> pending (undecided, needing re-decision or awaiting safety sign-off — listed, not counted).</p>
+        <section
+          className="panel mb-6 flex flex-wrap items-center justify-between gap-4 p-4"
+          aria-label="Next issue"
+        >
+          <p className="text-sm">
+            Not yet issued: <strong>{preview.counted}</strong> lines decided and cleared,{' '}
+            <strong>{preview.pending}</strong> pending (undecided, needing re-decision or awaiting safety
+            sign-off — listed, not counted).
+          </p>
           <IssueButton projectId={project.id} next={(issues[0]?.number ?? 0) + 1} />
         </section>
       ) : null}
       <h2 className="mb-2">Issued revisions</h2>
-      {issues.length === 0 ? <p className="mb-6 text-sm text-ink-500">Nothing issued yet. {canIssue ? 'Issue the first revision when the decided lines are ready.' : 'The engineer issues the bill when the design is ready.'}</p> : (
+      {issues.length === 0 ? (
+        <p className="mb-6 text-sm text-ink-500">
+          Nothing issued yet.{' '}
+          {canIssue
+            ? 'Issue the first revision when the decided lines are ready.'
+            : 'The engineer issues the bill when the design is ready.'}
+        </p>
+      ) : (
         <table className="table-dense panel mb-6" aria-label="Issued revisions">
-          <thead><tr><th>Issue</th><th>Issued (UTC)</th><th>Counted</th><th>Pending</th><th>Design basis</th><th>Workbook</th></tr></thead>
-          <tbody>{issues.map((i) => (
-            <tr key={i.id}><td className="num">{i.number}</td><td>{i.issuedAt.toISOString().slice(0, 16).replace('T', ' ')}</td><td className="num">{i.counted}</td><td className="num">{i.pending}</td><td className="num">rev. {i.basisRevision}</td>
-              <td><a href={`/api/v1/projects/${project.id}/boq/${i.number}`} download>Download issue {i.number} (.xlsx)</a></td></tr>
-          ))}</tbody>
+          <thead>
+            <tr>
+              <th>Issue</th>
+              <th>Issued (UTC)</th>
+              <th>Counted</th>
+              <th>Pending</th>
+              <th>Design basis</th>
+              <th>Workbook</th>
+            </tr>
+          </thead>
+          <tbody>
+            {issues.map((i) => (
+              <tr key={i.id}>
+                <td className="num">{i.number}</td>
+                <td>{i.issuedAt.toISOString().slice(0, 16).replace('T', ' ')}</td>
+                <td className="num">{i.counted}</td>
+                <td className="num">{i.pending}</td>
+                <td className="num">rev. {i.basisRevision}</td>
+                <td>
+                  <a href={`/api/v1/projects/${project.id}/boq/${i.number}`} download>
+                    Download issue {i.number} (.xlsx)
+                  </a>
+                </td>
+              </tr>
+            ))}
+          </tbody>
         </table>
       )}
       {latest ? (
         <section aria-label="Latest issue summary">
           <h2 className="mb-2">Issue {latest.issue.number}: summary</h2>
           <table className="table-dense panel mb-4" aria-label="Material summary">
-            <thead><tr><th>Material</th><th>Layer</th><th>Size</th><th>Thickness</th><th className="text-right">Length</th><th className="text-right">Volume</th><th className="text-right">Material at design-basis price</th></tr></thead>
-            <tbody>{latest.quantities.materials.map((m, i) => (
-              <tr key={i}><td>{m.material}</td><td className="num">{m.layer}</td><td>{m.size}</td><td className="num">{u.thickness(m.thicknessMm)}</td><td className="num">{u.length(m.lengthM)}</td><td className="num">{vol(m.volumeM3)}</td><td className="num">{u.money((prices[m.material] ?? 0) * m.volumeM3)}</td></tr>
-            ))}</tbody>
+            <thead>
+              <tr>
+                <th>Material</th>
+                <th>Layer</th>
+                <th>Size</th>
+                <th>Thickness</th>
+                <th className="text-right">Length</th>
+                <th className="text-right">Volume</th>
+                <th className="text-right">Material at design-basis price</th>
+              </tr>
+            </thead>
+            <tbody>
+              {latest.quantities.materials.map((m, i) => (
+                <tr key={i}>
+                  <td>{m.material}</td>
+                  <td className="num">{m.layer}</td>
+                  <td>{m.size}</td>
+                  <td className="num">{u.thickness(m.thicknessMm)}</td>
+                  <td className="num">{u.length(m.lengthM)}</td>
+                  <td className="num">{vol(m.volumeM3)}</td>
+                  <td className="num">{u.money((prices[m.material] ?? 0) * m.volumeM3)}</td>
+                </tr>
+              ))}
+            </tbody>
           </table>
-          <p className="mb-4 text-sm" data-testid="bill-material-cost">Material at the design basis&apos;s prices (waste included; labour, jacketing and accessories not included): <strong>{u.money(materialCost)}</strong></p>
+          <p className="mb-4 text-sm" data-testid="bill-material-cost">
+            Material at the design basis&apos;s prices (waste included; labour, jacketing and accessories not
+            included): <strong>{u.money(materialCost)}</strong>
+          </p>
           <div className="grid gap-4 md:grid-cols-2">
             <table className="table-dense panel" aria-label="Jacketing">
-              <thead><tr><th>Jacket</th><th>OD over insulation</th><th className="text-right">Area</th></tr></thead>
-              <tbody>{latest.quantities.jackets.map((j, i) => <tr key={i}><td>{j.jacket}</td><td>{j.outsideDiameterMm === null ? 'flat / vessel' : u.diameter(j.outsideDiameterMm)}</td><td className="num">{u.area(j.areaM2)}</td></tr>)}</tbody>
+              <thead>
+                <tr>
+                  <th>Jacket</th>
+                  <th>OD over insulation</th>
+                  <th className="text-right">Area</th>
+                </tr>
+              </thead>
+              <tbody>
+                {latest.quantities.jackets.map((j, i) => (
+                  <tr key={i}>
+                    <td>{j.jacket}</td>
+                    <td>
+                      {j.outsideDiameterMm === null ? 'flat / vessel' : u.diameter(j.outsideDiameterMm)}
+                    </td>
+                    <td className="num">{u.area(j.areaM2)}</td>
+                  </tr>
+                ))}
+              </tbody>
             </table>
             <div className="panel p-3">
-              <h3 className="mb-1 text-sm font-semibold">Change from issue {latest.issue.number - 1 || '—'}</h3>
-              {latest.issue.number === 1 ? <p className="text-sm text-ink-500">First issue.</p> : latest.delta.length === 0 ? <p className="text-sm">No change in quantities.</p> : (
-                <ul className="max-h-64 overflow-auto text-sm" aria-label="Quantity changes">{latest.delta.map((d, i) => <li key={i}>{d.key} — {d.quantity}: {fixed(d.before, 2)} → {fixed(d.after, 2)} ({d.change > 0 ? '+' : ''}{fixed(d.change, 2)})</li>)}</ul>
+              <h3 className="mb-1 text-sm font-semibold">
+                Change from issue {latest.issue.number - 1 || '—'}
+              </h3>
+              {latest.issue.number === 1 ? (
+                <p className="text-sm text-ink-500">First issue.</p>
+              ) : latest.delta.length === 0 ? (
+                <p className="text-sm">No change in quantities.</p>
+              ) : (
+                <ul className="max-h-64 overflow-auto text-sm" aria-label="Quantity changes">
+                  {latest.delta.map((d, i) => (
+                    <li key={i}>
+                      {d.key} — {d.quantity}: {fixed(d.before, 2)} → {fixed(d.after, 2)} (
+                      {d.change > 0 ? '+' : ''}
+                      {fixed(d.change, 2)})
+                    </li>
+                  ))}
+                </ul>
               )}
             </div>
           </div>

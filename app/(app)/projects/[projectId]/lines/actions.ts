@@ -18,16 +18,28 @@ import { logUnexpected } from '@/lib/log';
 const draftInput = z.unknown();
 
 /** Upload: FormData with `file`. Checked for size before parsing; nothing is stored but the parsed draft. */
-export async function uploadLineListAction(projectId: string, formData: FormData): Promise<ActionResult<DraftSummary>> {
+export async function uploadLineListAction(
+  projectId: string,
+  formData: FormData,
+): Promise<ActionResult<DraftSummary>> {
   try {
     const { user } = await validateRequest();
     if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
     await getProjectAccess({ userId: user.id, projectId, action: 'lines.edit' });
     const file = formData.get('file');
-    if (!(file instanceof File) || file.size === 0) throw new AppError('invalid', 'Choose a line-list file (.xlsx or .csv).', { file: ['Choose a file.'] });
-    if (file.size > MAX_UPLOAD_BYTES) throw new AppError('invalid', `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 20 MB.`, { file: ['File too large.'] });
+    if (!(file instanceof File) || file.size === 0)
+      throw new AppError('invalid', 'Choose a line-list file (.xlsx or .csv).', { file: ['Choose a file.'] });
+    if (file.size > MAX_UPLOAD_BYTES)
+      throw new AppError(
+        'invalid',
+        `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 20 MB.`,
+        { file: ['File too large.'] },
+      );
     const bytes = Buffer.from(await file.arrayBuffer());
-    return { ok: true, data: await store.createDraft({ projectId, userId: user.id, fileName: file.name, bytes }) };
+    return {
+      ok: true,
+      data: await store.createDraft({ projectId, userId: user.id, fileName: file.name, bytes }),
+    };
   } catch (e) {
     if (isAppError(e)) return { ok: false, error: e.message, fields: e.fields };
     logUnexpected('upload', e);
@@ -36,37 +48,76 @@ export async function uploadLineListAction(projectId: string, formData: FormData
 }
 
 export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
-  store.previewDraft({ projectId: project.id, ...readImportRequest(input) }));
+  store.previewDraft({ projectId: project.id, ...readImportRequest(input) }),
+);
 
 /** Import + solve is a background job: the request records and enqueues it and returns the job. */
-export const commitImportAction = projectAction('lines.edit', draftInput, async ({ project, user, input }) => {
-  const req = readImportRequest(input);
-  return enqueueJob({ projectId: project.id, userId: user.id, kind: 'import-solve', input: { ...req } });
-});
+export const commitImportAction = projectAction(
+  'lines.edit',
+  draftInput,
+  async ({ project, user, input }) => {
+    const req = readImportRequest(input);
+    return enqueueJob({ projectId: project.id, userId: user.id, kind: 'import-solve', input: { ...req } });
+  },
+);
 
-export const solveLinesAction = projectAction('lines.edit', z.object({ all: z.boolean().default(false) }), async ({ project, user, input }) =>
-  enqueueJob({ projectId: project.id, userId: user.id, kind: 'solve-all', input: { all: input.all } }));
+export const solveLinesAction = projectAction(
+  'lines.edit',
+  z.object({ all: z.boolean().default(false) }),
+  async ({ project, user, input }) =>
+    enqueueJob({ projectId: project.id, userId: user.id, kind: 'solve-all', input: { all: input.all } }),
+);
 
-export const pickThicknessAction = projectAction('design.pick', z.object({
-  lineId: z.uuid(), thicknessMm: z.number().min(0).max(2000), reason: z.string().max(500).optional(), expectedVersion: z.number().int().min(0),
-}), async ({ project, user, input }) => store.pickDesign({ projectId: project.id, userId: user.id, ...input }));
+export const pickThicknessAction = projectAction(
+  'design.pick',
+  z.object({
+    lineId: z.uuid(),
+    thicknessMm: z.number().min(0).max(2000),
+    reason: z.string().max(500).optional(),
+    expectedVersion: z.number().int().min(0),
+  }),
+  async ({ project, user, input }) => store.pickDesign({ projectId: project.id, userId: user.id, ...input }),
+);
 
-const bulkItems = z.array(z.object({ lineId: z.uuid(), version: z.number().int().min(0), thicknessMm: z.number().min(0) }), { error: 'The lines to accept are missing; press the button again.' })
+const bulkItems = z
+  .array(z.object({ lineId: z.uuid(), version: z.number().int().min(0), thicknessMm: z.number().min(0) }), {
+    error: 'The lines to accept are missing; press the button again.',
+  })
   .max(100_000, { error: 'Too many lines at once; narrow the filter.' });
 
 /** What "accept recommendation for the filtered lines" would change for the table's exact filter (reads only). */
-export const previewBulkAcceptAction = projectAction('design.pick', z.object({ filter: lineFilterSchema }),
-  async ({ project, input }) => store.previewBulkAccept({ projectId: project.id, filter: input.filter }));
+export const previewBulkAcceptAction = projectAction(
+  'design.pick',
+  z.object({ filter: lineFilterSchema }),
+  async ({ project, input }) => store.previewBulkAccept({ projectId: project.id, filter: input.filter }),
+);
 
 /** Applies exactly the lines the preview returned; refused when any of them moved since. */
-export const applyBulkAcceptAction = projectAction('design.pick', z.object({ filter: lineFilterSchema, items: bulkItems }), async ({ project, user, input }) => {
-  const r = await store.applyBulkAccept({ projectId: project.id, userId: user.id, filter: input.filter, items: input.items });
-  revalidatePath(`/projects/${project.id}/lines`);
-  return r;
-});
+export const applyBulkAcceptAction = projectAction(
+  'design.pick',
+  z.object({ filter: lineFilterSchema, items: bulkItems }),
+  async ({ project, user, input }) => {
+    const r = await store.applyBulkAccept({
+      projectId: project.id,
+      userId: user.id,
+      filter: input.filter,
+      items: input.items,
+    });
+    revalidatePath(`/projects/${project.id}/lines`);
+    return r;
+  },
+);
 
-export const undoBulkAcceptAction = projectAction('design.pick', z.object({ bulkAcceptId: z.uuid({ error: 'That bulk accept is not known; reload the page.' }) }), async ({ project, user, input }) => {
-  const r = await store.undoBulkAccept({ projectId: project.id, userId: user.id, bulkAcceptId: input.bulkAcceptId });
-  revalidatePath(`/projects/${project.id}/lines`);
-  return r;
-});
+export const undoBulkAcceptAction = projectAction(
+  'design.pick',
+  z.object({ bulkAcceptId: z.uuid({ error: 'That bulk accept is not known; reload the page.' }) }),
+  async ({ project, user, input }) => {
+    const r = await store.undoBulkAccept({
+      projectId: project.id,
+      userId: user.id,
+      bulkAcceptId: input.bulkAcceptId,
+    });
+    revalidatePath(`/projects/${project.id}/lines`);
+    return r;
+  },
+);

@@ -3,7 +3,11 @@ import { useEffect, useRef } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { JobView } from '@/lib/jobs/store';
 
-type Wire = Omit<JobView, 'createdAt' | 'startedAt' | 'finishedAt'> & { createdAt: string; startedAt: string | null; finishedAt: string | null };
+type Wire = Omit<JobView, 'createdAt' | 'startedAt' | 'finishedAt'> & {
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+};
 const active = (j: Wire | undefined) => !!j && (j.state === 'queued' || j.state === 'running');
 const KIND: Record<Wire['kind'], string> = { 'import-solve': 'Import and solve', 'solve-all': 'Solve' };
 
@@ -24,21 +28,38 @@ export function useJob(projectId: string, jobId: string | null) {
 /** Seconds left at the rate so far, once there is a rate to go by. */
 function remaining(j: Wire): string {
   if (!j.startedAt || !j.total || !j.done || j.done >= j.total) return '';
-  const s = ((Date.now() - Date.parse(j.startedAt)) / j.done) * (j.total - j.done) / 1000;
+  const s = (((Date.now() - Date.parse(j.startedAt)) / j.done) * (j.total - j.done)) / 1000;
   return ` · about ${s < 60 ? `${Math.max(1, Math.round(s))} s` : `${Math.round(s / 60)} min`} left`;
 }
 
 export function JobProgressBar({ job }: { job: Wire }) {
   const label = `${KIND[job.kind]} progress`;
-  const text = job.state === 'queued' ? 'Waiting for a worker…'
-    : job.total ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}` : 'Reading and importing…';
+  const text =
+    job.state === 'queued'
+      ? 'Waiting for a worker…'
+      : job.total
+        ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
+        : 'Reading and importing…';
   return (
     <div className="mb-3" aria-live="polite">
-      <div role="progressbar" aria-label={label} aria-valuemin={0} aria-valuemax={job.total || 1} aria-valuenow={job.done} aria-valuetext={text}
-        className="h-2 w-full overflow-hidden rounded bg-ink-100">
-        <div className="h-full bg-mineral-500 transition-all" style={{ width: `${job.total ? Math.round((100 * job.done) / job.total) : 3}%` }} />
+      <div
+        role="progressbar"
+        aria-label={label}
+        aria-valuemin={0}
+        aria-valuemax={job.total || 1}
+        aria-valuenow={job.done}
+        aria-valuetext={text}
+        className="h-2 w-full overflow-hidden rounded bg-ink-100"
+      >
+        <div
+          className="h-full bg-mineral-500 transition-all"
+          style={{ width: `${job.total ? Math.round((100 * job.done) / job.total) : 3}%` }}
+        />
       </div>
-      <p className="mt-1 text-xs text-ink-600">{KIND[job.kind]}: {text}{job.attempts > 1 ? ` (attempt ${job.attempts})` : ''}</p>
+      <p className="mt-1 text-xs text-ink-600">
+        {KIND[job.kind]}: {text}
+        {job.attempts > 1 ? ` (attempt ${job.attempts})` : ''}
+      </p>
     </div>
   );
 }
@@ -74,7 +95,9 @@ export function RecentJobs({ projectId }: { projectId: string }) {
           {q.data.map((j) => (
             <li key={j.id}>
               {j.createdAt.slice(0, 16).replace('T', ' ')} · {KIND[j.kind]} · {j.state}
-              {j.state === 'done' && j.result && 'solved' in j.result ? ` · ${String(j.result.solved)} lines solved` : ''}
+              {j.state === 'done' && j.result && 'solved' in j.result
+                ? ` · ${String(j.result.solved)} lines solved`
+                : ''}
               {j.error && j.state === 'failed' ? ` · ${j.error}` : ''}
             </li>
           ))}

@@ -17,13 +17,33 @@ import { PrintButton } from '@/components/print-button';
 
 export const metadata = { title: 'Line' };
 
-const CRITERION: Record<string, string> = { personnel: 'Personnel protection', condensation: 'Condensation control', heatLossLimit: 'Heat-loss limit', processDrop: 'Process temperature drop', freeze: 'Freeze protection', energyCode: 'Energy code minimum', economic: 'Economic thickness' };
+const CRITERION: Record<string, string> = {
+  personnel: 'Personnel protection',
+  condensation: 'Condensation control',
+  heatLossLimit: 'Heat-loss limit',
+  processDrop: 'Process temperature drop',
+  freeze: 'Freeze protection',
+  energyCode: 'Energy code minimum',
+  economic: 'Economic thickness',
+};
 
 function Changes({ lines }: { lines: string[] }) {
-  return lines.length ? <ul className="space-y-0.5">{lines.map((l, i) => <li key={i}>{l}</li>)}</ul> : <>—</>;
+  return lines.length ? (
+    <ul className="space-y-0.5">
+      {lines.map((l, i) => (
+        <li key={i}>{l}</li>
+      ))}
+    </ul>
+  ) : (
+    <>—</>
+  );
 }
 
-export default async function LinePage({ params }: { params: Promise<{ projectId: string; lineId: string }> }) {
+export default async function LinePage({
+  params,
+}: {
+  params: Promise<{ projectId: string; lineId: string }>;
+}) {
   const { projectId, lineId } = await params;
   const { project, allowed } = await loadProject(projectId, 'lines.read');
   if (!allowed) return <Denied what="The line list" />;
@@ -39,122 +59,366 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
   const limits = decidingLimits(basis, line as unknown as LineInput, result?.jacketId ?? null);
   const nums = result ? candidateNumbers(basis, inputOf(line), result.jacketId, cands, limits) : [];
   const atMm = design?.thicknessMm ?? result?.recommendedMm ?? null;
-  const econ = (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
+  const econ =
+    (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
-  const d = result?.design as { profileC: { radiusOrDepthM: number; tempC: number }[]; overall: { perLengthWPerMK?: number; outerSurface: { valueWPerM2K: number; diameterM?: number }; innerSurface: { valueWPerM2K: number; diameterM?: number } }; convective: number; radiative: number } | null | undefined;
+  const d = result?.design as
+    | {
+        profileC: { radiusOrDepthM: number; tempC: number }[];
+        overall: {
+          perLengthWPerMK?: number;
+          outerSurface: { valueWPerM2K: number; diameterM?: number };
+          innerSurface: { valueWPerM2K: number; diameterM?: number };
+        };
+        convective: number;
+        radiative: number;
+      }
+    | null
+    | undefined;
   const surface = isSurfaceGeometry(line.geometry);
-  const fittingsW = result && result.heatFlowPerUnit !== null ? lineFittingsW(basis, line, result.heatFlowPerUnit, cands[0]?.[2] ?? 0, result.recommendedMm === 0) : 0;
+  const fittingsW =
+    result && result.heatFlowPerUnit !== null
+      ? lineFittingsW(basis, line, result.heatFlowPerUnit, cands[0]?.[2] ?? 0, result.recommendedMm === 0)
+      : 0;
   const unit = surface ? 'W/m²' : 'W/m';
   const per = surface ? u.units.area : u.units.length;
   const recNums = nums.find((c) => c.mm === result?.recommendedMm);
   // Per metre/m² amounts from the economics, in the project's length or area unit.
-  const perUnit = (v: number, digits: number) => u.money(u.system === 'US' ? (surface ? convert.perM2ToPerFt2(v) : convert.perMToPerFt(v)) : v, digits);
+  const perUnit = (v: number, digits: number) =>
+    u.money(u.system === 'US' ? (surface ? convert.perM2ToPerFt2(v) : convert.perMToPerFt(v)) : v, digits);
   // Audit keys carry SI units ("thickness (mm): 25 → 40"): shown in the project's units.
-  const msgKey = (t: string) => (u.system === 'SI' && u.series === 'mm' ? t : t.replace(/thickness \(mm\): (.*)$/, (_, v: string) => `thickness: ${v.replace(/-?\d+(?:\.\d+)?/g, (n) => u.thickness(Number(n)))}`).replace(/required \(mm\): (-?\d+(?:\.\d+)?)/, (_, n: string) => `required: ${u.thickness(Number(n))}`));
+  const msgKey = (t: string) =>
+    u.system === 'SI' && u.series === 'mm'
+      ? t
+      : t
+          .replace(
+            /thickness \(mm\): (.*)$/,
+            (_, v: string) => `thickness: ${v.replace(/-?\d+(?:\.\d+)?/g, (n) => u.thickness(Number(n)))}`,
+          )
+          .replace(
+            /required \(mm\): (-?\d+(?:\.\d+)?)/,
+            (_, n: string) => `required: ${u.thickness(Number(n))}`,
+          );
   return (
     <>
       <div className="no-print mb-1 flex flex-wrap items-center justify-between gap-2 text-sm">
         <Link href={`/projects/${project.id}/lines`}>← Line list</Link>
         <span className="flex items-center gap-3">
-          <a href={`/api/v1/projects/${project.id}/lines/${line.id}/sheet`} download>Download calculation sheet (PDF)</a>
+          <a href={`/api/v1/projects/${project.id}/lines/${line.id}/sheet`} download>
+            Download calculation sheet (PDF)
+          </a>
           <PrintButton label="Print this page" />
         </span>
       </div>
-      <p className="mb-1 hidden text-xs text-ink-600 print:block">{project.code} · {project.name} · calculation sheet · line-list revision {line.revision} · design basis revision {result?.basisRevision ?? '—'} · calculation version {result?.calcVersion ?? '—'}</p>
+      <p className="mb-1 hidden text-xs text-ink-600 print:block">
+        {project.code} · {project.name} · calculation sheet · line-list revision {line.revision} · design
+        basis revision {result?.basisRevision ?? '—'} · calculation version {result?.calcVersion ?? '—'}
+      </p>
       <h1 className="mb-1 font-mono">{line.tag}</h1>
-      <p className="mb-4 text-sm text-ink-600">{line.service} · {line.area} · {GEOMETRY_LABEL[line.geometry]} {line.nps ? `NPS ${line.nps}` : ''} {line.outsideDiameterMm ? `(${u.diameter(line.outsideDiameterMm)} OD)` : ''}</p>
-      <div className="mb-4"><ResultCautions /></div>
-      {stale ? <p role="status" className="caution mb-4">These results are stale: the line or the design basis changed since they were computed. Solve the stale lines on the line list.</p> : null}
+      <p className="mb-4 text-sm text-ink-600">
+        {line.service} · {line.area} · {GEOMETRY_LABEL[line.geometry]} {line.nps ? `NPS ${line.nps}` : ''}{' '}
+        {line.outsideDiameterMm ? `(${u.diameter(line.outsideDiameterMm)} OD)` : ''}
+      </p>
+      <div className="mb-4">
+        <ResultCautions />
+      </div>
+      {stale ? (
+        <p role="status" className="caution mb-4">
+          These results are stale: the line or the design basis changed since they were computed. Solve the
+          stale lines on the line list.
+        </p>
+      ) : null}
       <div className="grid gap-4 lg:grid-cols-3">
         <section className="panel p-4">
           <h2 className="mb-2">Inputs</h2>
           <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-            <dt className="text-ink-500">Normal / max temperature</dt><dd>{u.temp(line.normalTempC)} / {u.temp(line.maxTempC)}</dd>
-            <dt className="text-ink-500">{surface ? 'Area / height' : 'Length'}</dt><dd>{surface ? `${u.area(line.surfaceAreaM2)} / ${u.length(line.heightM)}` : u.length(line.lengthM)}</dd>
-            <dt className="text-ink-500">Steam pressure</dt><dd>{u.pressure(line.steamPressureBarG)}</dd>
-            <dt className="text-ink-500">Purposes</dt><dd>{(line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', ')}</dd>
-            <dt className="text-ink-500">Location / access</dt><dd>{line.outdoor ? 'Outdoor' : 'Indoor'} · {line.accessible ? 'accessible' : 'not accessible'}{line.accessHeightM !== null ? ` (${u.length(line.accessHeightM)})` : ''}</dd>
-            <dt className="text-ink-500">Fittings</dt><dd>{line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges</dd>
-            <dt className="text-ink-500">System</dt><dd>{result ? `${result.systemLabel}, ${cat.jackets.get(result.jacketId)?.name ?? result.jacketId}` : '—'}</dd>
+            <dt className="text-ink-500">Normal / max temperature</dt>
+            <dd>
+              {u.temp(line.normalTempC)} / {u.temp(line.maxTempC)}
+            </dd>
+            <dt className="text-ink-500">{surface ? 'Area / height' : 'Length'}</dt>
+            <dd>
+              {surface ? `${u.area(line.surfaceAreaM2)} / ${u.length(line.heightM)}` : u.length(line.lengthM)}
+            </dd>
+            <dt className="text-ink-500">Steam pressure</dt>
+            <dd>{u.pressure(line.steamPressureBarG)}</dd>
+            <dt className="text-ink-500">Purposes</dt>
+            <dd>{(line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', ')}</dd>
+            <dt className="text-ink-500">Location / access</dt>
+            <dd>
+              {line.outdoor ? 'Outdoor' : 'Indoor'} · {line.accessible ? 'accessible' : 'not accessible'}
+              {line.accessHeightM !== null ? ` (${u.length(line.accessHeightM)})` : ''}
+            </dd>
+            <dt className="text-ink-500">Fittings</dt>
+            <dd>
+              {line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges
+            </dd>
+            <dt className="text-ink-500">System</dt>
+            <dd>
+              {result
+                ? `${result.systemLabel}, ${cat.jackets.get(result.jacketId)?.name ?? result.jacketId}`
+                : '—'}
+            </dd>
           </dl>
         </section>
         <section className="panel p-4">
           <h2 className="mb-2">Recommendation</h2>
           {result ? (
             <>
-              <p className="text-2xl font-semibold" data-testid="recommended">{result.recommendedMm === null ? 'none' : u.thickness(result.recommendedMm)}</p>
-              <p className="mb-2 text-sm text-ink-600">{(result.layers as { materialId: string; thicknessMm: number }[]).map((l) => `${u.thickness(l.thicknessMm)} ${cat.materials.get(l.materialId)?.name ?? l.materialId}`).join(' + ') || 'no insulation'}</p>
+              <p className="text-2xl font-semibold" data-testid="recommended">
+                {result.recommendedMm === null ? 'none' : u.thickness(result.recommendedMm)}
+              </p>
+              <p className="mb-2 text-sm text-ink-600">
+                {(result.layers as { materialId: string; thicknessMm: number }[])
+                  .map(
+                    (l) =>
+                      `${u.thickness(l.thicknessMm)} ${cat.materials.get(l.materialId)?.name ?? l.materialId}`,
+                  )
+                  .join(' + ') || 'no insulation'}
+              </p>
               <ul className="space-y-1 text-sm">
-                {econ.map((o) => <li key={o.id}><strong>{o.id === result.governing ? '▶ ' : ''}{CRITERION[o.id] ?? o.id}</strong>: {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}</li>)}
+                {econ.map((o) => (
+                  <li key={o.id}>
+                    <strong>
+                      {o.id === result.governing ? '▶ ' : ''}
+                      {CRITERION[o.id] ?? o.id}
+                    </strong>
+                    : {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}
+                  </li>
+                ))}
               </ul>
-              {(result.warnings as string[]).length ? <ul className="mt-2 space-y-1 text-xs text-alarm-700">{(result.warnings as string[]).map((w, i) => <li key={i}>{msg(w)}</li>)}</ul> : null}
+              {(result.warnings as string[]).length ? (
+                <ul className="mt-2 space-y-1 text-xs text-alarm-700">
+                  {(result.warnings as string[]).map((w, i) => (
+                    <li key={i}>{msg(w)}</li>
+                  ))}
+                </ul>
+              ) : null}
             </>
-          ) : <p className="text-sm text-ink-500">Not solved yet.</p>}
+          ) : (
+            <p className="text-sm text-ink-500">Not solved yet.</p>
+          )}
         </section>
         <section className="panel p-4">
           <h2 className="mb-2">Chosen design</h2>
           {design ? (
             <div className="space-y-1 text-sm">
-              <p className="text-xl font-semibold">{u.thickness(design.thicknessMm)} <span className="text-sm font-normal text-ink-600">({design.source === 'manual' ? 'manual pick' : 'recommendation accepted'})</span></p>
+              <p className="text-xl font-semibold">
+                {u.thickness(design.thicknessMm)}{' '}
+                <span className="text-sm font-normal text-ink-600">
+                  ({design.source === 'manual' ? 'manual pick' : 'recommendation accepted'})
+                </span>
+              </p>
               {design.reason ? <p>Reason: {design.reason}</p> : null}
-              {design.belowCriterion ? <p className="text-alarm-700">Below {design.belowCriterion} — flagged for review.</p> : null}
-              {design.needsRedecision ? <p className="text-ochre-700">Needs re-decision: {design.redecisionReason}</p> : null}
-              <p className="text-xs text-ink-500">Decided {design.decidedAt.toISOString().slice(0, 16).replace('T', ' ')}</p>
+              {design.belowCriterion ? (
+                <p className="text-alarm-700">Below {design.belowCriterion} — flagged for review.</p>
+              ) : null}
+              {design.needsRedecision ? (
+                <p className="text-ochre-700">Needs re-decision: {design.redecisionReason}</p>
+              ) : null}
+              <p className="text-xs text-ink-500">
+                Decided {design.decidedAt.toISOString().slice(0, 16).replace('T', ' ')}
+              </p>
             </div>
-          ) : <p className="text-sm text-ink-500">No thickness chosen yet.</p>}
+          ) : (
+            <p className="text-sm text-ink-500">No thickness chosen yet.</p>
+          )}
         </section>
       </div>
       {result ? (
         <div className="mt-4 grid gap-4 lg:grid-cols-2">
           <section className="panel p-4">
             <h2 className="mb-2">Cost curve</h2>
-            <CostChart points={cands.map((c) => ({ mm: c[0], heatFlow: c[2], annualCost: c[5] }))} optimumMm={optimum} chosenMm={design?.thicknessMm ?? null} surface={surface} format={{ unitSystem: basis.unitSystem, thicknessSeries: basis.thicknessSeries, currency: basis.currency }} />
+            <CostChart
+              points={cands.map((c) => ({ mm: c[0], heatFlow: c[2], annualCost: c[5] }))}
+              optimumMm={optimum}
+              chosenMm={design?.thicknessMm ?? null}
+              surface={surface}
+              format={{
+                unitSystem: basis.unitSystem,
+                thicknessSeries: basis.thicknessSeries,
+                currency: basis.currency,
+              }}
+            />
           </section>
           {ev ? (
             <section className="panel p-4" aria-labelledby="econ-h">
-              <h2 id="econ-h" className="mb-2">Economic thickness</h2>
+              <h2 id="econ-h" className="mb-2">
+                Economic thickness
+              </h2>
               <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-                <dt className="text-ink-500">Optimum</dt><dd data-testid="econ-optimum">{u.thickness(ev.optimumMm)}</dd>
-                <dt className="text-ink-500">Within {ev.flatRangePct} % of the lowest annual cost</dt><dd data-testid="econ-range">{ev.range ? `${u.thickness(ev.range.fromMm)} – ${u.thickness(ev.range.toMm)}` : '—'}</dd>
-                <dt className="text-ink-500">Project rule</dt><dd>{ev.choice === 'optimum' ? 'the optimum is required' : 'the thinnest in the range is required'}</dd>
-                {ev.vsBare ? <>
-                  <dt className="text-ink-500">{u.thickness(ev.atMm)} against bare, per {per}</dt>
-                  <dd>extra first cost {perUnit(ev.vsBare.extraInstalled, 2)}, saves {perUnit(ev.vsBare.annualSaving, 2)} a year; payback {ev.vsBare.paybackYears === null ? 'none' : `${sig(ev.vsBare.paybackYears, 2)} years`}; net present value {perUnit(ev.vsBare.npv, 2)}</dd>
-                </> : null}
-                {ev.vsThinner ? <>
-                  <dt className="text-ink-500">{u.thickness(ev.atMm)} against {u.thickness(ev.vsThinner.againstMm)}, per {per}</dt>
-                  <dd>extra {perUnit(ev.vsThinner.extraInstalled, 2)}, saves {perUnit(ev.vsThinner.annualSaving, 2)} a year; payback {ev.vsThinner.paybackYears === null ? 'none' : `${sig(ev.vsThinner.paybackYears, 2)} years`}; net present value {perUnit(ev.vsThinner.npv, 2)}</dd>
-                </> : null}
+                <dt className="text-ink-500">Optimum</dt>
+                <dd data-testid="econ-optimum">{u.thickness(ev.optimumMm)}</dd>
+                <dt className="text-ink-500">Within {ev.flatRangePct} % of the lowest annual cost</dt>
+                <dd data-testid="econ-range">
+                  {ev.range ? `${u.thickness(ev.range.fromMm)} – ${u.thickness(ev.range.toMm)}` : '—'}
+                </dd>
+                <dt className="text-ink-500">Project rule</dt>
+                <dd>
+                  {ev.choice === 'optimum'
+                    ? 'the optimum is required'
+                    : 'the thinnest in the range is required'}
+                </dd>
+                {ev.vsBare ? (
+                  <>
+                    <dt className="text-ink-500">
+                      {u.thickness(ev.atMm)} against bare, per {per}
+                    </dt>
+                    <dd>
+                      extra first cost {perUnit(ev.vsBare.extraInstalled, 2)}, saves{' '}
+                      {perUnit(ev.vsBare.annualSaving, 2)} a year; payback{' '}
+                      {ev.vsBare.paybackYears === null ? 'none' : `${sig(ev.vsBare.paybackYears, 2)} years`};
+                      net present value {perUnit(ev.vsBare.npv, 2)}
+                    </dd>
+                  </>
+                ) : null}
+                {ev.vsThinner ? (
+                  <>
+                    <dt className="text-ink-500">
+                      {u.thickness(ev.atMm)} against {u.thickness(ev.vsThinner.againstMm)}, per {per}
+                    </dt>
+                    <dd>
+                      extra {perUnit(ev.vsThinner.extraInstalled, 2)}, saves{' '}
+                      {perUnit(ev.vsThinner.annualSaving, 2)} a year; payback{' '}
+                      {ev.vsThinner.paybackYears === null
+                        ? 'none'
+                        : `${sig(ev.vsThinner.paybackYears, 2)} years`}
+                      ; net present value {perUnit(ev.vsThinner.npv, 2)}
+                    </dd>
+                  </>
+                ) : null}
               </dl>
               <table className="table-dense mt-3" aria-label="Optimum under other prices">
-                <thead><tr><th>If</th><th className="text-right">Optimum</th></tr></thead>
-                <tbody>{ev.sensitivity.map((x) => <tr key={x.label}><td>{x.label}</td><td className="num">{u.thickness(x.optimumMm)}</td></tr>)}</tbody>
+                <thead>
+                  <tr>
+                    <th>If</th>
+                    <th className="text-right">Optimum</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {ev.sensitivity.map((x) => (
+                    <tr key={x.label}>
+                      <td>{x.label}</td>
+                      <td className="num">{u.thickness(x.optimumMm)}</td>
+                    </tr>
+                  ))}
+                </tbody>
               </table>
-              <p className="mt-2 text-xs text-ink-600">Annualised cost = capital recovery × installed cost + levelised energy cost (cold lines priced as cooling), in {u.currency}. Rates and prices are the design basis&apos;s; set the project&apos;s own.</p>
+              <p className="mt-2 text-xs text-ink-600">
+                Annualised cost = capital recovery × installed cost + levelised energy cost (cold lines priced
+                as cooling), in {u.currency}. Rates and prices are the design basis&apos;s; set the
+                project&apos;s own.
+              </p>
             </section>
           ) : null}
           <section className="panel p-4">
             <h2 className="mb-2">At the recommendation (heat-loss conditions)</h2>
             <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
-              <dt className="text-ink-500">Heat loss</dt><dd>{u.heatFlowPerUnit(result.heatFlowPerUnit, surface)}{line.geometry === 'vessel' ? ' (mean over the outside area)' : ''} · {u.power(result.totalHeatW)} for the line (bare {u.power(result.bareHeatW)})</dd>
-              {fittingsW ? <><dt className="text-ink-500">Straight run + fittings</dt><dd data-testid="fittings-heat">{u.power(result.totalHeatW)} + {u.power(fittingsW)} ({line.elbows} elbows, {line.tees} tees, {line.valves} valves, {line.flanges} flanges, supports as equivalent lengths{basis.fittings.valvesBare ? '; valves and flanges bare' : ''}) = {u.power((result.totalHeatW ?? 0) + fittingsW)}</dd></> : null}
-              <dt className="text-ink-500">Surface temperature</dt><dd>{u.temp(result.surfaceTempC)}</dd>
-              {recNums?.personnelC !== undefined && limits.personnelLimitC !== null ? <><dt className="text-ink-500">Personnel check</dt><dd data-testid="rec-personnel">{u.temp(recNums.personnelC)} (limit {u.temp(limits.personnelLimitC)})</dd></> : null}
-              {recNums?.condensationC !== undefined && limits.condensationNeedC !== null ? <><dt className="text-ink-500">Condensation check</dt><dd>{u.temp(recNums.condensationC)} (at least {u.temp(limits.condensationNeedC)})</dd></> : null}
-              <dt className="text-ink-500">Annual energy / cost / CO₂</dt><dd>{u.energy(result.annualMWh)} · {u.money(result.annualCost)} · {sig(result.co2Tonnes, 3)} t</dd>
-              {result.condensateKgPerH !== null ? <><dt className="text-ink-500">Condensate</dt><dd>{u.mass(result.condensateKgPerH)}/h</dd></> : null}
-              {d && line.geometry === 'vessel' ? <><dt className="text-ink-500">Vessel model</dt><dd>Shell plus two flat heads; the coefficients and profile below are the shell&apos;s, the heat loss covers all three.</dd></> : null}
-              {d ? <>
-                <dt className="text-ink-500">Surface coefficients</dt><dd>convection {u.htc(d.convective)}, radiation {u.htc(d.radiative)}</dd>
-                {d.overall.perLengthWPerMK !== undefined ? <><dt className="text-ink-500">U per {u.units.length === 'ft' ? 'foot' : 'metre'}</dt><dd>{u.system === 'US' ? `${sig(d.overall.perLengthWPerMK * 0.3048 * 3600 / 1055.05585262 / 1.8, 4)} Btu/(h·ft·°F)` : `${sig(d.overall.perLengthWPerMK, 4)} W/(m·K)`}</dd></> : null}
-                <dt className="text-ink-500">U referred to the outer surface</dt><dd>{u.htc(d.overall.outerSurface.valueWPerM2K)}{d.overall.outerSurface.diameterM ? ` on D = ${u.diameter(d.overall.outerSurface.diameterM * 1000)}` : ''}</dd>
-                <dt className="text-ink-500">U referred to the inner surface</dt><dd>{u.htc(d.overall.innerSurface.valueWPerM2K)}{d.overall.innerSurface.diameterM ? ` on D = ${u.diameter(d.overall.innerSurface.diameterM * 1000)}` : ''}</dd>
-              </> : null}
+              <dt className="text-ink-500">Heat loss</dt>
+              <dd>
+                {u.heatFlowPerUnit(result.heatFlowPerUnit, surface)}
+                {line.geometry === 'vessel' ? ' (mean over the outside area)' : ''} ·{' '}
+                {u.power(result.totalHeatW)} for the line (bare {u.power(result.bareHeatW)})
+              </dd>
+              {fittingsW ? (
+                <>
+                  <dt className="text-ink-500">Straight run + fittings</dt>
+                  <dd data-testid="fittings-heat">
+                    {u.power(result.totalHeatW)} + {u.power(fittingsW)} ({line.elbows} elbows, {line.tees}{' '}
+                    tees, {line.valves} valves, {line.flanges} flanges, supports as equivalent lengths
+                    {basis.fittings.valvesBare ? '; valves and flanges bare' : ''}) ={' '}
+                    {u.power((result.totalHeatW ?? 0) + fittingsW)}
+                  </dd>
+                </>
+              ) : null}
+              <dt className="text-ink-500">Surface temperature</dt>
+              <dd>{u.temp(result.surfaceTempC)}</dd>
+              {recNums?.personnelC !== undefined && limits.personnelLimitC !== null ? (
+                <>
+                  <dt className="text-ink-500">Personnel check</dt>
+                  <dd data-testid="rec-personnel">
+                    {u.temp(recNums.personnelC)} (limit {u.temp(limits.personnelLimitC)})
+                  </dd>
+                </>
+              ) : null}
+              {recNums?.condensationC !== undefined && limits.condensationNeedC !== null ? (
+                <>
+                  <dt className="text-ink-500">Condensation check</dt>
+                  <dd>
+                    {u.temp(recNums.condensationC)} (at least {u.temp(limits.condensationNeedC)})
+                  </dd>
+                </>
+              ) : null}
+              <dt className="text-ink-500">Annual energy / cost / CO₂</dt>
+              <dd>
+                {u.energy(result.annualMWh)} · {u.money(result.annualCost)} · {sig(result.co2Tonnes, 3)} t
+              </dd>
+              {result.condensateKgPerH !== null ? (
+                <>
+                  <dt className="text-ink-500">Condensate</dt>
+                  <dd>{u.mass(result.condensateKgPerH)}/h</dd>
+                </>
+              ) : null}
+              {d && line.geometry === 'vessel' ? (
+                <>
+                  <dt className="text-ink-500">Vessel model</dt>
+                  <dd>
+                    Shell plus two flat heads; the coefficients and profile below are the shell&apos;s, the
+                    heat loss covers all three.
+                  </dd>
+                </>
+              ) : null}
+              {d ? (
+                <>
+                  <dt className="text-ink-500">Surface coefficients</dt>
+                  <dd>
+                    convection {u.htc(d.convective)}, radiation {u.htc(d.radiative)}
+                  </dd>
+                  {d.overall.perLengthWPerMK !== undefined ? (
+                    <>
+                      <dt className="text-ink-500">U per {u.units.length === 'ft' ? 'foot' : 'metre'}</dt>
+                      <dd>
+                        {u.system === 'US'
+                          ? `${sig((d.overall.perLengthWPerMK * 0.3048 * 3600) / 1055.05585262 / 1.8, 4)} Btu/(h·ft·°F)`
+                          : `${sig(d.overall.perLengthWPerMK, 4)} W/(m·K)`}
+                      </dd>
+                    </>
+                  ) : null}
+                  <dt className="text-ink-500">U referred to the outer surface</dt>
+                  <dd>
+                    {u.htc(d.overall.outerSurface.valueWPerM2K)}
+                    {d.overall.outerSurface.diameterM
+                      ? ` on D = ${u.diameter(d.overall.outerSurface.diameterM * 1000)}`
+                      : ''}
+                  </dd>
+                  <dt className="text-ink-500">U referred to the inner surface</dt>
+                  <dd>
+                    {u.htc(d.overall.innerSurface.valueWPerM2K)}
+                    {d.overall.innerSurface.diameterM
+                      ? ` on D = ${u.diameter(d.overall.innerSurface.diameterM * 1000)}`
+                      : ''}
+                  </dd>
+                </>
+              ) : null}
             </dl>
             {d ? (
               <table className="table-dense mt-3" aria-label="Temperature profile">
-                <thead><tr><th>{line.geometry === 'flat' ? 'Depth' : 'Radius'}, {u.units.diameter}</th><th>Temperature, {u.units.temp}</th></tr></thead>
-                <tbody>{d.profileC.map((p, i) => <tr key={i}><td className="num">{u.diameter(p.radiusOrDepthM * 1000).replace(/ (mm|in)$/, '')}</td><td className="num">{u.tempValue(p.tempC)}</td></tr>)}</tbody>
+                <thead>
+                  <tr>
+                    <th>
+                      {line.geometry === 'flat' ? 'Depth' : 'Radius'}, {u.units.diameter}
+                    </th>
+                    <th>Temperature, {u.units.temp}</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {d.profileC.map((p, i) => (
+                    <tr key={i}>
+                      <td className="num">{u.diameter(p.radiusOrDepthM * 1000).replace(/ (mm|in)$/, '')}</td>
+                      <td className="num">{u.tempValue(p.tempC)}</td>
+                    </tr>
+                  ))}
+                </tbody>
               </table>
             ) : null}
           </section>
@@ -162,39 +426,109 @@ export default async function LinePage({ params }: { params: Promise<{ projectId
       ) : null}
       {nums.length ? (
         <section className="panel mt-4 overflow-x-auto p-4" aria-labelledby="deciding-h">
-          <h2 id="deciding-h" className="mb-1">Candidates and the numbers that decide</h2>
-          <p className="mb-2 text-xs text-ink-600">Each surface temperature is solved under its criterion&apos;s own conditions: heat loss at {u.temp(basis.conditions.heatLoss[line.outdoor ? 'outdoor' : 'indoor'].airC)} air{limits.personnelLimitC !== null ? `, personnel at ${u.temp(basis.conditions.personnel[line.outdoor ? 'outdoor' : 'indoor'].airC)} still air and the ${u.temp(line.maxTempC ?? line.normalTempC)} maximum process temperature (touch limit ${u.temp(limits.personnelLimitC)})` : ''}{limits.condensationNeedC !== null ? `, condensation at ${u.temp(basis.conditions.condensation[line.outdoor ? 'outdoor' : 'indoor'].airC)} and ${basis.conditions.condensation[line.outdoor ? 'outdoor' : 'indoor'].relativeHumidityPct} % RH (${limits.dewBasis} ${u.temp(limits.dewPointC)} + ${u.tempDelta(basis.dewPointMarginK).replace(/^\+/, '')} margin = ${u.temp(limits.condensationNeedC)})` : ''}.</p>
+          <h2 id="deciding-h" className="mb-1">
+            Candidates and the numbers that decide
+          </h2>
+          <p className="mb-2 text-xs text-ink-600">
+            Each surface temperature is solved under its criterion&apos;s own conditions: heat loss at{' '}
+            {u.temp(basis.conditions.heatLoss[line.outdoor ? 'outdoor' : 'indoor'].airC)} air
+            {limits.personnelLimitC !== null
+              ? `, personnel at ${u.temp(basis.conditions.personnel[line.outdoor ? 'outdoor' : 'indoor'].airC)} still air and the ${u.temp(line.maxTempC ?? line.normalTempC)} maximum process temperature (touch limit ${u.temp(limits.personnelLimitC)})`
+              : ''}
+            {limits.condensationNeedC !== null
+              ? `, condensation at ${u.temp(basis.conditions.condensation[line.outdoor ? 'outdoor' : 'indoor'].airC)} and ${basis.conditions.condensation[line.outdoor ? 'outdoor' : 'indoor'].relativeHumidityPct} % RH (${limits.dewBasis} ${u.temp(limits.dewPointC)} + ${u.tempDelta(basis.dewPointMarginK).replace(/^\+/, '')} margin = ${u.temp(limits.condensationNeedC)})`
+              : ''}
+            .
+          </p>
           <table className="table-dense" aria-label="Candidates">
-            <thead><tr><th>Thickness</th><th className="text-right">Heat loss</th><th className="text-right">Surface (heat loss)</th>
-              {limits.personnelLimitC !== null ? <th className="text-right">Surface (personnel) · limit {u.temp(limits.personnelLimitC)}</th> : null}
-              {limits.condensationNeedC !== null ? <th className="text-right">Surface (condensation) · at least {u.temp(limits.condensationNeedC)}</th> : null}
-              <th className="text-right">Worst margin</th><th></th></tr></thead>
-            <tbody>{nums.map((c) => {
-              const m = worstMargin(c, limits);
-              return (
-                <tr key={c.mm} data-mm={c.mm} className={c.mm === atMm ? 'bg-mineral-50' : undefined}>
-                  <td>{u.thickness(c.mm)}{c.mm === result?.recommendedMm ? ' ★' : ''}</td>
-                  <td className="num">{u.heatFlowPerUnit(c.heatFlow, surface)}</td>
-                  <td className="num">{u.temp(c.heatLossC)}</td>
-                  {limits.personnelLimitC !== null ? <td className={`num ${c.personnelC !== null && c.personnelC > limits.personnelLimitC ? 'text-alarm-700' : ''}`}>{u.temp(c.personnelC)}</td> : null}
-                  {limits.condensationNeedC !== null ? <td className={`num ${c.condensationC !== null && c.condensationC < limits.condensationNeedC ? 'text-alarm-700' : ''}`}>{u.temp(c.condensationC)}</td> : null}
-                  <td className="num">{m ? `${u.tempDelta(m.marginK)} ${m.criterion}` : '—'}</td>
-                  <td className="text-xs">{c.mm === design?.thicknessMm ? 'chosen' : ''}{!c.ok ? ' layer over its service limit' : ''}</td>
-                </tr>
-              );
-            })}</tbody>
+            <thead>
+              <tr>
+                <th>Thickness</th>
+                <th className="text-right">Heat loss</th>
+                <th className="text-right">Surface (heat loss)</th>
+                {limits.personnelLimitC !== null ? (
+                  <th className="text-right">Surface (personnel) · limit {u.temp(limits.personnelLimitC)}</th>
+                ) : null}
+                {limits.condensationNeedC !== null ? (
+                  <th className="text-right">
+                    Surface (condensation) · at least {u.temp(limits.condensationNeedC)}
+                  </th>
+                ) : null}
+                <th className="text-right">Worst margin</th>
+                <th></th>
+              </tr>
+            </thead>
+            <tbody>
+              {nums.map((c) => {
+                const m = worstMargin(c, limits);
+                return (
+                  <tr key={c.mm} data-mm={c.mm} className={c.mm === atMm ? 'bg-mineral-50' : undefined}>
+                    <td>
+                      {u.thickness(c.mm)}
+                      {c.mm === result?.recommendedMm ? ' ★' : ''}
+                    </td>
+                    <td className="num">{u.heatFlowPerUnit(c.heatFlow, surface)}</td>
+                    <td className="num">{u.temp(c.heatLossC)}</td>
+                    {limits.personnelLimitC !== null ? (
+                      <td
+                        className={`num ${c.personnelC !== null && c.personnelC > limits.personnelLimitC ? 'text-alarm-700' : ''}`}
+                      >
+                        {u.temp(c.personnelC)}
+                      </td>
+                    ) : null}
+                    {limits.condensationNeedC !== null ? (
+                      <td
+                        className={`num ${c.condensationC !== null && c.condensationC < limits.condensationNeedC ? 'text-alarm-700' : ''}`}
+                      >
+                        {u.temp(c.condensationC)}
+                      </td>
+                    ) : null}
+                    <td className="num">{m ? `${u.tempDelta(m.marginK)} ${m.criterion}` : '—'}</td>
+                    <td className="text-xs">
+                      {c.mm === design?.thicknessMm ? 'chosen' : ''}
+                      {!c.ok ? ' layer over its service limit' : ''}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
           </table>
         </section>
       ) : null}
       <section className="panel mt-4 p-4">
         <h2 className="mb-2">Record</h2>
-        {audit.length === 0 ? <p className="text-sm text-ink-500">No decisions recorded yet.</p> : (
+        {audit.length === 0 ? (
+          <p className="text-sm text-ink-500">No decisions recorded yet.</p>
+        ) : (
           <table className="table-dense" aria-label="Audit trail">
-            <thead><tr><th>When (UTC)</th><th>Who</th><th>What</th><th>Before</th><th>After</th></tr></thead>
-            <tbody>{audit.map((a) => (
-              <tr key={a.id}><td>{a.at.toISOString().slice(0, 16).replace('T', ' ')}</td><td>{a.actorName}</td><td>{a.action}</td>
-                <td className="text-xs">{a.before ? <Changes lines={describeChanges(null, a.before).map(msgKey)} /> : '—'}</td><td className="text-xs">{a.after ? <Changes lines={describeChanges(a.before ?? null, a.after).map(msgKey)} /> : '—'}</td></tr>
-            ))}</tbody>
+            <thead>
+              <tr>
+                <th>When (UTC)</th>
+                <th>Who</th>
+                <th>What</th>
+                <th>Before</th>
+                <th>After</th>
+              </tr>
+            </thead>
+            <tbody>
+              {audit.map((a) => (
+                <tr key={a.id}>
+                  <td>{a.at.toISOString().slice(0, 16).replace('T', ' ')}</td>
+                  <td>{a.actorName}</td>
+                  <td>{a.action}</td>
+                  <td className="text-xs">
+                    {a.before ? <Changes lines={describeChanges(null, a.before).map(msgKey)} /> : '—'}
+                  </td>
+                  <td className="text-xs">
+                    {a.after ? (
+                      <Changes lines={describeChanges(a.before ?? null, a.after).map(msgKey)} />
+                    ) : (
+                      '—'
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
           </table>
         )}
       </section>

@@ -10,7 +10,11 @@ import { formatterFor, localizeMessage } from '@/lib/format';
 
 export const metadata = { title: 'Review round' };
 
-export default async function RoundPage({ params }: { params: Promise<{ projectId: string; roundId: string }> }) {
+export default async function RoundPage({
+  params,
+}: {
+  params: Promise<{ projectId: string; roundId: string }>;
+}) {
   const { projectId, roundId } = await params;
   const { project, role, allowed } = await loadProject(projectId, 'review.read');
   if (!allowed) return <Denied what="The safety review" />;
@@ -20,16 +24,56 @@ export default async function RoundPage({ params }: { params: Promise<{ projectI
   const carried = items.filter((i) => i.carriedFromRound !== null && i.status === 'decided').length;
   return (
     <>
-      <p className="mb-1 text-sm"><Link href={`/projects/${project.id}/review`}>← Safety review</Link></p>
+      <p className="mb-1 text-sm">
+        <Link href={`/projects/${project.id}/review`}>← Safety review</Link>
+      </p>
       <div className="mb-3 flex items-baseline justify-between">
         <h1>Review round {round.number}</h1>
-        <span className="text-sm">{round.status === 'open' ? 'Open' : `Signed off ${round.signedOffAt?.toISOString().slice(0, 16).replace('T', ' ')}`} · <Link href={`/projects/${project.id}/review/${round.id}/report`}>Printable report</Link></span>
+        <span className="text-sm">
+          {round.status === 'open'
+            ? 'Open'
+            : `Signed off ${round.signedOffAt?.toISOString().slice(0, 16).replace('T', ' ')}`}{' '}
+          · <Link href={`/projects/${project.id}/review/${round.id}/report`}>Printable report</Link>
+        </span>
       </div>
-      {carried ? <p role="status" className="mb-3 text-sm" data-testid="carried-summary">{carried} decision{carried === 1 ? '' : 's'} carried over from earlier signed-off rounds: those lines&apos; inputs, chosen design and flags have not changed. {items.length - carried} to decide.</p> : null}
+      {carried ? (
+        <p role="status" className="mb-3 text-sm" data-testid="carried-summary">
+          {carried} decision{carried === 1 ? '' : 's'} carried over from earlier signed-off rounds: those
+          lines&apos; inputs, chosen design and flags have not changed. {items.length - carried} to decide.
+        </p>
+      ) : null}
       {round.note ? <p className="mb-3 text-sm">Note from the engineer: {round.note}</p> : null}
-      {stale && round.status === 'open' ? <p role="status" className="caution mb-3">The calculation or the design basis changed since this round was requested; it cannot be signed off. Solve the lines and request a new round.</p> : null}
-      <ReviewQueue projectId={project.id} roundId={round.id} flagLabels={FLAG_LABEL} canDispose={can(role, 'review.dispose')} open={round.status === 'open'}
-        items={items.map((i) => ({ id: i.id, tag: i.tag, area: i.area, flags: i.flags.map((f) => ({ ...f, message: localizeMessage(f.message, u), conditions: f.conditions ? localizeMessage(f.conditions, u) : undefined })), status: i.status, reopenReason: i.reopenReason, disposition: i.disposition, comment: i.comment, requiredMm: i.requiredMm, requiredText: i.requiredMm !== null ? u.thickness(i.requiredMm) : null, deciderName: i.deciderName, carriedFromRound: i.carriedFromRound }))} />
+      {stale && round.status === 'open' ? (
+        <p role="status" className="caution mb-3">
+          The calculation or the design basis changed since this round was requested; it cannot be signed off.
+          Solve the lines and request a new round.
+        </p>
+      ) : null}
+      <ReviewQueue
+        projectId={project.id}
+        roundId={round.id}
+        flagLabels={FLAG_LABEL}
+        canDispose={can(role, 'review.dispose')}
+        open={round.status === 'open'}
+        items={items.map((i) => ({
+          id: i.id,
+          tag: i.tag,
+          area: i.area,
+          flags: i.flags.map((f) => ({
+            ...f,
+            message: localizeMessage(f.message, u),
+            conditions: f.conditions ? localizeMessage(f.conditions, u) : undefined,
+          })),
+          status: i.status,
+          reopenReason: i.reopenReason,
+          disposition: i.disposition,
+          comment: i.comment,
+          requiredMm: i.requiredMm,
+          requiredText: i.requiredMm !== null ? u.thickness(i.requiredMm) : null,
+          deciderName: i.deciderName,
+          carriedFromRound: i.carriedFromRound,
+        }))}
+      />
     </>
   );
 }

@@ -8,6 +8,10 @@ import { getPickerOptions } from '@/lib/lines/picker';
  * the limits beside them.
  */
 export const GET = route<{ projectId: string; lineId: string }>(async ({ user, params }) => {
-  const { project } = await getProjectAccess({ userId: user.id, projectId: params.projectId, action: 'lines.read' });
+  const { project } = await getProjectAccess({
+    userId: user.id,
+    projectId: params.projectId,
+    action: 'lines.read',
+  });
   return Response.json(await getPickerOptions({ projectId: project.id, lineId: params.lineId }));
 });

@@ -5,7 +5,11 @@ import { download } from '@/lib/documents/requests';
 
 /** The calculation sheet of one line (PDF). */
 export const GET = route<{ projectId: string; lineId: string }>(async ({ user, params }) => {
-  const { project } = await getProjectAccess({ userId: user.id, projectId: params.projectId, action: 'lines.read' });
+  const { project } = await getProjectAccess({
+    userId: user.id,
+    projectId: params.projectId,
+    action: 'lines.read',
+  });
   const { buf, fileName } = await lineSheetPdf({ projectId: project.id, lineId: params.lineId });
   return download(buf, fileName, 'application/pdf');
 });

@@ -139,13 +139,11 @@ export async function requestPasswordReset(input: { email: string }): Promise<vo
     await tx
       .delete(passwordResets)
       .where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt)));
-    await tx
-      .insert(passwordResets)
-      .values({
-        tokenHash: hash,
-        userId: user.id,
-        expiresAt: new Date(Date.now() + RESET_TTL_MINUTES * 60_000),
-      });
+    await tx.insert(passwordResets).values({
+      tokenHash: hash,
+      userId: user.id,
+      expiresAt: new Date(Date.now() + RESET_TTL_MINUTES * 60_000),
+    });
   });
   if (!user) return;
   enqueueMail(
@@ -295,14 +293,12 @@ export async function acceptInvitation(input: {
         throw new AppError('invalid', 'Enter your name.', { name: ['Enter your name.'] });
       weakPassword(input.password ?? '', inv.email);
       userId = generateIdFromEntropySize(10);
-      await tx
-        .insert(users)
-        .values({
-          id: userId,
-          email: inv.email,
-          name: input.name.trim(),
-          passwordHash: await hashPassword(input.password!),
-        });
+      await tx.insert(users).values({
+        id: userId,
+        email: inv.email,
+        name: input.name.trim(),
+        passwordHash: await hashPassword(input.password!),
+      });
       createdUser = true;
     }
     await tx
@@ -483,16 +479,14 @@ export async function requestSignUp(input: {
     await tx.execute(sql`set local synchronous_commit to off`);
     const [known] = await tx.select().from(users).where(sql`lower(${users.email}) = ${email}`).limit(1);
     if (!known)
-      await tx
-        .insert(signupRequests)
-        .values({
-          tokenHash: hash,
-          email,
-          name: input.name.trim(),
-          organizationName: input.organizationName.trim(),
-          passwordHash,
-          expiresAt: new Date(Date.now() + SIGNUP_TTL_HOURS * 3_600_000),
-        });
+      await tx.insert(signupRequests).values({
+        tokenHash: hash,
+        email,
+        name: input.name.trim(),
+        organizationName: input.organizationName.trim(),
+        passwordHash,
+        expiresAt: new Date(Date.now() + SIGNUP_TTL_HOURS * 3_600_000),
+      });
     return known ?? null;
   });
   if (existing) {

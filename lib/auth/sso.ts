@@ -109,11 +109,9 @@ export const ssoConfigSchema = z.object({
     .pipe(
       z
         .array(
-          z
-            .string()
-            .regex(/^[a-z0-9]([a-z0-9-]*[a-z0-9])?(\.[a-z0-9]([a-z0-9-]*[a-z0-9])?)*\.[a-z]{2,}$/, {
-              error: 'Allowed e-mail domains: domains look like example.com',
-            }),
+          z.string().regex(/^[a-z0-9]([a-z0-9-]*[a-z0-9])?(\.[a-z0-9]([a-z0-9-]*[a-z0-9])?)*\.[a-z]{2,}$/, {
+            error: 'Allowed e-mail domains: domains look like example.com',
+          }),
         )
         .min(1),
     )
@@ -263,16 +261,14 @@ export async function requestDomainProof(o: {
       .where(
         and(eq(domainVerifications.organizationId, o.organizationId), eq(domainVerifications.domain, domain)),
       );
-    await tx
-      .insert(domainVerifications)
-      .values({
-        tokenHash: hash,
-        organizationId: o.organizationId,
-        domain,
-        sentTo,
-        requestedBy: o.actorId,
-        expiresAt: new Date(Date.now() + DOMAIN_PROOF_TTL_HOURS * 3_600_000),
-      });
+    await tx.insert(domainVerifications).values({
+      tokenHash: hash,
+      organizationId: o.organizationId,
+      domain,
+      sentTo,
+      requestedBy: o.actorId,
+      expiresAt: new Date(Date.now() + DOMAIN_PROOF_TTL_HOURS * 3_600_000),
+    });
   });
   await sendMail(
     composeMail({
@@ -648,17 +644,15 @@ export async function completeSso(o: {
     if (existing) {
       // Never attach a new (issuer, subject) to an existing account by e-mail alone: the account proves the link.
       const { token, hash } = newToken();
-      await db
-        .insert(pendingLinks)
-        .values({
-          tokenHash: hash,
-          issuer: cfg.issuer,
-          subject,
-          email,
-          userId: existing.id,
-          organizationId: cfg.organizationId,
-          expiresAt: new Date(Date.now() + LINK_TTL_MINUTES * 60_000),
-        });
+      await db.insert(pendingLinks).values({
+        tokenHash: hash,
+        issuer: cfg.issuer,
+        subject,
+        email,
+        userId: existing.id,
+        organizationId: cfg.organizationId,
+        expiresAt: new Date(Date.now() + LINK_TTL_MINUTES * 60_000),
+      });
       return { kind: 'link-required', linkToken: token, email, hasPassword: !!existing.passwordHash };
     }
     userId = await db.transaction(async (tx) => {

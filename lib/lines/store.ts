@@ -665,17 +665,15 @@ export async function commitDraft({
         .set({ needsRedecision: true, redecisionReason: `Revision ${number} changed ${c.why}` })
         .where(eq(lineDesigns.lineId, c.id));
     }
-    await tx
-      .insert(lineListRevisions)
-      .values({
-        projectId,
-        number,
-        fileName: d.fileName,
-        sheetName,
-        lineCount: v.lines.length,
-        diff,
-        createdBy: userId,
-      });
+    await tx.insert(lineListRevisions).values({
+      projectId,
+      number,
+      fileName: d.fileName,
+      sheetName,
+      lineCount: v.lines.length,
+      diff,
+      createdBy: userId,
+    });
     await tx
       .insert(columnMappings)
       .values({ projectId, headers: sheet.headers, mapping })

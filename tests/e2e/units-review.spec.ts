@@ -195,11 +195,9 @@ test('dispositions fit the hazard and a second review round carries over unchang
   const asked2 = new Date(Date.now() - 2000);
   await page.getByRole('button', { name: 'Request a review of the flagged lines' }).click();
   await expect(
-    page
-      .getByRole('status')
-      .filter({
-        hasText: 'Round 2 requested for 2 lines (2 decisions carried over: line, design and flags unchanged)',
-      }),
+    page.getByRole('status').filter({
+      hasText: 'Round 2 requested for 2 lines (2 decisions carried over: line, design and flags unchanged)',
+    }),
   ).toBeVisible();
   const m2 = await mailLink(
     rev.email,

@@ -14,13 +14,11 @@ describe('unexpected errors are logged without request data', () => {
     let caught: unknown;
     // NUL is refused in text by PostgreSQL (22021) — the kind of failure an uploaded file can cause.
     try {
-      await db
-        .insert(auditLog)
-        .values({
-          projectId: '00000000-0000-0000-0000-000000000000',
-          actorName: `${marker}\u0000`,
-          action: marker.repeat(1000),
-        });
+      await db.insert(auditLog).values({
+        projectId: '00000000-0000-0000-0000-000000000000',
+        actorName: `${marker}\u0000`,
+        action: marker.repeat(1000),
+      });
     } catch (e) {
       caught = e;
     }

@@ -149,14 +149,12 @@ describe('company sign-in against the local identity provider', () => {
   });
 
   it('an existing password account is linked only after one password sign-in in the browser holding the linking cookie', async () => {
-    await db
-      .insert(users)
-      .values({
-        id: `pw-${randomUUID().slice(0, 8)}`,
-        email: 'approved@korvane.example',
-        name: 'Arun Pillai',
-        passwordHash: await hashPassword('approved-password-1'),
-      });
+    await db.insert(users).values({
+      id: `pw-${randomUUID().slice(0, 8)}`,
+      email: 'approved@korvane.example',
+      name: 'Arun Pillai',
+      passwordHash: await hashPassword('approved-password-1'),
+    });
     const [u] = await db.select().from(users).where(eq(users.email, 'approved@korvane.example'));
     await db.insert(memberships).values({ organizationId: orgId, userId: u.id, role: 'engineer' });
     const t = await roundTrip('approved@korvane.example', 'korvane-sso-approved');

@@ -22,6 +22,6 @@ export function runJsonBatch(name: string, answer: (input: unknown) => unknown):
     process.stderr.write('the file must hold a JSON array of cases\n');
     return 2;
   }
-  process.stdout.write(JSON.stringify(cases.map(answer), null, 2) + '\n');
+  process.stdout.write(`${JSON.stringify(cases.map(answer), null, 2)}\n`);
   return 0;
 }

@@ -79,8 +79,8 @@ use_fresh_test_db() {
   if [ -z "${DATABASE_URL:-}" ]; then
     bash db/pg.sh start
     bash db/pg.sh reset-test
-    export DATABASE_URL="$(bash db/pg.sh url lagwise_test)"
-    export DATABASE_OWNER_URL="$(bash db/pg.sh owner-url lagwise_test)"
+    export DATABASE_URL="$(bash db/pg.sh url "${LAGWISE_TEST_DB_NAME:-lagwise_test}")"
+    export DATABASE_OWNER_URL="$(bash db/pg.sh owner-url "${LAGWISE_TEST_DB_NAME:-lagwise_test}")"
   fi
 }
 

@@ -19,6 +19,9 @@ start_dev_idp
 trap 'stop_mail_sink; stop_dev_idp; stop_worker' EXIT
 
 status=0
+log "format and lint (Biome), then types (tsc)"
+node_modules/.bin/biome ci --colors=off . || { log "Biome found format drift or lint errors: run npm run format, then fix what npm run lint names"; status=1; }
+node_modules/.bin/tsc --noEmit || status=1
 log "unit, reference and integration tests (vitest)"
 rm -f .data/reports/*.json
 mkdir -p .data/reports

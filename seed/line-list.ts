@@ -124,7 +124,7 @@ export function demoLineRows(count = 220, seed = 4471): Row[] {
   ] as const;
   const rows: Row[] = [];
   const used = new Set<string>();
-  for (let i = 0; rows.length < count - 14; i++) {
+  while (rows.length < count - 14) {
     const s = pick(services);
     const nps = pick(s.sizes);
     const n = 100 + Math.floor(r() * 900);
@@ -546,7 +546,9 @@ export async function lineListWorkbook(rows: Row[], o: { withInstructions?: bool
       [
         "Jacket: leave empty for the design-basis jacket, or name one from the library or the project's own jackets (e.g. Stainless steel, PVC sheet).",
       ],
-    ].forEach((r) => help.addRow(r));
+    ].forEach((r) => {
+      help.addRow(r);
+    });
     help.getColumn(1).width = 120;
   }
   return Buffer.from(await wb.xlsx.writeBuffer());

@@ -28,7 +28,10 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             Account
           </Link>
           <form action={signOutAction}>
-            <button className="rounded border border-ink-600 px-2 py-0.5 text-ink-100 hover:bg-ink-800">
+            <button
+              type="submit"
+              className="rounded border border-ink-600 px-2 py-0.5 text-ink-100 hover:bg-ink-800"
+            >
               Sign out
             </button>
           </form>

@@ -102,7 +102,7 @@ export async function signIn(input: {
   // Verify against a dummy hash when the user is missing so timing does not reveal the account.
   const ok = user?.passwordHash
     ? await verifyPassword(user.passwordHash, input.password)
-    : (await verifyPassword(DUMMY_HASH, input.password), false);
+    : await verifyDummy(input.password);
   if (!user || !ok) throw new AppError('invalid', GENERIC_SIGN_IN_ERROR);
   await releaseSignInAttempt(keys);
   if (!(await passwordAllowedFor(user.id)))
@@ -115,6 +115,12 @@ export async function signIn(input: {
 }
 const DUMMY_HASH =
   '$argon2id$v=19$m=19456,t=2,p=1$DN8ZQWr0qgAEHEnXRnl6Hg$gAPp3//QS6kOcgBtUOMsCxwIqnFf2ON/Vp0xnsRHuq0';
+
+/** Spends the time of a real password check and fails: the answer must not reveal a missing account. */
+async function verifyDummy(password: string): Promise<false> {
+  await verifyPassword(DUMMY_HASH, password);
+  return false;
+}
 
 export async function signOut(sessionId: string) {
   await lucia.invalidateSession(sessionId);
@@ -402,7 +408,7 @@ export async function changePassword(input: {
   if (!user) throw new AppError('unauthenticated', 'Your session has ended. Sign in again.');
   const ok = user.passwordHash
     ? await verifyPassword(user.passwordHash, input.currentPassword)
-    : (await verifyPassword(DUMMY_HASH, input.currentPassword), false);
+    : await verifyDummy(input.currentPassword);
   if (!ok)
     throw new AppError('invalid', 'Current password: this is not your current password.', {
       currentPassword: ['This is not your current password.'],

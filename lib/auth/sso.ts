@@ -609,7 +609,7 @@ export async function completeSso(o: {
   const email = String(info.email ?? claims.email ?? '')
     .trim()
     .toLowerCase();
-  if (!email || !email.includes('@'))
+  if (!email?.includes('@'))
     throw new AppError('invalid', 'The company account has no verified e-mail address.');
   const domain = email.split('@')[1];
   const [owns] = await db
@@ -744,7 +744,7 @@ export async function linkPendingIdentity({ userId, linkToken }: { userId: strin
 /** Mails a one-time link to the address of the account a pending link names; it works only in the browser holding the linking cookie. */
 export async function sendLinkMail({ linkToken }: { linkToken: string | undefined }) {
   const p = await openPendingLink(linkToken);
-  if (!p || !p.userId)
+  if (!p?.userId)
     throw new AppError(
       'invalid',
       'The company sign-in to link has expired. Start the company sign-in again.',

@@ -56,8 +56,7 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
     const flags = flagged.get(line.id) ?? [];
     const rv = review.get(line.id);
     const current =
-      rv &&
-      rv.disposition &&
+      rv?.disposition &&
       rv.line_input_version === line.inputVersion &&
       rv.design_version === (design?.version ?? 0);
     let status: BoqLine['status'] = { counted: true };
@@ -118,7 +117,7 @@ export async function issueBill({ projectId, userId }: { projectId: string; user
     .where(eq(lineListRevisions.projectId, projectId));
   const name = await actorName(userId);
   return db.transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'boq' + projectId}))`);
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`boq${projectId}`}))`);
     const [{ n }] = await tx
       .select({ n: sql<number>`coalesce(max(${boqIssues.number}), 0)` })
       .from(boqIssues)

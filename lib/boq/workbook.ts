@@ -197,7 +197,7 @@ export async function billWorkbook(
     ['Site', meta.site],
     ['Organization', meta.organization],
     ['Bill issue', meta.issueNumber],
-    ['Issued', meta.issuedAt.toISOString().slice(0, 16).replace('T', ' ') + ' UTC'],
+    ['Issued', `${meta.issuedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`],
     ['Issued by', meta.issuedBy],
     ['Design-basis revision', meta.basisRevision],
     ['Line-list revision', meta.lineListRevision ?? '—'],
@@ -235,7 +235,9 @@ export async function billWorkbook(
           ],
         ]
       : []),
-  ].forEach((r) => notes.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v))));
+  ].forEach((r) => {
+    notes.addRow(r.map((v) => (typeof v === 'string' ? safeText(v) : v)));
+  });
   notes.getColumn(1).width = 36;
   notes.getColumn(2).width = 110;
   notes.getColumn(1).font = { bold: true };

@@ -11,13 +11,15 @@ import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
 import { commitDraft, solveProject } from '@/lib/lines/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
+import type { SolvePool } from '@/lib/lines/solve-pool';
 import { QUEUES } from './queues';
 
 const progress = (jobId: string) => async (done: number, total: number) => {
   await db.update(jobs).set({ done, total }).where(eq(jobs.id, jobId));
 };
 
-export async function runJob(jobId: string): Promise<void> {
+export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {}): Promise<void> {
+  const pool = o.pool ?? undefined;
   const [job] = await db
     .update(jobs)
     .set({ state: 'running', attempts: sql`${jobs.attempts} + 1`, startedAt: new Date(), error: null })
@@ -28,7 +30,7 @@ export async function runJob(jobId: string): Promise<void> {
     // The result and the job's "done" commit in the same transaction. A second runner of the same
     // job (pg-boss hands an expired job out again) waits on the job's lock, then sees it done.
     await db.transaction(async (tx) => {
-      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'job:' + jobId}))`);
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job:${jobId}`}))`);
       const [now] = await tx.select({ state: jobs.state }).from(jobs).where(eq(jobs.id, jobId));
       if (now?.state !== 'running') return;
       let result: Record<string, unknown>;
@@ -40,7 +42,7 @@ export async function runJob(jobId: string): Promise<void> {
           mapping: ColumnMapping;
         };
         const r = await commitDraft({ projectId: job.projectId, userId: job.createdBy ?? '', ...input, tx });
-        const s = await solveProject({ projectId: job.projectId, tx, onProgress: progress(jobId) });
+        const s = await solveProject({ projectId: job.projectId, tx, onProgress: progress(jobId), pool });
         result = {
           revision: r.revision,
           lineCount: r.lineCount,
@@ -56,6 +58,7 @@ export async function runJob(jobId: string): Promise<void> {
           all: Boolean((job.input as { all?: boolean }).all),
           tx,
           onProgress: progress(jobId),
+          pool,
         });
         result = { solved: s.solved };
       }

@@ -1,5 +1,5 @@
 import { JACKETS, MATERIALS, type InsulationMaterial, type Jacket } from '@/lib/thermal/materials';
-import type { DesignBasis, OwnJacket, OwnMaterial } from './design-basis';
+import type { DesignBasis, OwnMaterial } from './design-basis';
 
 /**
  * The materials and jackets a project can use: the typical library plus the project's own entries

@@ -110,7 +110,7 @@ export function suggestMapping(
   if (remembered) {
     for (const [key, idx] of Object.entries(remembered.mapping.columns) as [LineFieldKey, number][]) {
       const header = remembered.headers[idx];
-      const at = headers.findIndex((h) => h === header);
+      const at = headers.indexOf(header);
       if (at >= 0 && !used.has(at)) {
         columns[key] = at;
         used.add(at);

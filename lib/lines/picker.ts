@@ -13,7 +13,7 @@ import {
   type DecidingLimits,
   type Margin,
 } from './deciding';
-import { getDesignBasis, getLine, inputOf } from './store';
+import { getDesignBasis, getLine, inputOf, listLines, type LineQuery } from './store';
 
 /** One thickness option as the client receives it (surfaceC: the heat-loss conditions' surface). */
 export interface PickerCandidate {
@@ -67,12 +67,47 @@ export async function getPickerOptions({
 }
 
 function toPicker(c: ReturnType<typeof candidateNumbers>[number]): PickerCandidate {
+  // Five significant figures, as a picker shows them (the line page reads the stored values).
   return {
     mm: c.mm,
-    heatFlow: c.heatFlow,
+    heatFlow: sig(c.heatFlow, 5),
     surfaceC: c.heatLossC,
     personnelC: c.personnelC,
     condensationC: c.condensationC,
     ok: c.ok,
   };
 }
+
+/**
+ * One page of the line table as `GET /api/v1/projects/:id/lines` sends it: the table's columns and
+ * each row's deciding numbers at the chosen thickness (or the recommendation while nothing is
+ * chosen) with the worst margin. The picker's thickness options come from `getPickerOptions`.
+ */
+export async function lineTablePage(q: LineQuery) {
+  const r = await listLines(q);
+  const { basis } = await getDesignBasis({ projectId: q.projectId });
+  const rows = await Promise.all(
+    r.rows.map(async ({ shownCandidate, outdoor, accessible, maxTempC, purposes, jacketId, ...row }) => {
+      const facts = { outdoor, accessible, normalTempC: row.normalTempC, maxTempC, purposes } as LineInput;
+      const loadLine = async () => inputOf((await getLine({ projectId: q.projectId, lineId: row.id })).line);
+      const d = await tableRowDeciding(basis, facts, jacketId, shownCandidate, loadLine);
+      // What the table shows, at the precision it shows (the sort ran on the stored values).
+      return {
+        ...row,
+        heatFlowPerUnit: row.heatFlowPerUnit === null ? null : sig(row.heatFlowPerUnit, 5),
+        surfaceTempC: row.surfaceTempC === null ? null : Math.round(row.surfaceTempC * 100) / 100,
+        personnelLimitC: d.limits.personnelLimitC,
+        condensationNeedC: d.limits.condensationNeedC,
+        // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated.
+        shown: d.shown && { ...d.shown, mm: undefined },
+        worstMargin: d.worstMargin && {
+          ...d.worstMargin,
+          marginK: Math.round(d.worstMargin.marginK * 100) / 100,
+        },
+      };
+    }),
+  );
+  return { ...r, rows };
+}
+
+const sig = (v: number, n: number) => (v === 0 ? 0 : Number(v.toPrecision(n)));

@@ -426,7 +426,7 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
   let thicknesses = ins?.thicknessesMm;
   if (c.thicknessMm !== undefined && c.thicknessMm > 0) {
     const seriesTotals = thicknesses ?? null;
-    if (!seriesTotals || !seriesTotals.includes(c.thicknessMm)) {
+    if (!seriesTotals?.includes(c.thicknessMm)) {
       thicknesses = [...new Set([...(seriesTotals ?? defaultTotals(outer, inner, c, band)), c.thicknessMm])];
     }
   }

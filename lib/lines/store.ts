@@ -33,6 +33,10 @@ import { inputHash, solveLine } from './solve-line';
 import { validateSheet, type LineInput, type RowIssue, type UnknownValue } from './validate';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
 import type { CandidateRow } from './deciding';
+import { inputOf, resultContext, resultRow } from './result-row';
+import type { SolvePool } from './solve-pool';
+
+export { inputOf } from './result-row';
 import type { LineFilter } from './filter';
 
 export {
@@ -45,14 +49,6 @@ export {
 } from './bulk-accept';
 
 // ---------- design basis ----------
-
-/** The system as built: only the materials of the layers actually chosen (inner first); the outer material when bare. */
-function systemLabelOf(system: MaterialSystem, layers: { materialId: string }[]): string {
-  const ids = [...new Set(layers.map((l) => l.materialId))];
-  const name = (id: string) =>
-    id === system.inner?.id ? system.inner.name : id === system.outer.id ? system.outer.name : id;
-  return ids.length ? ids.map(name).join(' + ') : system.outer.name;
-}
 
 export async function getDesignBasis({
   projectId,
@@ -471,35 +467,6 @@ function sheetOf(parsed: ParsedFile, sheetName: string, headerRow?: number) {
 }
 
 /** A stored line as the engine's and the diff's input. */
-export function inputOf(l: Line): LineInput {
-  return {
-    tag: l.tag,
-    service: l.service,
-    area: l.area,
-    geometry: l.geometry,
-    nps: l.nps,
-    outsideDiameterMm: l.outsideDiameterMm,
-    lengthM: l.lengthM,
-    surfaceAreaM2: l.surfaceAreaM2,
-    heightM: l.heightM,
-    normalTempC: l.normalTempC,
-    maxTempC: l.maxTempC,
-    steamPressureBarG: l.steamPressureBarG,
-    flowKgPerS: l.flowKgPerS,
-    fluidCpKJPerKgK: l.fluidCpKJPerKgK,
-    elbows: l.elbows,
-    tees: l.tees,
-    valves: l.valves,
-    flanges: l.flanges,
-    purposes: l.purposes as LineInput['purposes'],
-    outdoor: l.outdoor,
-    accessible: l.accessible,
-    accessHeightM: l.accessHeightM,
-    jacketId: l.jacketId,
-    notes: l.notes,
-  };
-}
-
 export interface Preview {
   issues: RowIssue[];
   errorCount: number;
@@ -698,6 +665,7 @@ export async function solveProject({
   all = false,
   tx: outer,
   onProgress,
+  pool,
 }: {
   projectId: string;
   all?: boolean;
@@ -705,6 +673,8 @@ export async function solveProject({
   tx?: Tx;
   /** Called after each chunk is solved and written (lines done, lines to do). */
   onProgress?: (done: number, total: number) => Promise<void>;
+  /** Worker threads to solve on (the job worker's); without it the lines are solved in this thread. */
+  pool?: SolvePool;
 }) {
   const { basis, revision } = await getDesignBasis({ projectId });
   const staleCond = all ? sql`true` : staleSql(revision);
@@ -713,67 +683,28 @@ export async function solveProject({
     .from(lines)
     .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
-  const systems = new Map<string, MaterialSystem>();
-  const basisJson = JSON.stringify(basis); // hashed with every line: serialised once
+  const ctx = resultContext({ basis, revision, projectId });
   let solveMs = 0;
-  const shape = ({ line }: { line: Line }) => {
-    const input = inputOf(line);
-    const s = solveLine(basis, input, systems);
-    const r = s.recommendation;
-    const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
-    return {
-      lineId: line.id,
-      projectId,
-      calcVersion: CALCULATION_VERSION,
-      basisRevision: revision,
-      inputVersion: line.inputVersion,
-      inputHash: inputHash(basisJson, input),
-      recommendedMm: r.recommendedMm,
-      governing: r.governing,
-      layers: r.layers,
-      systemLabel: systemLabelOf(s.system, r.layers),
-      jacketId: s.system.jacket.id,
-      outcomes: r.outcomes,
-      unmet: r.unmet,
-      warnings: r.warnings,
-      // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
-      // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
-      candidates: r.candidates.map((c) => [
-        c.totalMm,
-        c.layers.map((l) => [l.materialId, l.thicknessMm]),
-        round(c.heatLoss.heatFlow, 6),
-        round(c.heatLoss.surfaceC, 2),
-        c.personnel ? round(c.personnel.surfaceC, 2) : null,
-        c.annualCost === undefined ? null : round(c.annualCost, 3),
-        c.serviceLimitOk,
-        c.condensation ? round(c.condensation.surfaceC, 2) : null,
-      ]),
-      design: r.design
-        ? {
-            profileC: r.design.profileC,
-            overall: r.design.overall,
-            convective: r.design.convectiveWPerM2K,
-            radiative: r.design.radiativeWPerM2K,
-          }
-        : null,
-      heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null,
-      totalHeatW: s.totalHeatW,
-      bareHeatW: s.bareHeatW,
-      surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
-      personnelSurfaceC: chosen?.personnel?.surfaceC ?? null,
-      annualMWh: r.annual?.energyMWh ?? null,
-      annualCost: r.annual?.cost ?? null,
-      co2Tonnes: r.annual?.co2Tonnes ?? null,
-      condensateKgPerH: r.condensateKgPerHour ?? null,
-      solvedAt: new Date(),
-    };
-  };
   // Solved and written a chunk at a time, so only one chunk of results is held in memory.
   await (outer ?? db).transaction(async (tx) => {
-    for (let i = 0; i < todo.length; i += SOLVE_CHUNK) {
+    // With a pool (the job worker), chunks are solved on worker threads a few at a time and written
+    // in order as they come back; without one, in this thread.
+    const chunks: Line[][] = [];
+    for (let i = 0; i < todo.length; i += SOLVE_CHUNK)
+      chunks.push(todo.slice(i, i + SOLVE_CHUNK).map((t) => t.line));
+    const solveChunk = (c: Line[]) =>
+      pool
+        ? pool.solve({ basis, revision, projectId, lines: c })
+        : Promise.resolve(c.map((l) => resultRow(ctx, l)));
+    const ahead = pool ? pool.threads * 2 : 1;
+    const inFlight = chunks.slice(0, ahead).map(solveChunk);
+    let done = 0;
+    for (let i = 0; i < chunks.length; i++) {
       const t0 = Date.now();
-      const results = todo.slice(i, i + SOLVE_CHUNK).map(shape);
+      const results = await inFlight[i];
+      if (i + ahead < chunks.length) inFlight.push(solveChunk(chunks[i + ahead]));
       solveMs += Date.now() - t0;
+      done += results.length;
       await tx
         .insert(lineResults)
         .values(results)
@@ -788,7 +719,7 @@ export async function solveProject({
               ]),
           ),
         });
-      if (onProgress) await onProgress(Math.min(todo.length, i + SOLVE_CHUNK), todo.length);
+      if (onProgress) await onProgress(done, todo.length);
     }
   });
   return { solved: todo.length, solveMs, basisRevision: revision };
@@ -796,8 +727,6 @@ export async function solveProject({
 
 const SOLVE_CHUNK = 250;
 const RESULT_COLUMNS = getTableColumns(lineResults);
-const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
-const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
 
 // ---------- reading ----------
 

@@ -52,7 +52,7 @@ const smtp = new SMTPServer({
           html: typeof parsed.html === 'string' ? parsed.html : '',
         };
         messages.push(msg);
-        appendFileSync(file, JSON.stringify(msg) + '\n');
+        appendFileSync(file, `${JSON.stringify(msg)}\n`);
         callback();
       })
       .catch((e) => callback(e));

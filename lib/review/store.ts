@@ -141,7 +141,7 @@ export async function requestReview({
   const { revision } = await getDesignBasis({ projectId });
   const name = await actorName(userId);
   const { round, carried } = await db.transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'review' + projectId}))`);
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`review${projectId}`}))`);
     const [open] = await tx
       .select()
       .from(reviewRounds)

@@ -1,7 +1,7 @@
 import 'server-only';
 import { NextResponse, type NextRequest } from 'next/server';
 import type { User } from 'lucia';
-import { z } from 'zod';
+import type { z } from 'zod';
 import { validateRequest } from '@/lib/auth/session';
 import { AppError, isAppError } from '@/lib/errors';
 import { env } from '@/lib/env';

@@ -1,6 +1,5 @@
 // Constants repeated here (not imported) because this is the innermost loop of every solve.
-const KELVIN = 273.15,
-  R_AIR = 287.05287,
+const R_AIR = 287.05287,
   STANDARD_PRESSURE = 101325;
 
 /**

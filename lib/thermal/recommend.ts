@@ -262,8 +262,8 @@ function solveCandidate(
   for (let j = 0; j < layers.length; j++) {
     const x = first + j - 1 >= 0 ? t[first + j - 1] : processC,
       y = t[first + j];
-    const hi = x > y ? x : y,
-      lo = x > y ? y : x;
+    const hi = Math.max(x, y),
+      lo = Math.min(x, y);
     const L = layers[j];
     if (
       (L.maxServiceC !== undefined && hi > L.maxServiceC) ||

@@ -404,7 +404,7 @@ export function solvePrepared(
   // Profile and interfaces (insulation layers only; the wall and film come first in the chain).
   const first = els.length - c.layers.length;
   const profileC = [{ radiusOrDepthM: rInner, tempC: Tp }];
-  els.forEach((e, i) => profileC.push({ radiusOrDepthM: e.r2, tempC: temps[i] }));
+  for (const [i, e] of els.entries()) profileC.push({ radiusOrDepthM: e.r2, tempC: temps[i] });
   const interfacesC = c.layers.slice(0, -1).map((_, i) => temps[first + i]);
   c.layers.forEach((l, i) => {
     const [hi, lo] = layerFaceTemps(chain, Tp, c.layers.length, i);

@@ -141,3 +141,17 @@ export async function signUpConfirmed(
   await page.getByRole('button', { name: 'Create my account' }).click();
   await expect(page).toHaveURL(/\/projects$/);
 }
+
+/**
+ * Presses "Solve stale lines" and waits until the background job is listed as done with `n`
+ * lines solved (the table refreshes itself when the job ends).
+ */
+export async function solveStaleLines(page: Page, n: number) {
+  const done = page
+    .getByRole('list', { name: 'Recent jobs', includeHidden: true })
+    .locator('li', { hasText: new RegExp(`· Solve · done · ${n} lines? solved`) });
+  const before = await done.count();
+  await page.getByRole('button', { name: 'Solve stale lines' }).click();
+  await expect(page.getByRole('status')).toContainText('Solving the stale lines in the background');
+  await expect(done).toHaveCount(before + 1, { timeout: 60_000 });
+}

@@ -78,7 +78,7 @@ test('a tampered session cookie is treated as signed out', async ({ page, contex
   const s = cookies.find((c) => c.name === 'lagwise_session')!;
   expect(s.httpOnly).toBe(true);
   expect(s.sameSite).toBe('Lax');
-  await context.addCookies([{ ...s, value: s.value.slice(0, -3) + 'xyz' }]);
+  await context.addCookies([{ ...s, value: `${s.value.slice(0, -3)}xyz` }]);
   await page.goto('/projects');
   await expect(page).toHaveURL(/\/sign-in$/);
   const api = await page.request.get('/api/v1/projects/00000000-0000-0000-0000-000000000000');

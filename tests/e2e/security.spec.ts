@@ -198,7 +198,7 @@ test('a failing write leaves no request data in the server log', async ({ page }
   expect(existsSync(log)).toBe(true);
   const u = demo('engineer');
   await signIn(page, u.email, u.password);
-  const id = await openDemoProject(page);
+  await openDemoProject(page);
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
   // PostgreSQL refuses the NUL character in text; the marker must not reach the log whatever happens.
   const marker = `MARKER-${Date.now()}-CONFIDENTIAL`;

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test';
 import { mkdirSync } from 'node:fs';
-import { createProjectWithLines, demo, lineRow, mailLink, signIn } from './helpers';
+import { createProjectWithLines, demo, lineRow, mailLink, signIn, solveStaleLines } from './helpers';
 
 const SHOTS = '.data/reports/screens';
 mkdirSync(SHOTS, { recursive: true });
@@ -8,6 +8,8 @@ mkdirSync(SHOTS, { recursive: true });
 /** The recommended candidate (★) of a line's picker: its value (mm) and its label. */
 async function recommendedOption(page: Page, tag: string) {
   const select = page.getByLabel(`Thickness for ${tag}`);
+  await select.focus(); // opening the picker loads every thickness option with its deciding numbers
+  await expect(select.locator('option[value="0"]')).toBeAttached();
   await expect(select.locator('option', { hasText: '★' })).toHaveCount(1);
   const opt = select.locator('option', { hasText: '★' });
   return { select, value: (await opt.getAttribute('value'))!, label: (await opt.textContent())! };
@@ -45,8 +47,7 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   await expect(page.getByTestId('basis-revision')).toHaveText(`Revision ${rev0 + 1}`);
 
   await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Line list' }).click();
-  await page.getByRole('button', { name: 'Solve stale lines' }).click();
-  await expect(page.getByRole('status').filter({ hasText: /2 stale lines solved/ })).toBeVisible();
+  await solveStaleLines(page, 2);
   const row = page.locator('tr[data-tag="US-1"]');
   await expect(row.locator('td').nth(4)).toHaveText('428.0');
   await expect(page.getByRole('columnheader', { name: /T °F/ })).toBeVisible();

@@ -6,7 +6,7 @@ import { db, getPool } from '@/db/client';
 import { auditLog, lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
-import { getPickerOptions, tableRowDeciding } from '@/lib/lines/picker';
+import { getPickerOptions, lineTablePage, tableRowDeciding } from '@/lib/lines/picker';
 import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -338,6 +338,13 @@ describe('line-list import on PostgreSQL', () => {
       marginK: 55 - deciding.shown!.personnelC!,
     });
     expect(deciding.worstMargin!.marginK).toBeLessThan(0);
+    // What the route sends for that row: the same numbers, without the candidate table.
+    const page = await lineTablePage({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
+    const sent = page.rows.find((r) => r.tag === 'L-100')!;
+    expect(sent).toMatchObject({ personnelLimitC: 55, condensationNeedC: null, chosenMm: cands[1] });
+    expect(sent.shown).toEqual({ ...deciding.shown, mm: undefined });
+    expect(sent.worstMargin!.marginK).toBeCloseTo(deciding.worstMargin!.marginK, 2);
+    expect(Object.keys(sent)).not.toContain('candidates');
   });
 });
 

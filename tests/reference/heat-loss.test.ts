@@ -91,7 +91,7 @@ describe('worked examples', () => {
       );
       return 100 / r.heatFlow;
     });
-    rs.forEach((R, i) => expect(R).toBeCloseTo(expected[i][1], 1));
+    for (const [i, R] of rs.entries()) expect(R).toBeCloseTo(expected[i][1], 1);
     // Heat flow rises with thin insulation on this small tube and falls beyond the critical radius.
     expect(rs[1]).toBeLessThan(rs[0]);
     expect(rs[4]).toBeGreaterThan(rs[3]);

@@ -86,7 +86,7 @@ describe('the numbers that decide, per candidate', () => {
     );
     const filled = candidateNumbers(DEFAULT_DESIGN_BASIS, l, s.system.jacket.id, legacy, limits);
     // Solved fresh by solveSteady: the recommender's fast path agrees within 1e-6 K (engine-fast-path.test.ts).
-    filled.forEach((c, i) => expect(Math.abs(c.personnelC! - rows[i][4]!)).toBeLessThan(1e-4));
+    for (const [i, c] of filled.entries()) expect(Math.abs(c.personnelC! - rows[i][4]!)).toBeLessThan(1e-4);
   });
 
   it('a chilled line: the condensation surface temperature against dew point + margin', () => {

@@ -165,7 +165,7 @@ describe('the design-basis form in US units', () => {
     const fd = new FormData();
     const walk = (o: unknown, path: string) => {
       if (typeof o === 'number') fd.append(path, String(toFormValue(fieldKind(path), 'US', o)));
-      else if (Array.isArray(o)) o.forEach((x, i) => walk(x, `${path}[${i}]`));
+      else if (Array.isArray(o)) for (const [i, x] of o.entries()) walk(x, `${path}[${i}]`);
       else if (o && typeof o === 'object')
         for (const [k, v] of Object.entries(o)) walk(v, path ? `${path}.${k}` : k);
     };

@@ -124,7 +124,7 @@ export function CompanySignInForm({
         <p className="text-xs text-ink-500">
           Register this redirect address with your identity provider: <code>{callbackUrl}</code>
         </p>
-        <button className="btn-primary" disabled={pending}>
+        <button type="submit" className="btn-primary" disabled={pending}>
           Save company sign-in
         </button>
       </form>

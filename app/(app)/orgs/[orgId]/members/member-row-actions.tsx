@@ -38,7 +38,7 @@ export function MemberRowActions({
             </option>
           ))}
         </select>
-        <button className="btn-quiet py-1" disabled={rolePending}>
+        <button type="submit" className="btn-quiet py-1" disabled={rolePending}>
           Change
         </button>
       </form>
@@ -51,7 +51,7 @@ export function MemberRowActions({
       >
         <input type="hidden" name="organizationId" value={organizationId} />
         <input type="hidden" name="userId" value={userId} />
-        <button className="btn-danger py-1" disabled={removePending}>
+        <button type="submit" className="btn-danger py-1" disabled={removePending}>
           Remove
         </button>
       </form>

@@ -59,12 +59,14 @@ export default async function MembersPage({ params }: { params: Promise<{ orgId:
                       </option>
                     ))}
                   </select>
-                  <button className="btn-quiet py-1">Approve</button>
+                  <button type="submit" className="btn-quiet py-1">
+                    Approve
+                  </button>
                 </form>
                 <form action={refuseRequestAction}>
                   <input type="hidden" name="organizationId" value={orgId} />
                   <input type="hidden" name="userId" value={r.userId} />
-                  <button className="btn-quiet py-1" aria-label={`Refuse ${r.name}`}>
+                  <button type="submit" className="btn-quiet py-1" aria-label={`Refuse ${r.name}`}>
                     Refuse
                   </button>
                 </form>

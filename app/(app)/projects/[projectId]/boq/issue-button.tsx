@@ -10,6 +10,7 @@ export function IssueButton({ projectId, next }: { projectId: string; next: numb
   return (
     <div>
       <button
+        type="button"
         className="btn-primary"
         disabled={pending}
         onClick={() =>

@@ -155,6 +155,7 @@ export function WhatIfPanel({
           </select>
         </div>
         <button
+          type="button"
           className="btn-quiet"
           disabled={pending}
           onClick={() => {
@@ -294,7 +295,7 @@ export function BudgetForm({
           ))}
         </tbody>
       </table>
-      <button className="btn-primary" disabled={pending}>
+      <button type="submit" className="btn-primary" disabled={pending}>
         Save budget
       </button>
       {msg ? (

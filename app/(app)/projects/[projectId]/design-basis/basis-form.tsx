@@ -51,6 +51,7 @@ export function BasisForm({
     const u = kindUnit(fieldKind(name), sys);
     return u ? `${label} ${u}` : label;
   };
+  // biome-ignore lint/correctness/noComponentHookFactories: a field helper closing over the form's state; it holds no state of its own (to be lifted out with the form's other repeated fields)
   const Num = ({
     name,
     label,
@@ -396,7 +397,7 @@ export function BasisForm({
         </div>
       </div>
       {canEdit ? (
-        <button className="btn-primary" disabled={pending}>
+        <button type="submit" className="btn-primary" disabled={pending}>
           {pending ? 'Saving…' : 'Save design basis'}
         </button>
       ) : (

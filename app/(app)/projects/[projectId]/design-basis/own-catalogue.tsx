@@ -103,7 +103,7 @@ function RemoveButton({
     >
       <input type="hidden" name="projectId" value={projectId} />
       <input type="hidden" name="id" value={id} />
-      <button className="btn-quiet" disabled={pending} aria-label={`Remove ${name}`}>
+      <button type="submit" className="btn-quiet" disabled={pending} aria-label={`Remove ${name}`}>
         {pending ? 'Removing…' : 'Remove'}
       </button>
       {result?.error?.[''] ? <span className="sr-only">{result.error[''].join(' ')}</span> : null}
@@ -470,7 +470,7 @@ export function OwnCatalogue({
               </Field>
             </div>
             <div className="flex gap-2">
-              <button className="btn-primary" disabled={mPending}>
+              <button type="submit" className="btn-primary" disabled={mPending}>
                 {mPending ? 'Saving…' : editM ? 'Save changes' : 'Add material'}
               </button>
               {editM ? (
@@ -531,7 +531,7 @@ export function OwnCatalogue({
               />
             </Field>
             <div className="flex gap-2">
-              <button className="btn-primary" disabled={jPending}>
+              <button type="submit" className="btn-primary" disabled={jPending}>
                 {jPending ? 'Saving…' : editJ ? 'Save changes' : 'Add jacket'}
               </button>
               {editJ ? (

@@ -60,6 +60,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
   const router = useRouter();
   const [jobId, setJobId] = useState<string | null>(null);
   const job = useJob(projectId, jobId);
+  // biome-ignore lint/correctness/useExhaustiveDependencies: runs once per job state the poll returns, not on every render's new setters
   useEffect(() => {
     const j = job.data;
     if (!j || j.state === 'queued' || j.state === 'running') return;
@@ -86,7 +87,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
     qc.invalidateQueries({ queryKey: ['lines', projectId] });
     qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
     router.refresh();
-  }, [job.data]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [job.data]);
 
   const current = draft?.sheets.find((s) => s.name === sheet);
   const view = current ? viewOf(current, headerRow) : null;
@@ -227,7 +228,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
               className="text-sm"
             />
           </div>
-          <button className="btn-primary" disabled={pending}>
+          <button type="submit" className="btn-primary" disabled={pending}>
             Read file
           </button>
         </form>
@@ -268,7 +269,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
       {draft && current && view ? (
         <div className="mt-4 space-y-4">
           {draft.readAs ? (
-            <p className="text-xs text-ink-700" aria-label="How the file was read">
+            <p role="note" className="text-xs text-ink-700" aria-label="How the file was read">
               Read as {draft.readAs}.
             </p>
           ) : null}
@@ -308,7 +309,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
                 ))}
               </select>
             </div>
-            <p className="text-xs text-ink-700" aria-label="Rows to read">
+            <p role="note" className="text-xs text-ink-700" aria-label="Rows to read">
               {view.rowCount} rows below the header
               {view.headerRows.length > 1 ? ` (units read from row ${view.headerRows[1]})` : ''}
               {headerRow > (current.topRows[0]?.row ?? 1) ? `; rows above row ${headerRow} are not read` : ''}
@@ -376,7 +377,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
           {questions.length ? (
             <ValueQuestions questions={questions} mapping={mapping} onAnswer={answer} />
           ) : null}
-          <button className="btn-quiet" onClick={check} disabled={pending}>
+          <button type="button" className="btn-quiet" onClick={check} disabled={pending}>
             {questions.length && !preview ? 'Check the rows again' : 'Check the rows'}
           </button>
           {preview ? <PreviewView preview={preview} onCommit={commit} pending={pending} /> : null}
@@ -507,7 +508,12 @@ function PreviewView({
           </ul>
         </details>
       ) : null}
-      <button className="btn-primary" onClick={onCommit} disabled={pending || preview.errorCount > 0}>
+      <button
+        type="button"
+        className="btn-primary"
+        onClick={onCommit}
+        disabled={pending || preview.errorCount > 0}
+      >
         {preview.errorCount ? 'Fix the errors to import' : `Import ${preview.lineCount} lines`}
       </button>
     </div>

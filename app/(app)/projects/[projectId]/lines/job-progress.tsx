@@ -96,7 +96,7 @@ export function RecentJobs({ projectId }: { projectId: string }) {
             <li key={j.id}>
               {j.createdAt.slice(0, 16).replace('T', ' ')} · {KIND[j.kind]} · {j.state}
               {j.state === 'done' && j.result && 'solved' in j.result
-                ? ` · ${String(j.result.solved)} lines solved`
+                ? ` · ${String(j.result.solved)} ${j.result.solved === 1 ? 'line' : 'lines'} solved`
                 : ''}
               {j.error && j.state === 'failed' ? ` · ${j.error}` : ''}
             </li>

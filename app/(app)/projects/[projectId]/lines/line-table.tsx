@@ -30,12 +30,6 @@ interface Candidate {
   condensationC: number | null;
   ok: boolean;
 }
-interface Limits {
-  personnelLimitC: number | null;
-  condensationNeedC: number | null;
-  dewPointC: number | null;
-  dewBasis: string | null;
-}
 interface Margin {
   criterion: 'personnel' | 'condensation';
   marginK: number;
@@ -61,8 +55,10 @@ interface Row {
   designVersion: number | null;
   stale: boolean;
   solved: boolean;
-  limits: Limits;
-  shown: Candidate | null;
+  personnelLimitC: number | null;
+  condensationNeedC: number | null;
+  /** Deciding numbers at chosenMm, else recommendedMm. */
+  shown: Omit<Candidate, 'mm'> | null;
   worstMargin: Margin | null;
 }
 interface Page {
@@ -80,7 +76,6 @@ const GOV: Record<string, string> = {
   freeze: 'Freeze',
   economic: 'Economic',
 };
-const f1 = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(1));
 const ch = createColumnHelper<Row>();
 
 export function LineTable({
@@ -132,6 +127,7 @@ export function LineTable({
   });
   const refresh = () => qc.invalidateQueries({ queryKey: ['lines', projectId] });
 
+  // biome-ignore lint/correctness/useExhaustiveDependencies: the columns change with the project, the role and the display units only; the row callbacks read current state through the query
   const columns = useMemo(
     () => [
       ch.accessor('tag', {
@@ -203,7 +199,7 @@ export function LineTable({
       }),
     ],
     [projectId, canPick, fmt.unitSystem, fmt.thicknessSeries, fmt.currency],
-  ); // eslint-disable-line react-hooks/exhaustive-deps
+  );
 
   const data = query.data?.rows ?? [];
   const table = useReactTable({
@@ -350,12 +346,17 @@ export function LineTable({
         <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
         <div className="ml-auto flex gap-2">
           {canSolve ? (
-            <button className="btn-quiet" onClick={solve} disabled={pending}>
+            <button type="button" className="btn-quiet" onClick={solve} disabled={pending}>
               Solve stale lines
             </button>
           ) : null}
           {canPick ? (
-            <button className="btn-primary" onClick={previewAccept} disabled={pending || !total}>
+            <button
+              type="button"
+              className="btn-primary"
+              onClick={previewAccept}
+              disabled={pending || !total}
+            >
               Accept recommendation for the filtered lines
             </button>
           ) : null}
@@ -404,7 +405,11 @@ export function LineTable({
                     }
                   >
                     {h.column.getCanSort() ? (
-                      <button className="uppercase" onClick={h.column.getToggleSortingHandler()}>
+                      <button
+                        type="button"
+                        className="uppercase"
+                        onClick={h.column.getToggleSortingHandler()}
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         {h.column.getIsSorted() === 'asc'
                           ? ' ▲'
@@ -442,13 +447,19 @@ export function LineTable({
         <span>
           {total} lines{query.isFetching ? ' · loading…' : ''}
         </span>
-        <button className="btn-quiet py-0.5" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>
+        <button
+          type="button"
+          className="btn-quiet py-0.5"
+          disabled={page === 0}
+          onClick={() => setPage((p) => p - 1)}
+        >
           Previous
         </button>
         <span>
           Page {page + 1} of {pages}
         </span>
         <button
+          type="button"
           className="btn-quiet py-0.5"
           disabled={page + 1 >= pages}
           onClick={() => setPage((p) => p + 1)}
@@ -474,7 +485,7 @@ function UndoButton({ onUndo, disabled }: { onUndo: () => void; disabled: boolea
     }
   }, [disabled]);
   return (
-    <button ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>
+    <button type="button" ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>
       Undo
     </button>
   );
@@ -617,11 +628,12 @@ function BulkAcceptDialog({
         Manual picks and lines needing re-decision are never changed. You can undo the accept right after.
       </p>
       <div className="flex justify-end gap-2">
-        <button className="btn-quiet" onClick={onCancel} disabled={pending}>
+        <button type="button" className="btn-quiet" onClick={onCancel} disabled={pending}>
           {p.change ? 'Cancel' : 'Close'}
         </button>
         {p.change ? (
-          <button className="btn-primary" onClick={onConfirm} disabled={pending} autoFocus>
+          // biome-ignore lint/a11y/noAutofocus: the confirmation opens on the user's own press; focus goes to its action
+          <button type="button" className="btn-primary" onClick={onConfirm} disabled={pending} autoFocus>
             Accept for {lineCount(p.change)}
           </button>
         ) : null}
@@ -673,10 +685,10 @@ function candidateText(c: Candidate, row: Row, u: Formatter): string {
   const parts = [
     `heat loss ${u.temp(c.surfaceC)}, ${u.heatFlowPerUnit(c.heatFlow, isSurfaceGeometry(row.geometry))}`,
   ];
-  if (row.limits.personnelLimitC !== null)
-    parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.limits.personnelLimitC)})`);
-  if (row.limits.condensationNeedC !== null)
-    parts.push(`condensation ${u.temp(c.condensationC)} (min ${u.temp(row.limits.condensationNeedC)})`);
+  if (row.personnelLimitC !== null)
+    parts.push(`personnel ${u.temp(c.personnelC)} (limit ${u.temp(row.personnelLimitC)})`);
+  if (row.condensationNeedC !== null)
+    parts.push(`condensation ${u.temp(c.condensationC)} (min ${u.temp(row.condensationNeedC)})`);
   return parts.join(' · ');
 }
 
@@ -717,7 +729,10 @@ function PickCell({
   const dirty = picked !== null && picked !== row.chosenMm;
   const shownMm = picked ?? row.recommendedMm;
   const shownCand =
-    options.data?.find((c) => c.mm === shownMm) ?? (row.shown?.mm === shownMm ? row.shown : undefined);
+    options.data?.find((c) => c.mm === shownMm) ??
+    (row.shown && shownMm !== null && shownMm === (row.chosenMm ?? row.recommendedMm)
+      ? { ...row.shown, mm: shownMm }
+      : undefined);
   function save() {
     setError(null);
     start(async () => {
@@ -769,6 +784,7 @@ function PickCell({
         </select>
         {dirty ? (
           <button
+            type="button"
             className="btn-primary px-2 py-0.5 text-xs"
             onClick={save}
             disabled={pending || (needsReason && !reason.trim())}

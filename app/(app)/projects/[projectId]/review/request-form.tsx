@@ -75,7 +75,7 @@ export function RequestReviewForm({
         </label>
         <input id="rq-note" name="note" className="input" />
       </div>
-      <button className="btn-primary" disabled={pending}>
+      <button type="submit" className="btn-primary" disabled={pending}>
         Request a review of the flagged lines
       </button>
       {message}

@@ -80,7 +80,6 @@ export default async function LinePage({
     result && result.heatFlowPerUnit !== null
       ? lineFittingsW(basis, line, result.heatFlowPerUnit, cands[0]?.[2] ?? 0, result.recommendedMm === 0)
       : 0;
-  const unit = surface ? 'W/m²' : 'W/m';
   const per = surface ? u.units.area : u.units.length;
   const recNums = nums.find((c) => c.mm === result?.recommendedMm);
   // Per metre/m² amounts from the economics, in the project's length or area unit.
@@ -267,7 +266,8 @@ export default async function LinePage({
                     <dd>
                       extra first cost {perUnit(ev.vsBare.extraInstalled, 2)}, saves{' '}
                       {perUnit(ev.vsBare.annualSaving, 2)} a year; payback{' '}
-                      {ev.vsBare.paybackYears === null ? 'none' : `${sig(ev.vsBare.paybackYears, 2)} years`};
+                      {ev.vsBare.paybackYears === null ? 'none' : `${sig(ev.vsBare.paybackYears, 2)} years`}
+                      {';'}
                       net present value {perUnit(ev.vsBare.npv, 2)}
                     </dd>
                   </>

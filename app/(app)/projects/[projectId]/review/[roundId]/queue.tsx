@@ -154,7 +154,7 @@ export function ReviewQueue({
         </div>
       </div>
       {canDispose && open ? (
-        <div className="panel mb-3 flex flex-wrap items-end gap-3 p-3" aria-label="Decide on lines">
+        <section className="panel mb-3 flex flex-wrap items-end gap-3 p-3" aria-label="Decide on lines">
           <div>
             <label className="label" htmlFor="d-disp">
               Disposition
@@ -192,6 +192,7 @@ export function ReviewQueue({
             />
           </div>
           <button
+            type="button"
             className="btn-primary"
             disabled={pending || !options.includes(disposition as Disposition) || selected.size === 0}
             onClick={() => apply([...selected])}
@@ -199,16 +200,17 @@ export function ReviewQueue({
             Apply to {selected.size} selected
           </button>
           <button
+            type="button"
             className="btn-quiet"
             disabled={pending || !options.includes(disposition as Disposition) || shown.length === 0}
             onClick={() => apply(shown.map((i) => i.id))}
           >
             Apply to all {shown.length} shown
           </button>
-          <button className="btn-quiet ml-auto" disabled={pending} onClick={signOff}>
+          <button type="button" className="btn-quiet ml-auto" disabled={pending} onClick={signOff}>
             Sign off the round
           </button>
-        </div>
+        </section>
       ) : null}
       {msg ? (
         <p

@@ -1,0 +1,117 @@
+/**
+ * A line's stored result row, from the line and the design basis: pure (no database), so the job
+ * worker can build rows on worker threads (lib/lines/solve-pool.ts) exactly as in-process solves do.
+ */
+import type { Line } from '@/db/schema';
+import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
+import type { DesignBasis } from './design-basis';
+import { inputHash, solveLine } from './solve-line';
+import type { LineInput } from './validate';
+
+export function inputOf(l: Line): LineInput {
+  return {
+    tag: l.tag,
+    service: l.service,
+    area: l.area,
+    geometry: l.geometry,
+    nps: l.nps,
+    outsideDiameterMm: l.outsideDiameterMm,
+    lengthM: l.lengthM,
+    surfaceAreaM2: l.surfaceAreaM2,
+    heightM: l.heightM,
+    normalTempC: l.normalTempC,
+    maxTempC: l.maxTempC,
+    steamPressureBarG: l.steamPressureBarG,
+    flowKgPerS: l.flowKgPerS,
+    fluidCpKJPerKgK: l.fluidCpKJPerKgK,
+    elbows: l.elbows,
+    tees: l.tees,
+    valves: l.valves,
+    flanges: l.flanges,
+    purposes: l.purposes as LineInput['purposes'],
+    outdoor: l.outdoor,
+    accessible: l.accessible,
+    accessHeightM: l.accessHeightM,
+    jacketId: l.jacketId,
+    notes: l.notes,
+  };
+}
+
+/** The system as built: only the materials of the layers actually chosen (inner first); the outer material when bare. */
+export function systemLabelOf(system: MaterialSystem, layers: { materialId: string }[]): string {
+  const ids = [...new Set(layers.map((l) => l.materialId))];
+  const name = (id: string) =>
+    id === system.inner?.id ? system.inner.name : id === system.outer.id ? system.outer.name : id;
+  return ids.length ? ids.map(name).join(' + ') : system.outer.name;
+}
+
+/** What every line of one solve shares: the basis (serialised once for the input hashes) and the systems cache. */
+export interface ResultContext {
+  basis: DesignBasis;
+  basisJson: string;
+  revision: number;
+  projectId: string;
+  systems: Map<string, MaterialSystem>;
+}
+
+export function resultContext(o: { basis: DesignBasis; revision: number; projectId: string }): ResultContext {
+  return { ...o, basisJson: JSON.stringify(o.basis), systems: new Map() };
+}
+
+const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
+const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
+
+export function resultRow(ctx: ResultContext, line: Line) {
+  const input = inputOf(line);
+  const s = solveLine(ctx.basis, input, ctx.systems);
+  const r = s.recommendation;
+  const chosen = r.candidates.find((c) => c.totalMm === r.recommendedMm);
+  return {
+    lineId: line.id,
+    projectId: ctx.projectId,
+    calcVersion: CALCULATION_VERSION,
+    basisRevision: ctx.revision,
+    inputVersion: line.inputVersion,
+    inputHash: inputHash(ctx.basisJson, input),
+    recommendedMm: r.recommendedMm,
+    governing: r.governing,
+    layers: r.layers,
+    systemLabel: systemLabelOf(s.system, r.layers),
+    jacketId: s.system.jacket.id,
+    outcomes: r.outcomes,
+    unmet: r.unmet,
+    warnings: r.warnings,
+    // Compact cost curve and candidate table (CandidateRow in deciding.ts): [mm, layers, heat flow,
+    // surface °C (heat-loss), surface °C (personnel), annual cost, limits ok, surface °C (condensation)]
+    candidates: r.candidates.map((c) => [
+      c.totalMm,
+      c.layers.map((l) => [l.materialId, l.thicknessMm]),
+      round(c.heatLoss.heatFlow, 6),
+      round(c.heatLoss.surfaceC, 2),
+      c.personnel ? round(c.personnel.surfaceC, 2) : null,
+      c.annualCost === undefined ? null : round(c.annualCost, 3),
+      c.serviceLimitOk,
+      c.condensation ? round(c.condensation.surfaceC, 2) : null,
+    ]),
+    design: r.design
+      ? {
+          profileC: r.design.profileC,
+          overall: r.design.overall,
+          convective: r.design.convectiveWPerM2K,
+          radiative: r.design.radiativeWPerM2K,
+        }
+      : null,
+    heatFlowPerUnit: chosen?.heatLoss.heatFlow ?? null,
+    totalHeatW: s.totalHeatW,
+    bareHeatW: s.bareHeatW,
+    surfaceTempC: chosen?.heatLoss.surfaceC ?? null,
+    personnelSurfaceC: chosen?.personnel?.surfaceC ?? null,
+    annualMWh: r.annual?.energyMWh ?? null,
+    annualCost: r.annual?.cost ?? null,
+    co2Tonnes: r.annual?.co2Tonnes ?? null,
+    condensateKgPerH: r.condensateKgPerHour ?? null,
+    solvedAt: new Date(),
+  };
+}
+
+export type ResultRow = ReturnType<typeof resultRow>;

@@ -97,3 +97,69 @@ console.log(
 );
 console.log(`lines per second: ${Math.round(N / seconds)}`);
 console.log(`microseconds per line: ${usPerLine.toFixed(1)} (goal ≤ 50)`);
+
+/**
+ * The product's own solve path over the demo design basis: a generated line list read and checked
+ * as an upload is, then each line solved and shaped into its stored result row (lib/lines/result-row.ts,
+ * what the job worker runs) — in this thread, then on the worker-thread pool the worker uses.
+ */
+async function productPath() {
+  const { demoLineRows, lineListWorkbook } = await import('../seed/line-list');
+  const { parseUpload, viewSheet } = await import('../lib/lines/parse');
+  const { suggestMapping } = await import('../lib/lines/mapping');
+  const { validateSheet } = await import('../lib/lines/validate');
+  const { resultContext, resultRow } = await import('../lib/lines/result-row');
+  const { createSolvePool } = await import('../lib/lines/solve-pool');
+  const { DEFAULT_DESIGN_BASIS } = await import('../lib/lines/design-basis');
+  const M = Math.min(N, 5000);
+  const sheet = viewSheet(
+    (await parseUpload('demo.xlsx', await lineListWorkbook(demoLineRows(M, 99)))).sheets[0],
+  );
+  const checked = validateSheet(sheet, suggestMapping(sheet.headers));
+  const rows = checked.lines.map(
+    (l, i) =>
+      ({ ...l, id: `line-${i}`, projectId: 'bench', inputVersion: 1 }) as never as Parameters<
+        typeof resultRow
+      >[1],
+  );
+  const task = { basis: DEFAULT_DESIGN_BASIS, revision: 1, projectId: 'bench' };
+  for (const l of rows.slice(0, 1000)) resultRow(resultContext(task), l); // warm-up
+  const times: number[] = [];
+  for (let p = 0; p < 3; p++) {
+    const ctx = resultContext(task);
+    const t0 = process.hrtime.bigint();
+    for (const l of rows) resultRow(ctx, l);
+    times.push(Number(process.hrtime.bigint() - t0) / 1e9);
+  }
+  times.sort((a, b) => a - b);
+  const one = times[1];
+  console.log(
+    `product solve path (demo design basis, ${rows.length} lines, solve + result row): ${((one / rows.length) * 1e6).toFixed(1)} µs per line, one thread (passes ${times.map((t) => t.toFixed(2)).join(' ')} s)`,
+  );
+  const pool = createSolvePool();
+  if (!pool) {
+    console.log('worker-thread pool: one core here, no pool');
+    return;
+  }
+  const CHUNK = 250;
+  const chunks = [] as (typeof rows)[];
+  for (let i = 0; i < rows.length; i += CHUNK) chunks.push(rows.slice(i, i + CHUNK));
+  await Promise.all(chunks.slice(0, pool.threads).map((c) => pool.solve({ ...task, lines: c }))); // warm-up
+  const ptimes: number[] = [];
+  for (let p = 0; p < 3; p++) {
+    const t0 = process.hrtime.bigint();
+    await Promise.all(chunks.map((c) => pool.solve({ ...task, lines: c })));
+    ptimes.push(Number(process.hrtime.bigint() - t0) / 1e9);
+  }
+  await pool.close();
+  ptimes.sort((a, b) => a - b);
+  const many = ptimes[1];
+  console.log(
+    `worker-thread pool (${pool.threads} threads, chunks of ${CHUNK}): ${((many / rows.length) * 1e6).toFixed(1)} µs per line (passes ${ptimes.map((t) => t.toFixed(2)).join(' ')} s); speed-up ${(one / many).toFixed(2)}× over one thread`,
+  );
+}
+
+productPath().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});

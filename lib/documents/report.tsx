@@ -199,7 +199,7 @@ function BudgetChart({ d, u }: { d: ReportData; u: Formatter }) {
     Rm = 60,
     H = areas.length * rowH + 24;
   const max = Math.max(...areas.map((a) => Math.max(a.designedKW, a.allocationKW ?? 0, 0))) * 1.05 || 1;
-  const X = (v: number) => L + (v / max) * (W - L - Rm);
+  const xAt = (v: number) => L + (v / max) * (W - L - Rm);
   return (
     <Box wrap={false} style={{ marginTop: 6 }}>
       <Svg width={W} height={H}>
@@ -213,14 +213,14 @@ function BudgetChart({ d, u }: { d: ReportData; u: Formatter }) {
               <Rect
                 x={L}
                 y={y + 2}
-                width={Math.max(0.5, X(a.designedKW) - L)}
+                width={Math.max(0.5, xAt(a.designedKW) - L)}
                 height={9}
                 fill={a.over ? ALARM : ACCENT}
               />
               {a.allocationKW !== null ? (
                 <Line
-                  x1={X(a.allocationKW)}
-                  x2={X(a.allocationKW)}
+                  x1={xAt(a.allocationKW)}
+                  x2={xAt(a.allocationKW)}
                   y1={y}
                   y2={y + 13}
                   stroke={INK}
@@ -228,7 +228,7 @@ function BudgetChart({ d, u }: { d: ReportData; u: Formatter }) {
                 />
               ) : null}
               <Text
-                x={X(Math.max(a.designedKW, a.allocationKW ?? 0)) + 4}
+                x={xAt(Math.max(a.designedKW, a.allocationKW ?? 0)) + 4}
                 y={y + 9}
                 style={{ fontSize: 6 }}
                 fill={MUTED}

@@ -51,21 +51,21 @@ export async function resultsTable({
   const us = u.system === 'US';
   const inch = us || u.series === 'inch';
   const cat = catalogueOf(basis);
-  const T = (c: number | null | undefined) =>
+  const toT = (c: number | null | undefined) =>
     c === null || c === undefined ? null : round(us ? convert.cToF(c) : c, 2);
-  const TH = (mm: number | null | undefined) =>
+  const toTh = (mm: number | null | undefined) =>
     mm === null || mm === undefined ? null : inch ? round(convert.mmToIn(mm), 3) : round(mm, 1);
-  const L = (m: number | null | undefined) =>
+  const toL = (m: number | null | undefined) =>
     m === null || m === undefined ? null : round(us ? convert.mToFt(m) : m, 2);
-  const A = (m2: number | null | undefined) =>
+  const toA = (m2: number | null | undefined) =>
     m2 === null || m2 === undefined ? null : round(us ? convert.m2ToFt2(m2) : m2, 2);
-  const D = (mm: number | null | undefined) =>
+  const toD = (mm: number | null | undefined) =>
     mm === null || mm === undefined ? null : us ? round(convert.mmToIn(mm), 3) : round(mm, 1);
-  const QL = (w: number | null) => (w === null ? null : round(us ? convert.wPerMToBtuPerHFt(w) : w, 2));
-  const QA = (w: number | null) => (w === null ? null : round(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 2));
-  const P = (w: number | null) =>
+  const toQl = (w: number | null) => (w === null ? null : round(us ? convert.wPerMToBtuPerHFt(w) : w, 2));
+  const toQa = (w: number | null) => (w === null ? null : round(us ? convert.wPerM2ToBtuPerHFt2(w) : w, 2));
+  const toP = (w: number | null) =>
     w === null ? null : us ? round(convert.wToBtuPerH(w), 0) : round(w / 1000, 3);
-  const E = (mwh: number | null) => (mwh === null ? null : round(us ? convert.mwhToMMBtu(mwh) : mwh, 3));
+  const toE = (mwh: number | null) => (mwh === null ? null : round(us ? convert.mwhToMMBtu(mwh) : mwh, 3));
   const tu = inch ? 'in' : 'mm';
 
   const where = filter ? lineFilterSql(projectId, filter, revision) : eq(lines.projectId, projectId);
@@ -152,19 +152,19 @@ export async function resultsTable({
       line.area,
       GEOMETRY_LABEL[line.geometry],
       line.nps,
-      D(line.outsideDiameterMm),
-      L(line.lengthM),
-      A(line.surfaceAreaM2),
-      T(line.normalTempC),
-      T(line.maxTempC),
+      toD(line.outsideDiameterMm),
+      toL(line.lengthM),
+      toA(line.surfaceAreaM2),
+      toT(line.normalTempC),
+      toT(line.maxTempC),
       (line.purposes as Purpose[]).map((p) => PURPOSE_LABEL[p]).join(', '),
       line.outdoor ? 'Outdoor' : 'Indoor',
       line.accessible ? 'yes' : 'no',
       result?.systemLabel ?? null,
       jacket?.name ?? null,
-      TH(result?.recommendedMm),
+      toTh(result?.recommendedMm),
       result?.governing ? (CRITERION_LABEL[result.governing] ?? result.governing) : null,
-      TH(design?.thicknessMm),
+      toTh(design?.thicknessMm),
       design ? (design.source === 'manual' ? 'manual pick' : 'recommendation accepted') : 'undecided',
       design?.belowCriterion
         ? design.belowCriterion
@@ -175,15 +175,15 @@ export async function resultsTable({
       design?.needsRedecision ? 'yes' : 'no',
       ...CRITERIA.map((c) => {
         const o = outcomes.find((x) => x.id === c);
-        return o ? TH(o.requiredMm) : null;
+        return o ? toTh(o.requiredMm) : null;
       }),
-      T(row?.[3]),
-      T(personnelC),
-      T(condensationC),
-      surface ? null : QL(row?.[2] ?? null),
-      surface ? QA(row?.[2] ?? null) : null,
-      P(lineW),
-      E(result?.annualMWh ?? null),
+      toT(row?.[3]),
+      toT(personnelC),
+      toT(condensationC),
+      surface ? null : toQl(row?.[2] ?? null),
+      surface ? toQa(row?.[2] ?? null) : null,
+      toP(lineW),
+      toE(result?.annualMWh ?? null),
       result?.annualCost === null || result?.annualCost === undefined ? null : round(result.annualCost, 2),
       result?.co2Tonnes === null || result?.co2Tonnes === undefined ? null : round(result.co2Tonnes, 3),
       (result?.unmet ?? []).map((c) => CRITERION_LABEL[c] ?? c).join(', ') || null,

@@ -151,7 +151,6 @@ export function sheetModel(i: SheetInput): SheetModel {
   const cat = catalogueOf(basis);
   const input = inputOf(line);
   const surface = isSurfaceGeometry(line.geometry);
-  const side = line.outdoor ? 'outdoor' : 'indoor';
   const crit = criteriaFor(basis, line.outdoor);
   const cands = (result?.candidates ?? []) as CandidateRow[];
   const limits = decidingLimits(basis, input, result?.jacketId ?? null);

@@ -34,8 +34,8 @@ function CostCurve({ cost }: { cost: NonNullable<SheetModel['cost']> }) {
     x1 = Math.max(...xs);
   const y0 = 0,
     y1 = Math.max(...ys) * 1.08 || 1;
-  const X = (v: number) => L + ((v - x0) / (x1 - x0 || 1)) * (W - L - Rm);
-  const Y = (v: number) => H - B - ((v - y0) / (y1 - y0)) * (H - B - T);
+  const xAt = (v: number) => L + ((v - x0) / (x1 - x0 || 1)) * (W - L - Rm);
+  const yAt = (v: number) => H - B - ((v - y0) / (y1 - y0)) * (H - B - T);
   const ticksY = [0, 0.25, 0.5, 0.75, 1].map((f) => y0 + f * (y1 - y0));
   const tickX = [...new Set([x0, ...xs.filter((_, i) => i % Math.ceil(xs.length / 6) === 0), x1])];
   const opt = cost.points.find((p) => p.mm === cost.optimumMm);
@@ -45,8 +45,8 @@ function CostCurve({ cost }: { cost: NonNullable<SheetModel['cost']> }) {
       <Svg width={W} height={H}>
         {ticksY.map((v, i) => (
           <G key={`y${i}`}>
-            <Line x1={L} x2={W - Rm} y1={Y(v)} y2={Y(v)} stroke={RULE} strokeWidth={0.4} />
-            <Text x={L - 3} y={Y(v) + 2} style={{ fontSize: 5.5 }} textAnchor="end" fill={MUTED}>
+            <Line x1={L} x2={W - Rm} y1={yAt(v)} y2={yAt(v)} stroke={RULE} strokeWidth={0.4} />
+            <Text x={L - 3} y={yAt(v) + 2} style={{ fontSize: 5.5 }} textAnchor="end" fill={MUTED}>
               {cost.fmtY(v)}
             </Text>
           </G>
@@ -54,7 +54,7 @@ function CostCurve({ cost }: { cost: NonNullable<SheetModel['cost']> }) {
         {tickX.map((v, i) => (
           <Text
             key={`x${i}`}
-            x={X(v)}
+            x={xAt(v)}
             y={H - B + 8}
             style={{ fontSize: 5.5 }}
             textAnchor="middle"
@@ -66,16 +66,16 @@ function CostCurve({ cost }: { cost: NonNullable<SheetModel['cost']> }) {
         <Line x1={L} x2={L} y1={T} y2={H - B} stroke={INK} strokeWidth={0.6} />
         <Line x1={L} x2={W - Rm} y1={H - B} y2={H - B} stroke={INK} strokeWidth={0.6} />
         <Polyline
-          points={cost.points.map((p) => `${X(p.mm)},${Y(p.cost)}`).join(' ')}
+          points={cost.points.map((p) => `${xAt(p.mm)},${yAt(p.cost)}`).join(' ')}
           stroke={ACCENT}
           strokeWidth={1.2}
           fill="none"
         />
-        {opt ? <Circle cx={X(opt.mm)} cy={Y(opt.cost)} r={2.6} fill={ACCENT} /> : null}
+        {opt ? <Circle cx={xAt(opt.mm)} cy={yAt(opt.cost)} r={2.6} fill={ACCENT} /> : null}
         {chosen ? (
           <Circle
-            cx={X(chosen.mm)}
-            cy={Y(chosen.cost)}
+            cx={xAt(chosen.mm)}
+            cy={yAt(chosen.cost)}
             r={3.4}
             stroke={ALARM}
             strokeWidth={0.9}

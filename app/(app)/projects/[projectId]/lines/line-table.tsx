@@ -506,7 +506,7 @@ function DocumentLinks({
   const withF = (path: string, extra: Record<string, string> = {}) =>
     `${base}/${path}?${new URLSearchParams([...f.entries(), ...Object.entries(extra)]).toString()}`;
   return (
-    <div className="text-xs" aria-label="Downloads">
+    <section className="text-xs" aria-label="Downloads">
       <span className="label">Download</span>
       <span className="flex flex-wrap gap-x-3">
         <a href={withF('export', { format: 'xlsx' })} download>
@@ -528,7 +528,7 @@ function DocumentLinks({
           </span>
         ) : null}
       </span>
-    </div>
+    </section>
   );
 }
 

@@ -36,7 +36,7 @@ export function IssueReportForm({ projectId, next }: { projectId: string; next: 
           placeholder="e.g. Issued for construction"
         />
       </div>
-      <button className="btn-primary" disabled={pending}>
+      <button type="submit" className="btn-primary" disabled={pending}>
         {pending ? 'Issuing…' : `Issue revision ${next}`}
       </button>
       {msg ? (

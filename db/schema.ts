@@ -15,6 +15,8 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
 export type Role = (typeof roleEnum.enumValues)[number];
 
@@ -447,7 +449,19 @@ export const boqIssues = pgTable(
   (t) => [uniqueIndex('boq_issues_number_key').on(t.projectId, t.number)],
 );
 
-const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+/** The PDF a calculation-sheet batch job produced, kept for download. */
+export const sheetBatches = pgTable('sheet_batches', {
+  jobId: uuid('job_id')
+    .primaryKey()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .notNull()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  fileName: text('file_name').notNull(),
+  lineCount: integer('line_count').notNull(),
+  pdf: bytea('pdf').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 /**
  * Issued revisions of the project design report, numbered per project like the bill; the PDF is
@@ -628,7 +642,7 @@ export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
 
-export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all']);
+export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'sheets-batch']);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
 
 /**

@@ -7,6 +7,7 @@ export const BOSS_SCHEMA = 'pgboss';
 export const QUEUES = {
   'import-solve': { retryLimit: 2, retryDelay: 2 },
   'solve-all': { retryLimit: 2, retryDelay: 2 },
+  'sheets-batch': { retryLimit: 1, retryDelay: 2 },
 } as const;
 export type QueueName = keyof typeof QUEUES;
 

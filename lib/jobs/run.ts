@@ -6,13 +6,15 @@
  */
 import { eq, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
-import { jobs } from '@/db/schema';
+import { jobs, sheetBatches } from '@/db/schema';
 import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
 import { commitDraft, solveProject } from '@/lib/lines/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { SolvePool } from '@/lib/lines/solve-pool';
 import { QUEUES } from './queues';
+import { sheetsBatchPdf } from '@/lib/documents/sheets';
+import type { LineFilter } from '@/lib/lines/filter';
 
 const progress = (jobId: string) => async (done: number, total: number) => {
   await db.update(jobs).set({ done, total }).where(eq(jobs.id, jobId));
@@ -52,6 +54,19 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           removed: r.diff.removed.length,
           solved: s.solved,
         };
+      } else if (job.kind === 'sheets-batch') {
+        // Calculation sheets of the filtered lines as one PDF, kept for download beside the job.
+        const input = job.input as { filter: LineFilter };
+        const r = await sheetsBatchPdf({
+          projectId: job.projectId,
+          filter: input.filter,
+          onProgress: progress(jobId),
+        });
+        await tx
+          .insert(sheetBatches)
+          .values({ jobId, projectId: job.projectId, fileName: r.fileName, lineCount: r.count, pdf: r.buf })
+          .onConflictDoNothing();
+        result = { sheets: r.count, fileName: r.fileName, bytes: r.buf.length };
       } else {
         const s = await solveProject({
           projectId: job.projectId,
@@ -82,7 +97,7 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           ? {
               state: 'failed',
               finishedAt: new Date(),
-              error: `This ${job.kind === 'import-solve' ? 'import' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
+              error: `This ${job.kind === 'import-solve' ? 'import' : job.kind === 'sheets-batch' ? 'batch of calculation sheets' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
             }
           : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' },
       )
@@ -99,5 +114,5 @@ export async function markAbandonedJobs() {
   await db.execute(sql`update jobs set state = 'failed', finished_at = now(),
     error = 'This job stopped on our side and was not finished; nothing was changed. Start it again.'
     where state in ('queued', 'running') and id in (
-      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in ('import-solve', 'solve-all'))`);
+      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in ('import-solve', 'solve-all', 'sheets-batch'))`);
 }

@@ -9,7 +9,11 @@ type Wire = Omit<JobView, 'createdAt' | 'startedAt' | 'finishedAt'> & {
   finishedAt: string | null;
 };
 const active = (j: Wire | undefined) => !!j && (j.state === 'queued' || j.state === 'running');
-const KIND: Record<Wire['kind'], string> = { 'import-solve': 'Import and solve', 'solve-all': 'Solve' };
+const KIND: Record<Wire['kind'], string> = {
+  'import-solve': 'Import and solve',
+  'solve-all': 'Solve',
+  'sheets-batch': 'Calculation sheets',
+};
 
 /** Polls one job until it is done or failed. */
 export function useJob(projectId: string, jobId: string | null) {
@@ -37,9 +41,11 @@ export function JobProgressBar({ job }: { job: Wire }) {
   const text =
     job.state === 'queued'
       ? 'Waiting for a worker…'
-      : job.total
-        ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
-        : 'Reading and importing…';
+      : job.kind === 'sheets-batch'
+        ? `Producing the sheets of ${job.total.toLocaleString('en')} lines…`
+        : job.total
+          ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
+          : 'Reading and importing…';
   return (
     <div className="mb-3" aria-live="polite">
       <div
@@ -98,6 +104,14 @@ export function RecentJobs({ projectId }: { projectId: string }) {
               {j.state === 'done' && j.result && 'solved' in j.result
                 ? ` · ${String(j.result.solved)} ${j.result.solved === 1 ? 'line' : 'lines'} solved`
                 : ''}
+              {j.state === 'done' && j.kind === 'sheets-batch' && j.result ? (
+                <>
+                  {' · '}
+                  <a href={`/api/v1/projects/${projectId}/sheets/${j.id}`} download>
+                    Download the {String(j.result.sheets)} sheets (PDF)
+                  </a>
+                </>
+              ) : null}
               {j.error && j.state === 'failed' ? ` · ${j.error}` : ''}
             </li>
           ))}

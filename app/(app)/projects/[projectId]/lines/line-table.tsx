@@ -14,6 +14,7 @@ import {
   pickThicknessAction,
   previewBulkAcceptAction,
   solveLinesAction,
+  startSheetsBatchAction,
   undoBulkAcceptAction,
 } from './actions';
 import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } from '@/lib/lines/filter';
@@ -501,6 +502,9 @@ function DocumentLinks({
   filter: { q: string; area: string; status: string };
   total: number;
 }) {
+  const qc = useQueryClient();
+  const [busy, setBusy] = useState(false);
+  const [note, setNote] = useState<string | null>(null);
   const f = new URLSearchParams(Object.entries(filter).filter(([, v]) => v));
   const base = `/api/v1/projects/${projectId}`;
   const withF = (path: string, extra: Record<string, string> = {}) =>
@@ -522,12 +526,33 @@ function DocumentLinks({
           <a href={withF('sheets')} download>
             Calculation sheets of the {total} filtered lines (PDF)
           </a>
-        ) : total > SHEETS_INLINE_LIMIT ? (
-          <span className="text-ink-500">
-            Calculation sheets: filter to {SHEETS_INLINE_LIMIT} lines or fewer
-          </span>
+        ) : null}
+        {total > SHEETS_INLINE_LIMIT ? (
+          <button
+            type="button"
+            className="underline"
+            disabled={busy}
+            onClick={() => {
+              setBusy(true);
+              setNote(null);
+              startSheetsBatchAction(projectId, { filter }).then((r) => {
+                setBusy(false);
+                setNote(
+                  r.ok ? 'The sheets are being produced; the download appears under Recent jobs.' : r.error,
+                );
+                qc.invalidateQueries({ queryKey: ['jobs', projectId] });
+              });
+            }}
+          >
+            Produce the calculation sheets of the {total} filtered lines (PDF, in the background)
+          </button>
         ) : null}
       </span>
+      {note ? (
+        <span role="status" className="block text-ink-600">
+          {note}
+        </span>
+      ) : null}
     </section>
   );
 }

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { connection } from 'next/server';
 import localFont from 'next/font/local';
 import './globals.css';
+import { HydrationMark } from '@/components/hydration-mark';
 
 // Fonts ship with the app (IBM Plex, from @fontsource); nothing is fetched at build or run time.
 const sans = localFont({
@@ -30,7 +31,10 @@ export default async function RootLayout({ children }: { children: React.ReactNo
   await connection();
   return (
     <html lang="en" className={`${sans.variable} ${mono.variable}`}>
-      <body className="min-h-screen font-sans">{children}</body>
+      <body className="min-h-screen font-sans">
+        {children}
+        <HydrationMark />
+      </body>
     </html>
   );
 }

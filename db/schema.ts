@@ -642,7 +642,7 @@ export type Line = typeof lines.$inferSelect;
 export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
 
-export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'sheets-batch']);
+export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill', 'sheets-batch']);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
 
 /**

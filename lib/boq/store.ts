@@ -1,6 +1,6 @@
 /** Issuing and reading the bill of quantities — free of Next.js. */
 import { and, desc, eq, sql } from 'drizzle-orm';
-import { db } from '@/db/client';
+import { db, type Tx } from '@/db/client';
 import {
   boqIssues,
   lineDesigns,
@@ -102,8 +102,19 @@ export async function previewBill({ projectId }: { projectId: string }) {
   return computeQuantities(await collectBillLines({ projectId }));
 }
 
-/** Issues the next revision of the bill; refused when no line can be counted. */
-export async function issueBill({ projectId, userId }: { projectId: string; userId: string }) {
+/**
+ * Issues the next revision of the bill; refused when no line can be counted. `tx`: the issuing
+ * job's transaction, so the issue and the job's "done" commit together.
+ */
+export async function issueBill({
+  projectId,
+  userId,
+  tx: outer,
+}: {
+  projectId: string;
+  userId: string;
+  tx?: Tx;
+}) {
   const q = await previewBill({ projectId });
   if (q.counted === 0)
     throw new AppError(
@@ -116,7 +127,7 @@ export async function issueBill({ projectId, userId }: { projectId: string; user
     .from(lineListRevisions)
     .where(eq(lineListRevisions.projectId, projectId));
   const name = await actorName(userId);
-  return db.transaction(async (tx) => {
+  return (outer ?? db).transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`boq${projectId}`}))`);
     const [{ n }] = await tx
       .select({ n: sql<number>`coalesce(max(${boqIssues.number}), 0)` })

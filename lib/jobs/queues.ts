@@ -7,6 +7,7 @@ export const BOSS_SCHEMA = 'pgboss';
 export const QUEUES = {
   'import-solve': { retryLimit: 2, retryDelay: 2 },
   'solve-all': { retryLimit: 2, retryDelay: 2 },
+  'issue-bill': { retryLimit: 2, retryDelay: 2 },
   'sheets-batch': { retryLimit: 1, retryDelay: 2 },
 } as const;
 export type QueueName = keyof typeof QUEUES;
@@ -16,3 +17,11 @@ export type QueueName = keyof typeof QUEUES;
  * machine gone) and is retried. Tests shorten it through JOB_EXPIRE_SECONDS.
  */
 export const jobExpireSeconds = () => Number(process.env.JOB_EXPIRE_SECONDS ?? 15 * 60);
+
+/** How the user reads each kind of job (progress bar, recent jobs, failure messages). */
+export const JOB_KIND_LABEL: Record<QueueName, string> = {
+  'import-solve': 'Import and solve',
+  'solve-all': 'Solve',
+  'issue-bill': 'Bill issue',
+  'sheets-batch': 'Calculation sheets',
+};

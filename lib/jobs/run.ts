@@ -10,9 +10,10 @@ import { jobs, sheetBatches } from '@/db/schema';
 import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
 import { commitDraft, solveProject } from '@/lib/lines/store';
+import { issueBill } from '@/lib/boq/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { SolvePool } from '@/lib/lines/solve-pool';
-import { QUEUES } from './queues';
+import { JOB_KIND_LABEL, QUEUES } from './queues';
 import { sheetsBatchPdf } from '@/lib/documents/sheets';
 import type { LineFilter } from '@/lib/lines/filter';
 
@@ -67,6 +68,10 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           .values({ jobId, projectId: job.projectId, fileName: r.fileName, lineCount: r.count, pdf: r.buf })
           .onConflictDoNothing();
         result = { sheets: r.count, fileName: r.fileName, bytes: r.buf.length };
+      } else if (job.kind === 'issue-bill') {
+        // Issued inside this transaction: a retry after a crash finds the job done, never a second issue.
+        const issue = await issueBill({ projectId: job.projectId, userId: job.createdBy ?? '', tx });
+        result = { number: issue.number, counted: issue.counted, pending: issue.pending };
       } else {
         const s = await solveProject({
           projectId: job.projectId,
@@ -97,7 +102,7 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           ? {
               state: 'failed',
               finishedAt: new Date(),
-              error: `This ${job.kind === 'import-solve' ? 'import' : job.kind === 'sheets-batch' ? 'batch of calculation sheets' : 'solve'} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
+              error: `This ${JOB_KIND_LABEL[job.kind].toLowerCase()} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
             }
           : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' },
       )
@@ -114,5 +119,8 @@ export async function markAbandonedJobs() {
   await db.execute(sql`update jobs set state = 'failed', finished_at = now(),
     error = 'This job stopped on our side and was not finished; nothing was changed. Start it again.'
     where state in ('queued', 'running') and id in (
-      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in ('import-solve', 'solve-all', 'sheets-batch'))`);
+      select (data->>'jobId')::uuid from pgboss.job where state = 'failed' and name in (${sql.join(
+        Object.keys(QUEUES).map((q) => sql`${q}`),
+        sql`, `,
+      )}))`);
 }

@@ -26,8 +26,9 @@ const VIEW = {
 };
 
 /**
- * Records the job and puts it on its queue; the web request returns at once. One import or solve
- * at a time per project: a second is refused while one is queued or running.
+ * Records the job and puts it on its queue; the web request returns at once. One job at a time per
+ * project (an import, a solve or a bill issue): a second is refused while one is queued or running,
+ * so a bill never counts lines that a solve is rewriting.
  */
 export async function enqueueJob({
   projectId,
@@ -48,7 +49,10 @@ export async function enqueueJob({
         eq(jobs.projectId, projectId),
         inArray(jobs.state, ['queued', 'running']),
         // A batch of calculation sheets waits only for another batch; imports and solves for each other.
-        inArray(jobs.kind, kind === 'sheets-batch' ? ['sheets-batch'] : ['import-solve', 'solve-all']),
+        inArray(
+          jobs.kind,
+          kind === 'sheets-batch' ? ['sheets-batch'] : ['import-solve', 'solve-all', 'issue-bill'],
+        ),
       ),
     )
     .limit(1);
@@ -57,7 +61,7 @@ export async function enqueueJob({
       'conflict',
       kind === 'sheets-batch'
         ? 'A batch of calculation sheets of this project is still being produced; wait for it to finish (its progress is shown on the line list).'
-        : 'An import or solve of this project is still running; wait for it to finish (its progress is shown on the line list).',
+        : 'An import, solve or bill issue of this project is still running; wait for it to finish (its progress is shown on the line list and the bill page).',
     );
   const [job] = await db.insert(jobs).values({ projectId, kind, createdBy: userId, input }).returning(VIEW);
   const boss = await getBoss();

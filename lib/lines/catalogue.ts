@@ -34,7 +34,9 @@ function ownMaterialToLibraryForm(m: OwnMaterial): InsulationMaterial {
   };
 }
 
-export function catalogueOf(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'>): Catalogue {
+export function catalogueOf(
+  basis: Pick<DesignBasis, 'ownMaterials' | 'ownJackets'> & Partial<Pick<DesignBasis, 'designConductivity'>>,
+): Catalogue {
   let c = cache.get(basis);
   if (c) return c;
   const materials = new Map(LIBRARY_MATERIALS),
@@ -44,12 +46,27 @@ export function catalogueOf(basis: Pick<DesignBasis, 'ownMaterials' | 'ownJacket
     materials.set(m.id, ownMaterialToLibraryForm(m));
     own.add(m.id);
   }
+  // EN ISO 23993 factors: a copy of the material carrying them (the declared curve stays as declared).
+  for (const [id, f] of Object.entries(basis.designConductivity ?? {})) {
+    const m = materials.get(id);
+    if (m && f.ageing * f.moisture * f.installation !== 1)
+      materials.set(id, {
+        ...m,
+        designFactors: {
+          ageing: f.ageing,
+          moisture: f.moisture,
+          installation: f.installation,
+          source: f.source,
+        },
+      });
+  }
   for (const j of basis.ownJackets ?? []) {
     jackets.set(j.id, {
       id: j.id,
       name: j.name,
       emittance: j.emittance,
       metal: j.metal,
+      ...(j.touchSurface ? { touchSurface: j.touchSurface } : {}),
       source: `Project data: ${j.source}`,
     });
     own.add(j.id);

@@ -6,7 +6,9 @@
  */
 import {
   compileConductivity,
+  designConductivitySpec,
   condensationControlApplies,
+  touchLimitFor,
   condensationLimit,
   personnelProtectionApplies,
   solveSteady,
@@ -61,7 +63,6 @@ type LineFacts = Pick<LineInput, 'outdoor' | 'accessible' | 'normalTempC' | 'max
 export function decidingLimits(basis: DesignBasis, line: LineFacts, jacketId: string | null): DecidingLimits {
   const crit = criteriaFor(basis, line.outdoor);
   const jacket = jacketId ? catalogueOf(basis).jackets.get(jacketId) : undefined;
-  const metal = jacket ? jacket.metal : true;
   const hot = personnelProtectionApplies(
     { accessible: line.accessible, hottestC: line.maxTempC ?? line.normalTempC },
     crit.conditions.personnel,
@@ -73,7 +74,7 @@ export function decidingLimits(basis: DesignBasis, line: LineFacts, jacketId: st
   );
   const th = cold ? condensationLimit(crit.conditions.condensation, crit.dewPointMarginK) : null;
   return {
-    personnelLimitC: hot ? (metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC) : null,
+    personnelLimitC: hot ? touchLimitFor(crit, jacket ?? { metal: true }).limitC : null,
     condensationNeedC: th ? th.needC : null,
     dewPointC: th ? th.valueC : null,
     dewBasis: th ? th.basis : null,
@@ -125,7 +126,7 @@ function surfaceSolver(basis: DesignBasis, l: LineInput, jacketId: string | null
     if (mats.some((x) => !x.m)) return null;
     const layers = mats.map(({ m, mm }) => ({
       thicknessM: mm / 1000,
-      conductivity: compileConductivity(m!.conductivity),
+      conductivity: compileConductivity(designConductivitySpec(m!)),
       name: m!.name,
       minServiceC: m!.minServiceC,
       maxServiceC: m!.maxServiceC,

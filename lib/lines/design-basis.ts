@@ -4,6 +4,7 @@ import { DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal/fittings';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 import { isCurrencyCode } from '@/lib/format';
+import { DEFAULT_CONTACT_SECONDS } from '@/lib/thermal/touch';
 
 /**
  * The project's design basis: the conditions each criterion is checked under, the limits, the
@@ -95,6 +96,12 @@ export const ownJacketSchema = z.object({
     .gt(0, { error: 'Emittance must be above 0' })
     .max(1, { error: 'Emittance is at most 1' }),
   metal: z.boolean(),
+  /** What a hand touches (ISO 13732-1 class); unset: metal → bare metal, else plastics. */
+  touchSurface: z
+    .enum(['bare-metal', 'coated-metal', 'ceramic-glass-stone', 'plastic', 'wood'], {
+      error: 'Touch surface: choose bare metal, coated metal, ceramics/glass/stone, plastics or wood',
+    })
+    .optional(),
   source: z
     .string({ error: 'Say where the emittance comes from' })
     .trim()
@@ -102,6 +109,18 @@ export const ownJacketSchema = z.object({
     .max(300, { error: 'Source: at most 300 characters' }),
 });
 export type OwnJacket = z.output<typeof ownJacketSchema>;
+
+/** EN ISO 23993 conversion factors for one material, with where they come from. */
+const factor = (what: string) =>
+  num(what)
+    .min(1, { error: `${what} must be 1 or more (a design value is not better than the declared one)` })
+    .max(3, { error: `${what}: at most 3` });
+export const designFactorsSchema = z.object({
+  ageing: factor('Ageing factor'),
+  moisture: factor('Moisture factor'),
+  installation: factor('Installation factor'),
+  source: z.string().trim().max(300, { error: 'Source of the factors: at most 300 characters' }).default(''),
+});
 
 export const systemBandSchema = z.object({
   /** Lines whose normal temperature is in [fromC, toC) use this system. */
@@ -133,6 +152,18 @@ export const designBasisObject = z.object({
     condensation: z.object({ outdoor: condRh, indoor: condRh }),
     freeze: cond,
   }),
+  /**
+   * How the touch limit is set: from a contact time and the jacket's surface (ISO 13732-1), or the two
+   * fixed numbers below as an explicit override. Bases saved before this choice existed keep their
+   * fixed numbers (they were designed with them); new projects start from the contact time.
+   */
+  touchLimitMode: z
+    .enum(['contact-time', 'fixed'], { error: 'Touch limit: choose by contact time or fixed numbers' })
+    .default('fixed'),
+  touchContactSeconds: num('Contact time')
+    .min(1, { error: 'Contact time must be at least 1 s (the shortest ISO 13732-1 band read)' })
+    .max(28800, { error: 'Contact time: at most 28 800 s (8 h; the threshold stays 43 °C beyond)' })
+    .default(DEFAULT_CONTACT_SECONDS),
   touchLimitMetalC: num('Touch limit (metal jacket)').min(30).max(120),
   touchLimitNonMetalC: num('Touch limit (non-metal jacket)').min(30).max(120),
   dewPointMarginK: num('Dew-point margin').min(0).max(10),
@@ -149,6 +180,41 @@ export const designBasisObject = z.object({
   systems: z.array(systemBandSchema).min(1, { error: 'Give at least one material system' }),
   ownMaterials: z.array(ownMaterialSchema).max(50, { error: 'At most 50 project materials' }).default([]),
   ownJackets: z.array(ownJacketSchema).max(30, { error: 'At most 30 project jackets' }).default([]),
+  /**
+   * Design conductivity (EN ISO 23993): conversion factors per material id (library or project); the
+   * thickness is chosen on the declared curve × their product. Materials not named keep factor 1.
+   */
+  designConductivity: z.record(z.string(), designFactorsSchema).default({}),
+  /**
+   * Corrosion-under-insulation screening (lib/thermal/cui.ts): the metals the lines are made of,
+   * whether lines stand idle at ambient, what the specification requires of screened lines, and
+   * whether a screened line is flagged for review. Bases saved before screening existed raise no
+   * new flag until the project turns it on (the screening is shown on the line page either way).
+   */
+  cui: z
+    .object({
+      metals: z.preprocess(
+        (v) => (typeof v === 'string' ? [v] : v),
+        z
+          .array(
+            z.enum(['carbon-steel', 'austenitic-stainless'], {
+              error: 'Metals screened: carbon steel or austenitic stainless',
+            }),
+          )
+          .default(['carbon-steel']),
+      ),
+      screenIdle: z.coerce.boolean().default(false),
+      requireCoatingNote: z.coerce.boolean().default(false),
+      requireChlorideFree: z.coerce.boolean().default(false),
+      reviewFlag: z.coerce.boolean().default(false),
+    })
+    .default({
+      metals: ['carbon-steel'],
+      screenIdle: false,
+      requireCoatingNote: false,
+      requireChlorideFree: false,
+      reviewFlag: false,
+    }),
   /** An energy code whose minimum pipe insulation is a hard criterion. */
   energyCode: z
     .enum(['none', 'ashrae-90.1'], { error: 'Choose no energy code or ASHRAE 90.1' })
@@ -175,13 +241,24 @@ export const designBasisObject = z.object({
     lifeYears: num('Life').int().min(1).max(60),
     escalationRate: num('Price escalation').min(-0.5).max(1),
     co2KgPerKWh: num('CO₂ factor').min(0).max(2),
+    /** What makes up the heat lost; names the emission scope (efficiency and CO₂ factor above are the project's figures for it). */
+    heatSource: z
+      .enum(['natural-gas', 'fuel-oil', 'heavy-fuel-oil', 'lpg', 'coal', 'electricity', 'district-heat'], {
+        error: 'Heat source: choose one of the listed energy sources',
+      })
+      .default('natural-gas'),
     cooling: z
       .object({
         electricityPricePerKWh: num('Electricity price for cooling').min(0).max(10),
         cop: num('Chiller COP').gt(0).max(20),
         co2KgPerKWh: num('CO₂ factor of electricity').min(0).max(2),
+        source: z
+          .enum(['electric-chiller', 'district-cooling'], {
+            error: 'Cooling source: choose an electric chiller or district cooling',
+          })
+          .default('electric-chiller'),
       })
-      .default(DEFAULT_COOLING),
+      .default({ ...DEFAULT_COOLING, source: 'electric-chiller' }),
     economicChoice: z
       .enum(['optimum', 'thinnest-within-range'], {
         error: 'Choose the optimum or the thinnest within the range',
@@ -243,11 +320,20 @@ export function checkBands(
     }[];
     ownMaterials?: { id: string }[];
     ownJackets?: { id: string }[];
+    designConductivity?: Record<string, unknown>;
   },
   ctx: z.RefinementCtx,
 ) {
   checkBandRanges(b, ctx);
   const materials = new Set([...LIBRARY_MATERIAL_IDS, ...(b.ownMaterials ?? []).map((m) => m.id)]);
+  for (const id of Object.keys(b.designConductivity ?? {})) {
+    if (!materials.has(id))
+      ctx.addIssue({
+        code: 'custom',
+        path: ['designConductivity', id],
+        message: `Design conductivity: "${id}" is not in the library or the project's materials`,
+      });
+  }
   const jackets = new Set([...LIBRARY_JACKET_IDS, ...(b.ownJackets ?? []).map((j) => j.id)]);
   b.systems.forEach((s, i) => {
     for (const field of ['outerId', 'flatOuterId', 'innerId'] as const) {
@@ -300,6 +386,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
     },
     freeze: { airC: C.freeze.airC, windMs: C.freeze.windMs },
   },
+  touchLimitMode: 'contact-time',
+  touchContactSeconds: DEFAULT_CONTACT_SECONDS,
   touchLimitMetalC: DEFAULT_CRITERIA.touchLimitMetalC,
   touchLimitNonMetalC: DEFAULT_CRITERIA.touchLimitNonMetalC,
   dewPointMarginK: DEFAULT_CRITERIA.dewPointMarginK,
@@ -332,11 +420,20 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   ],
   ownMaterials: [],
   ownJackets: [],
+  designConductivity: {},
+  cui: {
+    metals: ['carbon-steel'],
+    screenIdle: false,
+    requireCoatingNote: false,
+    requireChlorideFree: false,
+    reviewFlag: true,
+  },
   energyCode: 'none',
   fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
   economics: {
     ...DEFAULT_ECONOMICS,
-    cooling: { ...DEFAULT_COOLING },
+    heatSource: 'natural-gas',
+    cooling: { ...DEFAULT_COOLING, source: 'electric-chiller' },
     economicChoice: 'optimum',
     flatRangePct: 2,
   },
@@ -351,6 +448,8 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
 };
 
 export const DEFAULT_BASIS_NOTES: Record<string, string> = {
+  touchLimit:
+    'By contact time (default): the limit is the ISO 13732-1 burn threshold of the surface a hand touches — bare metal, coated metal, plastics and other non-metal finishes — for the contact time chosen here (5 s: common practice for industrial workers after ASTM C1055; the lower end of each published band is used). ISO 13732-1 gives thresholds for healthy adult skin, not limit values: where children, the elderly or people who cannot withdraw may touch, or a local code sets a value, use a longer contact time or fixed numbers, and follow the code and a qualified person. Fixed numbers: the two limits below apply to every line instead.',
   touchLimitMetalC:
     '60 °C for metal jackets: industry convention (common practice), consistent with ASTM C1055 guidance for 5 s industrial contact; not a value the standard mandates.',
   touchLimitNonMetalC:
@@ -360,6 +459,8 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
   condensation: 'Design air temperature and humidity at low wind: the worst case for sweating.',
   co2KgPerKWh:
     'Natural gas, IPCC 2006 Guidelines Vol. 2 Table 2.2: 56 100 kg CO₂/TJ (net calorific value) = 0.202 kg/kWh.',
+  heatSource:
+    "CO₂ = energy lost ÷ efficiency (or ÷ COP for cooling) × the factor of the energy bought. Fuel burnt in the plant's own boilers is Scope 1, bought electricity, heat, steam and cooling Scope 2 (GHG Protocol Corporate Standard). Choosing a source does not change the figures typed here: the table gives each source's default factor and efficiency with its source; electricity and district energy have no universal factor — use the supplier's or grid's for the site and year.",
   freeze:
     'Stagnant water by the ISO 12241 method: cooling to 0 °C, then freezing the allowed fraction of the water (latent heat 334 kJ/kg). 25 % ice by the required time is common practice for water lines; set 0 to require the water stay above 0 °C.',
   fittings:
@@ -377,6 +478,9 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
     'Every price on the design basis and every cost shown (budget, bill, economics) is in this currency (ISO 4217 code). Changing it relabels; it converts nothing.',
   thicknessSeries:
     'Millimetre series as sold in metric markets, or the inch series (pipe sections 1–4 in by ½ in, elastomeric tube ⅜–1½ in): common practice. Project materials keep their own thicknesses.',
+  designConductivity:
+    "Design conductivity after EN ISO 23993: the declared curve (λ against mean temperature) is kept and shown; the thickness is chosen on the declared curve times the ageing, moisture and installation factors set here per material. ISO 23993 gives the method, not the numbers: take them from the manufacturer (ageing of foams, for example), the project specification or the contractor's installation practice, and say where. 1.00 (no allowance) until set.",
+  cui: "Corrosion-under-insulation screen: a line whose operating temperature, the range it cycles through (normal to maximum) or, when lines stand idle, the ambient air falls in the carbon-steel or austenitic-stainless window of AMPP/NACE SP0198 or API RP 583 is named with the window and the document (windows as recalled: verify against the edition your specification cites). The line list does not give the pipe metal: choose the metals the project uses. A coating note and chloride-free insulation to ASTM C795 (for austenitic stainless) can be required of screened lines; the screen is no substitute for the owner's inspection programme.",
   own: 'Add the products the project specifies with their declared data (manufacturer data sheet, test to ASTM C335 / EN ISO 8497 for pipe insulation). Library values are typical only.',
 };
 

@@ -101,6 +101,8 @@ export const ownJacketFormSchema = z
     name: text('Name'),
     emittance: num('Emittance'),
     metal: z.preprocess((v) => v === 'on' || v === 'true' || v === true, z.boolean()),
+    /** ISO 13732-1 surface class for the touch limit; empty: from the metal box. */
+    touchSurface: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.string().optional()),
     source: text('Source of the emittance'),
   })
   .transform((f, ctx) => {

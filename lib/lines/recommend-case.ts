@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 import {
+  DEFAULT_CRITERIA,
   condensationLimit,
   describeIssues,
   fittingsHeatLoss,
@@ -26,6 +27,10 @@ import {
   type Purpose,
   type Recommendation,
   compileConductivity,
+  designConductivitySpec,
+  touchLimitFor,
+  screenCui,
+  type CuiScreen,
 } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS } from './design-basis';
 import { criteriaFor, systemForLine, vesselDiameterM } from './solve-line';
@@ -130,6 +135,11 @@ export const recommendCaseSchema = z
         )
         .optional(),
       touchLimitC: temperature('touchLimitC').optional(),
+      touchContactSeconds: num('touchContactSeconds')
+        .refine((v) => v >= 1 && v <= 28800, {
+          error: 'touchContactSeconds must be between 1 and 28800 (8 h)',
+        })
+        .optional(),
       dewPointMarginK: num('dewPointMarginK')
         .refine((v) => v >= 0 && v <= 20, { error: 'dewPointMarginK must be between 0 and 20' })
         .optional(),
@@ -163,6 +173,31 @@ export const recommendCaseSchema = z
               .optional(),
           },
           { error: 'heatTracing must be an object { maintainTempC, minAmbientC, windMs, safetyFactor }' },
+        )
+        .optional(),
+      cui: z
+        .object(
+          {
+            metals: z
+              .array(
+                z.enum(['carbon-steel', 'austenitic-stainless'], {
+                  error: 'cui.metals: each must be "carbon-steel" or "austenitic-stainless"',
+                }),
+                { error: 'cui.metals must be an array' },
+              )
+              .min(1, { error: 'cui.metals: give at least one metal' })
+              .optional(),
+            idleTempC: temperature('cui.idleTempC').optional(),
+            requireCoatingNote: z
+              .boolean({ error: 'cui.requireCoatingNote must be true or false' })
+              .optional(),
+            requireChlorideFree: z
+              .boolean({ error: 'cui.requireChlorideFree must be true or false' })
+              .optional(),
+          },
+          {
+            error: 'cui must be an object { metals?, idleTempC?, requireCoatingNote?, requireChlorideFree? }',
+          },
         )
         .optional(),
       fittings: z
@@ -206,6 +241,29 @@ export const recommendCaseSchema = z
               .optional(),
             surfaceEmittance: num('surfaceEmittance')
               .refine((v) => v >= 0 && v <= 1, { error: 'surfaceEmittance must be between 0 and 1' })
+              .optional(),
+            /** EN ISO 23993 conversion factors applied to the declared conductivity (each ≥ 1). */
+            designFactors: z
+              .object(
+                {
+                  ageing: num('insulation.designFactors.ageing')
+                    .refine((v) => v >= 1 && v <= 3, {
+                      error: 'insulation.designFactors.ageing must be between 1 and 3',
+                    })
+                    .optional(),
+                  moisture: num('insulation.designFactors.moisture')
+                    .refine((v) => v >= 1 && v <= 3, {
+                      error: 'insulation.designFactors.moisture must be between 1 and 3',
+                    })
+                    .optional(),
+                  installation: num('insulation.designFactors.installation')
+                    .refine((v) => v >= 1 && v <= 3, {
+                      error: 'insulation.designFactors.installation must be between 1 and 3',
+                    })
+                    .optional(),
+                },
+                { error: 'insulation.designFactors must be an object { ageing, moisture, installation }' },
+              )
               .optional(),
           },
           { error: 'insulation must be an object' },
@@ -295,6 +353,14 @@ export interface CriterionResult {
   tableMm?: number;
   minimumMm?: number;
   annualCostPerUnit?: number;
+  /** Personnel: the surface class touched, the contact time (when the limit follows one) and the standard the limit follows. */
+  touchSurface?: string;
+  contactSeconds?: number;
+  touchBasis?: string;
+  /** The condition set the criterion is judged under (heatLoss, personnel, condensation, freeze; none for a table minimum). */
+  conditionSet?: string;
+  /** Vessels, surface criteria: the thickness each part needs by its own surface. */
+  parts?: { shell: number | null; top: number | null; bottom: number | null };
 }
 
 export interface RecommendResult {
@@ -319,6 +385,10 @@ export interface RecommendResult {
   /** With fittings: their extra heat flow (equivalent lengths, lib/thermal/fittings.ts) and the run's total, W. */
   fittingsHeatLossW?: number;
   totalHeatLossW?: number;
+  /** Vessels: shell and heads decided per part (each meeting its criteria), with each part's heat flux and the vessel's mean flux at those thicknesses. */
+  vesselParts?: Recommendation['vesselParts'];
+  /** With cui: the corrosion-under-insulation screen (windows, their sources, what the specification then requires). */
+  cui?: CuiScreen;
   unmet: CriterionId[];
   warnings: string[];
 }
@@ -383,8 +453,11 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
     },
     freeze: { ...crit0.freeze!, ...(c.freeze ?? {}) },
     energyCode: c.energyCode,
-    touchLimitMetalC: c.touchLimitC ?? crit0.touchLimitMetalC,
-    touchLimitNonMetalC: c.touchLimitC ?? crit0.touchLimitNonMetalC,
+    // The documented batch defaults stay 60 °C metal / 65 °C non-metal; a case's touchContactSeconds
+    // makes the limit follow the surface (ISO 13732-1), a touchLimitC fixes it for every surface.
+    touchLimitMetalC: c.touchLimitC ?? DEFAULT_CRITERIA.touchLimitMetalC,
+    touchLimitNonMetalC: c.touchLimitC ?? DEFAULT_CRITERIA.touchLimitNonMetalC,
+    touchContactSeconds: c.touchLimitC === undefined ? c.touchContactSeconds : undefined,
     dewPointMarginK: c.dewPointMarginK ?? crit0.dewPointMarginK,
   };
 
@@ -410,6 +483,16 @@ function prepare(c: z.output<typeof recommendCaseSchema>) {
       maxServiceC: 2000,
     };
     inner = undefined;
+  }
+  if (ins?.designFactors) {
+    const f = {
+      ageing: ins.designFactors.ageing ?? 1,
+      moisture: ins.designFactors.moisture ?? 1,
+      installation: ins.designFactors.installation ?? 1,
+      source: 'the case',
+    };
+    outer = { ...outer, designFactors: f };
+    if (inner) inner = { ...inner, designFactors: f };
   }
   let jacket: Jacket = band.jacket;
   if (ins?.surfaceEmittance !== undefined) {
@@ -491,7 +574,7 @@ function solveAt(
           : materialById(l.materialId)!;
     return {
       thicknessM: l.thicknessMm / 1000,
-      conductivity: compileConductivity(m.conductivity),
+      conductivity: compileConductivity(designConductivitySpec(m)),
       name: m.name,
       minServiceC: m.minServiceC,
       maxServiceC: m.maxServiceC,
@@ -534,10 +617,16 @@ function criteriaOf(
   for (const o of r.outcomes) {
     const cand = at(o.requiredMm);
     const res: CriterionResult = { requiredMm: o.requiredMm, surfaceTempC: null, message: o.message };
+    if (o.conditionSet) res.conditionSet = o.conditionSet;
+    if (o.parts) res.parts = o.parts;
     if (evaluatedMm !== undefined) res.met = o.requiredMm !== null && evaluatedMm >= o.requiredMm;
     switch (o.id) {
       case 'personnel': {
-        res.limitC = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+        const tl = touchLimitFor(crit, system.jacket);
+        res.limitC = tl.limitC;
+        res.touchSurface = tl.surface;
+        res.touchBasis = tl.basis;
+        if (Number.isFinite(tl.contactSeconds)) res.contactSeconds = tl.contactSeconds;
         res.surfaceTempC = cand?.personnel?.surfaceC ?? null;
         break;
       }
@@ -661,6 +750,20 @@ export function runRecommendCase(input: unknown): RecommendOutput {
       criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
       ...(tracing ? { heatTracing: tracing } : {}),
       ...(fittingsW !== undefined ? { fittingsHeatLossW: fittingsW, totalHeatLossW: totalW } : {}),
+      ...(r.vesselParts ? { vesselParts: r.vesselParts } : {}),
+      ...(c.cui
+        ? {
+            cui: screenCui(
+              { normalC: c.normalTempC, maxC: c.maxTempC, idleC: c.cui.idleTempC },
+              {
+                metals: c.cui.metals ?? ['carbon-steel'],
+                screenIdle: c.cui.idleTempC !== undefined,
+                requireCoatingNote: c.cui.requireCoatingNote ?? false,
+                requireChlorideFree: c.cui.requireChlorideFree ?? false,
+              },
+            ),
+          }
+        : {}),
       unmet: r.unmet,
       warnings,
     };

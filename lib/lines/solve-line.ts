@@ -56,6 +56,7 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
     },
     touchLimitMetalC: basis.touchLimitMetalC,
     touchLimitNonMetalC: basis.touchLimitNonMetalC,
+    touchContactSeconds: basis.touchLimitMode === 'contact-time' ? basis.touchContactSeconds : undefined,
     dewPointMarginK: basis.dewPointMarginK,
     heatLossLimitWPerM: basis.heatLossLimitWPerM,
     maxProcessDropK: basis.maxProcessDropK,

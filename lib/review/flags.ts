@@ -1,6 +1,10 @@
 import {
+  describeCuiFinding,
   compileConductivity,
+  designConductivitySpec,
   condensationControlApplies,
+  touchLimitFor,
+  TOUCH_SURFACE_LABEL,
   condensationLimit,
   personnelProtectionApplies,
   solveSteady,
@@ -10,17 +14,19 @@ import {
   type InsulationMaterial,
 } from '@/lib/thermal';
 import { catalogueOf } from '@/lib/lines/catalogue';
+import { cuiScreenFor } from '@/lib/lines/cui';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import type { LineInput } from '@/lib/lines/validate';
 
-export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked';
+export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked' | 'cui';
 export const FLAG_LABEL: Record<FlagType, string> = {
   'hot-surface': 'Surface over the touch limit',
   sweating: 'Surface under the dew point + margin',
   'interface-limit': 'Layer over its service temperature',
   'below-criterion': 'Pick below a hard criterion',
   blocked: 'Missing data blocks a decision',
+  cui: 'Corrosion-under-insulation window',
 };
 
 export interface Flag {
@@ -47,7 +53,7 @@ const conds = new WeakMap<InsulationMaterial, Conductivity>();
 const k = (m: InsulationMaterial) => {
   let c = conds.get(m);
   if (!c) {
-    c = compileConductivity(m.conductivity);
+    c = compileConductivity(designConductivitySpec(m));
     conds.set(m, c);
   }
   return c;
@@ -55,9 +61,9 @@ const k = (m: InsulationMaterial) => {
 
 /**
  * The flags of one line under the design basis, each with the numbers behind it. Personnel
- * protection uses the hottest air in still air; a surface exactly at the limit passes. Bare metal
- * and metal jackets use the metal limit, other finishes the non-metal limit (contact-burn
- * thresholds depend on material and contact time: ASTM C1055, ISO 13732-1).
+ * protection uses the hottest air in still air; a surface exactly at the limit passes. The limit
+ * follows the touched surface (bare lines: bare steel) — the ISO 13732-1 burn threshold at the
+ * project's contact time, or the project's fixed numbers (lib/thermal/touch.ts).
  */
 export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const flags: Flag[] = [];
@@ -77,6 +83,16 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
       message: `The chosen thickness is below what ${f.design.belowCriterion} requires.`,
     });
 
+  // Corrosion under insulation (lib/lines/cui.ts): a screen for the reviewer, when the project asks for the flag.
+  if (basis.cui?.reviewFlag) {
+    const screen = cuiScreenFor(basis, l);
+    if (screen.inWindow) {
+      flags.push({
+        type: 'cui',
+        message: `In a corrosion-under-insulation window: ${screen.findings.map(describeCuiFinding).join('; ')}.${screen.coatingNote ? ' Coating required under the insulation.' : ''}${screen.chlorideFreeInsulation ? ' Chloride-free insulation (ASTM C795) required.' : ''}`,
+      });
+    }
+  }
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);
@@ -100,7 +116,6 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   });
   const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
-  const metal = jacket ? jacket.metal : true;
   const D = (c.pipeOuterDiameterMm ?? 0) / 1000,
     H = c.heightM ?? 1;
   /** Outside surface temperature (the worst part of a vessel: shell, top or bottom head) and the solver's warnings. */
@@ -132,14 +147,17 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
       windMs: pc.windMs,
       emittance,
     });
-    const limit = metal ? basis.touchLimitMetalC : basis.touchLimitNonMetalC;
+    // Bare lines are bare steel; the limit follows the surface (touch.ts, one rule with the recommendation).
+    const tl = touchLimitFor(crit, jacket ?? { metal: true, touchSurface: 'bare-metal' });
+    const limit = tl.limitC,
+      shown = Math.round(limit * 10) / 10;
     if (r.surfaceC > limit) {
       flags.push({
         type: 'hot-surface',
         valueC: r.surfaceC,
         limitC: limit,
-        conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${metal ? 'metal' : 'non-metal'} surface, ε ${emittance}`,
-        message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${limit} °C touch limit${layers.length ? '' : ' (bare)'}.`,
+        conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact (ISO 13732-1)` : ' (fixed limit)'}, ε ${emittance}`,
+        message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${shown} °C touch limit${layers.length ? '' : ' (bare)'}.`,
       });
     }
     if (r.warnings.some((w) => w.includes('service temperature'))) {

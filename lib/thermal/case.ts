@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { designConductivitySpec } from './design-conductivity';
 import { compileConductivity } from './conductivity';
 import { condensationThresholdC, dewPointC } from './psychro';
 import { solveSteady } from './solve';
@@ -189,7 +190,7 @@ export function runCase(input: unknown): CalcOutput {
       const m = l.materialId ? materialById(l.materialId)! : undefined;
       return {
         thicknessM: l.thicknessMm / 1000,
-        conductivity: compileConductivity(m ? m.conductivity : l.conductivity!),
+        conductivity: compileConductivity(m ? designConductivitySpec(m) : l.conductivity!),
         name: m?.name ?? `layer ${i + 1}`,
         minServiceC: l.minServiceC ?? m?.minServiceC,
         maxServiceC: l.maxServiceC ?? m?.maxServiceC,

@@ -36,6 +36,8 @@ export interface Economics {
    * (electricity ÷ COP). Absent: cold lines are priced like hot ones (older design bases).
    */
   cooling?: CoolingEconomics;
+  /** What makes up the heat lost (names its emission scope; `efficiency` and `co2KgPerKWh` are the project's figures for it). Absent: natural gas. */
+  heatSource?: HeatSourceId;
   /**
    * Which thickness the economic criterion asks for: the optimum, or the thinnest within
    * `flatRangePct` of the minimum annual cost (common practice leans to the thinner on a flat curve).
@@ -52,23 +54,146 @@ export interface CoolingEconomics {
   cop: number;
   /** kg CO₂ per kWh of electricity. */
   co2KgPerKWh: number;
+  /** What removes the heat gained: an electric chiller on grid electricity (default) or bought district cooling (then COP 1: cooling bought as delivered). */
+  source?: CoolingSourceId;
 }
 
-/** Energy bought per kWh of heat lost (hot) or gained (cold), its price and CO₂, per the service. */
+export type HeatSourceId =
+  | 'natural-gas'
+  | 'fuel-oil'
+  | 'heavy-fuel-oil'
+  | 'lpg'
+  | 'coal'
+  | 'electricity'
+  | 'district-heat';
+export type CoolingSourceId = 'electric-chiller' | 'district-cooling';
+
+/**
+ * An energy source: its default CO₂ factor per kWh of energy bought, the emission scope it falls
+ * in (GHG Protocol Corporate Standard: Scope 1 — fuel burnt in the plant's own boilers; Scope 2 —
+ * electricity, heat, steam or cooling bought from others), and the default conversion efficiency
+ * (boiler efficiency, or 1 for heat bought as delivered), each with its source.
+ */
+export interface EnergySource {
+  label: string;
+  scope: 'Scope 1' | 'Scope 2';
+  co2KgPerKWh: number;
+  co2Source: string;
+  efficiency: number;
+  efficiencySource: string;
+}
+
+/** kg CO₂ per kWh from kg per TJ (1 TJ = 10¹² J; 1 kWh = 3.6·10⁶ J). */
+const perTJ = (kgPerTJ: number) => (kgPerTJ / 1e12) * 3.6e6;
+const IPCC = 'IPCC 2006 Guidelines Vol. 2 Ch. 2 Table 2.2, on net calorific value';
+const BOILER = 'common practice for a fired boiler (DOE Steam Tip Sheet #2 example uses 80 %)';
+
+export const HEAT_SOURCES: Record<HeatSourceId, EnergySource> = {
+  'natural-gas': {
+    label: 'Natural gas (own boiler)',
+    scope: 'Scope 1',
+    co2KgPerKWh: perTJ(56100),
+    co2Source: `${IPCC}: 56 100 kg/TJ`,
+    efficiency: 0.85,
+    efficiencySource: BOILER,
+  },
+  'fuel-oil': {
+    label: 'Gas/diesel oil (own boiler)',
+    scope: 'Scope 1',
+    co2KgPerKWh: perTJ(74100),
+    co2Source: `${IPCC}: 74 100 kg/TJ`,
+    efficiency: 0.85,
+    efficiencySource: BOILER,
+  },
+  'heavy-fuel-oil': {
+    label: 'Residual fuel oil (own boiler)',
+    scope: 'Scope 1',
+    co2KgPerKWh: perTJ(77400),
+    co2Source: `${IPCC}: 77 400 kg/TJ`,
+    efficiency: 0.83,
+    efficiencySource: BOILER,
+  },
+  lpg: {
+    label: 'LPG (own boiler)',
+    scope: 'Scope 1',
+    co2KgPerKWh: perTJ(63100),
+    co2Source: `${IPCC}: 63 100 kg/TJ`,
+    efficiency: 0.85,
+    efficiencySource: BOILER,
+  },
+  coal: {
+    label: 'Bituminous coal (own boiler)',
+    scope: 'Scope 1',
+    co2KgPerKWh: perTJ(94600),
+    co2Source: `${IPCC}: other bituminous coal 94 600 kg/TJ`,
+    efficiency: 0.8,
+    efficiencySource: BOILER,
+  },
+  electricity: {
+    label: 'Grid electricity (electric heating)',
+    scope: 'Scope 2',
+    co2KgPerKWh: 0.35,
+    co2Source: "placeholder: set the grid's or supplier's factor for the site and year (no universal value)",
+    efficiency: 0.99,
+    efficiencySource: 'common practice for resistance heating',
+  },
+  'district-heat': {
+    label: 'District heat or bought steam',
+    scope: 'Scope 2',
+    co2KgPerKWh: 0.2,
+    co2Source: "placeholder: set the supplier's declared factor (no universal value)",
+    efficiency: 1,
+    efficiencySource: 'heat bought as delivered at the site boundary',
+  },
+};
+
+export const COOLING_SOURCES: Record<CoolingSourceId, EnergySource> = {
+  'electric-chiller': {
+    label: 'Electric chiller on grid electricity',
+    scope: 'Scope 2',
+    co2KgPerKWh: 0.35,
+    co2Source: "placeholder: set the grid's or supplier's factor for the site and year (no universal value)",
+    efficiency: 3,
+    efficiencySource: 'COP 3, common practice for an estimate',
+  },
+  'district-cooling': {
+    label: 'District cooling (bought chilled water)',
+    scope: 'Scope 2',
+    co2KgPerKWh: 0.1,
+    co2Source: "placeholder: set the supplier's declared factor (no universal value)",
+    efficiency: 1,
+    efficiencySource: 'cooling bought as delivered',
+  },
+};
+
+/** Energy bought per kWh of heat lost (hot) or gained (cold), its price and CO₂, per the service, with the source and its emission scope. */
 export function energyTerms(
   econ: Economics,
   cold: boolean,
-): { boughtPerHeat: number; pricePerKWh: number; co2KgPerKWh: number } {
-  if (cold && econ.cooling)
+): {
+  boughtPerHeat: number;
+  pricePerKWh: number;
+  co2KgPerKWh: number;
+  source: string;
+  scope: 'Scope 1' | 'Scope 2';
+} {
+  if (cold && econ.cooling) {
+    const s = COOLING_SOURCES[econ.cooling.source ?? 'electric-chiller'];
     return {
       boughtPerHeat: 1 / econ.cooling.cop,
       pricePerKWh: econ.cooling.electricityPricePerKWh,
       co2KgPerKWh: econ.cooling.co2KgPerKWh,
+      source: s.label,
+      scope: s.scope,
     };
+  }
+  const s = HEAT_SOURCES[econ.heatSource ?? 'natural-gas'];
   return {
     boughtPerHeat: 1 / econ.efficiency,
     pricePerKWh: econ.energyPricePerKWh,
     co2KgPerKWh: econ.co2KgPerKWh,
+    source: s.label,
+    scope: s.scope,
   };
 }
 
@@ -105,7 +230,12 @@ export const CO2_NATURAL_GAS_KG_PER_KWH = (56100 / 1e12) * 3.6e6;
  * Cooling defaults: an electric chiller with COP 3 (common practice for an estimate), electricity
  * at 0.15 per kWh and 0.35 kg CO₂/kWh of grid electricity — placeholders for the plant's own figures.
  */
-export const DEFAULT_COOLING: CoolingEconomics = { electricityPricePerKWh: 0.15, cop: 3, co2KgPerKWh: 0.35 };
+export const DEFAULT_COOLING: CoolingEconomics = {
+  electricityPricePerKWh: 0.15,
+  cop: 3,
+  co2KgPerKWh: 0.35,
+  source: 'electric-chiller',
+};
 
 export const DEFAULT_ECONOMICS: Economics = {
   energyPricePerKWh: 0.045,
@@ -115,6 +245,7 @@ export const DEFAULT_ECONOMICS: Economics = {
   lifeYears: 15,
   escalationRate: 0.02,
   co2KgPerKWh: CO2_NATURAL_GAS_KG_PER_KWH,
+  heatSource: 'natural-gas',
   cooling: DEFAULT_COOLING,
   economicChoice: 'optimum',
   flatRangePct: 2,

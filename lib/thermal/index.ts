@@ -4,6 +4,8 @@ export * from './case';
 export * from './conductivity';
 export * from './constants';
 export * from './correlations';
+export * from './cui';
+export * from './design-conductivity';
 export * from './economics';
 export * from './materials';
 export * from './pipes';
@@ -16,7 +18,8 @@ export * from './solve';
 export * from './steam';
 export * from './surface';
 export * from './thickness';
+export * from './touch';
 export * from './units';
-export const CALCULATION_VERSION = '2026.12-3'; // 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review
+export const CALCULATION_VERSION = '2026.12-4'; // 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review; 4: touch limit by contact time and surface (ISO 13732-1), bare candidates held to bare steel, design conductivity (EN ISO 23993), vessel parts, condition sets and emission scopes on the results
 export * from './defaults';
 export * from './vessel';

@@ -1,4 +1,6 @@
 import type { ConductivitySpec } from './conductivity';
+import type { TouchSurface } from './touch';
+import type { DesignFactors } from './design-conductivity';
 
 /**
  * Generic insulation types with TYPICAL properties. Every value here is a typical or
@@ -9,8 +11,13 @@ import type { ConductivitySpec } from './conductivity';
 export interface InsulationMaterial {
   id: string;
   name: string;
-  /** Conductivity against mean temperature, °C → W/(m·K). */
+  /** Declared conductivity against mean temperature, °C → W/(m·K) (kept as declared). */
   conductivity: ConductivitySpec;
+  /**
+   * EN ISO 23993 conversion factors (ageing, moisture, installation) the project applies: the engine
+   * chooses thickness on the design curve, the declared curve × their product (design-conductivity.ts).
+   */
+  designFactors?: DesignFactors;
   minServiceC: number;
   maxServiceC: number;
   densityKgPerM3: number;
@@ -240,6 +247,8 @@ export interface Jacket {
   name: string;
   emittance: number;
   metal: boolean;
+  /** What a hand touches, for the ISO 13732-1 burn threshold (touch.ts); unset: metal → bare metal, else plastics. */
+  touchSurface?: TouchSurface;
   source: string;
 }
 
@@ -280,7 +289,14 @@ export const JACKETS: Jacket[] = [
     metal: true,
     source: 'typical [recalled]',
   },
-  { id: 'painted-metal', name: 'Painted metal', emittance: 0.9, metal: true, source: 'typical [recalled]' },
+  {
+    id: 'painted-metal',
+    name: 'Painted metal',
+    emittance: 0.9,
+    metal: true,
+    touchSurface: 'coated-metal',
+    source: 'typical [recalled]',
+  },
   { id: 'pvc', name: 'PVC sheet', emittance: 0.9, metal: false, source: 'typical [recalled]' },
   { id: 'mastic-cloth', name: 'Mastic or cloth', emittance: 0.9, metal: false, source: 'typical [recalled]' },
   {

@@ -1,4 +1,5 @@
 import { compileConductivity, type Conductivity } from './conductivity';
+import { designConductivitySpec } from './design-conductivity';
 import {
   capitalRecoveryFactor,
   energyTerms,
@@ -24,6 +25,7 @@ import { isPipe, type Ambient, type Geometry } from './surface';
 import { buildCandidates, type Candidate, type SeriesOptions } from './thickness';
 import { pipeByOutsideDiameter } from './pipes';
 import { energyCodeMinimum } from './energy-code';
+import { TOUCH_SURFACE_LABEL, touchLimitFor, type TouchLimit, type TouchSurface } from './touch';
 
 export interface ConditionSet {
   airC: number;
@@ -85,8 +87,14 @@ export interface Criteria {
     condensation: ConditionSet;
     freeze: ConditionSet;
   };
+  /** Fixed touch limits (an explicit override): used only when `touchContactSeconds` is not set. */
   touchLimitMetalC: number;
   touchLimitNonMetalC: number;
+  /**
+   * Contact time (s) the touch limit follows from: the ISO 13732-1 burn threshold of the jacket's
+   * surface (touch.ts). Unset: the fixed numbers above.
+   */
+  touchContactSeconds?: number;
   dewPointMarginK: number;
   heatLossLimitWPerM?: number;
   heatLossLimitWPerM2?: number;
@@ -138,7 +146,18 @@ export interface CriterionOutcome {
   /** Energy code: the table thickness and the minimum after the conductivity correction, mm. */
   tableMm?: number;
   minimumMm?: number;
+  /** Vessels, surface criteria: the thickness each part needs by its own surface (shell, top and bottom heads; a lying vessel's two ends as top and bottom). */
+  parts?: Record<VesselPart, number | null>;
+  /** Personnel: the touch limit held to, the surface class and the standard it follows (touch.ts). */
+  limitC?: number;
+  touchSurface?: TouchSurface;
+  touchBasis?: string;
+  /** The condition set the criterion is judged under (`none` for a table minimum). */
+  conditionSet?: ConditionSetId | 'none';
 }
+
+/** The design basis's condition sets: annual heat loss, personnel (hottest air), condensation, coldest design air. */
+export type ConditionSetId = 'heatLoss' | 'personnel' | 'condensation' | 'freeze';
 
 export interface Recommendation {
   recommendedMm: number | null;
@@ -150,8 +169,25 @@ export interface Recommendation {
   candidates: CandidateResult[];
   /** The solved design at the recommendation, under the heat-loss conditions. */
   design?: SteadyResult;
-  annual?: { energyMWh: number; cost: number; co2Tonnes: number };
+  /** Annual energy lost, its cost and CO₂ (energy bought × the source's factor), with the source and its emission scope. */
+  annual?: {
+    energyMWh: number;
+    cost: number;
+    co2Tonnes: number;
+    source: string;
+    scope: 'Scope 1' | 'Scope 2';
+  };
   condensateKgPerHour?: number;
+  /**
+   * Vessels: shell and heads decided per part (each meeting its criteria), with each part's heat flux
+   * per m² of its bare area and the vessel's mean flux at those thicknesses, heat-loss conditions.
+   */
+  vesselParts?: {
+    shell: VesselPartDecision & { heatFluxWPerM2: number | null };
+    top: VesselPartDecision & { heatFluxWPerM2: number | null };
+    bottom: VesselPartDecision & { heatFluxWPerM2: number | null };
+    meanFluxWPerM2: number | null;
+  };
   warnings: string[];
 }
 
@@ -160,7 +196,7 @@ const compiled = new WeakMap<InsulationMaterial, Conductivity>();
 function cond(m: InsulationMaterial): Conductivity {
   let c = compiled.get(m);
   if (!c) {
-    c = compileConductivity(m.conductivity);
+    c = compileConductivity(designConductivitySpec(m));
     compiled.set(m, c);
   }
   return c;
@@ -414,12 +450,79 @@ function solveVesselCandidate(
   const bottom = solveCandidate(v.bottom[i], layers, processC, a, 0, 1);
   const hot = processC >= a.airC;
   const worst = hot ? Math.max(ts, tt, bottom.Ts) : Math.min(ts, tt, bottom.Ts);
+  // `bottom` is the shared SOLVED object: its part values are kept before SOLVED is overwritten.
+  PART.qs = qs;
+  PART.qt = qt;
+  PART.qb = bottom.Q;
+  PART.ts = ts;
+  PART.tt = tt;
+  PART.tb = bottom.Ts;
   SOLVED.Q = (qs * v.heightM + (qt + bottom.Q) * v.headM2) / v.totalM2;
   SOLVED.Ts = worst;
   SOLVED.limitOk = ok && bottom.limitOk;
   SOLVED.h = 0;
   SOLVED.ratio = 1;
   return SOLVED;
+}
+
+/** The parts of the last vessel candidate solved (shared scratch, read right after the solve): heat flow per m of shell or m² of head, surface °C. */
+const PART = { qs: 0, qt: 0, qb: 0, ts: 0, tt: 0, tb: 0 };
+
+export type VesselPart = 'shell' | 'top' | 'bottom';
+export const VESSEL_PARTS: readonly VesselPart[] = ['shell', 'top', 'bottom'];
+/** First candidate index at which each part meets a surface criterion (filled while sweeping). */
+function trackParts(idx: (number | null)[], i: number, meets: (t: number) => boolean) {
+  if (idx[0] === null && meets(PART.ts)) idx[0] = i;
+  if (idx[1] === null && meets(PART.tt)) idx[1] = i;
+  if (idx[2] === null && meets(PART.tb)) idx[2] = i;
+}
+
+function partsMm(idx: (number | null)[], results: CandidateResult[]): Record<VesselPart, number | null> {
+  return {
+    shell: idx[0] === null ? null : results[idx[0]].totalMm,
+    top: idx[1] === null ? null : results[idx[1]].totalMm,
+    bottom: idx[2] === null ? null : results[idx[2]].totalMm,
+  };
+}
+
+export interface VesselPartDecision {
+  /** The thickness this part needs on its own (the surface criteria judged on its own surface; the others as the whole vessel's). */
+  recommendedMm: number | null;
+  governing: CriterionId | null;
+  /** Criteria no thickness meets on this part (a guard or another system for it); the thickness meets the others. */
+  unmet: CriterionId[];
+}
+
+/**
+ * Each part of a vessel decided on its own: a surface criterion (personnel, condensation) by the
+ * part's own surface (`parts` on its outcome), every other criterion as the whole vessel's
+ * requirement; then the smallest candidate at or above the largest requirement whose layers stay
+ * within their limits. Pure: the engine and the line page (from stored outcomes) share it.
+ */
+export function vesselPartDecisions(
+  outcomes: readonly Pick<CriterionOutcome, 'id' | 'requiredMm' | 'parts'>[],
+  candidates: readonly { totalMm: number; serviceLimitOk: boolean }[],
+): Record<VesselPart, VesselPartDecision> {
+  const out = {} as Record<VesselPart, VesselPartDecision>;
+  for (const p of VESSEL_PARTS) {
+    let need = 0,
+      governing: CriterionId | null = null;
+    const unmet: CriterionId[] = [];
+    for (const o of outcomes) {
+      const req = o.parts ? o.parts[p] : o.requiredMm;
+      if (req === null) {
+        unmet.push(o.id);
+        continue;
+      }
+      if (req > need || (governing === null && req === need && need > 0)) {
+        need = req;
+        governing = o.id;
+      }
+    }
+    const c = candidates.find((x, i) => x.totalMm >= need && (i === 0 || x.serviceLimitOk));
+    out[p] = { recommendedMm: c ? c.totalMm : null, governing, unmet };
+  }
+  return out;
 }
 
 /** What one line's sweeps share: its candidates, their prepared chains, and a vessel's parts. */
@@ -439,6 +542,33 @@ function solveInSweep(lc: LineChains, i: number, processC: number, a: Ambient, s
   return r;
 }
 
+// Touch limit per jacket object, kept while the touch settings stay the same (every line of a
+// project; criteria objects are built per line, so they are compared by value, not identity).
+const touchCache = new WeakMap<object, { s: number | undefined; m: number; n: number; t: TouchLimit }>();
+function touchLimitCached(
+  crit: Criteria,
+  jacket: { metal: boolean; touchSurface?: TouchSurface },
+): TouchLimit {
+  const c = touchCache.get(jacket);
+  if (
+    c &&
+    c.s === crit.touchContactSeconds &&
+    c.m === crit.touchLimitMetalC &&
+    c.n === crit.touchLimitNonMetalC
+  )
+    return c.t;
+  const t = touchLimitFor(crit, jacket);
+  touchCache.set(jacket, {
+    s: crit.touchContactSeconds,
+    m: crit.touchLimitMetalC,
+    n: crit.touchLimitNonMetalC,
+    t,
+  });
+  return t;
+}
+
+/** Bare steel as a touch surface: uncoated metal. */
+const BARE_STEEL_SURFACE = { metal: true, touchSurface: 'bare-metal' as const };
 const ambientOf = (c: ConditionSet, emittance: number): Ambient => ({
   airC: c.airC,
   surroundingsC: c.surroundingsC ?? c.airC,
@@ -666,6 +796,10 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     hlBare = ambientOf(crit.conditions.heatLoss, bareEps);
   const hlQ = new Array<number>(n),
     hlH = new Array<number>(n);
+  // A vessel's parts under the heat-loss conditions: per metre of shell, per m² of each head.
+  const partQ: number[][] | null = parts
+    ? [new Array<number>(n), new Array<number>(n), new Array<number>(n)]
+    : null;
   const results: CandidateResult[] = new Array(n);
   // From the third candidate on the hint is extrapolated in thickness from the ones before (sweepHint).
   const sweep = newSweep();
@@ -673,6 +807,11 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? hlBare : hlAmb, sweep);
     hlQ[i] = r.Q;
     hlH[i] = r.h;
+    if (partQ) {
+      partQ[0][i] = PART.qs;
+      partQ[1][i] = PART.qt;
+      partQ[2][i] = PART.qb;
+    }
     // Every field present from the start: one object shape for all candidates (the optional ones stay
     // undefined unless a criterion fills them, and JSON leaves them out).
     results[i] = {
@@ -698,28 +837,40 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
   if (
     personnelProtectionApplies({ accessible: line.accessible, hottestC: maxC }, crit.conditions.personnel)
   ) {
-    const limit = system.jacket.metal ? crit.touchLimitMetalC : crit.touchLimitNonMetalC;
+    // The limit follows the jacket's surface (ISO 13732-1 at the project's contact time, or the fixed
+    // override); the bare candidate is bare steel whatever the system's jacket.
+    const tl = touchLimitCached(crit, system.jacket);
+    const limit = tl.limitC,
+      bareLimit = touchLimitCached(crit, BARE_STEEL_SURFACE).limitC;
     const a = ambientOf(crit.conditions.personnel, emittance),
       bare = ambientOf(crit.conditions.personnel, bareEps);
     const sweep = newSweep();
     let idx: number | null = null;
+    const partIdx: (number | null)[] = [null, null, null];
     for (let i = 0; i < n; i++) {
       const r = solveInSweep(lc, i, maxC, i === 0 ? bare : a, sweep);
       results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
+      if (parts) trackParts(partIdx, i, (t) => t <= (i === 0 ? bareLimit : limit));
       if (idx !== null) continue; // past the requirement: for display only, decides nothing
       if (!r.limitOk) results[i].serviceLimitOk = false;
-      if (r.Ts <= limit) {
+      if (r.Ts <= (i === 0 ? bareLimit : limit)) {
         idx = i;
         if (!crit.sweepAllCandidates) break;
       }
     }
+    const shown = Math.round(limit * 10) / 10;
     outcomes.push({
       id: 'personnel',
+      conditionSet: 'personnel',
+      limitC: limit,
+      touchSurface: tl.surface,
+      touchBasis: tl.basis,
       requiredMm: idx === null ? null : results[idx].totalMm,
+      parts: parts ? partsMm(partIdx, results) : undefined,
       message:
         idx === null
-          ? `No standard thickness keeps the surface at or under ${limit} °C; consider a guard or cage.`
-          : `Surface ≤ ${limit} °C at ${crit.conditions.personnel.airC} °C still air (${system.jacket.metal ? 'metal' : 'non-metal'} jacket limit).`,
+          ? `No standard thickness keeps the surface at or under ${shown} °C; consider a guard or cage.`
+          : `Surface ≤ ${shown} °C at ${crit.conditions.personnel.airC} °C still air (touch limit for ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact, ISO 13732-1` : ', fixed by the project'}).`,
     });
   }
 
@@ -738,9 +889,11 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       bare = ambientOf(c, bareEps);
     const sweep = newSweep();
     let idx: number | null = null;
+    const partIdx: (number | null)[] = [null, null, null];
     for (let i = 0; i < n; i++) {
       const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? bare : a, sweep);
       results[i].condensation = { surfaceC: r.Ts };
+      if (parts) trackParts(partIdx, i, (t) => t >= need);
       if (idx !== null) continue;
       if (r.Ts >= need) {
         idx = i;
@@ -749,7 +902,9 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     }
     outcomes.push({
       id: 'condensation',
+      conditionSet: 'condensation',
       requiredMm: idx === null ? null : results[idx].totalMm,
+      parts: parts ? partsMm(partIdx, results) : undefined,
       message:
         idx === null
           ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
@@ -768,6 +923,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       }
     outcomes.push({
       id: 'heatLossLimit',
+      conditionSet: 'heatLoss',
       requiredMm: idx === null ? null : results[idx].totalMm,
       message:
         idx === null
@@ -813,6 +969,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const where = `${pc.airC} °C air, ${pc.windMs} m/s (${cold ? 'hottest' : 'coldest'} design conditions)`;
     outcomes.push({
       id: 'processDrop',
+      conditionSet: cold ? 'personnel' : 'freeze',
       requiredMm: idx === null ? null : results[idx].totalMm,
       message:
         idx === null
@@ -865,6 +1022,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const what = ice > 0 ? `${ice} % of the water has frozen` : 'freezing starts';
     outcomes.push({
       id: 'freeze',
+      conditionSet: 'freeze',
       requiredMm: idx === null ? null : results[idx].totalMm,
       hours: idx === null ? undefined : zeroH,
       iceHours: idx === null || ice === 0 ? undefined : iceH,
@@ -892,6 +1050,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
         }
       outcomes.push({
         id: 'energyCode',
+        conditionSet: 'none',
         requiredMm: idx === null ? null : results[idx].totalMm,
         tableMm: m.tableMm,
         minimumMm: m.minimumMm,
@@ -943,6 +1102,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       : '';
     outcomes.push({
       id: 'economic',
+      conditionSet: 'heatLoss',
       requiredMm: econIdx === null ? null : results[econIdx].totalMm,
       range: econRange,
       message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr${cold && econ.cooling ? `, cooling at COP ${econ.cooling.cop}` : ''}).${rangeText}`,
@@ -1018,6 +1178,8 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       energyMWh: heatMWh,
       cost: boughtMWh * 1000 * et.pricePerKWh,
       co2Tonnes: (boughtMWh * 1000 * et.co2KgPerKWh) / 1000,
+      source: et.source,
+      scope: et.scope,
     };
   }
   const unmet: CriterionId[] = [];
@@ -1029,6 +1191,24 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg,
     );
   }
+  let vesselParts: Recommendation['vesselParts'];
+  if (parts && partQ) {
+    const d = vesselPartDecisions(outcomes, results);
+    const at = (mm: number | null) => (mm === null ? -1 : results.findIndex((x) => x.totalMm === mm));
+    const is = at(d.shell.recommendedMm),
+      it = at(d.top.recommendedMm),
+      ib = at(d.bottom.recommendedMm);
+    const shellM2PerM = Math.PI * base.pipeOuterDiameterM; // bare shell area per metre of its length
+    vesselParts = {
+      shell: { ...d.shell, heatFluxWPerM2: is < 0 ? null : partQ[0][is] / shellM2PerM },
+      top: { ...d.top, heatFluxWPerM2: it < 0 ? null : partQ[1][it] },
+      bottom: { ...d.bottom, heatFluxWPerM2: ib < 0 ? null : partQ[2][ib] },
+      meanFluxWPerM2:
+        is < 0 || it < 0 || ib < 0
+          ? null
+          : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
+    };
+  }
   return {
     recommendedMm: rec?.totalMm ?? null,
     unmet,
@@ -1039,6 +1219,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     design,
     annual,
     condensateKgPerHour: condensate,
+    vesselParts,
     warnings,
   };
 }

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { mailboxLink, signIn, signUpConfirmed } from './helpers';
 
 test('sign up (confirmed from the mailed link) creates an organization; a password reset link arrives in the mailbox and works', async ({

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import ExcelJS from 'exceljs';
 import { demo, openDemoProject, signIn } from './helpers';
 

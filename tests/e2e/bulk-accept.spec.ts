@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { createProjectWithLines, demo, lineRow, signIn } from './helpers';
 
 test('engineer: bulk accept states its counts for the filter shown, leaves a manual pick alone, and is undone', async ({

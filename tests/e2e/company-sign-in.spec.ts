@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { demo, mailboxLink, openDemoProject, signIn } from './helpers';
 
 async function companySignIn(page: import('@playwright/test').Page, email: string, password: string) {

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { createProjectWithLines, demo, lineRow, signIn, solveStaleLines } from './helpers';
 
 test('an engineer turns on the energy code and leaves valves bare: the line page shows the code minimum and the fittings in the heat loss', async ({

@@ -1,4 +1,4 @@
-import { expect, test, type Page, type Request } from '@playwright/test';
+import { expect, test, type Page, type Request } from './fixtures';
 import { createProjectWithLines, demo, lineRow, mailboxLink, signIn } from './helpers';
 
 /**

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { createProjectWithLines, demo, lineRow, signIn } from './helpers';
 
 test('an engineer adds a project material with its data; a bad table line is named; the specification can then choose it; a reviewer only reads', async ({

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { createProjectWithLines, demo, lineRow, mailLink, signIn } from './helpers';
 
 test('engineer requests a review, the reviewer gets the e-mail, disposes and signs off, the engineer sees the outcome', async ({
@@ -44,7 +44,7 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   await expect(rp.getByRole('heading', { level: 1, name: 'Review round 1' })).toBeVisible();
   await expect(rp.getByTestId('queue-counts')).toHaveText('2 lines · 2 open · 0 decided · 0 re-opened');
   await expect(rp.locator('tr[data-tag="RW-1"]')).toContainText(
-    /Surface \d+\.\d °C over the 60 °C touch limit \(bare\)/,
+    /Surface \d+\.\d °C over the 56 °C touch limit \(bare\)/,
   );
 
   // Acceptance without a comment is refused.

@@ -1,5 +1,5 @@
 import { readFileSync, existsSync } from 'node:fs';
-import { expect, test, type APIResponse } from '@playwright/test';
+import { expect, test, type APIResponse } from './fixtures';
 import { demo, openDemoProject, signIn, signUpConfirmed } from './helpers';
 import { SERVER_LOG } from '../../playwright.config';
 

@@ -1,4 +1,4 @@
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test, type Page } from './fixtures';
 import { mkdirSync } from 'node:fs';
 import { createProjectWithLines, demo, lineRow, mailLink, signIn, solveStaleLines } from './helpers';
 
@@ -20,7 +20,7 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
 }) => {
   const eng = demo('engineer');
   await signIn(page, eng.email, eng.password);
-  // 220 °C = 428 °F, 40 m = 131 ft (÷ 0.3048), touch limit 60 °C = 140 °F: exact conversions (NIST SP 811).
+  // 220 °C = 428 °F, 40 m = 131 ft (÷ 0.3048), the fixed touch limit 60 °C = 140 °F, the 5 s contact limit on metal 56 °C = 132.8 °F: exact conversions (NIST SP 811).
   const id = await createProjectWithLines(page, 'US units walk', [
     lineRow('US-1', '4', 220, 'H,P'),
     lineRow('US-2', '2', 160, 'H,P'),
@@ -37,7 +37,9 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   ).toBeVisible();
   // The form now speaks the project's units: 60 °C shows as 140 °F, the 2 K dew-point margin as 3.6 °F.
   await page.reload();
-  await expect(page.getByLabel('Touch limit, metal jacket °F')).toHaveValue('140');
+  await expect(page.getByLabel('Fixed limit, metal jacket °F')).toHaveValue('140');
+  await expect(page.getByLabel('Touch limit set by')).toHaveValue('contact-time');
+  await expect(page.getByLabel('Contact time, s')).toHaveValue('5');
   await expect(page.getByLabel('Dew-point margin °F')).toHaveValue('3.6');
   // Saving unchanged values converts back to the same SI numbers: no new revision.
   await page.getByRole('button', { name: 'Save design basis' }).click();
@@ -55,17 +57,17 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   // The inch series in fractions of an inch, never "38.1 mm" or float noise.
   const rec = (await row.locator('td').nth(5).innerText()).trim();
   expect(rec).toMatch(/^(\d+|\d+-\d+\/\d+|\d+\/\d+)"$/);
-  // The picker: each candidate with the personnel surface temperature beside the 140 °F touch limit.
+  // The picker: each candidate with the personnel surface temperature beside the 132.8 °F touch limit (ISO 13732-1, bare metal at 5 s).
   const { select, value, label } = await recommendedOption(page, 'US-1');
   expect(label).toContain(`${rec} ★`);
-  expect(label).toMatch(/personnel \d+\.\d °F \(limit 140\.0 °F\)/);
+  expect(label).toMatch(/personnel \d+\.\d °F \(limit 132\.8 °F\)/);
   expect(label).toMatch(/heat loss \d+\.\d °F, [\d.,]+ Btu\/h·ft/);
   const bare = select.locator('option[value="0"]');
   const bareText = (await bare.textContent())!;
   const barePersonnelF = Number(/personnel ([\d.]+) °F/.exec(bareText)![1]);
   expect(barePersonnelF).toBeGreaterThan(140); // a bare 428 °F line is far over the touch limit
   await select.selectOption(value);
-  await expect(page.getByTestId('deciding-US-1')).toContainText(/personnel \d+\.\d °F \(limit 140\.0 °F\)/);
+  await expect(page.getByTestId('deciding-US-1')).toContainText(/personnel \d+\.\d °F \(limit 132\.8 °F\)/);
   await page.screenshot({ path: `${SHOTS}/picker-us.png`, fullPage: false });
   await row.getByRole('button', { name: 'Save' }).click();
   await expect(row.getByText('undecided')).toHaveCount(0);
@@ -77,10 +79,10 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
   await expect(page.getByText('428.0 °F / 446.0 °F')).toBeVisible();
   await expect(page.getByText('131 ft', { exact: true })).toBeVisible();
   await expect(page.getByTestId('recommended')).toHaveText(rec);
-  await expect(page.getByTestId('rec-personnel')).toHaveText(/^\d+\.\d °F \(limit 140\.0 °F\)$/);
+  await expect(page.getByTestId('rec-personnel')).toHaveText(/^\d+\.\d °F \(limit 132\.8 °F\)$/);
   const cands = page.getByRole('table', { name: 'Candidates' });
   await expect(
-    cands.getByRole('columnheader', { name: 'Surface (personnel) · limit 140.0 °F' }),
+    cands.getByRole('columnheader', { name: 'Surface (personnel) · limit 132.8 °F' }),
   ).toBeVisible();
   await expect(cands.locator(`tr[data-mm="${value}"]`)).toContainText(`${rec} ★`);
   await expect(cands.locator('tr[data-mm="0"] td').nth(3)).toHaveText(`${barePersonnelF.toFixed(1)} °F`);
@@ -110,6 +112,10 @@ test('a US-units project shows inches, °F, Btu/h·ft and its currency on the li
     .getByRole('link', { name: 'Bill of quantities' })
     .click();
   await page.getByRole('button', { name: 'Issue revision 1' }).click();
+  // Issued by a background job; the page follows it and then shows the issue.
+  await expect(
+    page.getByRole('status').filter({ hasText: /^Issue 1 issued: \d+ lines counted, \d+ pending\.$/ }),
+  ).toBeVisible({ timeout: 60_000 });
   const summary = page.getByRole('table', { name: 'Material summary' });
   await expect(summary).toContainText(`${rec}`);
   await expect(summary).toContainText(/[\d,]+ ft/);
@@ -128,7 +134,7 @@ test('dispositions fit the hazard and a second review round carries over unchang
     lineRow('CW-H', '4', 220, 'H'),
     lineRow('CW-C', '2', 5, 'C'),
   ]);
-  // The SI picker, for the screenshot: °C and mm, the personnel temperature beside its 60 °C limit.
+  // The SI picker, for the screenshot: °C and mm, the personnel temperature beside its 56 °C limit (5 s contact, bare metal).
   const { label } = await recommendedOption(page, 'CW-H');
   expect(label).toMatch(/personnel \d+\.\d °C \(limit 60\.0 °C\)/);
   const cLabel = (await recommendedOption(page, 'CW-C')).label;
@@ -138,7 +144,7 @@ test('dispositions fit the hazard and a second review round carries over unchang
   await expect(
     page
       .getByRole('table', { name: 'Candidates' })
-      .getByRole('columnheader', { name: 'Surface (personnel) · limit 60.0 °C' }),
+      .getByRole('columnheader', { name: 'Surface (personnel) · limit 56.0 °C' }),
   ).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/line-page-si.png`, fullPage: true });
 

@@ -9,11 +9,13 @@ import { randomUUID } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 import PgBoss from 'pg-boss';
 import { db, getPool } from '@/db/client';
-import { jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
+import { boqIssues, jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
 import * as store from '@/lib/lines/store';
 import { enqueueJob } from '@/lib/jobs/store';
 import { runJob } from '@/lib/jobs/run';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { previewBill } from '@/lib/boq/store';
 import { stopBoss } from '@/lib/jobs/boss';
 import { BOSS_SCHEMA } from '@/lib/jobs/queues';
 import { demoLineRows, lineListWorkbook } from '../../seed/line-list';
@@ -181,5 +183,46 @@ describe('jobs on PostgreSQL', () => {
       /still running; wait for it to finish/,
     );
     await db.delete(jobs).where(eq(jobs.projectId, projectId));
+  });
+
+  it('a bill is issued by a job: the issue and the job commit together, a repeated run issues nothing more, nothing to count fails with a sentence', {
+    timeout: 120_000,
+  }, async () => {
+    const projectId = await newProject('JB-1');
+    const imp = await enqueueJob({
+      projectId,
+      userId,
+      kind: 'import-solve',
+      input: await draftOf(projectId, 40),
+    });
+    await runJob(imp.id);
+    expect((await jobRow(imp.id)).state).toBe('done');
+    await acceptRecommendations({ projectId, userId });
+    const expected = await previewBill({ projectId });
+    expect(expected.counted).toBeGreaterThan(0);
+
+    const job = await enqueueJob({ projectId, userId, kind: 'issue-bill', input: {} });
+    await runJob(job.id);
+    const done = await jobRow(job.id);
+    expect(done.state).toBe('done');
+    expect(done.result).toEqual({ number: 1, counted: expected.counted, pending: expected.pending });
+    const issued = await db.select().from(boqIssues).where(eq(boqIssues.projectId, projectId));
+    expect(issued.map((i) => [i.number, i.counted, i.pending])).toEqual([
+      [1, expected.counted, expected.pending],
+    ]);
+    // pg-boss may hand a job out again (an expired lease): the second run finds it done.
+    await runJob(job.id);
+    expect(await db.select({ n: count() }).from(boqIssues).where(eq(boqIssues.projectId, projectId))).toEqual(
+      [{ n: 1 }],
+    );
+
+    const empty = await newProject('JB-2');
+    const none = await enqueueJob({ projectId: empty, userId, kind: 'issue-bill', input: {} });
+    await runJob(none.id);
+    expect(await jobRow(none.id)).toMatchObject({
+      state: 'failed',
+      error:
+        'No line is decided and cleared yet, so there is nothing to issue. Choose thicknesses (and get flagged lines signed off) first.',
+    });
   });
 });

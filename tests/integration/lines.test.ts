@@ -227,7 +227,7 @@ describe('line-list import on PostgreSQL', () => {
     const { revision } = await store.saveDesignBasis({
       projectId,
       userId,
-      basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55 },
+      basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10 },
     });
     expect(revision).toBe(2);
     expect(
@@ -239,7 +239,7 @@ describe('line-list import on PostgreSQL', () => {
     const again = await store.saveDesignBasis({
       projectId,
       userId,
-      basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55, unitSystem: 'US' },
+      basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10, unitSystem: 'US' },
     });
     expect(again.revision).toBe(2);
     expect(
@@ -250,7 +250,7 @@ describe('line-list import on PostgreSQL', () => {
     await store.saveDesignBasis({
       projectId,
       userId,
-      basis: { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: 55, unitSystem: 'US' },
+      basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10, unitSystem: 'US' },
     });
     const audit = await db
       .select()
@@ -258,8 +258,8 @@ describe('line-list import on PostgreSQL', () => {
       .where(and(eq(auditLog.projectId, projectId), eq(auditLog.action, 'design basis saved')))
       .orderBy(asc(auditLog.at));
     expect(audit).toHaveLength(2);
-    expect(audit[0].before).toEqual({ revision: 1, touchLimitMetalC: 60 });
-    expect(audit[0].after).toEqual({ revision: 2, touchLimitMetalC: 55 });
+    expect(audit[0].before).toEqual({ revision: 1, touchContactSeconds: 5 });
+    expect(audit[0].after).toEqual({ revision: 2, touchContactSeconds: 10 });
     expect(audit[1].after).toEqual({ revision: 2, unitSystem: 'US' });
   });
 
@@ -332,7 +332,7 @@ describe('line-list import on PostgreSQL', () => {
     );
     expect(deciding.shown).toEqual(picker.candidates.find((c) => c.mm === cands[1]));
     expect(deciding.limits).toEqual(picker.limits);
-    expect(deciding.limits.personnelLimitC).toBe(55); // the metal touch limit saved in the design-basis test above
+    expect(deciding.limits.personnelLimitC).toBe(55); // bare metal at the 10 s contact saved in the design-basis test above (ISO 13732-1, ≈55 °C read from the figure [R])
     expect(deciding.worstMargin).toEqual({
       criterion: 'personnel',
       marginK: 55 - deciding.shown!.personnelC!,

@@ -62,11 +62,11 @@ describe('the numbers that decide, per candidate', () => {
     });
     expect(short.recommendedMm).toBe(s.recommendation.recommendedMm);
     expect(short.candidates.some((c) => c.personnel === undefined)).toBe(true);
-    // Personnel temperatures fall with thickness; the bare surface is far over the 60 °C limit.
+    // Personnel temperatures fall with thickness; the bare surface is far over the 56 °C limit.
     const p = rows.map((r) => r[4]!);
     for (let i = 1; i < p.length; i++) expect(p[i]).toBeLessThan(p[i - 1]);
     const limits = decidingLimits(DEFAULT_DESIGN_BASIS, l, s.system.jacket.id);
-    expect(limits.personnelLimitC).toBe(DEFAULT_DESIGN_BASIS.touchLimitMetalC); // aluminium jacket: metal limit
+    expect(limits.personnelLimitC).toBe(56); // aluminium jacket: bare metal at 5 s contact, ISO 13732-1 (lower end of 56–61 °C)
     expect(limits.condensationNeedC).toBeNull();
     const nums = candidateNumbers(DEFAULT_DESIGN_BASIS, l, s.system.jacket.id, rows, limits);
     const at = nums.find((c) => c.mm === s.recommendation.recommendedMm)!;

@@ -70,28 +70,27 @@ function surfaceAt(mm: number, emittance: number, processC = 180) {
   }).surfaceC;
 }
 
+// The fixed numbers (the explicit override of the contact-time limit, tests/reference/touch-limits.test.ts).
+const FIXED: DesignBasis = { ...DEFAULT_DESIGN_BASIS, touchLimitMode: 'fixed' };
+
 describe('hot-surface flag', () => {
   it('flags a bare accessible hot line with the numbers behind it', () => {
-    const f = flagsForLine(DEFAULT_DESIGN_BASIS, input(line(), null));
+    const f = flagsForLine(FIXED, input(line(), null));
     const hot = f.find((x) => x.type === 'hot-surface')!;
     expect(hot.limitC).toBe(60);
     expect(hot.valueC).toBeCloseTo(surfaceAt(0, 0.8), 6);
-    expect(hot.conditions).toMatch(/35 °C air, 0 m\/s, metal surface/);
+    expect(hot.conditions).toMatch(/35 °C air, 0 m\/s, bare \(uncoated\) metal \(fixed limit\)/);
   });
   it('a surface exactly at the limit passes; a hair above is flagged', () => {
     const ts = surfaceAt(25, jacketById('aluminium-oxidised')!.emittance);
-    const atLimit: DesignBasis = { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: ts };
+    const atLimit: DesignBasis = { ...FIXED, touchLimitMetalC: ts };
     expect(flagsForLine(atLimit, input(line(), 25)).some((x) => x.type === 'hot-surface')).toBe(false);
-    const below: DesignBasis = { ...DEFAULT_DESIGN_BASIS, touchLimitMetalC: ts - 0.01 };
+    const below: DesignBasis = { ...FIXED, touchLimitMetalC: ts - 0.01 };
     expect(flagsForLine(below, input(line(), 25)).some((x) => x.type === 'hot-surface')).toBe(true);
   });
   it('metal and non-metal finishes use their own limits', () => {
     const tsPvc = surfaceAt(25, jacketById('pvc')!.emittance);
-    const basis: DesignBasis = {
-      ...DEFAULT_DESIGN_BASIS,
-      touchLimitMetalC: tsPvc - 1,
-      touchLimitNonMetalC: tsPvc + 1,
-    };
+    const basis: DesignBasis = { ...FIXED, touchLimitMetalC: tsPvc - 1, touchLimitNonMetalC: tsPvc + 1 };
     expect(flagsForLine(basis, input(line(), 25, 'pvc')).some((x) => x.type === 'hot-surface')).toBe(false);
     expect(
       flagsForLine(basis, input(line(), 25, 'painted-metal')).some((x) => x.type === 'hot-surface'),

@@ -1,11 +1,10 @@
 'use server';
-import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { projectAction } from '@/lib/server/action';
-import { issueBill } from '@/lib/boq/store';
+import { enqueueJob } from '@/lib/jobs/store';
 
+/** Issuing counts every line of the project: a background job; the page follows its progress. */
 export const issueBillAction = projectAction('boq.issue', z.object({}), async ({ project, user }) => {
-  const issue = await issueBill({ projectId: project.id, userId: user.id });
-  revalidatePath(`/projects/${project.id}/boq`);
-  return { number: issue.number, counted: issue.counted, pending: issue.pending };
+  const job = await enqueueJob({ projectId: project.id, userId: user.id, kind: 'issue-bill', input: {} });
+  return { jobId: job.id };
 });

@@ -4,6 +4,10 @@ import type { DesignBasis } from '@/lib/lines/design-basis';
 import { saveDesignBasisAction } from './actions';
 import { fieldKind, kindUnit, toFormValue } from '@/lib/format/basis-units';
 import { CURRENCIES } from '@/lib/format';
+import { TOUCH_SURFACE_LABEL, burnThresholdC, type TouchSurface } from '@/lib/thermal/touch';
+import { COOLING_SOURCES, HEAT_SOURCES } from '@/lib/thermal/economics';
+
+const TOUCH_SURFACES = Object.keys(TOUCH_SURFACE_LABEL) as TouchSurface[];
 
 interface Option {
   id: string;
@@ -132,6 +136,13 @@ export function BasisForm({
       {notes[key] ? <p className="text-xs text-ink-500">{notes[key]}</p> : null}
     </fieldset>
   );
+  // Materials the bands use, and any with factors already set (kept when the form is saved).
+  const designMaterials = [
+    ...new Set([
+      ...basis.systems.flatMap((s) => [s.outerId, s.innerId, s.flatOuterId]).filter((x): x is string => !!x),
+      ...Object.keys(basis.designConductivity ?? {}),
+    ]),
+  ];
   return (
     <form
       className="space-y-5"
@@ -226,9 +237,64 @@ export function BasisForm({
           {condition('personnel', 'Personnel protection (hottest, still air)', false)}
           {condition('condensation', 'Condensation control (design humidity)', true)}
         </div>
+        <fieldset className="panel p-3">
+          <legend className="px-1 text-sm font-semibold">Touch limit (personnel protection)</legend>
+          <div className="grid gap-4 md:grid-cols-4">
+            <div>
+              <label htmlFor="db-touchLimitMode" className="label">
+                Touch limit set by
+              </label>
+              <select
+                id="db-touchLimitMode"
+                name="touchLimitMode"
+                defaultValue={basis.touchLimitMode}
+                disabled={!canEdit}
+                className="input"
+              >
+                <option value="contact-time">Contact time and surface (ISO 13732-1)</option>
+                <option value="fixed">Fixed numbers (override)</option>
+              </select>
+              {errors.touchLimitMode ? (
+                <p className="field-error">{errors.touchLimitMode.join(' ')}</p>
+              ) : null}
+            </div>
+            <Num name="touchContactSeconds" label="Contact time, s" />
+            <Num name="touchLimitMetalC" label="Fixed limit, metal jacket" hint={notes.touchLimitMetalC} />
+            <Num name="touchLimitNonMetalC" label="Fixed limit, non-metal" hint={notes.touchLimitNonMetalC} />
+          </div>
+          <table className="table-dense mt-2" aria-label="Touch limit by surface">
+            <caption className="text-left text-xs text-ink-600">
+              Limits by surface at the saved contact time of {basis.touchContactSeconds} s (ISO 13732-1 burn
+              thresholds, lower end of each band)
+              {basis.touchLimitMode === 'fixed' ? ' — not in use while fixed numbers are chosen' : ''}
+            </caption>
+            <thead>
+              <tr>
+                <th>Surface touched</th>
+                <th>Limit {kindUnit('temp', sys)}</th>
+                <th>Published band {kindUnit('temp', sys)}</th>
+              </tr>
+            </thead>
+            <tbody>
+              {TOUCH_SURFACES.map((sf) => {
+                const t = burnThresholdC(sf, basis.touchContactSeconds);
+                return (
+                  <tr key={sf}>
+                    <td>{TOUCH_SURFACE_LABEL[sf]}</td>
+                    <td>{toFormValue('temp', sys, Math.round(t.limitC * 10) / 10)}</td>
+                    <td>
+                      {t.bandC
+                        ? `${toFormValue('temp', sys, t.bandC[0])} – ${toFormValue('temp', sys, t.bandC[1])}`
+                        : '—'}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          <p className="mt-1 text-xs text-ink-500">{notes.touchLimit}</p>
+        </fieldset>
         <div className="grid gap-4 md:grid-cols-4">
-          <Num name="touchLimitMetalC" label="Touch limit, metal jacket" hint={notes.touchLimitMetalC} />
-          <Num name="touchLimitNonMetalC" label="Touch limit, non-metal" hint={notes.touchLimitNonMetalC} />
           <Num name="dewPointMarginK" label="Dew-point margin" hint={notes.dewPointMarginK} />
           <Num name="heatLossLimitWPerM" label="Heat-loss limit (optional)" />
           <Num name="maxProcessDropK" label="Allowed process temperature change" />
@@ -298,6 +364,126 @@ export function BasisForm({
           </table>
           <p className="mt-1 text-xs text-ink-500">{notes.systems}</p>
         </fieldset>
+        <fieldset className="panel p-3">
+          <legend className="px-1 text-sm font-semibold">
+            Corrosion under insulation (AMPP/NACE SP0198, API RP 583)
+          </legend>
+          <div className="flex flex-wrap gap-4 text-sm">
+            {(
+              [
+                [
+                  'cui.metals',
+                  'carbon-steel',
+                  'Lines of carbon or low-alloy steel',
+                  basis.cui.metals.includes('carbon-steel'),
+                ],
+                [
+                  'cui.metals',
+                  'austenitic-stainless',
+                  'Lines of austenitic stainless steel',
+                  basis.cui.metals.includes('austenitic-stainless'),
+                ],
+                ['cui.screenIdle', 'on', 'Lines stand idle at ambient air', basis.cui.screenIdle],
+                [
+                  'cui.requireCoatingNote',
+                  'on',
+                  'Screened lines: coating under the insulation',
+                  basis.cui.requireCoatingNote,
+                ],
+                [
+                  'cui.requireChlorideFree',
+                  'on',
+                  'Screened stainless lines: chloride-free insulation (ASTM C795)',
+                  basis.cui.requireChlorideFree,
+                ],
+                ['cui.reviewFlag', 'on', 'Flag screened lines for review', basis.cui.reviewFlag],
+              ] as const
+            ).map(([name, value, label, checked]) => {
+              const id = `db-${name.replace('.', '-')}-${value}`;
+              return (
+                <span key={id} className="flex items-center gap-1">
+                  <input
+                    id={id}
+                    type="checkbox"
+                    name={name}
+                    value={value}
+                    defaultChecked={checked}
+                    disabled={!canEdit}
+                  />
+                  <label htmlFor={id}>{label}</label>
+                </span>
+              );
+            })}
+          </div>
+          {errors['cui.metals'] ? <p className="field-error">{errors['cui.metals'].join(' ')}</p> : null}
+          <p className="mt-1 text-xs text-ink-500">{notes.cui}</p>
+        </fieldset>
+        <fieldset className="panel p-3">
+          <legend className="px-1 text-sm font-semibold">Design conductivity (EN ISO 23993)</legend>
+          <table className="table-dense" aria-label="Design conductivity factors">
+            <thead>
+              <tr>
+                <th>Material</th>
+                <th>Ageing</th>
+                <th>Moisture</th>
+                <th>Installation</th>
+                <th>Product</th>
+                <th>Source of the factors</th>
+              </tr>
+            </thead>
+            <tbody>
+              {designMaterials.map((id) => {
+                const f = basis.designConductivity?.[id] ?? {
+                  ageing: 1,
+                  moisture: 1,
+                  installation: 1,
+                  source: '',
+                };
+                const name = materials.find((m) => m.id === id)?.name ?? id;
+                const cell = (k: 'ageing' | 'moisture' | 'installation') => {
+                  const field = `designConductivity.${id}.${k}`;
+                  return (
+                    <td>
+                      <input
+                        aria-label={`${name} ${k} factor`}
+                        name={field}
+                        type="number"
+                        step="any"
+                        min="1"
+                        defaultValue={f[k]}
+                        disabled={!canEdit}
+                        className="input w-20"
+                      />
+                      {errors[field] ? <p className="field-error">{errors[field]!.join(' ')}</p> : null}
+                    </td>
+                  );
+                };
+                return (
+                  <tr key={id}>
+                    <td>{name}</td>
+                    {cell('ageing')}
+                    {cell('moisture')}
+                    {cell('installation')}
+                    <td className="font-mono">{(f.ageing * f.moisture * f.installation).toFixed(3)}</td>
+                    <td>
+                      <input
+                        aria-label={`${name} factors source`}
+                        name={`designConductivity.${id}.source`}
+                        defaultValue={f.source}
+                        disabled={!canEdit}
+                        className="input"
+                      />
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          {errors.designConductivity ? (
+            <p className="field-error">{errors.designConductivity.join(' ')}</p>
+          ) : null}
+          <p className="mt-1 text-xs text-ink-500">{notes.designConductivity}</p>
+        </fieldset>
         <div className="grid gap-4 md:grid-cols-4">
           <div>
             <label htmlFor="db-energyCode" className="label">
@@ -341,7 +527,46 @@ export function BasisForm({
           <Num name="economics.discountRate" label="Discount rate (fraction)" />
           <Num name="economics.lifeYears" label="Life, years" step="1" />
           <Num name="economics.escalationRate" label="Energy price escalation (fraction)" />
+          <div>
+            <label htmlFor="db-heatSource" className="label">
+              Heat source (hot lines)
+            </label>
+            <select
+              id="db-heatSource"
+              name="economics.heatSource"
+              defaultValue={basis.economics.heatSource}
+              disabled={!canEdit}
+              className="input"
+            >
+              {(Object.keys(HEAT_SOURCES) as (keyof typeof HEAT_SOURCES)[]).map((k) => (
+                <option key={k} value={k}>
+                  {HEAT_SOURCES[k].label} — {HEAT_SOURCES[k].scope}
+                </option>
+              ))}
+            </select>
+            {errors['economics.heatSource'] ? (
+              <p className="field-error">{errors['economics.heatSource'].join(' ')}</p>
+            ) : null}
+          </div>
           <Num name="economics.co2KgPerKWh" label="CO₂ kg per kWh" hint={notes.co2KgPerKWh} />
+          <div>
+            <label htmlFor="db-coolingSource" className="label">
+              Cooling source (cold lines)
+            </label>
+            <select
+              id="db-coolingSource"
+              name="economics.cooling.source"
+              defaultValue={basis.economics.cooling.source}
+              disabled={!canEdit}
+              className="input"
+            >
+              {(Object.keys(COOLING_SOURCES) as (keyof typeof COOLING_SOURCES)[]).map((k) => (
+                <option key={k} value={k}>
+                  {COOLING_SOURCES[k].label} — {COOLING_SOURCES[k].scope}
+                </option>
+              ))}
+            </select>
+          </div>
           <Num
             name="economics.cooling.electricityPricePerKWh"
             label="Cold lines: electricity per kWh"
@@ -349,6 +574,36 @@ export function BasisForm({
           />
           <Num name="economics.cooling.cop" label="Cold lines: chiller COP" />
           <Num name="economics.cooling.co2KgPerKWh" label="Cold lines: CO₂ kg per kWh of electricity" />
+          <div className="md:col-span-4">
+            <table className="table-dense" aria-label="Energy sources: default factors">
+              <caption className="text-left text-xs text-ink-600">
+                Defaults per energy source (type the project&apos;s own figures in the fields above)
+              </caption>
+              <thead>
+                <tr>
+                  <th>Source</th>
+                  <th>Scope</th>
+                  <th className="text-right">kg CO₂/kWh bought</th>
+                  <th>Factor from</th>
+                  <th className="text-right">Efficiency / COP</th>
+                  <th>From</th>
+                </tr>
+              </thead>
+              <tbody>
+                {[...Object.values(HEAT_SOURCES), ...Object.values(COOLING_SOURCES)].map((s) => (
+                  <tr key={s.label}>
+                    <td>{s.label}</td>
+                    <td>{s.scope}</td>
+                    <td className="num">{s.co2KgPerKWh.toFixed(3)}</td>
+                    <td className="text-xs">{s.co2Source}</td>
+                    <td className="num">{s.efficiency}</td>
+                    <td className="text-xs">{s.efficiencySource}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+            <p className="mt-1 text-xs text-ink-500">{notes.heatSource}</p>
+          </div>
           <Num
             name="economics.flatRangePct"
             label="Flat range around the optimum, %"

@@ -1,4 +1,5 @@
 'use client';
+import { TOUCH_SURFACE_LABEL } from '@/lib/thermal/touch';
 import { startTransition, useActionState, useEffect, useRef, useState } from 'react';
 import type { OwnJacket, OwnMaterial } from '@/lib/lines/design-basis';
 import { addOwnJacketAction, addOwnMaterialAction, removeOwnEntryAction } from './actions';
@@ -151,9 +152,13 @@ export function OwnCatalogue({
     }
   }, [jResult]);
   // Changing an entry fills the one form with its values; cancelling (or saving) resets it to the defaults for a new one.
+  // Never on mount: a value typed before the page finished loading must not be wiped.
+  const mShown = useRef<OwnMaterial | null>(null),
+    jShown = useRef<OwnJacket | null>(null);
   useEffect(() => {
     const f = mForm.current;
-    if (!f) return;
+    if (!f || mShown.current === editM) return;
+    mShown.current = editM;
     f.reset();
     if (editM)
       fill(f, {
@@ -176,11 +181,13 @@ export function OwnCatalogue({
   }, [editM]);
   useEffect(() => {
     const f = jForm.current;
-    if (!f) return;
+    if (!f || jShown.current === editJ) return;
+    jShown.current = editJ;
     f.reset();
     if (editJ) {
       fill(f, { name: editJ.name, emittance: editJ.emittance, source: editJ.source });
       (f.elements.namedItem('metal') as HTMLInputElement).checked = editJ.metal;
+      (f.elements.namedItem('touchSurface') as HTMLSelectElement).value = editJ.touchSurface ?? '';
     }
   }, [editJ]);
   const mErr = (mResult?.error ?? {}) as Record<string, string[] | null>;
@@ -286,7 +293,10 @@ export function OwnCatalogue({
                   <td className="font-medium">{j.name}</td>
                   <td className="font-mono text-xs">{j.id}</td>
                   <td>{j.emittance}</td>
-                  <td>{j.metal ? 'metal (metal touch limit)' : 'non-metal'}</td>
+                  <td>
+                    {j.metal ? 'metal' : 'non-metal'}
+                    {j.touchSurface ? ` (touch: ${TOUCH_SURFACE_LABEL[j.touchSurface]})` : ''}
+                  </td>
                   <td className="max-w-xs text-xs">{j.source}</td>
                   {canEdit ? (
                     <td className="flex gap-1">
@@ -522,6 +532,21 @@ export function OwnCatalogue({
             <label className="flex items-center gap-2 text-sm">
               <input type="checkbox" name="metal" defaultChecked /> Metal surface (metal touch limit applies)
             </label>
+            <Field
+              id="own-j-touchSurface"
+              name="touchSurface"
+              label="Surface a hand touches (ISO 13732-1)"
+              errors={jErr}
+            >
+              <select id="own-j-touchSurface" name="touchSurface" className="input" defaultValue="">
+                <option value="">From the metal box (bare metal or plastics)</option>
+                {(Object.keys(TOUCH_SURFACE_LABEL) as (keyof typeof TOUCH_SURFACE_LABEL)[]).map((k) => (
+                  <option key={k} value={k}>
+                    {TOUCH_SURFACE_LABEL[k]}
+                  </option>
+                ))}
+              </select>
+            </Field>
             <Field id="own-j-source" name="source" label="Source of the emittance" errors={jErr}>
               <input
                 id="own-j-source"

@@ -2,6 +2,7 @@
 import { useEffect, useRef } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { JobView } from '@/lib/jobs/store';
+import { JOB_KIND_LABEL as KIND } from '@/lib/jobs/queues';
 
 type Wire = Omit<JobView, 'createdAt' | 'startedAt' | 'finishedAt'> & {
   createdAt: string;
@@ -9,11 +10,6 @@ type Wire = Omit<JobView, 'createdAt' | 'startedAt' | 'finishedAt'> & {
   finishedAt: string | null;
 };
 const active = (j: Wire | undefined) => !!j && (j.state === 'queued' || j.state === 'running');
-const KIND: Record<Wire['kind'], string> = {
-  'import-solve': 'Import and solve',
-  'solve-all': 'Solve',
-  'sheets-batch': 'Calculation sheets',
-};
 
 /** Polls one job until it is done or failed. */
 export function useJob(projectId: string, jobId: string | null) {
@@ -45,7 +41,9 @@ export function JobProgressBar({ job }: { job: Wire }) {
         ? `Producing the sheets of ${job.total.toLocaleString('en')} lines…`
         : job.total
           ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
-          : 'Reading and importing…';
+          : job.kind === 'issue-bill'
+            ? 'Counting the quantities of every decided line…'
+            : 'Reading and importing…';
   return (
     <div className="mb-3" aria-live="polite">
       <div

@@ -12,10 +12,24 @@ import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import type { LineInput } from '@/lib/lines/validate';
 import { inputOf } from '@/lib/lines/store';
 import { candidateNumbers, decidingLimits, worstMargin, type CandidateRow } from '@/lib/lines/deciding';
+import { conditionSetOf, describeConditionSet } from '@/lib/lines/criterion-conditions';
+import { criteriaFor } from '@/lib/lines/solve-line';
+import {
+  CUI_METAL_LABEL,
+  describeCuiFinding,
+  designFactor,
+  energyTerms,
+  vesselPartDecisions,
+  type ConditionSetId,
+  type CriterionOutcome,
+} from '@/lib/thermal';
+import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 import { PrintButton } from '@/components/print-button';
 
 export const metadata = { title: 'Line' };
+
+const PART_LABEL = { shell: 'Shell', top: 'Top head', bottom: 'Bottom head' } as const;
 
 const CRITERION: Record<string, string> = {
   personnel: 'Personnel protection',
@@ -60,7 +74,34 @@ export default async function LinePage({
   const nums = result ? candidateNumbers(basis, inputOf(line), result.jacketId, cands, limits) : [];
   const atMm = design?.thicknessMm ?? result?.recommendedMm ?? null;
   const econ =
-    (result?.outcomes as { id: string; requiredMm: number | null; message: string }[] | undefined) ?? [];
+    (result?.outcomes as
+      | {
+          id: string;
+          requiredMm: number | null;
+          message: string;
+          conditionSet?: ConditionSetId | 'none';
+          limitC?: number;
+          touchBasis?: string;
+        }[]
+      | undefined) ?? [];
+  const crit = criteriaFor(basis, line.outdoor);
+  const cui = cuiScreenFor(basis, inputOf(line));
+  // A vessel's parts from the stored outcomes and candidates (the engine's own rule, vesselPartDecisions).
+  const partDecisions =
+    result && line.geometry === 'vessel' && (result.outcomes as { parts?: unknown }[]).some((o) => o.parts)
+      ? vesselPartDecisions(
+          result.outcomes as CriterionOutcome[],
+          cands.map((c) => ({ totalMm: c[0], serviceLimitOk: c[6] })),
+        )
+      : null;
+  const cold = line.normalTempC < crit.conditions.heatLoss.airC;
+  const energy = energyTerms(basis.economics, cold);
+  const layerMaterials = [
+    ...new Set(((result?.layers ?? []) as { materialId: string }[]).map((l) => l.materialId)),
+  ]
+    .map((id) => cat.materials.get(id))
+    .filter((m) => m !== undefined);
+  const wind = (ms: number) => (u.system === 'US' ? `${sig(ms / 0.44704, 2)} mph` : `${ms} m/s`);
   const optimum = econ.find((o) => o.id === 'economic')?.requiredMm ?? null;
   const d = result?.design as
     | {
@@ -177,12 +218,28 @@ export default async function LinePage({
               </p>
               <ul className="space-y-1 text-sm">
                 {econ.map((o) => (
-                  <li key={o.id}>
+                  <li key={o.id} data-testid={`criterion-${o.id}`}>
                     <strong>
                       {o.id === result.governing ? '▶ ' : ''}
                       {CRITERION[o.id] ?? o.id}
                     </strong>
                     : {o.requiredMm === null ? 'not met' : u.thickness(o.requiredMm)} — {msg(o.message)}
+                    <span className="block text-xs text-ink-500" data-testid={`criterion-${o.id}-conditions`}>
+                      Judged under{' '}
+                      {describeConditionSet(
+                        conditionSetOf(o, line.normalTempC < crit.conditions.heatLoss.airC),
+                        crit.conditions,
+                        u.temp,
+                        wind,
+                      )}
+                      .
+                    </span>
+                    {o.id === 'personnel' && o.touchBasis ? (
+                      <span className="block text-xs text-ink-500" data-testid="touch-basis">
+                        Touch limit {u.temp(o.limitC ?? null)}: {msg(o.touchBasis)} A burn threshold for
+                        healthy adult skin; follow local codes and a qualified person where others may touch.
+                      </span>
+                    ) : null}
                   </li>
                 ))}
               </ul>
@@ -352,6 +409,13 @@ export default async function LinePage({
               <dt className="text-ink-500">Annual energy / cost / CO₂</dt>
               <dd>
                 {u.energy(result.annualMWh)} · {u.money(result.annualCost)} · {sig(result.co2Tonnes, 3)} t
+                <span className="block text-xs text-ink-500" data-testid="co2-scope">
+                  CO₂ {energy.scope} ({energy.source}): energy {cold ? 'gained' : 'lost'} ÷{' '}
+                  {cold
+                    ? `COP ${sig(1 / energy.boughtPerHeat, 3)}`
+                    : `efficiency ${sig(100 / energy.boughtPerHeat, 3)} %`}{' '}
+                  × {sig(energy.co2KgPerKWh, 3)} kg CO₂ per kWh bought.
+                </span>
               </dd>
               {result.condensateKgPerH !== null ? (
                 <>
@@ -493,6 +557,122 @@ export default async function LinePage({
               })}
             </tbody>
           </table>
+        </section>
+      ) : null}
+      {partDecisions ? (
+        <section className="panel mt-4 p-4" aria-labelledby="parts-h">
+          <h2 id="parts-h" className="mb-1">
+            Vessel parts decided per part
+          </h2>
+          <p className="mb-2 text-xs text-ink-600">
+            The touch and condensation criteria are judged on each part&apos;s own surface (heads as flat
+            discs); the other criteria as the whole vessel&apos;s. The recommendation above is the thickest
+            part; a part may take its own thickness, or a guard where none meets the touch limit.
+          </p>
+          <table className="table-dense" aria-label="Vessel parts">
+            <thead>
+              <tr>
+                <th>Part</th>
+                <th>Thickness</th>
+                <th>Governing</th>
+                <th>Not met on this part</th>
+              </tr>
+            </thead>
+            <tbody>
+              {(['shell', 'top', 'bottom'] as const).map((p) => (
+                <tr key={p} data-part={p}>
+                  <td>{PART_LABEL[p]}</td>
+                  <td>
+                    {partDecisions[p].recommendedMm === null
+                      ? 'none'
+                      : u.thickness(partDecisions[p].recommendedMm)}
+                  </td>
+                  <td>{partDecisions[p].governing ? CRITERION[partDecisions[p].governing!] : '—'}</td>
+                  <td>
+                    {partDecisions[p].unmet.length
+                      ? `${partDecisions[p].unmet.map((x: string) => CRITERION[x] ?? x).join(', ')}: guard or another system for this part`
+                      : '—'}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      ) : null}
+      <section className="panel mt-4 p-4" aria-labelledby="cui-h" data-testid="cui">
+        <h2 id="cui-h" className="mb-1">
+          Corrosion under insulation (screen)
+        </h2>
+        {cui.inWindow ? (
+          <>
+            <ul className="space-y-0.5 text-sm">
+              {cui.findings.map((f, i) => (
+                <li key={i}>{msg(describeCuiFinding(f))}</li>
+              ))}
+            </ul>
+            {cui.coatingNote ? <p className="mt-1 text-sm">Specification: {cui.coatingNote}</p> : null}
+            {cui.chlorideFreeInsulation ? (
+              <p className="mt-1 text-sm">
+                Specification: chloride-free insulation to ASTM C795 on this stainless line.
+              </p>
+            ) : null}
+          </>
+        ) : (
+          <p className="text-sm">
+            Outside the screened windows ({basis.cui.metals.map((m) => CUI_METAL_LABEL[m]).join(', ')}
+            {basis.cui.screenIdle ? '; idle at ambient included' : ''}).
+          </p>
+        )}
+        <p className="mt-1 text-xs text-ink-500">
+          A screen by temperature only (windows as recalled from the documents named; verify against the
+          edition your specification cites). It does not replace the owner&apos;s inspection programme.
+        </p>
+      </section>
+      {layerMaterials.length ? (
+        <section className="panel mt-4 overflow-x-auto p-4" aria-labelledby="lambda-h">
+          <h2 id="lambda-h" className="mb-1">
+            Conductivity: declared and design (EN ISO 23993)
+          </h2>
+          <p className="mb-2 text-xs text-ink-600">
+            The thickness is chosen on the design curve: the declared curve times the project&apos;s ageing,
+            moisture and installation factors (design basis). The declared values are kept as given by their
+            source.
+          </p>
+          {layerMaterials.map((m) => {
+            const F = designFactor(m.designFactors);
+            const declared = m.conductivity.type === 'table' ? m.conductivity.points : null;
+            return (
+              <div key={m.id} className="mb-3" data-testid={`lambda-${m.id}`}>
+                <p className="text-sm">
+                  <strong>{m.name}</strong> — design factor {F.toFixed(3)}
+                  {m.designFactors
+                    ? ` (ageing ${m.designFactors.ageing}, moisture ${m.designFactors.moisture}, installation ${m.designFactors.installation}${m.designFactors.source ? `; ${m.designFactors.source}` : ''})`
+                    : ' (no factors set: design = declared)'}
+                  . Declared data: {m.source}
+                </p>
+                {declared ? (
+                  <table className="table-dense" aria-label={`${m.name} conductivity`}>
+                    <thead>
+                      <tr>
+                        <th>Mean temperature</th>
+                        <th className="text-right">Declared</th>
+                        <th className="text-right">Design</th>
+                      </tr>
+                    </thead>
+                    <tbody>
+                      {declared.map(([t, k]) => (
+                        <tr key={t}>
+                          <td>{u.temp(t)}</td>
+                          <td className="num">{u.conductivity(k)}</td>
+                          <td className="num">{u.conductivity(k * F)}</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                ) : null}
+              </div>
+            );
+          })}
         </section>
       ) : null}
       <section className="panel mt-4 p-4">

@@ -42,7 +42,7 @@ import {
   svg,
   type FrameInfo,
 } from './pdf-kit';
-import { CRITERION_LABEL, CRITERION_METHOD } from './sheet-model';
+import { CRITERION_LABEL, CRITERION_METHOD, touchLimitText } from './sheet-model';
 import { projectHeader } from './sheets';
 
 export interface ReportIssueInfo {
@@ -348,10 +348,7 @@ export function ReportDocument({ d, issue }: { d: ReportData; issue: ReportIssue
               'Freeze conditions',
               `${u.temp(b.conditions.freeze.airC)}, ${sig(b.conditions.freeze.windMs, 3)} m/s; water from ${u.temp(b.freeze.initialWaterTempC)}, ${sig(b.freeze.requiredHours, 3)} h, ${sig(b.freeze.iceFractionPct, 3)} % ice allowed (common practice: 25 %)`,
             ],
-            [
-              'Touch limits',
-              `${u.temp(b.touchLimitMetalC)} metal jacket, ${u.temp(b.touchLimitNonMetalC)} non-metal (industry convention consistent with ASTM C1055 contact-burn guidance)`,
-            ],
+            ['Touch limit', touchLimitText(b, u)],
             ['Dew-point margin', u.tempDelta(b.dewPointMarginK).replace(/^\+/, '')],
             [
               'Heat-loss limit',

@@ -28,7 +28,7 @@ export const CRITERION_LABEL: Record<string, string> = {
 /** The method each criterion follows, named on the sheet and in the report's method statement. */
 export const CRITERION_METHOD: Record<string, string> = {
   personnel:
-    'Surface temperature by ASTM C680 / ISO 12241 under the personnel conditions, against the touch limit (ASTM C1055 contact-burn guidance).',
+    "Surface temperature by ASTM C680 / ISO 12241 under the personnel conditions, against the touch limit (ISO 13732-1 contact-time burn threshold, or the project's fixed limit).",
   condensation:
     'Surface temperature by ISO 12241 under the condensation conditions, at or above the dew (frost) point + margin; dew point by the Magnus form (Alduchov & Eskridge 1996).',
   heatLossLimit:
@@ -42,6 +42,13 @@ export const CRITERION_METHOD: Record<string, string> = {
   economic:
     'Lowest annualised cost: capital recovery × installed cost + levelised energy cost over the life.',
 };
+
+/** How the project sets its touch limit, in words (the design-basis mode). */
+export function touchLimitText(basis: DesignBasis, u: Formatter): string {
+  return basis.touchLimitMode === 'contact-time'
+    ? `ISO 13732-1 burn threshold for ${sig(basis.touchContactSeconds, 3)} s of contact on the jacket's surface`
+    : `fixed: ${u.temp(basis.touchLimitMetalC)} metal jacket, ${u.temp(basis.touchLimitNonMetalC)} non-metal`;
+}
 
 export const HARD_CRITERIA_IDS = new Set([
   'personnel',
@@ -204,10 +211,7 @@ export function sheetModel(i: SheetInput): SheetModel {
     ['Personnel', cond(u, crit.conditions.personnel)],
     ['Condensation', cond(u, crit.conditions.condensation)],
     ['Freeze', cond(u, crit.conditions.freeze)],
-    [
-      'Touch limits',
-      `${u.temp(basis.touchLimitMetalC)} metal jacket, ${u.temp(basis.touchLimitNonMetalC)} non-metal`,
-    ],
+    ['Touch limit', touchLimitText(basis, u)],
     ['Dew-point margin', u.tempDelta(basis.dewPointMarginK).replace(/^\+/, '')],
   ];
 

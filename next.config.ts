@@ -3,7 +3,14 @@ import { STATIC_SECURITY_HEADERS } from './lib/server/security-headers';
 
 const nextConfig: NextConfig = {
   // Native and Node-only packages stay out of the server bundle.
-  serverExternalPackages: ['@node-rs/argon2', 'pg', 'pg-boss', 'exceljs', 'nodemailer'],
+  serverExternalPackages: [
+    '@node-rs/argon2',
+    'pg',
+    'pg-boss',
+    'exceljs',
+    'nodemailer',
+    '@react-pdf/renderer',
+  ],
   poweredByHeader: false,
   typedRoutes: false,
   // Line-list uploads go through a server action: 20 MB of file plus form overhead (proxy.ts

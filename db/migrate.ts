@@ -15,7 +15,7 @@ import { env } from '../lib/env';
 import { BOSS_SCHEMA, jobExpireSeconds, QUEUES } from '../lib/jobs/queues';
 
 /** Tables the application may only read and append to. */
-const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues', 'api_token_events'] as const;
+const APPEND_ONLY_TABLES = ['audit_log', 'boq_issues', 'api_token_events', 'design_reports'] as const;
 
 const ident = (s: string) => `"${s.replace(/"/g, '""')}"`;
 

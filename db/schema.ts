@@ -1,6 +1,7 @@
 import { relations, sql } from 'drizzle-orm';
 import {
   boolean,
+  customType,
   doublePrecision,
   index,
   integer,
@@ -21,6 +22,8 @@ import type { ParsedFile } from '@/lib/lines/parse';
 import type { StoredDesign, StoredLayer, StoredOutcome } from '@/lib/lines/stored-result';
 import type { Flag } from '@/lib/review/flags';
 import type { ReviewSnapshot } from '@/lib/review/snapshot';
+
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
 
 export const roleEnum = pgEnum('member_role', ['owner', 'engineer', 'reviewer', 'contractor']);
 export type Role = (typeof roleEnum.enumValues)[number];
@@ -484,6 +487,48 @@ export const billFactors = pgTable('bill_factors', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
+/** The PDF a calculation-sheet batch job produced, kept for download. */
+export const sheetBatches = pgTable('sheet_batches', {
+  jobId: uuid('job_id')
+    .primaryKey()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  projectId: uuid('project_id')
+    .notNull()
+    .references(() => projects.id, { onDelete: 'cascade' }),
+  fileName: text('file_name').notNull(),
+  lineCount: integer('line_count').notNull(),
+  pdf: bytea('pdf').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/**
+ * Issued revisions of the project design report, numbered per project like the bill; the PDF is
+ * kept byte for byte as issued (append-only: the application may only read and add).
+ */
+export const designReports = pgTable(
+  'design_reports',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    issuedBy: text('issued_by')
+      .notNull()
+      .references(() => users.id),
+    issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+    basisRevision: integer('basis_revision').notNull(),
+    lineListRevision: integer('line_list_revision'),
+    calcVersion: text('calc_version').notNull(),
+    note: text('note').notNull().default(''),
+    /** The figures the report states (totals, counts), for the revision list and checks. */
+    summary: jsonb('summary').notNull(),
+    sha256: text('sha256').notNull(),
+    pdf: bytea('pdf').notNull(),
+  },
+  (t) => [uniqueIndex('design_reports_number_key').on(t.projectId, t.number)],
+);
+
 /** The plant's heat-loss budget and its allocation by area. */
 export const budgets = pgTable('budgets', {
   projectId: uuid('project_id')
@@ -690,7 +735,7 @@ export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
 export type ApiToken = typeof apiTokens.$inferSelect;
 
-export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill']);
+export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill', 'sheets-batch']);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
 
 /**

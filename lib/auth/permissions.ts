@@ -21,6 +21,8 @@ export const ACTIONS = [
   'budget.edit',
   'boq.read', // web view and issued downloads
   'boq.issue',
+  'report.read', // issued design-report revisions
+  'report.issue',
   'members.read',
   'members.manage', // invite, change role, remove
   'org.settings',
@@ -57,6 +59,8 @@ const MATRIX: Record<Action, readonly Role[]> = {
   'budget.edit': [O, E],
   'boq.read': [O, E, R, C],
   'boq.issue': [O, E],
+  'report.read': [O, E, R, C],
+  'report.issue': [O, E],
   'members.read': [O, E, R],
   'members.manage': [O],
   'org.settings': [O],

@@ -8,6 +8,7 @@ export const QUEUES = {
   'import-solve': { retryLimit: 2, retryDelay: 2 },
   'solve-all': { retryLimit: 2, retryDelay: 2 },
   'issue-bill': { retryLimit: 2, retryDelay: 2 },
+  'sheets-batch': { retryLimit: 1, retryDelay: 2 },
 } as const;
 export type QueueName = keyof typeof QUEUES;
 
@@ -22,4 +23,5 @@ export const JOB_KIND_LABEL: Record<QueueName, string> = {
   'import-solve': 'Import and solve',
   'solve-all': 'Solve',
   'issue-bill': 'Bill issue',
+  'sheets-batch': 'Calculation sheets',
 };

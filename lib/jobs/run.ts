@@ -6,7 +6,7 @@
  */
 import { eq, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
-import { jobs } from '@/db/schema';
+import { jobs, sheetBatches } from '@/db/schema';
 import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
 import { commitDraft, solveProject } from '@/lib/lines/store';
@@ -14,6 +14,8 @@ import { issueBill } from '@/lib/boq/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { SolvePool } from '@/lib/lines/solve-pool';
 import { JOB_KIND_LABEL, QUEUES } from './queues';
+import { sheetsBatchPdf } from '@/lib/documents/sheets';
+import type { LineFilter } from '@/lib/lines/filter';
 
 const progress = (jobId: string) => async (done: number, total: number) => {
   await db.update(jobs).set({ done, total }).where(eq(jobs.id, jobId));
@@ -53,6 +55,19 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           removed: r.diff.removed.length,
           solved: s.solved,
         };
+      } else if (job.kind === 'sheets-batch') {
+        // Calculation sheets of the filtered lines as one PDF, kept for download beside the job.
+        const input = job.input as { filter: LineFilter };
+        const r = await sheetsBatchPdf({
+          projectId: job.projectId,
+          filter: input.filter,
+          onProgress: progress(jobId),
+        });
+        await tx
+          .insert(sheetBatches)
+          .values({ jobId, projectId: job.projectId, fileName: r.fileName, lineCount: r.count, pdf: r.buf })
+          .onConflictDoNothing();
+        result = { sheets: r.count, fileName: r.fileName, bytes: r.buf.length };
       } else if (job.kind === 'issue-bill') {
         // Issued inside this transaction: a retry after a crash finds the job done, never a second issue.
         const issue = await issueBill({

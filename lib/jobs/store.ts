@@ -44,12 +44,24 @@ export async function enqueueJob({
   const [busy] = await db
     .select({ id: jobs.id })
     .from(jobs)
-    .where(and(eq(jobs.projectId, projectId), inArray(jobs.state, ['queued', 'running'])))
+    .where(
+      and(
+        eq(jobs.projectId, projectId),
+        inArray(jobs.state, ['queued', 'running']),
+        // A batch of calculation sheets waits only for another batch; imports and solves for each other.
+        inArray(
+          jobs.kind,
+          kind === 'sheets-batch' ? ['sheets-batch'] : ['import-solve', 'solve-all', 'issue-bill'],
+        ),
+      ),
+    )
     .limit(1);
   if (busy)
     throw new AppError(
       'conflict',
-      'An import, solve or bill issue of this project is still running; wait for it to finish (its progress is shown on the line list and the bill page).',
+      kind === 'sheets-batch'
+        ? 'A batch of calculation sheets of this project is still being produced; wait for it to finish (its progress is shown on the line list).'
+        : 'An import, solve or bill issue of this project is still running; wait for it to finish (its progress is shown on the line list and the bill page).',
     );
   const [job] = await db.insert(jobs).values({ projectId, kind, createdBy: userId, input }).returning(VIEW);
   const boss = await getBoss();

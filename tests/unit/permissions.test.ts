@@ -20,6 +20,8 @@ const EXPECTED: Record<string, string> = {
   'budget.edit': 'OE',
   'boq.read': 'OERC',
   'boq.issue': 'OE',
+  'report.read': 'OERC',
+  'report.issue': 'OE',
   'members.read': 'OER',
   'members.manage': 'O',
   'org.settings': 'O',

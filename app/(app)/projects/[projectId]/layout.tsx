@@ -9,6 +9,7 @@ const SECTIONS: { path: string; label: string; action: Action }[] = [
   { path: '/review', label: 'Safety review', action: 'review.read' },
   { path: '/budget', label: 'Heat-loss budget', action: 'budget.read' },
   { path: '/boq', label: 'Bill of quantities', action: 'boq.read' },
+  { path: '/report', label: 'Design report', action: 'report.read' },
 ];
 
 export default async function ProjectLayout({

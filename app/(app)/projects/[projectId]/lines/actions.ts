@@ -54,6 +54,19 @@ export const solveLinesAction = projectAction(
     enqueueJob({ projectId: project.id, userId: user.id, kind: 'solve-all', input: { all: input.all } }),
 );
 
+/** A batch of calculation sheets for exactly the table's filter, produced by the worker as one PDF. */
+export const startSheetsBatchAction = projectAction(
+  'lines.read',
+  z.object({ filter: lineFilterSchema }),
+  async ({ project, user, input }) =>
+    enqueueJob({
+      projectId: project.id,
+      userId: user.id,
+      kind: 'sheets-batch',
+      input: { filter: { q: input.filter.q, area: input.filter.area, status: input.filter.status } },
+    }),
+);
+
 export const pickThicknessAction = projectAction(
   'design.pick',
   z.object({

@@ -37,11 +37,13 @@ export function JobProgressBar({ job }: { job: Wire }) {
   const text =
     job.state === 'queued'
       ? 'Waiting for a worker…'
-      : job.total
-        ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
-        : job.kind === 'issue-bill'
-          ? 'Counting the quantities of every decided line…'
-          : 'Reading and importing…';
+      : job.kind === 'sheets-batch'
+        ? `Producing the sheets of ${job.total.toLocaleString('en')} lines…`
+        : job.total
+          ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
+          : job.kind === 'issue-bill'
+            ? 'Counting the quantities of every decided line…'
+            : 'Reading and importing…';
   return (
     <div className="mb-3" aria-live="polite">
       <div
@@ -100,6 +102,14 @@ export function RecentJobs({ projectId }: { projectId: string }) {
               {j.state === 'done' && j.result && 'solved' in j.result
                 ? ` · ${String(j.result.solved)} ${j.result.solved === 1 ? 'line' : 'lines'} solved`
                 : ''}
+              {j.state === 'done' && j.kind === 'sheets-batch' && j.result ? (
+                <>
+                  {' · '}
+                  <a href={`/api/v1/projects/${projectId}/sheets/${j.id}`} download>
+                    Download the {String(j.result.sheets)} sheets (PDF)
+                  </a>
+                </>
+              ) : null}
               {j.error && j.state === 'failed' ? ` · ${j.error}` : ''}
             </li>
           ))}

@@ -15,10 +15,12 @@ import {
   pickThicknessAction,
   previewBulkAcceptAction,
   solveLinesAction,
+  startSheetsBatchAction,
   undoBulkAcceptAction,
 } from './actions';
 import { LINE_STATUSES, LINE_STATUS_LABEL, type LineFilter, type LineStatus } from '@/lib/lines/filter';
 import type { BulkPreview } from '@/lib/lines/bulk-accept';
+import { SHEETS_INLINE_LIMIT } from '@/lib/documents/limits';
 import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 import { criterionLabel } from '@/lib/lines/criterion-labels';
@@ -522,6 +524,7 @@ export function LineTable({
             ))}
           </select>
         </div>
+        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
         <div className="ml-auto flex gap-2">
           {canSolve ? (
             <button type="button" className="btn-quiet" onClick={solve} disabled={pending}>
@@ -759,6 +762,71 @@ function UndoButton({ onUndo, disabled }: { onUndo: () => void; disabled: boolea
     <button type="button" ref={ref} className="btn-quiet py-0.5" onClick={onUndo} disabled={disabled}>
       Undo
     </button>
+  );
+}
+
+/** Downloads of exactly what the filter shows: results (.xlsx, .csv), everything, and the calculation sheets. */
+function DocumentLinks({
+  projectId,
+  filter,
+  total,
+}: {
+  projectId: string;
+  filter: { q: string; area: string; status: string };
+  total: number;
+}) {
+  const qc = useQueryClient();
+  const [busy, setBusy] = useState(false);
+  const [note, setNote] = useState<string | null>(null);
+  const f = new URLSearchParams(Object.entries(filter).filter(([, v]) => v));
+  const base = `/api/v1/projects/${projectId}`;
+  const withF = (path: string, extra: Record<string, string> = {}) =>
+    `${base}/${path}?${new URLSearchParams([...f.entries(), ...Object.entries(extra)]).toString()}`;
+  return (
+    <section className="text-xs" aria-label="Downloads">
+      <span className="label">Download</span>
+      <span className="flex flex-wrap gap-x-3">
+        <a href={withF('export', { format: 'xlsx' })} download>
+          Results of the filtered lines (.xlsx)
+        </a>
+        <a href={withF('export', { format: 'csv' })} download>
+          (.csv)
+        </a>
+        <a href={`${base}/export?scope=all&format=xlsx`} download>
+          All lines (.xlsx)
+        </a>
+        {total > 0 && total <= SHEETS_INLINE_LIMIT ? (
+          <a href={withF('sheets')} download>
+            Calculation sheets of the {total} filtered lines (PDF)
+          </a>
+        ) : null}
+        {total > SHEETS_INLINE_LIMIT ? (
+          <button
+            type="button"
+            className="underline"
+            disabled={busy}
+            onClick={() => {
+              setBusy(true);
+              setNote(null);
+              startSheetsBatchAction(projectId, { filter }).then((r) => {
+                setBusy(false);
+                setNote(
+                  r.ok ? 'The sheets are being produced; the download appears under Recent jobs.' : r.error,
+                );
+                qc.invalidateQueries({ queryKey: ['jobs', projectId] });
+              });
+            }}
+          >
+            Produce the calculation sheets of the {total} filtered lines (PDF, in the background)
+          </button>
+        ) : null}
+      </span>
+      {note ? (
+        <span role="status" className="block text-ink-600">
+          {note}
+        </span>
+      ) : null}
+    </section>
   );
 }
 

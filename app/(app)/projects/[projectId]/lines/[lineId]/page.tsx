@@ -25,6 +25,7 @@ import {
 } from '@/lib/thermal';
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
+import { PrintButton } from '@/components/print-button';
 
 /** "1\"-HW-207-B2 · Line · BP-STM-24": each line's page has its own title. */
 export async function generateMetadata({
@@ -126,8 +127,18 @@ export default async function LinePage({
           );
   return (
     <>
-      <p className="mb-1 text-sm">
+      <div className="no-print mb-1 flex flex-wrap items-center justify-between gap-2 text-sm">
         <Link href={`/projects/${project.id}/lines`}>← Line list</Link>
+        <span className="flex items-center gap-3">
+          <a href={`/api/v1/projects/${project.id}/lines/${line.id}/sheet`} download>
+            Download calculation sheet (PDF)
+          </a>
+          <PrintButton label="Print this page" />
+        </span>
+      </div>
+      <p className="mb-1 hidden text-xs text-ink-600 print:block">
+        {project.code} · {project.name} · calculation sheet · line-list revision {line.revision} · design
+        basis revision {result?.basisRevision ?? '—'} · calculation version {result?.calcVersion ?? '—'}
       </p>
       <h1 className="mb-1 font-mono">{line.tag}</h1>
       <p className="mb-4 text-sm text-ink-600">

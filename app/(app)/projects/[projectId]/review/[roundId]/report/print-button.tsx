@@ -1,8 +1,1 @@
-'use client';
-export function PrintButton() {
-  return (
-    <button type="button" className="btn-quiet" onClick={() => window.print()}>
-      Print or save as PDF
-    </button>
-  );
-}
+export { PrintButton } from '@/components/print-button';

@@ -35,7 +35,7 @@ test('the demo engineer signs in with the company account (linked once by passwo
   await expect(page).toHaveURL(/\/projects$/);
   await expect(page.getByTestId('user-email')).toHaveText(eng.email);
   await openDemoProject(page);
-  await expect(page.getByTestId('role')).toHaveText('Engineer');
+  await expect(page.getByTestId('role').filter({ visible: true })).toHaveText('Engineer');
 });
 
 test('a newcomer arrives waiting for an owner, and an unknown domain is told to use a password', async ({

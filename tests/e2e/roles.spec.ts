@@ -28,7 +28,7 @@ for (const key of ['owner', 'engineer', 'reviewer', 'contractor'] as const) {
     const u = demo(key);
     await signIn(page, u.email, u.password);
     await openDemoProject(page);
-    await expect(page.getByTestId('role')).toHaveText(ROLE_LABEL[key]);
+    await expect(page.getByTestId('role').filter({ visible: true })).toHaveText(ROLE_LABEL[key]);
     const links = page.getByRole('navigation', { name: 'Project' }).getByRole('link');
     await expect(links).toHaveText(NAV[key]);
   });

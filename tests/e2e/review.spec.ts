@@ -80,7 +80,7 @@ test('engineer requests a review, the reviewer gets the e-mail, disposes and sig
   );
   expect(signedMail.url).toContain(`/projects/${id}/review/`);
   await page.goto(`/projects/${id}/review`);
-  await page.getByRole('link', { name: 'Report' }).click();
+  await page.getByRole('link', { name: 'Report', exact: true }).click();
   await expect(page.getByTestId('signoff')).toContainText('Signed off by Mira Castell');
   const report = page.getByRole('table', { name: 'Flagged surfaces' });
   // A row per flag: RW-1 over the touch limit; RW-2 (160–170 °C) over it and in the carbon-steel

@@ -8,13 +8,14 @@ const ALL = [
   'Safety review',
   'Heat-loss budget',
   'Bill of quantities',
+  'Design report',
   'Members',
 ];
 const NAV: Record<string, string[]> = {
   owner: ALL,
   engineer: ALL,
   reviewer: ALL,
-  contractor: ['Overview', 'Bill of quantities'],
+  contractor: ['Overview', 'Bill of quantities', 'Design report'],
 };
 const ROLE_LABEL: Record<string, string> = {
   owner: 'Owner',

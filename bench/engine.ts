@@ -5,6 +5,7 @@
  * Prints lines per second and microseconds per line (median of five timed passes, each printed).
  * Goal: ≤ 50 µs per line.
  */
+import { availableParallelism } from 'node:os';
 import {
   DEFAULT_CRITERIA,
   PIPE_SIZES,
@@ -136,7 +137,8 @@ async function productPath() {
   console.log(
     `product solve path (demo design basis, ${rows.length} lines, solve + result row): ${((one / rows.length) * 1e6).toFixed(1)} µs per line, one thread (passes ${times.map((t) => t.toFixed(2)).join(' ')} s)`,
   );
-  const pool = createSolvePool();
+  // A pool of at least two threads, whatever the worker's default on this machine (SOLVE_THREADS).
+  const pool = createSolvePool(Math.max(2, availableParallelism()));
   if (!pool) {
     console.log('worker-thread pool: one core here, no pool');
     return;

@@ -21,9 +21,16 @@ export interface SolvePool {
   close(): Promise<void>;
 }
 
+/**
+ * SOLVE_THREADS, else one thread per core but one when the machine has three or more cores, else
+ * none: on 2 cores the pool measured slower than solving in the worker's own thread (bench:engine,
+ * 0.4–0.5× — the rows are copied back between threads and PostgreSQL needs the other core).
+ */
 export function solveThreads(): number {
   const env = process.env.SOLVE_THREADS;
-  return env !== undefined && env !== '' ? Math.max(0, Math.floor(Number(env)) || 0) : availableParallelism();
+  if (env !== undefined && env !== '') return Math.max(0, Math.floor(Number(env)) || 0);
+  const cores = availableParallelism();
+  return cores >= 3 ? cores - 1 : 1;
 }
 
 /** A pool of `threads` worker threads, or null when one thread (or none) is asked for. */

@@ -8,7 +8,9 @@ import { execFileSync } from 'node:child_process';
 import { db, getPool } from '../db/client';
 import { projects } from '../db/schema';
 import * as auth from '../lib/auth/service';
-import * as store from '../lib/lines/store';
+import { acceptRecommendations } from '../lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '../lib/lines/import-store';
+import { solveProject } from '../lib/lines/results-store';
 import * as boq from '../lib/boq/store';
 import { demoLineRows, lineListWorkbook } from '../seed/line-list';
 
@@ -26,22 +28,22 @@ async function main() {
     .insert(projects)
     .values({ organizationId: owner.organizationId, code: `BQ-${Date.now()}`, name: 'Bill bench' })
     .returning();
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId: p.id,
     userId: owner.userId,
     fileName: 'bench.xlsx',
     bytes: await lineListWorkbook(demoLineRows(N, 7)),
   });
   const s = draft.sheets[0];
-  await store.commitDraft({
+  await commitDraft({
     projectId: p.id,
     draftId: draft.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId: owner.userId,
   });
-  await store.solveProject({ projectId: p.id });
-  await store.acceptRecommendations({ projectId: p.id, userId: owner.userId });
+  await solveProject({ projectId: p.id });
+  await acceptRecommendations({ projectId: p.id, userId: owner.userId });
   console.log(`project ready: ${N} lines solved and decided`);
   // The bill is measured in a fresh process, so set-up memory does not count against it.
   execFileSync(

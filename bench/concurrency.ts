@@ -11,7 +11,8 @@ import { eq } from 'drizzle-orm';
 import { db, getPool } from '../db/client';
 import { jobs, projects } from '../db/schema';
 import * as auth from '../lib/auth/service';
-import * as store from '../lib/lines/store';
+import { commitDraft, createDraft } from '../lib/lines/import-store';
+import { listLines, solveProject } from '../lib/lines/results-store';
 import { enqueueJob } from '../lib/jobs/store';
 import { stopBoss } from '../lib/jobs/boss';
 import { demoLineRows, lineListWorkbook } from '../seed/line-list';
@@ -23,21 +24,21 @@ async function importProject(userId: string, organizationId: string, n: number) 
     .insert(projects)
     .values({ organizationId, code: `BC-${randomUUID().slice(0, 6)}`, name: 'Bench concurrency' })
     .returning();
-  const d = await store.createDraft({
+  const d = await createDraft({
     projectId: p.id,
     userId,
     fileName: 'bench.xlsx',
     bytes: await lineListWorkbook(demoLineRows(n, 5)),
   });
   const s = d.sheets.find((x) => x.name === d.defaultSheet)!;
-  await store.commitDraft({
+  await commitDraft({
     projectId: p.id,
     draftId: d.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId,
   });
-  await store.solveProject({ projectId: p.id });
+  await solveProject({ projectId: p.id });
   return p.id;
 }
 
@@ -53,7 +54,7 @@ async function othersP95(projectId: string, ms: number, parallel = 8): Promise<n
         const k = i++;
         const t0 = performance.now();
         JSON.stringify(
-          await store.listLines({
+          await listLines({
             projectId,
             page: k % 10,
             size: 100,

@@ -9,7 +9,9 @@ import { asc, eq } from 'drizzle-orm';
 import { db, getPool } from '../db/client';
 import { lines, projects } from '../db/schema';
 import * as auth from '../lib/auth/service';
-import * as store from '../lib/lines/store';
+import { acceptRecommendations } from '../lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '../lib/lines/import-store';
+import { solveProject } from '../lib/lines/results-store';
 import { sheetModels } from '../lib/documents/sheets';
 import { renderPdf } from '../lib/documents/pdf-kit';
 import { SheetsDocument } from '../lib/documents/sheet-pdf';
@@ -39,22 +41,22 @@ async function main() {
     .values({ organizationId: owner.organizationId, code: `DOC-${Date.now()}`, name: 'Documents bench' })
     .returning();
   let t = performance.now();
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId: p.id,
     userId: owner.userId,
     fileName: 'bench.xlsx',
     bytes: await lineListWorkbook(demoLineRows(N, 7)),
   });
   const sh = draft.sheets[0];
-  await store.commitDraft({
+  await commitDraft({
     projectId: p.id,
     draftId: draft.draftId,
     sheetName: sh.name,
     mapping: sh.suggested,
     userId: owner.userId,
   });
-  await store.solveProject({ projectId: p.id });
-  await store.acceptRecommendations({ projectId: p.id, userId: owner.userId });
+  await solveProject({ projectId: p.id });
+  await acceptRecommendations({ projectId: p.id, userId: owner.userId });
   console.log(`project ready: ${N} lines imported, solved and decided (${s(t)} s, not counted)`);
 
   const ids = (

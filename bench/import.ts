@@ -17,7 +17,8 @@ import { randomUUID } from 'node:crypto';
 import { db, getPool } from '../db/client';
 import { projects } from '../db/schema';
 import * as auth from '../lib/auth/service';
-import * as store from '../lib/lines/store';
+import { commitDraft, createDraft, previewDraft } from '../lib/lines/import-store';
+import { listAreas, solveProject } from '../lib/lines/results-store';
 import { getPickerOptions, lineTablePage } from '../lib/lines/picker';
 import ExcelJS from 'exceljs';
 import { demoLineRows, lineListWorkbook } from '../seed/line-list';
@@ -90,7 +91,7 @@ async function main() {
   const bytes = await lineListWorkbook(demoLineRows(N, 99));
   console.log(`generated workbook: ${N} rows, ${(bytes.length / 1048576).toFixed(1)} MB`);
   lap();
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId: p.id,
     userId: owner.userId,
     fileName: 'bench.xlsx',
@@ -98,14 +99,14 @@ async function main() {
   });
   const tParse = lap();
   const sheet = draft.sheets.find((s) => s.name === draft.defaultSheet)!;
-  const preview = await store.previewDraft({
+  const preview = await previewDraft({
     projectId: p.id,
     draftId: draft.draftId,
     sheetName: sheet.name,
     mapping: sheet.suggested,
   });
   const tValidate = lap();
-  const c = await store.commitDraft({
+  const c = await commitDraft({
     projectId: p.id,
     draftId: draft.draftId,
     sheetName: sheet.name,
@@ -113,7 +114,7 @@ async function main() {
     userId: owner.userId,
   });
   const tImport = lap();
-  const s = await store.solveProject({ projectId: p.id });
+  const s = await solveProject({ projectId: p.id });
   const tSolve = lap();
   const total = tParse + tValidate + tImport + tSolve;
   console.log(`read + parse:          ${(tParse / 1000).toFixed(2)} s`);
@@ -130,7 +131,7 @@ async function main() {
   );
 
   // Line table: pages of 100 with a sort and a filter, as GET /api/v1/projects/:id/lines serves them.
-  const areas = await store.listAreas({ projectId: p.id });
+  const areas = await listAreas({ projectId: p.id });
   const sorts = ['heatFlowPerUnit', 'tag', 'normalTempC', 'surfaceTempC', 'recommendedMm'] as const;
   const times: number[] = [];
   for (let i = 0; i < 60; i++) {
@@ -205,7 +206,7 @@ async function productPath() {
   });
   peak = process.memoryUsage().rss; // this process from here on
   const t0 = performance.now();
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId: p.id,
     userId: owner.userId,
     fileName: 'bench.xlsx',

@@ -11,7 +11,10 @@ import { env } from '../lib/env';
 import { hashPassword } from '../lib/auth/password';
 import { DEMO_ORG, DEMO_PROJECT, DEMO_USERS, OTHER_ORG } from './demo-data';
 import { demoLineRows, lineListWorkbook } from './line-list';
-import * as lineStore from '../lib/lines/store';
+import { acceptRecommendations } from '../lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '../lib/lines/import-store';
+import { pickDesign } from '../lib/lines/picks-store';
+import { listAreas, listLines, solveProject } from '../lib/lines/results-store';
 import { getPickerOptions } from '../lib/lines/picker';
 import * as reviewStore from '../lib/review/store';
 import * as boqStore from '../lib/boq/store';
@@ -102,27 +105,27 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
   }
   const [engineer] = await db.select().from(users).where(eq(users.email, DEMO_USERS[1].email));
   const bytes = await lineListWorkbook(demoLineRows(220), { withInstructions: true });
-  const draft = await lineStore.createDraft({
+  const draft = await createDraft({
     projectId: project.id,
     userId: engineer.id,
     fileName: 'brack-point-line-list.xlsx',
     bytes,
   });
   const sheet = draft.sheets.find((s) => s.name === draft.defaultSheet)!;
-  const r = await lineStore.commitDraft({
+  const r = await commitDraft({
     projectId: project.id,
     draftId: draft.draftId,
     sheetName: sheet.name,
     mapping: sheet.suggested,
     userId: engineer.id,
   });
-  const solved = await lineStore.solveProject({ projectId: project.id });
+  const solved = await solveProject({ projectId: project.id });
   // Most lines decided; the Tank farm area left open for the demo engineer.
-  const areas = await lineStore.listAreas({ projectId: project.id });
+  const areas = await listAreas({ projectId: project.id });
   for (const area of areas.filter((a) => !a.startsWith('U45')))
-    await lineStore.acceptRecommendations({ projectId: project.id, userId: engineer.id, area });
+    await acceptRecommendations({ projectId: project.id, userId: engineer.id, area });
   // A few manual picks with their reasons, one of them below the personnel-protection requirement.
-  const page = await lineStore.listLines({
+  const page = await listLines({
     projectId: project.id,
     page: 0,
     size: 500,
@@ -143,7 +146,7 @@ async function seedLineList(db: ReturnType<typeof drizzle<typeof schema>>) {
     );
     const idx = cands.indexOf(l.recommendedMm!);
     const mm = i === 1 ? cands[Math.max(1, idx - 2)] : cands[Math.min(cands.length - 1, idx + 1)];
-    await lineStore.pickDesign({
+    await pickDesign({
       projectId: project.id,
       lineId: l.id,
       userId: engineer.id,

@@ -14,7 +14,7 @@ import {
 } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { actorName, writeAudit } from '@/lib/audit';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { currentFlags } from '@/lib/review/store';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { isIncompleteLine } from '@/lib/lines/fields';

@@ -6,7 +6,7 @@ import { budgets, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { decodeCandidate } from '@/lib/lines/candidate-row';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { isIncompleteLine } from '@/lib/lines/fields';
 
 export const budgetSchema = z

@@ -20,7 +20,7 @@ import { dashboard } from '@/lib/budget/store';
 import { formatterFor, sig, type Formatter } from '@/lib/format';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import type { DesignBasis } from '@/lib/lines/design-basis';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { CALCULATION_VERSION } from '@/lib/thermal';
 import {
   ACCENT,

@@ -16,7 +16,8 @@ import { candidateNumbers, decidingLimits, type CandidateRow } from '@/lib/lines
 import { GEOMETRY_LABEL, PURPOSE_LABEL, isSurfaceGeometry, type Purpose } from '@/lib/lines/fields';
 import type { LineFilter } from '@/lib/lines/filter';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
-import { getDesignBasis, inputOf } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
+import { inputOf } from '@/lib/lines/result-row';
 import { isResultStale, lineFilterSql } from '@/lib/lines/stale';
 import { CRITERION_LABEL } from './sheet-model';
 import { projectHeader, safeFilePart } from './sheets';

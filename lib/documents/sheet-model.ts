@@ -12,7 +12,7 @@ import type { DesignBasis } from '@/lib/lines/design-basis';
 import { economicsView } from '@/lib/lines/economics-view';
 import { GEOMETRY_LABEL, PURPOSE_LABEL, isSurfaceGeometry, type Purpose } from '@/lib/lines/fields';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
-import { inputOf } from '@/lib/lines/store';
+import { inputOf } from '@/lib/lines/result-row';
 import { criteriaFor } from '@/lib/lines/solve-line';
 
 export const CRITERION_LABEL: Record<string, string> = {

@@ -4,7 +4,7 @@ import { db } from '@/db/client';
 import { lineDesigns, lineResults, lines, organizations, projects } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import type { LineFilter } from '@/lib/lines/filter';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { isResultStale, lineFilterSql } from '@/lib/lines/stale';
 import { renderPdf } from './pdf-kit';
 import { SheetsDocument } from './sheet-pdf';

@@ -7,7 +7,9 @@ import type { DesignBasis } from './design-basis';
 import type { LineInput } from './validate';
 import { candidateNumbers, decidingLimits, worstMargin, type DecidingLimits } from './deciding';
 import { decodeCandidate, type CandidateRow } from './candidate-row';
-import { getDesignBasis, getLine, inputOf, listLines, type LineQuery } from './store';
+import { getDesignBasis } from './basis-store';
+import { inputOf } from './result-row';
+import { getLine, type LineQuery, listLines } from './results-store';
 
 /** One thickness option as the client receives it (surfaceC: the heat-loss conditions' surface). */
 export interface PickerCandidate {

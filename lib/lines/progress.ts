@@ -4,7 +4,7 @@ import { db } from '@/db/client';
 import { boqIssues, lineDesigns, lineResults, lines } from '@/db/schema';
 import { collectBillLines } from '@/lib/boq/store';
 import { currentFlags } from '@/lib/review/store';
-import { getDesignBasis } from './store';
+import { getDesignBasis } from './basis-store';
 import { staleSql } from './stale';
 
 export interface ProjectProgress {

@@ -21,7 +21,8 @@ import { AppError } from '@/lib/errors';
 import { env } from '@/lib/env';
 import { composeMail, sendMail } from '@/lib/mail';
 import { CALCULATION_VERSION } from '@/lib/thermal';
-import { getDesignBasis, inputOf } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
+import { inputOf } from '@/lib/lines/result-row';
 import { isResultStale } from '@/lib/lines/stale';
 import { FLAG_LABEL, flagsForLine, type Flag, type FlagType } from './flags';
 

@@ -16,7 +16,8 @@ import {
   type Role,
 } from '@/db/schema';
 import { createApiToken, listApiTokens, revokeApiToken } from '@/lib/auth/api-tokens';
-import * as lineStore from '@/lib/lines/store';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import { POST as calcPost } from '@/app/api/v1/calc/route';
 import { POST as recommendPost } from '@/app/api/v1/recommend/route';
 import { GET as linesGet } from '@/app/api/v1/projects/[projectId]/lines/route';
@@ -97,20 +98,20 @@ beforeAll(async () => {
     .insert(projects)
     .values({ organizationId: orgB, code: `TB-${run}`, name: 'Token project B' })
     .returning();
-  const d = await lineStore.createDraft({
+  const d = await createDraft({
     projectId: projectA,
     userId: people.engineer,
     fileName: 't.xlsx',
     bytes: await lineListWorkbook([row('T-100')]),
   });
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId: projectA,
     draftId: d.draftId,
     sheetName: d.sheets[0].name,
     mapping: d.sheets[0].suggested,
     userId: people.engineer,
   });
-  await lineStore.solveProject({ projectId: projectA });
+  await solveProject({ projectId: projectA });
   [{ id: lineId }] = await db.select({ id: lines.id }).from(lines).where(eq(lines.projectId, projectA));
 });
 

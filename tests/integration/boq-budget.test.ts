@@ -5,7 +5,9 @@ import { eq } from 'drizzle-orm';
 import { db, getPool } from '@/db/client';
 import { lineResults, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as lineStore from '@/lib/lines/store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import * as boq from '@/lib/boq/store';
 import { currentBillFactors, saveBillFactors } from '@/lib/boq/factors';
 import { projectProgress } from '@/lib/lines/progress';
@@ -37,21 +39,21 @@ const row = (tag: string, o: Record<string, string | number | null> = {}) =>
 let projectId = '',
   userId = '';
 async function importRows(rows: (string | number | null)[][]) {
-  const d = await lineStore.createDraft({
+  const d = await createDraft({
     projectId,
     userId,
     fileName: 'b.xlsx',
     bytes: await lineListWorkbook(rows),
   });
   const s = d.sheets[0];
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId,
     draftId: d.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId,
   });
-  await lineStore.solveProject({ projectId });
+  await solveProject({ projectId });
 }
 async function readBook(n: number) {
   const { buf } = await boq.issueWorkbook({ projectId, number: n });
@@ -89,7 +91,7 @@ describe('bill of quantities on PostgreSQL', () => {
   });
 
   it('issues two revisions; both workbooks read back with the right cells and the delta', async () => {
-    await lineStore.acceptRecommendations({ projectId, userId, area: 'North' });
+    await acceptRecommendations({ projectId, userId, area: 'North' });
     const first = await boq.issueBill({ projectId, userId });
     expect(first).toMatchObject({ number: 1, counted: 2, pending: 1 });
     const wb1 = await readBook(1);
@@ -133,7 +135,7 @@ describe('bill of quantities on PostgreSQL', () => {
     expect(notes.getCell('B4').value).toBe(1);
     expect(String(notes.getCell('A17').value)).toBe('Basis of factors');
 
-    await lineStore.acceptRecommendations({ projectId, userId, area: 'South' });
+    await acceptRecommendations({ projectId, userId, area: 'South' });
     const second = await boq.issueBill({ projectId, userId });
     expect(second).toMatchObject({ number: 2, counted: 3, pending: 0 });
     const wb2 = await readBook(2);

@@ -12,7 +12,10 @@ import {
   type LineDesign,
 } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as store from '@/lib/lines/store';
+import { type BulkItem, applyBulkAccept, previewBulkAccept, undoBulkAccept } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { pickDesign } from '@/lib/lines/picks-store';
+import { solveProject } from '@/lib/lines/results-store';
 import type { LineFilter } from '@/lib/lines/filter';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -44,14 +47,14 @@ let projectId = '',
 const id: Record<string, string> = {};
 
 async function importRows(rows: Row[]) {
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId,
     userId,
     fileName: 'bulk.xlsx',
     bytes: await lineListWorkbook(rows),
   });
   const s = draft.sheets.find((x) => x.name === draft.defaultSheet)!;
-  return store.commitDraft({
+  return commitDraft({
     projectId,
     draftId: draft.draftId,
     sheetName: s.name,
@@ -71,9 +74,9 @@ async function result(tag: string) {
   const [r] = await db.select().from(lineResults).where(eq(lineResults.lineId, id[tag]));
   return r;
 }
-const preview = (filter: LineFilter) => store.previewBulkAccept({ projectId, filter });
-const apply = (filter: LineFilter, items: store.BulkItem[]) =>
-  store.applyBulkAccept({ projectId, userId, filter, items });
+const preview = (filter: LineFilter) => previewBulkAccept({ projectId, filter });
+const apply = (filter: LineFilter, items: BulkItem[]) =>
+  applyBulkAccept({ projectId, userId, filter, items });
 /** The decision fields a restore must bring back exactly (the version moves on by design). */
 const decision = ({ version: _v, ...d }: LineDesign) => {
   void _v;
@@ -101,14 +104,14 @@ beforeAll(async () => {
   projectId = p.id;
   const tags = ['B-1', 'B-2', 'B-3', 'B-4', 'B-5', 'B-6', 'B-7'];
   await importRows([...tags.map((t) => row(t)), row('C-1', { Area: 'Other' })]);
-  await store.solveProject({ projectId });
+  await solveProject({ projectId });
   for (const l of await db.select().from(lines).where(eq(lines.projectId, projectId))) id[l.tag] = l.id;
 
   const rec = async (tag: string) => (await result(tag)).recommendedMm!;
   const cands = (await result('B-3')).candidates;
   const thinner = cands[1][0];
   expect(thinner).toBeLessThan(await rec('B-3'));
-  const b3 = await store.pickDesign({
+  const b3 = await pickDesign({
     projectId,
     lineId: id['B-3'],
     userId,
@@ -118,7 +121,7 @@ beforeAll(async () => {
   });
   expect(b3).toMatchObject({ source: 'manual', belowCriterion: 'personnel' });
   for (const t of ['B-4', 'B-6', 'B-7'])
-    await store.pickDesign({
+    await pickDesign({
       projectId,
       lineId: id[t],
       userId,
@@ -129,7 +132,7 @@ beforeAll(async () => {
     ...tags.map((t) => row(t, t === 'B-4' ? { 'Normal temp (°C)': 170 } : {})),
     row('C-1', { Area: 'Other' }),
   ]);
-  await store.solveProject({ projectId });
+  await solveProject({ projectId });
   // B-7 holds what an earlier solve recommended: another candidate.
   const rec7 = await rec('B-7');
   const other = (await result('B-7')).candidates.find((c) => c[0] > 0 && c[0] !== rec7)!;
@@ -240,7 +243,7 @@ describe('accept recommendation for the filtered lines', () => {
       reason: null,
       belowCriterion: null,
     });
-    const undone = await store.undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
+    const undone = await undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
     expect(undone).toEqual({ restored: 2, changedSince: [], removed: [] });
     expect(await designs()).toEqual(before);
   });
@@ -303,7 +306,7 @@ describe('accept recommendation for the filtered lines', () => {
       thicknessMm: before['B-7'].thicknessMm,
     });
 
-    const u = await store.undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
+    const u = await undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
     expect(u).toEqual({ restored: 3, changedSince: [], removed: [] });
     const restored = await designs();
     expect(Object.keys(restored).sort()).toEqual(Object.keys(before).sort());
@@ -327,24 +330,24 @@ describe('accept recommendation for the filtered lines', () => {
     ).toBeTruthy();
 
     await expectAppError(
-      store.undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! }),
+      undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! }),
       'conflict',
       /already been undone/,
     );
     await expectAppError(
-      store.undoBulkAccept({ projectId, userId, bulkAcceptId: randomUUID() }),
+      undoBulkAccept({ projectId, userId, bulkAcceptId: randomUUID() }),
       'not_found',
       /does not exist/,
     );
     // A pick made against the accepted design (version 2) is refused; against "no decision" it continues the numbering.
     const rec = (await result('B-1')).recommendedMm!;
     await expectAppError(
-      store.pickDesign({ projectId, lineId: id['B-1'], userId, thicknessMm: rec, expectedVersion: 2 }),
+      pickDesign({ projectId, lineId: id['B-1'], userId, thicknessMm: rec, expectedVersion: 2 }),
       'conflict',
       /Someone else changed/,
     );
     expect(
-      (await store.pickDesign({ projectId, lineId: id['B-1'], userId, thicknessMm: rec, expectedVersion: 0 }))
+      (await pickDesign({ projectId, lineId: id['B-1'], userId, thicknessMm: rec, expectedVersion: 0 }))
         .version,
     ).toBe(3);
   });
@@ -355,7 +358,7 @@ describe('accept recommendation for the filtered lines', () => {
     const r = await apply({ area: 'A' }, p.items);
     const b2 = (await designs())['B-2'];
     const cands = (await result('B-2')).candidates.map((c) => c[0]);
-    await store.pickDesign({
+    await pickDesign({
       projectId,
       lineId: id['B-2'],
       userId,
@@ -363,7 +366,7 @@ describe('accept recommendation for the filtered lines', () => {
       reason: 'Thicker for the jetty wind',
       expectedVersion: b2.version,
     });
-    const u = await store.undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
+    const u = await undoBulkAccept({ projectId, userId, bulkAcceptId: r.bulkAcceptId! });
     expect(u).toEqual({ restored: 1, changedSince: ['B-2'], removed: [] });
     expect((await designs())['B-2']).toMatchObject({
       source: 'manual',

@@ -5,7 +5,10 @@ import ExcelJS from 'exceljs';
 import { GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { db, getPool } from '@/db/client';
 import { boqIssues, lineListRevisions, memberships, organizations, projects, users } from '@/db/schema';
-import * as lineStore from '@/lib/lines/store';
+import { getDesignBasis, saveDesignBasis } from '@/lib/lines/basis-store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft, revisionOriginal } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import * as boq from '@/lib/boq/store';
 import { createApiToken } from '@/lib/auth/api-tokens';
 import { GET as originalGet } from '@/app/api/v1/projects/[projectId]/lines/revisions/[number]/original/route';
@@ -41,16 +44,16 @@ let organizationId = '';
 const userId = `doc-${randomUUID().slice(0, 8)}`;
 
 async function importFile(fileName: string, bytes: Buffer) {
-  const d = await lineStore.createDraft({ projectId, userId, fileName, bytes });
+  const d = await createDraft({ projectId, userId, fileName, bytes });
   const s = d.sheets[0];
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId,
     draftId: d.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId,
   });
-  await lineStore.solveProject({ projectId });
+  await solveProject({ projectId });
 }
 
 beforeAll(async () => {
@@ -74,7 +77,7 @@ describe('documents kept as issued in the object store', () => {
   it('keeps an issued bill byte for byte after the project changed, and each line-list original', async () => {
     const first = await lineListWorkbook([row('K-1'), row('K-2', { NPS: '2', 'Length (m)': 40 })]);
     await importFile('Client line list rev A.xlsx', first);
-    await lineStore.acceptRecommendations({ projectId, userId, area: 'North' });
+    await acceptRecommendations({ projectId, userId, area: 'North' });
     const issue = await boq.issueBill({ projectId, userId });
     const [stored] = await db.select().from(boqIssues).where(eq(boqIssues.id, issue.id));
     expect(stored.documentKey).toBe(
@@ -94,13 +97,13 @@ describe('documents kept as issued in the object store', () => {
       'utf8',
     );
     await importFile('rev B;semi.csv', second);
-    const { basis } = await lineStore.getDesignBasis({ projectId });
-    await lineStore.saveDesignBasis({
+    const { basis } = await getDesignBasis({ projectId });
+    await saveDesignBasis({
       projectId,
       userId,
       basis: { ...basis, unitSystem: 'US', currency: 'USD' },
     });
-    await lineStore.acceptRecommendations({ projectId, userId, area: 'North' });
+    await acceptRecommendations({ projectId, userId, area: 'North' });
     const later = await boq.issueWorkbook({ projectId, number: 1 });
     expect(Buffer.compare(later.buf, atIssue.buf)).toBe(0);
     const wb = new ExcelJS.Workbook();
@@ -118,13 +121,13 @@ describe('documents kept as issued in the object store', () => {
       [1, 'Client line list rev A.xlsx', first.byteLength],
       [2, 'rev B;semi.csv', second.byteLength],
     ]);
-    const o1 = await lineStore.revisionOriginal({ projectId, number: 1 });
+    const o1 = await revisionOriginal({ projectId, number: 1 });
     expect(Buffer.compare(o1.buf, first)).toBe(0);
     expect(o1.contentType).toBe('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
-    const o2 = await lineStore.revisionOriginal({ projectId, number: 2 });
+    const o2 = await revisionOriginal({ projectId, number: 2 });
     expect(Buffer.compare(o2.buf, second)).toBe(0);
     await expectAppError(
-      lineStore.revisionOriginal({ projectId, number: 3 }),
+      revisionOriginal({ projectId, number: 3 }),
       'not_found',
       'Line-list revision 3 does not exist.',
     );
@@ -196,7 +199,7 @@ describe('documents kept as issued in the object store', () => {
       const after = await db.select().from(boqIssues).where(eq(boqIssues.projectId, projectId));
       expect(after.length).toBe(before.length);
       await expectAppError(
-        lineStore.createDraft({
+        createDraft({
           projectId,
           userId,
           fileName: 'x.xlsx',

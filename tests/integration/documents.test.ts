@@ -10,7 +10,10 @@ import { and, eq } from 'drizzle-orm';
 import { db, getPool } from '@/db/client';
 import { jobs, lineDesigns, lineResults, lines, projects, sheetBatches } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as lineStore from '@/lib/lines/store';
+import { getDesignBasis, saveDesignBasis } from '@/lib/lines/basis-store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { listLines, solveProject } from '@/lib/lines/results-store';
 import * as budget from '@/lib/budget/store';
 import { formatterFor } from '@/lib/format';
 import type { CandidateRow } from '@/lib/lines/deciding';
@@ -62,7 +65,7 @@ beforeAll(async () => {
     .values({ organizationId: o.organizationId, code: 'DOC-1', name: 'Documents test', site: 'Test site' })
     .returning();
   projectId = p.id;
-  const d = await lineStore.createDraft({
+  const d = await createDraft({
     projectId,
     userId,
     fileName: 'd.xlsx',
@@ -74,15 +77,15 @@ beforeAll(async () => {
     ]),
   });
   const s = d.sheets[0];
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId,
     draftId: d.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId,
   });
-  await lineStore.solveProject({ projectId });
-  await lineStore.acceptRecommendations({ projectId, userId, area: 'North' });
+  await solveProject({ projectId });
+  await acceptRecommendations({ projectId, userId, area: 'North' });
   await budget.saveBudget({
     projectId,
     userId,
@@ -106,7 +109,7 @@ async function stored(tag: string) {
 describe('calculation sheet', () => {
   it('states the stored numbers of the line: thickness, heat flow, line total with fittings, surface and annual figures', async () => {
     const { line, result, design } = await stored('N-1');
-    const { basis } = await lineStore.getDesignBasis({ projectId });
+    const { basis } = await getDesignBasis({ projectId });
     const u = formatterFor(basis);
     const cands = result.candidates as CandidateRow[];
     const at = cands.find((c) => c[0] === design!.thicknessMm)!;
@@ -167,7 +170,7 @@ describe('calculation sheet', () => {
 describe('design report', () => {
   it('states the budget page totals: designed and bare heat loss, the budget and the area allocation', async () => {
     const dash = await budget.dashboard({ projectId });
-    const { basis } = await lineStore.getDesignBasis({ projectId });
+    const { basis } = await getDesignBasis({ projectId });
     const u = formatterFor(basis);
     const { buf } = await draftReport({ projectId, userId });
     const text = await pdfText(buf);
@@ -196,7 +199,7 @@ describe('design report', () => {
     expect(text).toContain('Revision 1');
     expect(text).toContain('For review');
     // The project moves on: another area decided, the budget changed; revision 1 stays as issued.
-    await lineStore.acceptRecommendations({ projectId, userId, area: 'South' });
+    await acceptRecommendations({ projectId, userId, area: 'South' });
     await budget.saveBudget({
       projectId,
       userId,
@@ -206,7 +209,7 @@ describe('design report', () => {
     expect(Buffer.compare(Buffer.from(again.buf), Buffer.from(one.buf))).toBe(0);
     const r3 = await issueReport({ projectId, userId });
     expect(await pdfText((await getReportPdf({ projectId, number: 3 })).buf)).toContain(
-      `Budget ${formatterFor((await lineStore.getDesignBasis({ projectId })).basis).power(60_000)}`,
+      `Budget ${formatterFor((await getDesignBasis({ projectId })).basis).power(60_000)}`,
     );
     expect((await listReports({ projectId })).map((r) => r.number)).toEqual([3, 2, 1]);
     expect(r3.summary.decided).toBe(4);
@@ -221,7 +224,7 @@ describe('design report', () => {
 
 describe('results export', () => {
   it('exports exactly the filtered lines as .xlsx: numbers as numbers, units in headers, filter, frozen header, formula-safe text', async () => {
-    const listed = await lineStore.listLines({
+    const listed = await listLines({
       projectId,
       area: 'South',
       page: 0,
@@ -278,12 +281,12 @@ describe('results export', () => {
   });
 
   it('writes US customary projects in °F and ft (NIST SP 811: t/°F = 1.8·t/°C + 32, 1 ft = 0.3048 m exactly)', async () => {
-    const { basis } = await lineStore.getDesignBasis({ projectId });
-    await lineStore.saveDesignBasis({ projectId, userId, basis: { ...basis, unitSystem: 'US' } });
+    const { basis } = await getDesignBasis({ projectId });
+    await saveDesignBasis({ projectId, userId, basis: { ...basis, unitSystem: 'US' } });
     const t = await resultsTable({ projectId, filter: { q: 'N-1' } });
     const h = (name: string) => t.headers.indexOf(name);
     expect(t.rows[0][h('Normal temperature (°F)')]).toBe(302); // 150 °C
     expect(t.rows[0][h('Length (ft)')]).toBeCloseTo(328.08, 2); // 100 m
-    await lineStore.saveDesignBasis({ projectId, userId, basis });
+    await saveDesignBasis({ projectId, userId, basis });
   });
 });

@@ -11,7 +11,7 @@ import PgBoss from 'pg-boss';
 import { db, getPool } from '@/db/client';
 import { boqIssues, jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as store from '@/lib/lines/store';
+import { createDraft } from '@/lib/lines/import-store';
 import { enqueueJob } from '@/lib/jobs/store';
 import { runJob } from '@/lib/jobs/run';
 import { acceptRecommendations } from '@/lib/lines/bulk-accept';
@@ -32,7 +32,7 @@ async function newProject(code: string) {
 }
 
 async function draftOf(projectId: string, n: number) {
-  const d = await store.createDraft({
+  const d = await createDraft({
     projectId,
     userId,
     fileName: 'jobs.xlsx',

@@ -9,7 +9,9 @@ import { randomUUID } from 'node:crypto';
 import { db, getPool } from '@/db/client';
 import { columnMappings, importDrafts, lineListRevisions, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as store from '@/lib/lines/store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft, previewDraft } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import { expectAppError } from '../support/errors';
 import {
   bomCommaCsv,
@@ -60,7 +62,7 @@ describe('a US client workbook with title rows, its own location words and an eq
   let projectId = '';
   it('suggests the header row and the mapping, asks two questions, imports nothing until they are answered', async () => {
     projectId = await newProject('MESSY-US');
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId,
       userId,
       fileName: 'unit40.xlsx',
@@ -95,14 +97,14 @@ describe('a US client workbook with title rows, its own location words and an eq
       headerRow: s.headerRow,
       mapping: s.suggested,
     };
-    const p = await store.previewDraft(choice);
+    const p = await previewDraft(choice);
     expect(p.unknownValues.map((u) => [u.value, u.count])).toEqual([
       ['Pipe rack', 2],
       ['Platform', 1],
     ]);
     expect(p.errorCount).toBe(2);
     await expectAppError(
-      store.commitDraft({ ...choice, userId }),
+      commitDraft({ ...choice, userId }),
       'invalid',
       /^Nothing was imported: 2 problems to fix first \(row 5, column H: Indoor \/ outdoor "Pipe rack" in 2 rows \(5, 9\)/,
     );
@@ -115,9 +117,9 @@ describe('a US client workbook with title rows, its own location words and an eq
       ...choice,
       mapping: { ...s.suggested, values: { location: { 'pipe rack': 'outdoor', platform: 'outdoor' } } },
     };
-    const p2 = await store.previewDraft(answered);
+    const p2 = await previewDraft(answered);
     expect([p2.errorCount, p2.warningCount, p2.lineCount, p2.unknownValues]).toEqual([0, 1, 4, []]);
-    const r = await store.commitDraft({ ...answered, userId });
+    const r = await commitDraft({ ...answered, userId });
     expect(r).toMatchObject({ revision: 1, lineCount: 4 });
     expect(await stored(projectId)).toEqual([
       {
@@ -192,7 +194,7 @@ describe('a US client workbook with title rows, its own location words and an eq
   });
 
   it('the next revision of the same workbook asks nothing: the answers were remembered with the mapping', async () => {
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId,
       userId,
       fileName: 'unit40-revD.xlsx',
@@ -200,7 +202,7 @@ describe('a US client workbook with title rows, its own location words and an eq
     });
     const s = d.sheets.find((x) => x.name === d.defaultSheet)!;
     expect(s.suggested.values).toEqual({ location: { 'pipe rack': 'outdoor', platform: 'outdoor' } });
-    const p = await store.previewDraft({
+    const p = await previewDraft({
       projectId,
       draftId: d.draftId,
       sheetName: s.name,
@@ -212,7 +214,7 @@ describe('a US client workbook with title rows, its own location words and an eq
 
   it('the equipment sheet imports vessels by area and height (ft² and ft converted)', async () => {
     const eqProject = await newProject('MESSY-EQ');
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId: eqProject,
       userId,
       fileName: 'unit40.xlsx',
@@ -232,7 +234,7 @@ describe('a US client workbook with title rows, its own location words and an eq
       },
       units: { surfaceArea: 'ft²', height: 'ft', normalTemp: '°F' },
     });
-    await store.commitDraft({
+    await commitDraft({
       projectId: eqProject,
       draftId: d.draftId,
       sheetName: 'Equipment',
@@ -272,7 +274,7 @@ describe('a US client workbook with title rows, its own location words and an eq
 
   it('a header row the user picks replaces the detected one; an empty row is refused with a sentence', async () => {
     const pid = await newProject('MESSY-HDR');
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId: pid,
       userId,
       fileName: 'unit40.xlsx',
@@ -280,7 +282,7 @@ describe('a US client workbook with title rows, its own location words and an eq
     });
     const s = d.sheets[0];
     // Row 2 (the revision row) as header: nothing maps, so the required fields are named.
-    const p = await store.previewDraft({
+    const p = await previewDraft({
       projectId: pid,
       draftId: d.draftId,
       sheetName: s.name,
@@ -291,7 +293,7 @@ describe('a US client workbook with title rows, its own location words and an eq
       'No column is mapped to "Line / equipment tag", "Normal operating temperature" and a size ("Nominal size (NPS or DN)" or "Outside diameter" for pipes, "Surface area" or "Vessel shell outside diameter" for vessels, "Surface area" for flat surfaces), which are required. Choose the columns in the mapping.',
     ]);
     await expectAppError(
-      store.previewDraft({
+      previewDraft({
         projectId: pid,
         draftId: d.draftId,
         sheetName: s.name,
@@ -307,7 +309,7 @@ describe('a US client workbook with title rows, its own location words and an eq
 describe('an equipment list by shell dimensions', () => {
   it("imports vessels and a tank with computed areas once the client's head word is answered, and solves them", async () => {
     const pid = await newProject('MESSY-SHELL');
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId: pid,
       userId,
       fileName: 'equipment.xlsx',
@@ -322,10 +324,10 @@ describe('an equipment list by shell dimensions', () => {
       headerRow: 3,
       mapping: s.suggested,
     };
-    expect((await store.previewDraft(choice)).unknownValues.map((u) => [u.field, u.value])).toEqual([
+    expect((await previewDraft(choice)).unknownValues.map((u) => [u.field, u.value])).toEqual([
       ['headType', 'Dished'],
     ]);
-    await store.commitDraft({
+    await commitDraft({
       ...choice,
       mapping: { ...s.suggested, values: { headType: { dished: 'torispherical' } } },
       userId,
@@ -336,14 +338,14 @@ describe('an equipment list by shell dimensions', () => {
       ['40-T-301', 'vessel', 330.02, 8, 80],
       ['40-V-101', 'vessel', 46.371, 2, 120],
     ]);
-    expect((await store.solveProject({ projectId: pid })).solved).toBe(4);
+    expect((await solveProject({ projectId: pid })).solved).toBe(4);
   });
 });
 
 describe('CSV files as they come', () => {
   it('a German Windows-1252 semicolon CSV with decimal commas imports once "Rohrbrücke" is answered', async () => {
     const pid = await newProject('MESSY-DE');
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId: pid,
       userId,
       fileName: 'isolierliste.csv',
@@ -360,9 +362,9 @@ describe('CSV files as they come', () => {
       headerRow: 4,
       mapping: s.suggested,
     };
-    const p = await store.previewDraft(choice);
+    const p = await previewDraft(choice);
     expect(p.unknownValues.map((u) => [u.field, u.value, u.rows])).toEqual([['location', 'Rohrbrücke', [8]]]);
-    await store.commitDraft({
+    await commitDraft({
       ...choice,
       mapping: { ...s.suggested, values: { location: { rohrbrücke: 'outdoor' } } },
       userId,
@@ -377,9 +379,9 @@ describe('CSV files as they come', () => {
 
   it('a French tab-separated UTF-16 export and a Spanish UTF-8 BOM CSV import without questions', async () => {
     const fr = await newProject('MESSY-FR');
-    const d = await store.createDraft({ projectId: fr, userId, fileName: 'liste.csv', bytes: tabUtf16Csv() });
+    const d = await createDraft({ projectId: fr, userId, fileName: 'liste.csv', bytes: tabUtf16Csv() });
     expect(d.readAs).toBe('UTF-16LE, tab-separated');
-    await store.commitDraft({
+    await commitDraft({
       projectId: fr,
       draftId: d.draftId,
       sheetName: 'CSV',
@@ -402,14 +404,14 @@ describe('CSV files as they come', () => {
       ['V-11', '1', 8, 180, 'personnelProtection', false, 'Vapeur'],
     ]);
     const es = await newProject('MESSY-ES');
-    const e = await store.createDraft({
+    const e = await createDraft({
       projectId: es,
       userId,
       fileName: 'lineas.csv',
       bytes: bomCommaCsv(),
     });
     expect(e.readAs).toBe('UTF-8 with BOM, comma-separated');
-    await store.commitDraft({
+    await commitDraft({
       projectId: es,
       draftId: e.draftId,
       sheetName: 'CSV',
@@ -439,21 +441,21 @@ describe('a pipe without its length yet', () => {
     const csv = Buffer.from(
       'Line,NPS,Length (m),Temp (°C),Purpose\nT-1,4,50,180,H\nT-2,4,TBD,180,H\nT-3,2,,180,H\n',
     );
-    const d = await store.createDraft({ projectId: pid, userId, fileName: 'tbd.csv', bytes: csv });
+    const d = await createDraft({ projectId: pid, userId, fileName: 'tbd.csv', bytes: csv });
     const choice = { projectId: pid, draftId: d.draftId, sheetName: 'CSV', mapping: d.sheets[0].suggested };
-    const p = await store.previewDraft(choice);
+    const p = await previewDraft(choice);
     expect(p.issues.map((i) => `${i.row} ${i.column} ${i.severity}: ${i.message}`)).toEqual([
       '3 C warning: Length "TBD": the line imports as incomplete — solved per metre, left out of the heat-loss totals and the bill until a revision gives its length.',
       '4 C warning: No length: the line imports as incomplete — solved per metre, left out of the heat-loss totals and the bill until a revision gives its length.',
     ]);
-    await store.commitDraft({ ...choice, userId });
+    await commitDraft({ ...choice, userId });
     expect((await stored(pid)).map((l) => [l.tag, l.lengthM])).toEqual([
       ['T-1', 50],
       ['T-2', null],
       ['T-3', null],
     ]);
-    expect((await store.solveProject({ projectId: pid })).solved).toBe(3);
-    await store.acceptRecommendations({ projectId: pid, userId });
+    expect((await solveProject({ projectId: pid })).solved).toBe(3);
+    await acceptRecommendations({ projectId: pid, userId });
     const { dashboard } = await import('@/lib/budget/store');
     const dash = await dashboard({ projectId: pid });
     expect([dash.lineCount, dash.incompleteCount]).toEqual([1, 2]);
@@ -470,13 +472,13 @@ describe('a pipe without its length yet', () => {
 describe('refusals name row, column and value, and never half-write', () => {
   it('reducer, blank temperature and duplicate tag refuse the whole file', async () => {
     const pid = await newProject('MESSY-BAD');
-    const ok = await store.createDraft({
+    const ok = await createDraft({
       projectId: pid,
       userId,
       fileName: 'units.xlsx',
       bytes: await unitsRowWorkbook(),
     });
-    await store.commitDraft({
+    await commitDraft({
       projectId: pid,
       draftId: ok.draftId,
       sheetName: 'Lines',
@@ -488,14 +490,14 @@ describe('refusals name row, column and value, and never half-write', () => {
       ['U-1', '2', 30.48, 100],
       ['U-2', '6', 10, 200],
     ]);
-    const d = await store.createDraft({
+    const d = await createDraft({
       projectId: pid,
       userId,
       fileName: 'problems.xlsx',
       bytes: await problemsWorkbook(),
     });
     await expectAppError(
-      store.commitDraft({
+      commitDraft({
         projectId: pid,
         draftId: d.draftId,
         sheetName: 'Lines',
@@ -516,12 +518,12 @@ describe('refusals name row, column and value, and never half-write', () => {
   it('unreadable files get a sentence', async () => {
     const pid = await newProject('MESSY-UNREAD');
     await expectAppError(
-      store.createDraft({ projectId: pid, userId, fileName: 'renamed.csv', bytes: await unitsRowWorkbook() }),
+      createDraft({ projectId: pid, userId, fileName: 'renamed.csv', bytes: await unitsRowWorkbook() }),
       'invalid',
       /spreadsheet workbook renamed to \.csv/,
     );
     await expectAppError(
-      store.createDraft({
+      createDraft({
         projectId: pid,
         userId,
         fileName: 'quotes.csv',

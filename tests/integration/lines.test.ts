@@ -3,9 +3,21 @@ import { and, asc, eq } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
 import ExcelJS from 'exceljs';
 import { db, getPool } from '@/db/client';
-import { auditLog, lineDesigns, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
+import {
+  auditLog,
+  designBases,
+  lineDesigns,
+  lineListRevisions,
+  lineResults,
+  lines,
+  projects,
+} from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as store from '@/lib/lines/store';
+import { getDesignBasis, saveDesignBasis } from '@/lib/lines/basis-store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft, previewDraft } from '@/lib/lines/import-store';
+import { pickDesign } from '@/lib/lines/picks-store';
+import { listLines, solveProject } from '@/lib/lines/results-store';
 import { getPickerOptions, lineTablePage, tableRowDeciding } from '@/lib/lines/picker';
 import { DEFAULT_DESIGN_BASIS } from '@/lib/lines/design-basis';
 import { expectAppError } from '../support/errors';
@@ -37,13 +49,13 @@ let projectId = '',
   userId = '';
 
 async function importRows(rows: Row[], fileName = 'list.xlsx') {
-  const draft = await store.createDraft({ projectId, userId, fileName, bytes: await lineListWorkbook(rows) });
+  const draft = await createDraft({ projectId, userId, fileName, bytes: await lineListWorkbook(rows) });
   const s = draft.sheets.find((x) => x.name === draft.defaultSheet)!;
   return {
     draft,
     sheet: s,
     commit: () =>
-      store.commitDraft({
+      commitDraft({
         projectId,
         draftId: draft.draftId,
         sheetName: s.name,
@@ -69,6 +81,31 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await getPool().end();
+});
+
+describe('design basis reads', () => {
+  it('reading a project that never saved a basis writes nothing; the first write creates it at revision 2', async () => {
+    const [p] = await db
+      .insert(projects)
+      .values({
+        organizationId: (await db.select().from(projects).where(eq(projects.id, projectId)))[0]
+          .organizationId,
+        code: 'LT-R',
+        name: 'Read only',
+      })
+      .returning();
+    const read = await getDesignBasis({ projectId: p.id });
+    expect(read.revision).toBe(1);
+    expect(read.basis).toEqual(DEFAULT_DESIGN_BASIS);
+    expect(await db.select().from(designBases).where(eq(designBases.projectId, p.id))).toHaveLength(0);
+    const saved = await saveDesignBasis({
+      projectId: p.id,
+      userId,
+      basis: { ...DEFAULT_DESIGN_BASIS, dewPointMarginK: DEFAULT_DESIGN_BASIS.dewPointMarginK + 1 },
+    });
+    expect(saved.revision).toBe(2);
+    expect((await getDesignBasis({ projectId: p.id })).revision).toBe(2);
+  });
 });
 
 describe('line-list import on PostgreSQL', () => {
@@ -114,11 +151,11 @@ describe('line-list import on PostgreSQL', () => {
   });
 
   it('solves and stores every line with what it was computed from', async () => {
-    const s = await store.solveProject({ projectId });
+    const s = await solveProject({ projectId });
     expect(s.solved).toBe(3);
     const results = await db.select().from(lineResults).where(eq(lineResults.projectId, projectId));
     expect(results).toHaveLength(3);
-    const list = await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
+    const list = await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
     const l100 = list.rows.find((r) => r.tag === 'L-100')!;
     expect(l100.recommendedMm).toBeGreaterThan(0);
     expect(['personnel', 'economic']).toContain(l100.governing);
@@ -127,7 +164,7 @@ describe('line-list import on PostgreSQL', () => {
     const cold = list.rows.find((r) => r.tag === 'L-101')!;
     expect(cold.governing).toBe('condensation');
     // Solving again touches nothing: nothing is stale.
-    expect((await store.solveProject({ projectId })).solved).toBe(0);
+    expect((await solveProject({ projectId })).solved).toBe(0);
   });
 
   it('refuses an erroneous revision whole: nothing written, the previous revision intact', async () => {
@@ -152,7 +189,7 @@ describe('line-list import on PostgreSQL', () => {
   });
 
   it('a revision updates by tag, shows the difference, keeps picks and marks changed lines for re-decision', async () => {
-    await store.acceptRecommendations({ projectId, userId });
+    await acceptRecommendations({ projectId, userId });
     const designs = await db.select().from(lineDesigns).where(eq(lineDesigns.projectId, projectId));
     expect(designs).toHaveLength(3);
     const { draft, sheet } = await importRows([
@@ -160,7 +197,7 @@ describe('line-list import on PostgreSQL', () => {
       row('L-101', { NPS: '2', 'Normal temp (°C)': 4, 'Max temp (°C)': 8, Purpose: 'C', Location: 'Indoor' }),
       row('L-300'),
     ]);
-    const preview = await store.previewDraft({
+    const preview = await previewDraft({
       projectId,
       draftId: draft.draftId,
       sheetName: sheet.name,
@@ -173,7 +210,7 @@ describe('line-list import on PostgreSQL', () => {
       { tag: 'L-100', changes: [{ field: 'service', from: 'Test steam', to: 'Renamed steam' }] },
       { tag: 'L-101', changes: [{ field: 'normalTempC', from: 6, to: 4 }] },
     ]);
-    const r = await store.commitDraft({
+    const r = await commitDraft({
       projectId,
       draftId: draft.draftId,
       sheetName: sheet.name,
@@ -197,7 +234,7 @@ describe('line-list import on PostgreSQL', () => {
     expect(by['L-300'].needs).toBeNull(); // new line, undecided
     expect(by['V-1']).toBeUndefined();
     await expectAppError(
-      store.commitDraft({
+      commitDraft({
         projectId,
         draftId: draft.draftId,
         sheetName: sheet.name,
@@ -207,7 +244,7 @@ describe('line-list import on PostgreSQL', () => {
       'conflict',
       /already imported as revision 2/,
     );
-    const stale = await store.listLines({
+    const stale = await listLines({
       projectId,
       page: 0,
       size: 10,
@@ -219,35 +256,32 @@ describe('line-list import on PostgreSQL', () => {
   });
 
   it('a design-basis change marks every result stale until solved again', async () => {
-    await store.solveProject({ projectId });
+    await solveProject({ projectId });
     expect(
-      (await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' }))
-        .total,
+      (await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total,
     ).toBe(0);
-    const { revision } = await store.saveDesignBasis({
+    const { revision } = await saveDesignBasis({
       projectId,
       userId,
       basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10 },
     });
     expect(revision).toBe(2);
     expect(
-      (await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' }))
-        .total,
+      (await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total,
     ).toBe(3);
-    expect((await store.solveProject({ projectId })).solved).toBe(3);
+    expect((await solveProject({ projectId })).solved).toBe(3);
     // Display units alone change no result: the revision stays and nothing goes stale.
-    const again = await store.saveDesignBasis({
+    const again = await saveDesignBasis({
       projectId,
       userId,
       basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10, unitSystem: 'US' },
     });
     expect(again.revision).toBe(2);
     expect(
-      (await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' }))
-        .total,
+      (await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc', status: 'stale' })).total,
     ).toBe(0);
     // Each save that changes something is in the audit trail with the sections before and after; saving the same again records nothing.
-    await store.saveDesignBasis({
+    await saveDesignBasis({
       projectId,
       userId,
       basis: { ...DEFAULT_DESIGN_BASIS, touchContactSeconds: 10, unitSystem: 'US' },
@@ -264,17 +298,17 @@ describe('line-list import on PostgreSQL', () => {
   });
 
   it('picks: a reason for a manual pick, flagged below a hard criterion, and the second of two concurrent saves refused', async () => {
-    const { rows } = await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
+    const { rows } = await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
     const l = rows.find((r) => r.tag === 'L-100')!;
     const cands = (await getPickerOptions({ projectId, lineId: l.id })).candidates.map((c) => c.mm);
     const v = l.designVersion ?? 0;
     await expectAppError(
-      store.pickDesign({ projectId, lineId: l.id, userId, thicknessMm: cands[1], expectedVersion: v }),
+      pickDesign({ projectId, lineId: l.id, userId, thicknessMm: cands[1], expectedVersion: v }),
       'invalid',
       /give a reason/,
     );
     await expectAppError(
-      store.pickDesign({
+      pickDesign({
         projectId,
         lineId: l.id,
         userId,
@@ -285,7 +319,7 @@ describe('line-list import on PostgreSQL', () => {
       'invalid',
       /not a candidate/,
     );
-    const first = await store.pickDesign({
+    const first = await pickDesign({
       projectId,
       lineId: l.id,
       userId,
@@ -296,7 +330,7 @@ describe('line-list import on PostgreSQL', () => {
     expect(first.source).toBe('manual');
     expect(first.belowCriterion).toBe('personnel');
     await expectAppError(
-      store.pickDesign({
+      pickDesign({
         projectId,
         lineId: l.id,
         userId,
@@ -315,12 +349,12 @@ describe('line-list import on PostgreSQL', () => {
     });
     // The table row carries only the candidate at the chosen thickness (read in SQL from the stored
     // table), with the same deciding numbers and worst margin as the picker's full list.
-    const after = (
-      await store.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' })
-    ).rows.find((r) => r.tag === 'L-100')!;
+    const after = (await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' })).rows.find(
+      (r) => r.tag === 'L-100',
+    )!;
     expect(after.shownCandidate![0]).toBe(cands[1]);
     const picker = await getPickerOptions({ projectId, lineId: l.id });
-    const { basis } = await store.getDesignBasis({ projectId });
+    const { basis } = await getDesignBasis({ projectId });
     const deciding = await tableRowDeciding(
       basis,
       after as never,
@@ -349,8 +383,7 @@ describe('line-list import on PostgreSQL', () => {
 });
 
 describe('bad files get a clear message and store nothing', () => {
-  const tryUpload = (fileName: string, bytes: Buffer) =>
-    store.createDraft({ projectId, userId, fileName, bytes });
+  const tryUpload = (fileName: string, bytes: Buffer) => createDraft({ projectId, userId, fileName, bytes });
   it('wrong type, corrupt, password-protected, old .xls, empty, too large; a Latin-1 CSV is decoded, not refused', async () => {
     await expectAppError(
       tryUpload('list.pdf', Buffer.from('%PDF-1.4')),
@@ -401,7 +434,7 @@ describe('bad files get a clear message and store nothing', () => {
       /no sheet with data/,
     );
     const { draft, sheet } = await importRows([]);
-    const p = await store.previewDraft({
+    const p = await previewDraft({
       projectId,
       draftId: draft.draftId,
       sheetName: sheet.name,
@@ -429,7 +462,7 @@ describe('bad files get a clear message and store nothing', () => {
     ]);
     expect(d.defaultSheet).toBe('Lines');
     const s = d.sheets[1];
-    const p = await store.previewDraft({
+    const p = await previewDraft({
       projectId,
       draftId: d.draftId,
       sheetName: 'Lines',

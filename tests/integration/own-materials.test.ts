@@ -8,7 +8,17 @@ import { randomUUID } from 'node:crypto';
 import { db, getPool } from '@/db/client';
 import { auditLog, lineDesigns, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as store from '@/lib/lines/store';
+import {
+  addOwnJacket,
+  addOwnMaterial,
+  getDesignBasis,
+  removeOwnEntry,
+  saveDesignBasis,
+  updateOwnMaterial,
+} from '@/lib/lines/basis-store';
+import { acceptRecommendations } from '@/lib/lines/bulk-accept';
+import { commitDraft, createDraft, previewDraft } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import { collectBillLines } from '@/lib/boq/store';
 import { compileConductivity, solveSteady } from '@/lib/thermal';
 import { expectAppError } from '../support/errors';
@@ -70,7 +80,7 @@ beforeAll(async () => {
     .values({ organizationId: owner.organizationId, code: 'OM-1', name: 'Own materials' })
     .returning();
   projectId = p.id;
-  const draft = await store.createDraft({
+  const draft = await createDraft({
     projectId,
     userId,
     fileName: 'list.xlsx',
@@ -81,7 +91,7 @@ beforeAll(async () => {
     ]),
   });
   const s = draft.sheets.find((x) => x.name === draft.defaultSheet)!;
-  await store.commitDraft({
+  await commitDraft({
     projectId,
     draftId: draft.draftId,
     sheetName: s.name,
@@ -98,12 +108,12 @@ describe('project materials and jackets', () => {
     jacketId = '';
 
   it('adds a material with its source and price: new revision, audit entry, the table kept sorted by temperature', async () => {
-    const before = await store.getDesignBasis({ projectId });
-    const r = await store.addOwnMaterial({ projectId, userId, material: product, pricePerM3: 2400 });
+    const before = await getDesignBasis({ projectId });
+    const r = await addOwnMaterial({ projectId, userId, material: product, pricePerM3: 2400 });
     materialId = r.id;
     expect(materialId).toBe('own-test-microporous-section');
     expect(r.revision).toBe(before.revision + 1);
-    const { basis } = await store.getDesignBasis({ projectId });
+    const { basis } = await getDesignBasis({ projectId });
     expect(basis.ownMaterials).toHaveLength(1);
     expect(basis.ownMaterials[0]).toMatchObject({ id: materialId, source: 'Scenario data for tests' });
     expect(basis.prices.materialPerM3[materialId]).toBe(2400);
@@ -115,19 +125,19 @@ describe('project materials and jackets', () => {
   });
 
   it('refuses a second material of the same name and bad data, changing nothing', async () => {
-    const { revision } = await store.getDesignBasis({ projectId });
+    const { revision } = await getDesignBasis({ projectId });
     await expectAppError(
-      store.addOwnMaterial({ projectId, userId, material: { ...product, name: 'TEST MICROPOROUS SECTION' } }),
+      addOwnMaterial({ projectId, userId, material: { ...product, name: 'TEST MICROPOROUS SECTION' } }),
       'conflict',
       /already has a material called/,
     );
     await expectAppError(
-      store.addOwnMaterial({ projectId, userId, material: { ...product, name: 'Other', minServiceC: 700 } }),
+      addOwnMaterial({ projectId, userId, material: { ...product, name: 'Other', minServiceC: 700 } }),
       'invalid',
       /highest service temperature must be above the lowest/,
     );
     await expectAppError(
-      store.addOwnMaterial({
+      addOwnMaterial({
         projectId,
         userId,
         material: { ...product, name: 'Other', kPoints: [[100, 0]] },
@@ -135,18 +145,18 @@ describe('project materials and jackets', () => {
       'invalid',
       /between 0 and 5/,
     );
-    expect((await store.getDesignBasis({ projectId })).revision).toBe(revision);
+    expect((await getDesignBasis({ projectId })).revision).toBe(revision);
   });
 
   it('adds a jacket; a line list then names it in its jacket column, and an unknown jacket is warned about', async () => {
-    const r = await store.addOwnJacket({
+    const r = await addOwnJacket({
       projectId,
       userId,
       jacket: { name: 'Dimpled stainless', emittance: 0.3, metal: true, source: 'Scenario data for tests' },
     });
     jacketId = r.id;
     expect(jacketId).toBe('own-dimpled-stainless');
-    const draft = await store.createDraft({
+    const draft = await createDraft({
       projectId,
       userId,
       fileName: 'list-rev2.xlsx',
@@ -157,7 +167,7 @@ describe('project materials and jackets', () => {
       ]),
     });
     const s = draft.sheets.find((x) => x.name === draft.defaultSheet)!;
-    const preview = await store.previewDraft({
+    const preview = await previewDraft({
       projectId,
       draftId: draft.draftId,
       sheetName: s.name,
@@ -168,7 +178,7 @@ describe('project materials and jackets', () => {
     expect(warning!.message).toMatch(
       /not in the library or the project's jackets; the specification band's jacket is used/,
     );
-    await store.commitDraft({
+    await commitDraft({
       projectId,
       draftId: draft.draftId,
       sheetName: s.name,
@@ -183,7 +193,7 @@ describe('project materials and jackets', () => {
   });
 
   it('a band that names an unknown material is refused with the band and field named', async () => {
-    const { basis } = await store.getDesignBasis({ projectId });
+    const { basis } = await getDesignBasis({ projectId });
     const { designBasisSchema } = await import('@/lib/lines/design-basis');
     const r = designBasisSchema.safeParse({
       ...basis,
@@ -197,8 +207,8 @@ describe('project materials and jackets', () => {
   });
 
   it('the solver uses the project material where the specification names it, and its own jacket emittance', async () => {
-    const { basis } = await store.getDesignBasis({ projectId });
-    await store.saveDesignBasis({
+    const { basis } = await getDesignBasis({ projectId });
+    await saveDesignBasis({
       projectId,
       userId,
       basis: {
@@ -206,7 +216,7 @@ describe('project materials and jackets', () => {
         systems: basis.systems.map((s) => (s.fromC === 20 ? { ...s, outerId: materialId } : s)),
       },
     });
-    await store.solveProject({ projectId, all: true });
+    await solveProject({ projectId, all: true });
     const results = await db
       .select({ tag: lines.tag, r: lineResults })
       .from(lineResults)
@@ -269,14 +279,14 @@ describe('project materials and jackets', () => {
   });
 
   it('a material changed in place keeps its id, so the band still uses it; the next solve uses the new data', async () => {
-    const before = await store.getDesignBasis({ projectId });
+    const before = await getDesignBasis({ projectId });
     const [ho1Before] = await db
       .select({ q: lineResults.heatFlowPerUnit })
       .from(lineResults)
       .innerJoin(lines, eq(lines.id, lineResults.lineId))
       .where(and(eq(lines.projectId, projectId), eq(lines.tag, 'HO-1')));
     // A revised data sheet: 10 % higher k throughout.
-    const r = await store.updateOwnMaterial({
+    const r = await updateOwnMaterial({
       projectId,
       userId,
       id: materialId,
@@ -295,7 +305,7 @@ describe('project materials and jackets', () => {
     });
     expect(r.basis.prices.materialPerM3[materialId]).toBe(2500);
     expect(r.basis.systems.find((s) => s.fromC === 20)!.outerId).toBe(materialId);
-    await store.solveProject({ projectId });
+    await solveProject({ projectId });
     const [ho1After] = await db
       .select({ q: lineResults.heatFlowPerUnit, mm: lineResults.recommendedMm })
       .from(lineResults)
@@ -303,7 +313,7 @@ describe('project materials and jackets', () => {
       .where(and(eq(lines.projectId, projectId), eq(lines.tag, 'HO-1')));
     expect(ho1After.q).not.toBe(ho1Before.q);
     await expectAppError(
-      store.updateOwnMaterial({ projectId, userId, id: 'own-nothing', material: product }),
+      updateOwnMaterial({ projectId, userId, id: 'own-nothing', material: product }),
       'not_found',
       /does not exist/,
     );
@@ -315,7 +325,7 @@ describe('project materials and jackets', () => {
   });
 
   it('the bill names the project material, and removal is refused while a band or a chosen design uses it', async () => {
-    await store.acceptRecommendations({ projectId, userId });
+    await acceptRecommendations({ projectId, userId });
     const bill = await collectBillLines({ projectId });
     const ho1 = bill.find((b) => b.tag === 'HO-1')!;
     expect(ho1.layers[0]).toMatchObject({
@@ -326,12 +336,12 @@ describe('project materials and jackets', () => {
     expect(bill.find((b) => b.tag === 'HO-2')!.jacketName).toBe('Dimpled stainless');
 
     await expectAppError(
-      store.removeOwnEntry({ projectId, userId, id: materialId }),
+      removeOwnEntry({ projectId, userId, id: materialId }),
       'conflict',
       /used by material band 3/,
     );
-    const { basis } = await store.getDesignBasis({ projectId });
-    await store.saveDesignBasis({
+    const { basis } = await getDesignBasis({ projectId });
+    await saveDesignBasis({
       projectId,
       userId,
       basis: {
@@ -340,25 +350,25 @@ describe('project materials and jackets', () => {
       },
     });
     await expectAppError(
-      store.removeOwnEntry({ projectId, userId, id: materialId }),
+      removeOwnEntry({ projectId, userId, id: materialId }),
       'conflict',
       /in 3 chosen line designs/,
     );
     await expectAppError(
-      store.removeOwnEntry({ projectId, userId, id: jacketId }),
+      removeOwnEntry({ projectId, userId, id: jacketId }),
       'conflict',
       /jacket override of 1 line/,
     );
-    expect((await store.getDesignBasis({ projectId })).basis.ownMaterials).toHaveLength(1);
+    expect((await getDesignBasis({ projectId })).basis.ownMaterials).toHaveLength(1);
   });
 
   it('once nothing uses it, the material is removed with its price', async () => {
     await db.delete(lineDesigns).where(eq(lineDesigns.projectId, projectId));
-    const r = await store.removeOwnEntry({ projectId, userId, id: materialId });
+    const r = await removeOwnEntry({ projectId, userId, id: materialId });
     expect(r.basis.ownMaterials).toHaveLength(0);
     expect(r.basis.prices.materialPerM3[materialId]).toBeUndefined();
     await expectAppError(
-      store.removeOwnEntry({ projectId, userId, id: materialId }),
+      removeOwnEntry({ projectId, userId, id: materialId }),
       'not_found',
       /does not exist/,
     );

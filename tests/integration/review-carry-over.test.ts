@@ -4,7 +4,8 @@ import { randomUUID } from 'node:crypto';
 import { db, getPool } from '@/db/client';
 import { lines, memberships, projects, reviewItems } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as lineStore from '@/lib/lines/store';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { solveProject } from '@/lib/lines/results-store';
 import * as review from '@/lib/review/store';
 import { dispositionsFor } from '@/lib/review/dispositions';
 import { expectAppError } from '../support/errors';
@@ -61,7 +62,7 @@ beforeAll(async () => {
     .values({ organizationId: eng.organizationId, code: 'CO-1', name: 'Carry-over test' })
     .returning();
   projectId = p.id;
-  const draft = await lineStore.createDraft({
+  const draft = await createDraft({
     projectId,
     userId: engineerId,
     fileName: 'c.xlsx',
@@ -72,14 +73,14 @@ beforeAll(async () => {
     ]),
   });
   const s = draft.sheets[0];
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId,
     draftId: draft.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId: engineerId,
   });
-  await lineStore.solveProject({ projectId });
+  await solveProject({ projectId });
 });
 afterAll(async () => {
   await getPool().end();
@@ -176,7 +177,7 @@ describe('review rounds carry over unchanged decisions', () => {
       .update(lines)
       .set({ inputVersion: sql`${lines.inputVersion} + 1` })
       .where(and(eq(lines.projectId, projectId), eq(lines.tag, 'H-2')));
-    await lineStore.solveProject({ projectId });
+    await solveProject({ projectId });
     const before = await db.select().from(reviewItems).where(eq(reviewItems.roundId, round1));
     const asked = new Date(Date.now() - 1000);
     const r = await review.requestReview({ projectId, userId: engineerId });

@@ -4,7 +4,10 @@ import { randomUUID } from 'node:crypto';
 import { db, getPool } from '@/db/client';
 import { auditLog, memberships, projects, reviewRounds } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import * as lineStore from '@/lib/lines/store';
+import { getDesignBasis, saveDesignBasis } from '@/lib/lines/basis-store';
+import { commitDraft, createDraft } from '@/lib/lines/import-store';
+import { pickDesign } from '@/lib/lines/picks-store';
+import { listLines, solveProject } from '@/lib/lines/results-store';
 import * as review from '@/lib/review/store';
 import { expectAppError } from '../support/errors';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
@@ -62,7 +65,7 @@ beforeAll(async () => {
     .values({ organizationId: eng.organizationId, code: 'RV-1', name: 'Review test' })
     .returning();
   projectId = p.id;
-  const draft = await lineStore.createDraft({
+  const draft = await createDraft({
     projectId,
     userId: engineerId,
     fileName: 'r.xlsx',
@@ -74,14 +77,14 @@ beforeAll(async () => {
     ]),
   });
   const s = draft.sheets[0];
-  await lineStore.commitDraft({
+  await commitDraft({
     projectId,
     draftId: draft.draftId,
     sheetName: s.name,
     mapping: s.suggested,
     userId: engineerId,
   });
-  await lineStore.solveProject({ projectId });
+  await solveProject({ projectId });
 });
 afterAll(async () => {
   await getPool().end();
@@ -180,9 +183,9 @@ describe('review round on PostgreSQL', () => {
   });
 
   it('a later design change re-opens the decision and says why; the signed snapshot stays as signed', async () => {
-    const { rows } = await lineStore.listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
+    const { rows } = await listLines({ projectId, page: 0, size: 10, sort: 'tag', dir: 'asc' });
     const h1 = rows.find((r) => r.tag === 'H-1')!;
-    await lineStore.pickDesign({
+    await pickDesign({
       projectId,
       lineId: h1.id,
       userId: engineerId,
@@ -228,10 +231,10 @@ describe('review round on PostgreSQL', () => {
   });
 
   it('a stale round cannot be signed off', async () => {
-    await lineStore.solveProject({ projectId });
+    await solveProject({ projectId });
     const r = await review.requestReview({ projectId, userId: engineerId });
-    const current = (await lineStore.getDesignBasis({ projectId })).basis;
-    await lineStore.saveDesignBasis({
+    const current = (await getDesignBasis({ projectId })).basis;
+    await saveDesignBasis({
       projectId,
       userId: engineerId,
       basis: { ...current, dewPointMarginK: current.dewPointMarginK + 1 },

@@ -4,7 +4,7 @@ import { Denied } from '@/components/denied';
 import { getIssue, listIssues, materialPricesByName, previewBill, unchangedSince } from '@/lib/boq/store';
 import { currentBillFactors, EDITABLE_FACTORS } from '@/lib/boq/factors';
 import { FactorsForm } from './factors-form';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { fixed, formatterFor } from '@/lib/format';
 import { IssueButton } from './issue-button';
 

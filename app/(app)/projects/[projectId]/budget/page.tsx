@@ -3,7 +3,8 @@ import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
 import { dashboard } from '@/lib/budget/store';
-import { getDesignBasis, listAreas } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
+import { listAreas } from '@/lib/lines/results-store';
 import { formatterFor, localizeMessage } from '@/lib/format';
 import { AreaChart, BudgetForm, TotalsTable, WhatIfPanel } from './client';
 

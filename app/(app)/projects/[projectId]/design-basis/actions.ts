@@ -14,7 +14,7 @@ import {
   saveDesignBasis,
   updateOwnJacket,
   updateOwnMaterial,
-} from '@/lib/lines/store';
+} from '@/lib/lines/basis-store';
 import { ownJacketFormSchema, ownMaterialFormSchema } from '@/lib/lines/own-entry-form';
 import { formDataToSi } from '@/lib/format/basis-units';
 

@@ -1,7 +1,7 @@
 import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { DEFAULT_BASIS_NOTES } from '@/lib/lines/design-basis';
 import { catalogueOf } from '@/lib/lines/catalogue';
 import { BasisForm } from './basis-form';

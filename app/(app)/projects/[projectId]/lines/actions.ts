@@ -6,8 +6,9 @@ import { AppError } from '@/lib/errors';
 import { MAX_UPLOAD_BYTES } from '@/lib/lines';
 import { lineFilterSchema } from '@/lib/lines/filter';
 import { readImportRequest } from '@/lib/lines/import-request';
-import type { DraftSummary } from '@/lib/lines/store';
-import * as store from '@/lib/lines/store';
+import { applyBulkAccept, previewBulkAccept, undoBulkAccept } from '@/lib/lines/bulk-accept';
+import { createDraft, previewDraft, type DraftSummary } from '@/lib/lines/import-store';
+import { pickDesign } from '@/lib/lines/picks-store';
 import { enqueueJob } from '@/lib/jobs/store';
 
 // The mapping step's request is read by readImportRequest in the handler (after the session and
@@ -28,13 +29,13 @@ export const uploadLineListAction = projectFormDataAction(
         { file: ['File too large.'] },
       );
     const bytes = Buffer.from(await file.arrayBuffer());
-    return store.createDraft({ projectId: project.id, userId: user.id, fileName: file.name, bytes });
+    return createDraft({ projectId: project.id, userId: user.id, fileName: file.name, bytes });
   },
   'The file could not be read. Nothing was imported.',
 );
 
 export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
-  store.previewDraft({ projectId: project.id, ...readImportRequest(input) }),
+  previewDraft({ projectId: project.id, ...readImportRequest(input) }),
 );
 
 /** Import + solve is a background job: the request records and enqueues it and returns the job. */
@@ -75,7 +76,7 @@ export const pickThicknessAction = projectAction(
     reason: z.string().max(500).optional(),
     expectedVersion: z.number().int().min(0),
   }),
-  async ({ project, user, input }) => store.pickDesign({ projectId: project.id, userId: user.id, ...input }),
+  async ({ project, user, input }) => pickDesign({ projectId: project.id, userId: user.id, ...input }),
 );
 
 const bulkItems = z
@@ -88,7 +89,7 @@ const bulkItems = z
 export const previewBulkAcceptAction = projectAction(
   'design.pick',
   z.object({ filter: lineFilterSchema }),
-  async ({ project, input }) => store.previewBulkAccept({ projectId: project.id, filter: input.filter }),
+  async ({ project, input }) => previewBulkAccept({ projectId: project.id, filter: input.filter }),
 );
 
 /** Applies exactly the lines the preview returned; refused when any of them moved since. */
@@ -96,7 +97,7 @@ export const applyBulkAcceptAction = projectAction(
   'design.pick',
   z.object({ filter: lineFilterSchema, items: bulkItems }),
   async ({ project, user, input }) => {
-    const r = await store.applyBulkAccept({
+    const r = await applyBulkAccept({
       projectId: project.id,
       userId: user.id,
       filter: input.filter,
@@ -111,7 +112,7 @@ export const undoBulkAcceptAction = projectAction(
   'design.pick',
   z.object({ bulkAcceptId: z.uuid({ error: 'That bulk accept is not known; reload the page.' }) }),
   async ({ project, user, input }) => {
-    const r = await store.undoBulkAccept({
+    const r = await undoBulkAccept({
       projectId: project.id,
       userId: user.id,
       bulkAcceptId: input.bulkAcceptId,

@@ -13,7 +13,7 @@ import {
 } from '@/lib/lines/fields';
 import { suggestMapping, type ColumnMapping } from '@/lib/lines/mapping';
 import { headerView, rowPreview } from '@/lib/lines/header';
-import type { DraftSummary, Preview } from '@/lib/lines/store';
+import type { DraftSummary, Preview } from '@/lib/lines/import-store';
 import type { UnknownValue } from '@/lib/lines/validate';
 import { commitImportAction, previewImportAction, uploadLineListAction } from './actions';
 import { JobProgressBar, useJob } from './job-progress';

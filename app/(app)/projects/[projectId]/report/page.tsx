@@ -2,7 +2,7 @@ import { loadProject } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { listReports } from '@/lib/documents/report-store';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { formatterFor } from '@/lib/format';
 import { IssueReportForm } from './issue-form';
 

@@ -5,7 +5,7 @@ import { Denied } from '@/components/denied';
 import { ResultCautions } from '@/components/cautions';
 import { countByType, currentFlags, listRounds } from '@/lib/review/store';
 import { FLAG_LABEL, type FlagType } from '@/lib/review/flags';
-import { listAreas } from '@/lib/lines/store';
+import { listAreas } from '@/lib/lines/results-store';
 import { RequestReviewForm } from './request-form';
 
 export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {

@@ -5,7 +5,7 @@ import { Denied } from '@/components/denied';
 import { getRound } from '@/lib/review/store';
 import { FLAG_LABEL } from '@/lib/review/flags';
 import { ReviewQueue } from './queue';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { formatterFor, localizeMessage } from '@/lib/format';
 
 export const metadata = { title: 'Review round' };

@@ -4,7 +4,7 @@ import { getRound } from '@/lib/review/store';
 import { DISPOSITION_LABEL, type Disposition } from '@/lib/review/store';
 import { FLAG_LABEL } from '@/lib/review/flags';
 import { PrintButton } from './print-button';
-import { getDesignBasis } from '@/lib/lines/store';
+import { getDesignBasis } from '@/lib/lines/basis-store';
 import { formatterFor, localizeMessage } from '@/lib/format';
 
 export const metadata = { title: 'Review report' };

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { projectAccess, readJson, route } from '@/lib/server/route';
-import { pickDesign } from '@/lib/lines/store';
+import { pickDesign } from '@/lib/lines/picks-store';
 
 const bodySchema = z.object(
   {

@@ -1,5 +1,5 @@
 import { projectAccess, route } from '@/lib/server/route';
-import { revisionOriginal } from '@/lib/lines/store';
+import { revisionOriginal } from '@/lib/lines/import-store';
 import { safeFileName } from '@/lib/storage/documents';
 import { AppError } from '@/lib/errors';
 

@@ -1,0 +1,196 @@
+/**
+ * Results: solving a project's stale lines (or all of them) and reading lines with their results,
+ * decisions and staleness for the table and the line page. The stale rule itself lives in `./stale`.
+ */
+import { and, asc, count, eq, getTableColumns, sql } from 'drizzle-orm';
+import { db, type Tx } from '@/db/client';
+import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
+import { AppError } from '@/lib/errors';
+import { getDesignBasis } from './basis-store';
+import { CANDIDATE_AT_MM_PATH, type CandidateRow } from './candidate-row';
+import type { LineFilter } from './filter';
+import { resultContext, resultRow } from './result-row';
+import type { SolvePool } from './solve-pool';
+import { isResultStale, lineFilterSql, staleSql } from './stale';
+
+/** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
+export async function solveProject({
+  projectId,
+  all = false,
+  tx: outer,
+  onProgress,
+  pool,
+}: {
+  projectId: string;
+  all?: boolean;
+  /** The import + solve job's transaction: the new lines and their results become visible together. */
+  tx?: Tx;
+  /** Called after each chunk is solved and written (lines done, lines to do). */
+  onProgress?: (done: number, total: number) => Promise<void>;
+  /** Worker threads to solve on (the job worker's); without it the lines are solved in this thread. */
+  pool?: SolvePool;
+}) {
+  const { basis, revision } = await getDesignBasis({ projectId });
+  const staleCond = all ? sql`true` : staleSql(revision);
+  const todo = await (outer ?? db)
+    .select({ line: lines })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .where(and(eq(lines.projectId, projectId), staleCond));
+  const ctx = resultContext({ basis, revision, projectId });
+  let solveMs = 0;
+  // Solved and written a chunk at a time, so only one chunk of results is held in memory.
+  await (outer ?? db).transaction(async (tx) => {
+    // With a pool (the job worker), chunks are solved on worker threads a few at a time and written
+    // in order as they come back; without one, in this thread.
+    const chunks: Line[][] = [];
+    for (let i = 0; i < todo.length; i += SOLVE_CHUNK)
+      chunks.push(todo.slice(i, i + SOLVE_CHUNK).map((t) => t.line));
+    const solveChunk = (c: Line[]) =>
+      pool
+        ? pool.solve({ basis, revision, projectId, lines: c })
+        : Promise.resolve(c.map((l) => resultRow(ctx, l)));
+    const ahead = pool ? pool.threads * 2 : 1;
+    const inFlight = chunks.slice(0, ahead).map(solveChunk);
+    let done = 0;
+    for (let i = 0; i < chunks.length; i++) {
+      const t0 = Date.now();
+      const results = await inFlight[i];
+      if (i + ahead < chunks.length) inFlight.push(solveChunk(chunks[i + ahead]));
+      solveMs += Date.now() - t0;
+      done += results.length;
+      await tx
+        .insert(lineResults)
+        .values(results)
+        .onConflictDoUpdate({
+          target: lineResults.lineId,
+          set: Object.fromEntries(
+            Object.keys(results[0])
+              .filter((k) => k !== 'lineId')
+              .map((k) => [
+                k,
+                sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`),
+              ]),
+          ),
+        });
+      if (onProgress) await onProgress(done, todo.length);
+    }
+  });
+  return { solved: todo.length, solveMs, basisRevision: revision };
+}
+
+const SOLVE_CHUNK = 250;
+const RESULT_COLUMNS = getTableColumns(lineResults);
+
+// ---------- reading ----------
+
+export type LineSort =
+  | 'tag'
+  | 'area'
+  | 'normalTempC'
+  | 'outsideDiameterMm'
+  | 'recommendedMm'
+  | 'heatFlowPerUnit'
+  | 'surfaceTempC'
+  | 'governing';
+export interface LineQuery extends LineFilter {
+  projectId: string;
+  page: number;
+  size: number;
+  sort: LineSort;
+  dir: 'asc' | 'desc';
+}
+
+export async function listLines(o: LineQuery) {
+  const { revision } = await getDesignBasis({ projectId: o.projectId });
+  const stale = staleSql(revision);
+  const where = [lineFilterSql(o.projectId, o, revision)];
+  const sortCol = {
+    tag: sql`${lines.tagKey} collate "C"`,
+    area: lines.area,
+    normalTempC: lines.normalTempC,
+    outsideDiameterMm: lines.outsideDiameterMm,
+    recommendedMm: lineResults.recommendedMm,
+    heatFlowPerUnit: lineResults.heatFlowPerUnit,
+    surfaceTempC: lineResults.surfaceTempC,
+    governing: lineResults.governing,
+  }[o.sort];
+  // Only the columns the table shows: the candidate table (the bulk of a result) is read by
+  // lib/lines/picker.ts when a picker opens.
+  const base = db
+    .select({
+      id: lines.id,
+      tag: lines.tag,
+      service: lines.service,
+      area: lines.area,
+      geometry: lines.geometry,
+      nps: lines.nps,
+      outsideDiameterMm: lines.outsideDiameterMm,
+      normalTempC: lines.normalTempC,
+      recommendedMm: lineResults.recommendedMm,
+      governing: lineResults.governing,
+      heatFlowPerUnit: lineResults.heatFlowPerUnit,
+      surfaceTempC: lineResults.surfaceTempC,
+      unmet: lineResults.unmet,
+      solved: sql<boolean>`${lineResults.lineId} is not null`,
+      jacketId: lineResults.jacketId,
+      // The facts that decide which limits apply, and the one candidate at the chosen (or else the
+      // recommended) thickness for the worst-margin column; the full candidate table stays in the
+      // database until a picker asks for it.
+      outdoor: lines.outdoor,
+      accessible: lines.accessible,
+      maxTempC: lines.maxTempC,
+      purposes: lines.purposes,
+      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+      chosenMm: lineDesigns.thicknessMm,
+      source: lineDesigns.source,
+      belowCriterion: lineDesigns.belowCriterion,
+      needsRedecision: lineDesigns.needsRedecision,
+      designVersion: lineDesigns.version,
+      stale,
+    })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(and(...where));
+  const [rows, [{ total }]] = await Promise.all([
+    base
+      .orderBy(
+        o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
+        sql`${lines.tagKey} collate "C" asc`,
+      )
+      .limit(o.size)
+      .offset(o.page * o.size),
+    db
+      .select({ total: count() })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(and(...where)),
+  ]);
+  return { rows, total, page: o.page, size: o.size };
+}
+
+export async function listAreas({ projectId }: { projectId: string }) {
+  const r = await db
+    .selectDistinct({ area: lines.area })
+    .from(lines)
+    .where(eq(lines.projectId, projectId))
+    .orderBy(asc(lines.area));
+  return r.map((x) => x.area);
+}
+
+export async function getLine({ projectId, lineId }: { projectId: string; lineId: string }) {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(lineId))
+    throw new AppError('not_found');
+  const [row] = await db
+    .select({ line: lines, result: lineResults, design: lineDesigns })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(and(eq(lines.id, lineId), eq(lines.projectId, projectId)));
+  if (!row) throw new AppError('not_found');
+  const { revision } = await getDesignBasis({ projectId });
+  const stale = isResultStale(row.result, row.line, revision);
+  return { ...row, stale };
+}

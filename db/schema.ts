@@ -735,7 +735,15 @@ export type LineResult = typeof lineResults.$inferSelect;
 export type LineDesign = typeof lineDesigns.$inferSelect;
 export type ApiToken = typeof apiTokens.$inferSelect;
 
-export const jobKindEnum = pgEnum('job_kind', ['import-solve', 'solve-all', 'issue-bill', 'sheets-batch']);
+export const jobKindEnum = pgEnum('job_kind', [
+  'import-solve',
+  'solve-all',
+  'issue-bill',
+  'sheets-batch',
+  'read-upload',
+  'check-import',
+  'what-if',
+]);
 export const jobStateEnum = pgEnum('job_state', ['queued', 'running', 'done', 'failed']);
 
 /**

@@ -9,7 +9,14 @@ import { db } from '@/db/client';
 import { jobs, sheetBatches } from '@/db/schema';
 import { isAppError } from '@/lib/errors';
 import { logUnexpected } from '@/lib/log';
-import { commitDraft } from '@/lib/lines/import-store';
+import {
+  commitDraft,
+  type DraftChoice,
+  previewDraft,
+  readDraft,
+  type StoredUpload,
+} from '@/lib/lines/import-store';
+import { dashboard, type WhatIf } from '@/lib/budget/store';
 import { solveProject } from '@/lib/lines/results-store';
 import { issueBill } from '@/lib/boq/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
@@ -56,6 +63,23 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           removed: r.diff.removed.length,
           solved: s.solved,
         };
+      } else if (job.kind === 'read-upload') {
+        // The mapping step's first answer: the upload read (limits first) into a draft.
+        const summary = await readDraft({
+          projectId: job.projectId,
+          userId: job.createdBy ?? '',
+          upload: job.input as unknown as StoredUpload,
+          exec: tx,
+        });
+        result = { ...summary };
+      } else if (job.kind === 'check-import') {
+        // The mapping step's check: every row validated and compared with the current list; nothing written.
+        const input = job.input as unknown as DraftChoice;
+        result = { ...(await previewDraft({ ...input, projectId: job.projectId })) };
+      } else if (job.kind === 'what-if') {
+        // The budget's what-if totals, summed from the stored results; nothing saved.
+        const d = await dashboard({ projectId: job.projectId, whatIf: job.input as WhatIf });
+        result = { bare: d.bare, designed: d.designed, savings: d.savings, warnings: d.warnings };
       } else if (job.kind === 'sheets-batch') {
         // Calculation sheets of the filtered lines as one PDF, kept for download beside the job.
         const input = job.input as { filter: LineFilter };

@@ -1,9 +1,9 @@
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { jobs, type Job } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { getBoss } from './boss';
-import { jobExpireSeconds, type QueueName } from './queues';
+import { jobExpireSeconds, type QueueName, SCREEN_STEP_KINDS } from './queues';
 
 /** What the page shows of a job. */
 export type JobView = Pick<
@@ -41,21 +41,23 @@ export async function enqueueJob({
   kind: QueueName;
   input: Record<string, unknown>;
 }): Promise<JobView> {
-  const [busy] = await db
-    .select({ id: jobs.id })
-    .from(jobs)
-    .where(
-      and(
-        eq(jobs.projectId, projectId),
-        inArray(jobs.state, ['queued', 'running']),
-        // A batch of calculation sheets waits only for another batch; imports and solves for each other.
-        inArray(
-          jobs.kind,
-          kind === 'sheets-batch' ? ['sheets-batch'] : ['import-solve', 'solve-all', 'issue-bill'],
-        ),
-      ),
-    )
-    .limit(1);
+  const [busy] = SCREEN_STEP_KINDS.includes(kind)
+    ? []
+    : await db
+        .select({ id: jobs.id })
+        .from(jobs)
+        .where(
+          and(
+            eq(jobs.projectId, projectId),
+            inArray(jobs.state, ['queued', 'running']),
+            // A batch of calculation sheets waits only for another batch; imports and solves for each other.
+            inArray(
+              jobs.kind,
+              kind === 'sheets-batch' ? ['sheets-batch'] : ['import-solve', 'solve-all', 'issue-bill'],
+            ),
+          ),
+        )
+        .limit(1);
   if (busy)
     throw new AppError(
       'conflict',
@@ -79,7 +81,7 @@ export async function listJobs({
   return db
     .select(VIEW)
     .from(jobs)
-    .where(eq(jobs.projectId, projectId))
+    .where(and(eq(jobs.projectId, projectId), notInArray(jobs.kind, [...SCREEN_STEP_KINDS])))
     .orderBy(desc(jobs.createdAt))
     .limit(limit) as Promise<JobView[]>;
 }

@@ -78,47 +78,81 @@ export async function revisionOriginal({ projectId, number }: { projectId: strin
   const buf = await getDocument({ key: r.originalKey, sha256: r.originalSha256, bytes: r.originalBytes });
   return { buf, fileName: r.fileName, contentType: contentTypeOf(r.fileName) };
 }
-export async function createDraft({
+/** Where an upload's original is kept before (and after) it is read: the object store's coordinates. */
+export interface StoredUpload {
+  draftId: string;
+  fileName: string;
+  key: string;
+  sha256: string;
+  bytes: number;
+}
+
+/**
+ * Keeps an upload byte for byte in the object store (the revision history offers it for download)
+ * and returns where; the web request does only this and leaves the reading to the worker
+ * (`readDraft`, job "read-upload"), so a hostile file never costs the web process memory or time.
+ */
+export async function storeUpload({
   projectId,
-  userId,
   fileName,
   bytes,
 }: {
   projectId: string;
-  userId: string;
   fileName: string;
   bytes: Buffer;
-}): Promise<DraftSummary> {
-  let parsed: ParsedFile;
-  try {
-    parsed = await parseUpload(fileName, bytes);
-  } catch (e) {
-    if (e instanceof ParseError) throw new AppError('invalid', e.message, { file: [e.message] });
-    throw e;
-  }
-  const [remembered] = await db.select().from(columnMappings).where(eq(columnMappings.projectId, projectId));
-  const mem = remembered ? { headers: remembered.headers, mapping: remembered.mapping } : undefined;
-  // The file itself is kept byte for byte (the revision history offers it for download); stored
-  // before the draft row, so a store that cannot take it leaves no draft behind.
+}): Promise<StoredUpload> {
   const draftId = randomUUID();
   const original = await putDocument(
     `projects/${projectId}/line-lists/${draftId}/${safeFileName(fileName)}`,
     bytes,
     contentTypeOf(fileName),
   );
-  const [draft] = await db
+  return { draftId, fileName, key: original.key, sha256: original.sha256, bytes: original.bytes };
+}
+
+/**
+ * Reads a stored upload into a draft (the limits checked before anything is inflated, see
+ * `parseUpload`), with the suggested mapping of each sheet. `exec` is the job's transaction.
+ */
+export async function readDraft({
+  projectId,
+  userId,
+  upload,
+  exec = db,
+}: {
+  projectId: string;
+  userId: string;
+  upload: StoredUpload;
+  exec?: Tx | typeof db;
+}): Promise<DraftSummary> {
+  const bytes = await getDocument({ key: upload.key, sha256: upload.sha256, bytes: upload.bytes });
+  let parsed: ParsedFile;
+  try {
+    parsed = await parseUpload(upload.fileName, bytes);
+  } catch (e) {
+    if (e instanceof ParseError) throw new AppError('invalid', e.message, { file: [e.message] });
+    throw e;
+  }
+  const [remembered] = await exec
+    .select()
+    .from(columnMappings)
+    .where(eq(columnMappings.projectId, projectId));
+  const mem = remembered ? { headers: remembered.headers, mapping: remembered.mapping } : undefined;
+  const [draft] = await exec
     .insert(importDrafts)
     .values({
-      id: draftId,
+      id: upload.draftId,
       projectId,
       createdBy: userId,
-      fileName,
+      fileName: upload.fileName,
       parsed,
-      originalKey: original.key,
-      originalSha256: original.sha256,
-      originalBytes: original.bytes,
+      originalKey: upload.key,
+      originalSha256: upload.sha256,
+      originalBytes: upload.bytes,
     })
+    .onConflictDoNothing()
     .returning({ id: importDrafts.id });
+  if (!draft) throw new AppError('conflict', 'This upload was already read; upload the file again.');
   const sheets = parsed.sheets.map((stored): DraftSheet => {
     const s = viewSheet(stored);
     return {
@@ -135,12 +169,28 @@ export async function createDraft({
   const visible = sheets.find((s) => !s.hidden && s.rowCount > 0) ?? sheets[0];
   return {
     draftId: draft.id,
-    fileName,
+    fileName: upload.fileName,
     sheets,
     defaultSheet: visible.name,
     readAs: describeCsv(parsed),
     remembered: mem ?? null,
   };
+}
+
+/** Stores and reads an upload in one call (scripts, the seed, tests and benchmarks). */
+export async function createDraft({
+  projectId,
+  userId,
+  fileName,
+  bytes,
+}: {
+  projectId: string;
+  userId: string;
+  fileName: string;
+  bytes: Buffer;
+}): Promise<DraftSummary> {
+  const upload = await storeUpload({ projectId, fileName, bytes });
+  return readDraft({ projectId, userId, upload });
 }
 
 async function loadDraft(projectId: string, draftId: string) {

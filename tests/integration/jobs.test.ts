@@ -9,10 +9,11 @@ import { randomUUID } from 'node:crypto';
 import { count, eq } from 'drizzle-orm';
 import PgBoss from 'pg-boss';
 import { db, getPool } from '@/db/client';
-import { boqIssues, jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
+import { boqIssues, importDrafts, jobs, lineListRevisions, lineResults, lines, projects } from '@/db/schema';
 import * as auth from '@/lib/auth/service';
-import { createDraft } from '@/lib/lines/import-store';
-import { enqueueJob } from '@/lib/jobs/store';
+import { createDraft, previewDraft, storeUpload } from '@/lib/lines/import-store';
+import { dashboard } from '@/lib/budget/store';
+import { enqueueJob, listJobs } from '@/lib/jobs/store';
 import { runJob } from '@/lib/jobs/run';
 import { acceptRecommendations } from '@/lib/lines/bulk-accept';
 import { previewBill } from '@/lib/boq/store';
@@ -224,5 +225,75 @@ describe('jobs on PostgreSQL', () => {
       error:
         'No line is decided and cleared yet, so there is nothing to issue. Choose thicknesses (and get flagged lines signed off) first.',
     });
+  });
+  it('the mapping step and the what-if run in the worker: the upload read, the check and the totals are job results; a hostile file fails with a sentence', {
+    timeout: 120_000,
+  }, async () => {
+    const projectId = await newProject('JM-1');
+    // Screen steps wait for no other job of the project and are not listed as its work.
+    const busy = await enqueueJob({ projectId, userId, kind: 'solve-all', input: { all: true } });
+    const upload = await storeUpload({
+      projectId,
+      fileName: 'client list.xlsx',
+      bytes: await lineListWorkbook(demoLineRows(30, 3)),
+    });
+    const read = await enqueueJob({ projectId, userId, kind: 'read-upload', input: { ...upload } });
+    await runJob(read.id);
+    const readRow = await jobRow(read.id);
+    expect(readRow.state).toBe('done');
+    const summary = readRow.result as {
+      draftId: string;
+      defaultSheet: string;
+      sheets: { name: string; rowCount: number; suggested: unknown }[];
+    };
+    expect(summary.draftId).toBe(upload.draftId);
+    expect(summary.sheets.find((x) => x.name === summary.defaultSheet)!.rowCount).toBe(30);
+    expect(
+      await db.select({ n: count() }).from(importDrafts).where(eq(importDrafts.id, upload.draftId)),
+    ).toEqual([{ n: 1 }]);
+    expect((await listJobs({ projectId })).map((j) => j.id)).toEqual([busy.id]);
+
+    const sheet = summary.sheets.find((x) => x.name === summary.defaultSheet)!;
+    const choice = { draftId: upload.draftId, sheetName: sheet.name, mapping: sheet.suggested as never };
+    const check = await enqueueJob({ projectId, userId, kind: 'check-import', input: choice });
+    await runJob(check.id);
+    const checked = await jobRow(check.id);
+    expect(checked.state).toBe('done');
+    const direct = await previewDraft({ projectId, ...choice });
+    expect(checked.result).toEqual(JSON.parse(JSON.stringify(direct)));
+    expect(direct.lineCount).toBe(30);
+    await db.delete(jobs).where(eq(jobs.id, busy.id));
+
+    // A CSV 5,000 columns wide (the issue's hostile file) is refused by the job, with the limit named.
+    const wide = await storeUpload({
+      projectId,
+      fileName: 'wide.csv',
+      bytes: Buffer.from(`${Array.from({ length: 5000 }, (_, i) => `c${i}`).join(',')}\n`),
+    });
+    const bad = await enqueueJob({ projectId, userId, kind: 'read-upload', input: { ...wide } });
+    const t0 = Date.now();
+    await runJob(bad.id);
+    expect(Date.now() - t0).toBeLessThan(5_000);
+    const badRow = await jobRow(bad.id);
+    expect(badRow.state).toBe('failed');
+    expect(badRow.error).toMatch(/256 columns/);
+    expect(
+      await db.select({ n: count() }).from(importDrafts).where(eq(importDrafts.id, wide.draftId)),
+    ).toEqual([{ n: 0 }]);
+
+    // The what-if totals equal the dashboard's for the same inputs.
+    const imp = await enqueueJob({ projectId, userId, kind: 'import-solve', input: choice });
+    await runJob(imp.id);
+    expect((await jobRow(imp.id)).state).toBe('done');
+    const whatIf = { energyPricePerKWh: 0.11, hoursPerYear: 6000, policy: 'recommended' as const };
+    const wi = await enqueueJob({ projectId, userId, kind: 'what-if', input: whatIf });
+    await runJob(wi.id);
+    const d = await dashboard({ projectId, whatIf });
+    expect(d.designed.kW).toBeGreaterThan(0);
+    expect((await jobRow(wi.id)).result).toEqual(
+      JSON.parse(
+        JSON.stringify({ bare: d.bare, designed: d.designed, savings: d.savings, warnings: d.warnings }),
+      ),
+    );
   });
 });

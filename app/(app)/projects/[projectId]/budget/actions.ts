@@ -2,7 +2,8 @@
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { projectAction } from '@/lib/server/action';
-import { dashboard, saveBudget } from '@/lib/budget/store';
+import { saveBudget } from '@/lib/budget/store';
+import { enqueueJob } from '@/lib/jobs/store';
 
 export const saveBudgetAction = projectAction(
   'budget.edit',
@@ -14,7 +15,7 @@ export const saveBudgetAction = projectAction(
   },
 );
 
-/** What-if totals, computed on the server from the saved results; nothing is saved. */
+/** What-if totals, summed by the worker from the saved results ("what-if" job); nothing is saved. */
 export const whatIfAction = projectAction(
   'budget.read',
   z.object({
@@ -22,8 +23,6 @@ export const whatIfAction = projectAction(
     hoursPerYear: z.number().min(0).max(8784),
     policy: z.enum(['chosen', 'recommended', 'economic-plus-one']),
   }),
-  async ({ project, input }) => {
-    const d = await dashboard({ projectId: project.id, whatIf: input });
-    return { bare: d.bare, designed: d.designed, savings: d.savings, warnings: d.warnings };
-  },
+  async ({ project, user, input }) =>
+    enqueueJob({ projectId: project.id, userId: user.id, kind: 'what-if', input }),
 );

@@ -2,6 +2,7 @@
 import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { useJobOutcome } from '../lines/job-progress';
 import { saveBudgetAction, whatIfAction } from './actions';
 import { convert, formatter, sig, type FormatOptions } from '@/lib/format';
 
@@ -136,7 +137,20 @@ export function WhatIfPanel({
     warnings: string[];
   } | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const [pending, start] = useTransition();
+  const [starting, start] = useTransition();
+  // The totals are summed by the worker (a big project has many lines); the panel follows the job.
+  const [jobId, setJobId] = useState<string | null>(null);
+  useJobOutcome(projectId, jobId, {
+    onDone: (r) => {
+      setJobId(null);
+      setResult(r as unknown as NonNullable<typeof result>);
+    },
+    onFailed: (message) => {
+      setJobId(null);
+      setError(message);
+    },
+  });
+  const pending = starting || jobId !== null;
   return (
     <section className="panel p-4" aria-label="What if">
       <h2 className="mb-2">What if</h2>
@@ -178,18 +192,23 @@ export function WhatIfPanel({
                 hoursPerYear: Number(h),
                 policy,
               });
+              setResult(null);
               if (!r.ok) {
                 setError(r.error);
-                setResult(null);
                 return;
               }
-              setResult(r.data);
+              setJobId(r.data.id);
             });
           }}
         >
           Show totals
         </button>
       </div>
+      {jobId ? (
+        <p role="status" className="text-sm text-ink-700">
+          Summing the totals…
+        </p>
+      ) : null}
       {error ? (
         <p role="alert" className="text-sm text-alarm-700">
           {error}

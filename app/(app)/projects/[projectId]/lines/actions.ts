@@ -7,7 +7,7 @@ import { MAX_UPLOAD_BYTES } from '@/lib/lines';
 import { lineFilterSchema } from '@/lib/lines/filter';
 import { readImportRequest } from '@/lib/lines/import-request';
 import { applyBulkAccept, previewBulkAccept, undoBulkAccept } from '@/lib/lines/bulk-accept';
-import { createDraft, previewDraft, type DraftSummary } from '@/lib/lines/import-store';
+import { storeUpload } from '@/lib/lines/import-store';
 import { pickDesign } from '@/lib/lines/picks-store';
 import { enqueueJob } from '@/lib/jobs/store';
 
@@ -15,10 +15,14 @@ import { enqueueJob } from '@/lib/jobs/store';
 // role checks), so every malformed part becomes a sentence about its field rather than schema text.
 const draftInput = z.unknown();
 
-/** Upload: FormData with `file`. Checked for size before parsing; nothing is stored but the parsed draft. */
+/**
+ * Upload: FormData with `file`. The request checks the size, keeps the file in the object store and
+ * enqueues its reading ("read-upload"); the worker reads it (limits first) and the page follows the
+ * job to the mapping step.
+ */
 export const uploadLineListAction = projectFormDataAction(
   'lines.edit',
-  async ({ project, user, formData }): Promise<DraftSummary> => {
+  async ({ project, user, formData }) => {
     const file = formData.get('file');
     if (!(file instanceof File) || file.size === 0)
       throw new AppError('invalid', 'Choose a line-list file (.xlsx or .csv).', { file: ['Choose a file.'] });
@@ -28,14 +32,24 @@ export const uploadLineListAction = projectFormDataAction(
         `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 20 MB.`,
         { file: ['File too large.'] },
       );
-    const bytes = Buffer.from(await file.arrayBuffer());
-    return createDraft({ projectId: project.id, userId: user.id, fileName: file.name, bytes });
+    const upload = await storeUpload({
+      projectId: project.id,
+      fileName: file.name,
+      bytes: Buffer.from(await file.arrayBuffer()),
+    });
+    return enqueueJob({ projectId: project.id, userId: user.id, kind: 'read-upload', input: { ...upload } });
   },
-  'The file could not be read. Nothing was imported.',
+  'The file could not be kept. Nothing was imported.',
 );
 
-export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, input }) =>
-  previewDraft({ projectId: project.id, ...readImportRequest(input) }),
+/** The mapping step's check (every row validated, compared with the current list) runs in the worker. */
+export const previewImportAction = projectAction('lines.edit', draftInput, async ({ project, user, input }) =>
+  enqueueJob({
+    projectId: project.id,
+    userId: user.id,
+    kind: 'check-import',
+    input: { ...readImportRequest(input) },
+  }),
 );
 
 /** Import + solve is a background job: the request records and enqueues it and returns the job. */

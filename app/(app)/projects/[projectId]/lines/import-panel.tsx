@@ -1,5 +1,5 @@
 'use client';
-import { useEffect, useState, useTransition } from 'react';
+import { useState, useTransition } from 'react';
 import { useRouter } from 'next/navigation';
 import { useQueryClient } from '@tanstack/react-query';
 import {
@@ -16,7 +16,7 @@ import { headerView, rowPreview } from '@/lib/lines/header';
 import type { DraftSummary, Preview } from '@/lib/lines/import-store';
 import type { UnknownValue } from '@/lib/lines/validate';
 import { commitImportAction, previewImportAction, uploadLineListAction } from './actions';
-import { JobProgressBar, useJob } from './job-progress';
+import { JobProgressBar, useJobOutcome } from './job-progress';
 
 const MAX_BYTES = 20 * 1024 * 1024;
 const letter = (i: number) => {
@@ -46,8 +46,8 @@ function viewOf(s: Sheet, headerRow: number) {
 /** Upload → header row → map columns → answer unknown values → check → import, each step with its own messages. */
 export function ImportPanel({ projectId }: { projectId: string }) {
   const qc = useQueryClient();
-  const [pending, start] = useTransition();
-  const [step, setStep] = useState<'idle' | 'reading' | 'importing'>('idle');
+  const [starting, start] = useTransition();
+  const [step, setStep] = useState<'idle' | 'reading' | 'checking' | 'importing'>('idle');
   const [error, setError] = useState<string | null>(null);
   const [draft, setDraft] = useState<DraftSummary | null>(null);
   const [sheet, setSheet] = useState('');
@@ -56,38 +56,57 @@ export function ImportPanel({ projectId }: { projectId: string }) {
   const [preview, setPreview] = useState<Preview | null>(null);
   const [questions, setQuestions] = useState<UnknownValue[]>([]);
   const [done, setDone] = useState<string | null>(null);
-  // The import runs as a background job; this follows it until it is done or failed.
+  // Reading the file, checking the mapping and the import itself run in the worker; the panel
+  // follows one job at a time until it is done or failed.
   const router = useRouter();
   const [jobId, setJobId] = useState<string | null>(null);
-  const job = useJob(projectId, jobId);
-  // biome-ignore lint/correctness/useExhaustiveDependencies: runs once per job state the poll returns, not on every render's new setters
-  useEffect(() => {
-    const j = job.data;
-    if (!j || j.state === 'queued' || j.state === 'running') return;
-    setJobId(null);
-    setStep('idle');
-    if (j.state === 'failed') {
-      setError(j.error ?? 'The import stopped; nothing was imported.');
-      return;
-    }
-    const r = j.result as {
-      revision: number;
-      lineCount: number;
-      added: number;
-      changed: number;
-      removed: number;
-      solved: number;
-    };
-    setDone(
-      `Revision ${r.revision} imported: ${r.lineCount} lines (${r.added} added, ${r.changed} changed, ${r.removed} removed); ${r.solved} solved.`,
-    );
-    setDraft(null);
-    setPreview(null);
-    setQuestions([]);
-    qc.invalidateQueries({ queryKey: ['lines', projectId] });
-    qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
-    router.refresh();
-  }, [job.data]);
+  const pending = starting || step !== 'idle';
+  const job = useJobOutcome(projectId, jobId, {
+    onFailed: (message) => {
+      setJobId(null);
+      setStep('idle');
+      setError(message);
+    },
+    onDone: (result) => {
+      const was = step;
+      setJobId(null);
+      setStep('idle');
+      if (was === 'reading') {
+        const d = result as unknown as DraftSummary;
+        setDraft(d);
+        startSheet(d, d.defaultSheet);
+        return;
+      }
+      if (was === 'checking') {
+        const p = result as unknown as Preview;
+        setPreview(p);
+        // Questions stay on screen once asked (answered ones too), new ones are added.
+        setQuestions((q) => {
+          const key = (u: UnknownValue) => `${u.field}\u0000${valueKey(u.value)}`;
+          const seen = new Set(q.map(key));
+          return [...q, ...p.unknownValues.filter((u) => !seen.has(key(u)))];
+        });
+        return;
+      }
+      const r = result as {
+        revision: number;
+        lineCount: number;
+        added: number;
+        changed: number;
+        removed: number;
+        solved: number;
+      };
+      setDone(
+        `Revision ${r.revision} imported: ${r.lineCount} lines (${r.added} added, ${r.changed} changed, ${r.removed} removed); ${r.solved} solved.`,
+      );
+      setDraft(null);
+      setPreview(null);
+      setQuestions([]);
+      qc.invalidateQueries({ queryKey: ['lines', projectId] });
+      qc.invalidateQueries({ queryKey: ['jobs', projectId, 'recent'] });
+      router.refresh();
+    },
+  });
 
   const current = draft?.sheets.find((s) => s.name === sheet);
   const view = current ? viewOf(current, headerRow) : null;
@@ -118,16 +137,16 @@ export function ImportPanel({ projectId }: { projectId: string }) {
       );
       return;
     }
+    setDraft(null);
     setStep('reading');
     start(async () => {
       const r = await uploadLineListAction(projectId, fd);
-      setStep('idle');
       if (!r.ok) {
+        setStep('idle');
         setError(r.error);
         return;
       }
-      setDraft(r.data);
-      startSheet(r.data, r.data.defaultSheet);
+      setJobId(r.data.id);
     });
   }
 
@@ -171,6 +190,7 @@ export function ImportPanel({ projectId }: { projectId: string }) {
 
   function check() {
     setError(null);
+    setStep('checking');
     start(async () => {
       const r = await previewImportAction(projectId, {
         draftId: draft!.draftId,
@@ -179,16 +199,11 @@ export function ImportPanel({ projectId }: { projectId: string }) {
         mapping,
       });
       if (!r.ok) {
+        setStep('idle');
         setError(r.error);
         return;
       }
-      setPreview(r.data);
-      // Questions stay on screen once asked (answered ones too), new ones are added.
-      setQuestions((q) => {
-        const key = (u: UnknownValue) => `${u.field}\u0000${valueKey(u.value)}`;
-        const seen = new Set(q.map(key));
-        return [...q, ...r.data.unknownValues.filter((u) => !seen.has(key(u)))];
-      });
+      setJobId(r.data.id);
     });
   }
 
@@ -241,10 +256,12 @@ export function ImportPanel({ projectId }: { projectId: string }) {
           <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-mineral-500 border-t-transparent" />
           {step === 'reading'
             ? 'Reading the file…'
-            : 'Importing in one transaction and solving the changed lines…'}
+            : step === 'checking'
+              ? 'Checking every row against the mapping…'
+              : 'Importing in one transaction and solving the changed lines…'}
         </div>
       ) : null}
-      {job.data && (job.data.state === 'queued' || job.data.state === 'running') ? (
+      {step === 'importing' && job.data && (job.data.state === 'queued' || job.data.state === 'running') ? (
         <div className="mt-3">
           <JobProgressBar job={job.data} />
         </div>

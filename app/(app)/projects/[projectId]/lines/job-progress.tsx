@@ -25,6 +25,39 @@ export function useJob(projectId: string, jobId: string | null) {
   });
 }
 
+/**
+ * Follows one job and calls `onDone` with its result or `onFailed` with its sentence, once per job,
+ * when it finishes. The callbacks are read at that moment (latest render), so they may use state.
+ */
+export function useJobOutcome(
+  projectId: string,
+  jobId: string | null,
+  on: { onDone: (result: Record<string, unknown>) => void; onFailed: (error: string) => void },
+) {
+  const job = useJob(projectId, jobId);
+  const handlers = useRef(on);
+  handlers.current = on;
+  const handled = useRef<string | null>(null);
+  useEffect(() => {
+    const j = job.data;
+    if (!j || j.id !== jobId || handled.current === j.id) return;
+    if (j.state === 'done') {
+      handled.current = j.id;
+      handlers.current.onDone(j.result ?? {});
+    } else if (j.state === 'failed') {
+      handled.current = j.id;
+      handlers.current.onFailed(j.error ?? 'The job stopped; nothing was changed. Try again.');
+    }
+  }, [job.data, jobId]);
+  useEffect(() => {
+    if (job.error && jobId && handled.current !== jobId) {
+      handled.current = jobId;
+      handlers.current.onFailed(job.error.message);
+    }
+  }, [job.error, jobId]);
+  return job;
+}
+
 /** Seconds left at the rate so far, once there is a rate to go by. */
 function remaining(j: Wire): string {
   if (!j.startedAt || !j.total || !j.done || j.done >= j.total) return '';
@@ -37,13 +70,19 @@ export function JobProgressBar({ job }: { job: Wire }) {
   const text =
     job.state === 'queued'
       ? 'Waiting for a worker…'
-      : job.kind === 'sheets-batch'
-        ? `Producing the sheets of ${job.total.toLocaleString('en')} lines…`
-        : job.total
-          ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
-          : job.kind === 'issue-bill'
-            ? 'Counting the quantities of every decided line…'
-            : 'Reading and importing…';
+      : job.kind === 'read-upload'
+        ? 'Reading the file…'
+        : job.kind === 'check-import'
+          ? 'Checking every row against the mapping…'
+          : job.kind === 'what-if'
+            ? 'Summing the totals…'
+            : job.kind === 'sheets-batch'
+              ? `Producing the sheets of ${job.total.toLocaleString('en')} lines…`
+              : job.total
+                ? `Solving: ${job.done.toLocaleString('en')} of ${job.total.toLocaleString('en')} lines${remaining(job)}`
+                : job.kind === 'issue-bill'
+                  ? 'Counting the quantities of every decided line…'
+                  : 'Reading and importing…';
   return (
     <div className="mb-3" aria-live="polite">
       <div

@@ -132,7 +132,7 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
           ? {
               state: 'failed',
               finishedAt: new Date(),
-              error: `This ${JOB_KIND_LABEL[job.kind].toLowerCase()} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
+              error: `${JOB_KIND_LABEL[job.kind]} stopped on our side after ${job.attempts} attempts; nothing was changed. Start it again; if it stops again, tell us.`,
             }
           : { state: 'queued', error: 'Stopped on our side; trying again. Nothing was changed.' },
       )

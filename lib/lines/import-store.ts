@@ -5,6 +5,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { upsertRows } from '@/db/bulk';
 import { db, type Tx } from '@/db/client';
 import { columnMappings, importDrafts, lineDesigns, lineListRevisions, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
@@ -337,41 +338,8 @@ export async function commitDraft({
         void _old;
         return r;
       });
-      await tx
-        .insert(lines)
-        .values(chunk)
-        .onConflictDoUpdate({
-          target: [lines.projectId, lines.tag],
-          set: Object.fromEntries(
-            [
-              'service',
-              'area',
-              'geometry',
-              'nps',
-              'outside_diameter_mm',
-              'length_m',
-              'surface_area_m2',
-              'height_m',
-              'normal_temp_c',
-              'max_temp_c',
-              'steam_pressure_bar_g',
-              'flow_kg_per_s',
-              'fluid_cp_kj_per_kg_k',
-              'elbows',
-              'tees',
-              'valves',
-              'flanges',
-              'purposes',
-              'outdoor',
-              'accessible',
-              'access_height_m',
-              'jacket_id',
-              'notes',
-              'input_version',
-              'revision',
-            ].map((c) => [camel(c), sql.raw(`excluded.${c}`)]),
-          ),
-        });
+      // Updated by tag: every imported field, the input version and the revision (db/bulk.ts).
+      await upsertRows(tx, lines, chunk, { target: ['projectId', 'tag'] });
     }
     const removedIds = current
       .filter((l) => diff.removed.some((t) => t.toUpperCase() === l.tag.toUpperCase()))
@@ -382,11 +350,14 @@ export async function commitDraft({
     const changedIds = rows
       .filter((r) => r._old && r._thermal.length)
       .map((r) => ({ id: r._old!.id, why: r._thermal.map((c) => c.field).join(', ') }));
-    for (const c of changedIds) {
-      await tx
-        .update(lineDesigns)
-        .set({ needsRedecision: true, redecisionReason: `Revision ${number} changed ${c.why}` })
-        .where(eq(lineDesigns.lineId, c.id));
+    // One statement per chunk, not one per line (a revision may change thousands of lines).
+    for (let i = 0; i < changedIds.length; i += CHUNK) {
+      const marks = changedIds
+        .slice(i, i + CHUNK)
+        .map((c) => ({ id: c.id, reason: `Revision ${number} changed ${c.why}` }));
+      await tx.execute(sql`update ${lineDesigns} set needs_redecision = true, redecision_reason = v.reason
+        from json_to_recordset(${JSON.stringify(marks)}::json) as v(id uuid, reason text)
+        where ${lineDesigns.lineId} = v.id`);
     }
     await tx.insert(lineListRevisions).values({
       projectId,
@@ -410,10 +381,6 @@ export async function commitDraft({
     await tx.update(importDrafts).set({ importedRevision: number }).where(eq(importDrafts.id, draftId));
     return { revision: number, diff, lineCount: v.lines.length, warningCount: v.warningCount };
   });
-}
-
-function camel(snake: string) {
-  return snake.replace(/_([a-z0-9])/g, (_, c) => c.toUpperCase());
 }
 
 export async function listRevisions({ projectId }: { projectId: string }) {

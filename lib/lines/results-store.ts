@@ -2,7 +2,8 @@
  * Results: solving a project's stale lines (or all of them) and reading lines with their results,
  * decisions and staleness for the table and the line page. The stale rule itself lives in `./stale`.
  */
-import { and, asc, count, eq, getTableColumns, sql } from 'drizzle-orm';
+import { and, asc, count, eq, sql } from 'drizzle-orm';
+import { upsertRows } from '@/db/bulk';
 import { db, type Tx } from '@/db/client';
 import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
@@ -59,20 +60,7 @@ export async function solveProject({
       if (i + ahead < chunks.length) inFlight.push(solveChunk(chunks[i + ahead]));
       solveMs += Date.now() - t0;
       done += results.length;
-      await tx
-        .insert(lineResults)
-        .values(results)
-        .onConflictDoUpdate({
-          target: lineResults.lineId,
-          set: Object.fromEntries(
-            Object.keys(results[0])
-              .filter((k) => k !== 'lineId')
-              .map((k) => [
-                k,
-                sql.raw(`excluded.${(RESULT_COLUMNS as Record<string, { name: string }>)[k].name}`),
-              ]),
-          ),
-        });
+      await upsertRows(tx, lineResults, results, { target: ['lineId'] });
       if (onProgress) await onProgress(done, todo.length);
     }
   });
@@ -80,7 +68,6 @@ export async function solveProject({
 }
 
 const SOLVE_CHUNK = 250;
-const RESULT_COLUMNS = getTableColumns(lineResults);
 
 // ---------- reading ----------
 

@@ -1,7 +1,7 @@
 'use client';
 import { useRouter } from 'next/navigation';
-import { useEffect, useState, useTransition } from 'react';
-import { JobProgressBar, useJob } from '../lines/job-progress';
+import { useState, useTransition } from 'react';
+import { JobProgressBar, useJobOutcome } from '../lines/job-progress';
 import { issueBillAction } from './actions';
 
 /**
@@ -24,21 +24,22 @@ export function IssueButton({
   const [confirming, setConfirming] = useState(false);
   const [jobId, setJobId] = useState<string | null>(null);
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
-  const job = useJob(projectId, jobId);
-  const j = job.data;
-  useEffect(() => {
-    if (!j || j.state === 'queued' || j.state === 'running') return;
-    setJobId(null);
-    if (j.state === 'failed') setMsg({ ok: false, text: j.error ?? 'The bill was not issued.' });
-    else {
-      const r = (j.result ?? {}) as { number?: number; counted?: number; pending?: number };
+  const job = useJobOutcome(projectId, jobId, {
+    onFailed: (text) => {
+      setJobId(null);
+      setMsg({ ok: false, text });
+    },
+    onDone: (result) => {
+      setJobId(null);
+      const r = result as { number?: number; counted?: number; pending?: number };
       setMsg({
         ok: true,
         text: `Issue ${r.number} issued: ${r.counted} lines counted, ${r.pending} pending.`,
       });
       router.refresh();
-    }
-  }, [j, router]);
+    },
+  });
+  const j = job.data;
   const busy = pending || jobId !== null;
   const issue = (evenIfUnchanged: boolean) =>
     start(async () => {

@@ -2,7 +2,7 @@
  * Results: solving a project's stale lines (or all of them) and reading lines with their results,
  * decisions and staleness for the table and the line page. The stale rule itself lives in `./stale`.
  */
-import { and, asc, count, eq, sql } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, sql } from 'drizzle-orm';
 import { upsertRows } from '@/db/bulk';
 import { db, type Tx } from '@/db/client';
 import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
@@ -128,7 +128,6 @@ export async function listLines(o: LineQuery) {
       accessible: lines.accessible,
       maxTempC: lines.maxTempC,
       purposes: lines.purposes,
-      shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
       chosenMm: lineDesigns.thicknessMm,
       source: lineDesigns.source,
       belowCriterion: lineDesigns.belowCriterion,
@@ -155,7 +154,32 @@ export async function listLines(o: LineQuery) {
       .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
       .where(and(...where)),
   ]);
-  return { rows, total, page: o.page, size: o.size };
+  // The shown candidate is picked out of the candidate table for this page's rows only: in the
+  // page query PostgreSQL would read every matching line's candidate table before sorting (measured
+  // 200 ms for a 1,000-line project, all of it detoasting).
+  const shown = new Map<string, CandidateRow | null>();
+  if (rows.length) {
+    const picked = await db
+      .select({
+        lineId: lineResults.lineId,
+        shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+      })
+      .from(lineResults)
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lineResults.lineId))
+      .where(
+        inArray(
+          lineResults.lineId,
+          rows.map((r) => r.id),
+        ),
+      );
+    for (const p of picked) shown.set(p.lineId, p.shownCandidate);
+  }
+  return {
+    rows: rows.map((r) => ({ ...r, shownCandidate: shown.get(r.id) ?? null })),
+    total,
+    page: o.page,
+    size: o.size,
+  };
 }
 
 export async function listAreas({ projectId }: { projectId: string }) {

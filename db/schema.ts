@@ -335,6 +335,8 @@ export interface DesignSnapshot {
   source: 'recommended' | 'manual';
   reason: string | null;
   belowCriterion: string | null;
+  /** A vessel picked part by part (absent in snapshots taken before parts existed). */
+  parts?: DesignParts | null;
   needsRedecision: boolean;
   redecisionReason: string | null;
   decidedBy: string | null;

@@ -167,6 +167,8 @@ export interface SurfaceRow {
 }
 export interface ScheduleRow {
   tag: string;
+  /** Absent in bills issued before vessels were listed part by part. */
+  geometry?: BoqLine['geometry'];
   area: string;
   size: string;
   lengthM: number | null;
@@ -233,13 +235,15 @@ export function computeQuantities(
     const lp = l.geometry === 'vessel' ? l.parts : null;
     schedule.push({
       tag: l.tag,
+      geometry: l.geometry,
       area: l.area,
       size: sizeOf(l),
       lengthM: l.lengthM,
       areaM2: l.surfaceAreaM2,
       layers: lp
         ? VESSEL_PART_IDS.map(
-            (p) => `${VESSEL_PART_LABEL[p]}: ${layerText(lp[p].layers)}${lp[p].guarded ? ' (guarded)' : ''}`,
+            (p) =>
+              `${VESSEL_PART_LABEL[p]} ${lp[p].layers.reduce((a, x) => a + x.thicknessMm, 0)} mm${lp[p].guarded ? ', guarded' : ''}: ${layerText(lp[p].layers)}`,
           ).join(' · ')
         : layerText(l.layers),
       totalMm: total,

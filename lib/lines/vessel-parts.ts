@@ -39,16 +39,20 @@ export function partsDiffer(p: PartPicks): boolean {
 }
 
 /**
- * A design in words, for the table, the bill schedule and the audit: "100 mm" for one thickness;
+ * A design in words, for the table and the audit: "100 mm" for one thickness;
  * "shell 100 mm · bottom head 180 mm" naming the shell and each head that differs from it.
  */
-export function describeDesign(thicknessMm: number, parts: DesignParts | null | undefined): string {
-  if (!parts) return `${thicknessMm} mm`;
-  const out = [`shell ${parts.shell.thicknessMm} mm`];
+export function describeDesign(
+  thicknessMm: number,
+  parts: DesignParts | null | undefined,
+  thickness: (mm: number) => string = (mm) => `${mm} mm`,
+): string {
+  if (!parts) return thickness(thicknessMm);
+  const out = [`shell ${thickness(parts.shell.thicknessMm)}`];
   const head = (id: 'top' | 'bottom') => {
     const p = parts[id];
     if (p.thicknessMm === parts.shell.thicknessMm && !p.guarded) return;
-    out.push(`${VESSEL_PART_LABEL[id]} ${p.thicknessMm} mm${p.guarded ? ' (guarded)' : ''}`);
+    out.push(`${VESSEL_PART_LABEL[id]} ${thickness(p.thicknessMm)}${p.guarded ? ' (guarded)' : ''}`);
   };
   head('top');
   head('bottom');

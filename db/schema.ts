@@ -20,6 +20,7 @@ import type { LineListDiff } from '@/lib/lines/diff';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { ParsedFile } from '@/lib/lines/parse';
 import type { StoredDesign, StoredLayer, StoredOutcome } from '@/lib/lines/stored-result';
+import type { DesignParts } from '@/lib/lines/vessel-parts';
 import type { Flag } from '@/lib/review/flags';
 import type { ReviewSnapshot } from '@/lib/review/snapshot';
 
@@ -313,6 +314,11 @@ export const lineDesigns = pgTable(
     reason: text('reason'),
     /** A manual pick below a hard criterion: allowed with a reason, and stays flagged. */
     belowCriterion: text('below_criterion'),
+    /**
+     * Vessels picked part by part (shell, top and bottom head, each its own thickness or a guarded
+     * head); null: the whole vessel at `thicknessMm`. `thicknessMm` then holds the shell's.
+     */
+    parts: jsonb('parts').$type<DesignParts>(),
     needsRedecision: boolean('needs_redecision').notNull().default(false),
     redecisionReason: text('redecision_reason'),
     decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
@@ -329,6 +335,8 @@ export interface DesignSnapshot {
   source: 'recommended' | 'manual';
   reason: string | null;
   belowCriterion: string | null;
+  /** A vessel picked part by part (absent in snapshots taken before parts existed). */
+  parts?: DesignParts | null;
   needsRedecision: boolean;
   redecisionReason: string | null;
   decidedBy: string | null;

@@ -1,3 +1,9 @@
+import {
+  billVesselAreasM2,
+  VESSEL_PART_IDS,
+  VESSEL_PART_LABEL,
+  type VesselPartId,
+} from '@/lib/lines/vessel-parts';
 import { compareTags } from '@/lib/lines/natural-sort';
 
 /**
@@ -98,8 +104,13 @@ export interface BoqLine {
   /** Counted in the bill, or pending with the reason. */
   status: { counted: true } | { counted: false; reason: string };
   reviewStatus: string;
-  /** Vessels: shell height, to tell the shell from the heads when the diameter is known. */
+  /** Vessels: shell height, to tell the shell from the heads. */
   heightM?: number | null;
+  /**
+   * Vessels picked part by part: each part's layers (a guarded head may be thinner); each part's area
+   * is then counted at its own thickness. Absent: `layers` all round.
+   */
+  parts?: Record<VesselPartId, { layers: BoqLine['layers']; guarded?: boolean }> | null;
   /** Cold service (condensation control applies): vapour retarder, mastic and joint sealant. */
   coldService?: boolean;
 }
@@ -145,7 +156,7 @@ export interface AccessoryRow {
   quantity: number;
 }
 export interface SurfaceRow {
-  kind: 'vessel' | 'vessel shell' | 'vessel heads' | 'flat';
+  kind: 'vessel' | 'vessel shell' | 'vessel heads' | 'vessel top head' | 'vessel bottom head' | 'flat';
   material: string;
   /** Board or blanket: pipe sections are never listed for vessels and flat surfaces. */
   productForm?: string;
@@ -156,6 +167,8 @@ export interface SurfaceRow {
 }
 export interface ScheduleRow {
   tag: string;
+  /** Absent in bills issued before vessels were listed part by part. */
+  geometry?: BoqLine['geometry'];
   area: string;
   size: string;
   lengthM: number | null;
@@ -215,15 +228,24 @@ export function computeQuantities(
   const odLabel = (dM: number) => `over OD ${(Math.round(dM * 10000) / 10).toFixed(1)} mm`;
   let counted = 0,
     pending = 0;
+  const layerText = (ls: BoqLine['layers']) =>
+    ls.map((x) => `${x.thicknessMm} mm ${x.materialName}`).join(' + ') || 'bare';
   for (const l of lines) {
     const total = l.layers.reduce((a, x) => a + x.thicknessMm, 0);
+    const lp = l.geometry === 'vessel' ? l.parts : null;
     schedule.push({
       tag: l.tag,
+      geometry: l.geometry,
       area: l.area,
       size: sizeOf(l),
       lengthM: l.lengthM,
       areaM2: l.surfaceAreaM2,
-      layers: l.layers.map((x) => `${x.thicknessMm} mm ${x.materialName}`).join(' + ') || 'bare',
+      layers: lp
+        ? VESSEL_PART_IDS.map(
+            (p) =>
+              `${VESSEL_PART_LABEL[p]} ${lp[p].layers.reduce((a, x) => a + x.thicknessMm, 0)} mm${lp[p].guarded ? ', guarded' : ''}: ${layerText(lp[p].layers)}`,
+          ).join(' · ')
+        : layerText(l.layers),
       totalMm: total,
       jacket: l.layers.length ? l.jacketName : '—',
       status: l.status.counted ? 'counted' : `pending: ${l.status.reason}`,
@@ -234,7 +256,7 @@ export function computeQuantities(
       continue;
     }
     counted++;
-    if (!l.layers.length) continue;
+    if (!l.layers.length && !(lp && VESSEL_PART_IDS.some((p) => lp[p].layers.length))) continue;
     const pipe = l.geometry === 'horizontal-pipe' || l.geometry === 'vertical-pipe';
     if (pipe) {
       const size = sizeOf(l);
@@ -321,25 +343,30 @@ export function computeQuantities(
       }
     } else {
       const a = l.surfaceAreaM2 ?? 0;
-      // A vessel with its diameter and height: the shell (π·D·H) and the two heads (the rest of the area).
-      const dM = (l.outsideDiameterMm ?? 0) / 1000;
-      const shell =
-        l.geometry === 'vessel' && dM > 0 && l.heightM ? Math.min(a, Math.PI * dM * l.heightM) : null;
-      const parts: [SurfaceRow['kind'], number][] =
+      // A vessel with its height: the shell (π·D·H) and the heads (the rest of the area, half each;
+      // lib/lines/vessel-parts.ts), each part at its own layers when the design gives them.
+      const va = l.geometry === 'vessel' ? billVesselAreasM2(l) : null;
+      const parts: [SurfaceRow['kind'], number, BoqLine['layers']][] =
         l.geometry === 'flat'
-          ? [['flat', a]]
-          : shell !== null
+          ? [['flat', a, l.layers]]
+          : va && lp
             ? [
-                ['vessel shell', shell],
-                ['vessel heads', a - shell],
+                ['vessel shell', va.shell, lp.shell.layers],
+                ['vessel top head', va.top, lp.top.layers],
+                ['vessel bottom head', va.bottom, lp.bottom.layers],
               ]
-            : [['vessel', a]];
-      l.layers.forEach((x, i) => {
-        // Vessels and flat surfaces take board or blanket: a pipe product named here is listed as the board or blanket of the same material.
-        const form =
-          x.productForm === 'pipe-section' || x.productForm === 'tube' ? 'board or blanket' : x.productForm;
-        for (const [kind, area] of parts) {
-          if (area <= 0) continue;
+            : va
+              ? [
+                  ['vessel shell', va.shell, l.layers],
+                  ['vessel heads', va.top + va.bottom, l.layers],
+                ]
+              : [['vessel', a, l.layers]];
+      for (const [kind, area, layers] of parts) {
+        if (area <= 0) continue;
+        layers.forEach((x, i) => {
+          // Vessels and flat surfaces take board or blanket: a pipe product named here is listed as the board or blanket of the same material.
+          const form =
+            x.productForm === 'pipe-section' || x.productForm === 'tube' ? 'board or blanket' : x.productForm;
           const key = `${kind}|${x.materialName}|${i + 1}|${x.thicknessMm}`;
           const s = surfaces.get(key) ?? {
             kind,
@@ -353,8 +380,8 @@ export function computeQuantities(
           s.areaM2 += area * w;
           s.volumeM3 += area * (x.thicknessMm / 1000) * w;
           surfaces.set(key, s);
-        }
-      });
+        });
+      }
       const jk = `${l.jacketName}|flat`;
       const j = jackets.get(jk) ?? {
         jacket: l.jacketName,

@@ -67,6 +67,16 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
   const review = new Map(decided.rows.map((r) => [r.line_id, r]));
   const { basis } = await getDesignBasis({ projectId });
   const cat = catalogueOf(basis);
+  const boqLayers = (ls: { materialId: string; thicknessMm: number }[]) =>
+    ls.map((x) => {
+      const m = cat.materials.get(x.materialId);
+      return {
+        materialId: x.materialId,
+        materialName: m?.name ?? x.materialId,
+        productForm: m?.productForm ?? '',
+        thicknessMm: x.thicknessMm,
+      };
+    });
   return rows.map(({ line, design, jacketId }) => {
     const flags = flagged.get(line.id) ?? [];
     const rv = review.get(line.id);
@@ -96,15 +106,18 @@ export async function collectBillLines({ projectId }: { projectId: string }): Pr
       lengthM: line.lengthM,
       surfaceAreaM2: line.surfaceAreaM2,
       fittings: { elbows: line.elbows, tees: line.tees, valves: line.valves, flanges: line.flanges },
-      layers: ((design?.layers ?? []) as { materialId: string; thicknessMm: number }[]).map((x) => {
-        const m = cat.materials.get(x.materialId);
-        return {
-          materialId: x.materialId,
-          materialName: m?.name ?? x.materialId,
-          productForm: m?.productForm ?? '',
-          thicknessMm: x.thicknessMm,
-        };
-      }),
+      layers: boqLayers(design?.layers ?? []),
+      parts:
+        line.geometry === 'vessel' && design?.parts
+          ? {
+              shell: { layers: boqLayers(design.parts.shell.layers) },
+              top: { layers: boqLayers(design.parts.top.layers), guarded: !!design.parts.top.guarded },
+              bottom: {
+                layers: boqLayers(design.parts.bottom.layers),
+                guarded: !!design.parts.bottom.guarded,
+              },
+            }
+          : null,
       jacketId: jacket?.id ?? '',
       jacketName: jacket?.name ?? '—',
       status,

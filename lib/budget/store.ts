@@ -1,4 +1,5 @@
 /** The heat-loss budget and its dashboard figures, summed here from the saved line results. */
+import { vesselPartsHeatW } from '@/lib/lines/vessel-parts';
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from '@/db/client';
@@ -116,6 +117,9 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
       flanges: lines.flanges,
       result: lineResults,
       chosenMm: lineDesigns.thicknessMm,
+      chosenParts: lineDesigns.parts,
+      surfaceAreaM2: lines.surfaceAreaM2,
+      heightM: lines.heightM,
     })
     .from(lines)
     .innerJoin(lineResults, eq(lineResults.lineId, lines.id))
@@ -134,7 +138,8 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     incompleteCount = 0,
     fittingsKW = 0,
     bareFittingsKW = 0;
-  for (const { tag, area, geometry, lengthM, elbows, tees, valves, flanges, result, chosenMm } of rows) {
+  for (const row of rows) {
+    const { tag, area, geometry, lengthM, elbows, tees, valves, flanges, result, chosenMm } = row;
     // A pipe without its length yet is solved per metre but counts in no total.
     if (isIncompleteLine({ geometry, lengthM })) {
       incompleteCount++;
@@ -156,7 +161,12 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     const counts = { geometry, lengthM, elbows, tees, valves, flanges };
     const fitW = lineFittingsW(basis, counts, c.heatFlow, bare.heatFlow, c.mm === 0);
     const bareFitW = lineFittingsW(basis, counts, bare.heatFlow, bare.heatFlow, true);
-    const designedW = c.heatFlow * extent + fitW,
+    // A vessel picked part by part: each part's flux at its own thickness times its area, summed.
+    const partsW =
+      policy === 'chosen' && geometry === 'vessel' && row.chosenParts
+        ? vesselPartsHeatW(cands, row.chosenParts, row.surfaceAreaM2 ?? 1, row.heightM ?? 1)
+        : null;
+    const designedW = (partsW ?? c.heatFlow * extent) + fitW,
       bareW = result.bareHeatW + bareFitW;
     if (bareW < 0) {
       coldGainKW += -designedW / 1000;

@@ -101,6 +101,8 @@ function classOf(r: {
   if (r.recommendedMm === null) return 'noRecommendation';
   if (r.design && r.design.thicknessMm === r.recommendedMm && sameJson(r.design.layers, r.recLayers))
     return 'alreadyAccepted';
+  // A vessel accepted part by part at the engine's per-part decisions is its recommendation already.
+  if (r.design?.parts) return 'alreadyAccepted';
   return r.design ? 'update' : 'new';
 }
 
@@ -169,6 +171,7 @@ const snapshotOf = (d: LineDesign): DesignSnapshot => ({
   source: d.source,
   reason: d.reason,
   belowCriterion: d.belowCriterion,
+  parts: d.parts ?? null,
   needsRedecision: d.needsRedecision,
   redecisionReason: d.redecisionReason,
   decidedBy: d.decidedBy,
@@ -280,6 +283,7 @@ export async function applyBulkAccept(o: {
         source: 'recommended' as const,
         reason: null,
         belowCriterion: null,
+        parts: null,
         needsRedecision: false,
         redecisionReason: null,
         decidedBy: o.userId,
@@ -299,6 +303,7 @@ export async function applyBulkAccept(o: {
             source: sql`excluded.source`,
             reason: null,
             belowCriterion: null,
+            parts: null,
             needsRedecision: false,
             redecisionReason: null,
             decidedBy: sql`excluded.decided_by`,
@@ -407,6 +412,7 @@ export async function undoBulkAccept(o: { projectId: string; userId: string; bul
             source: b.source,
             reason: b.reason,
             belowCriterion: b.belowCriterion,
+            parts: b.parts ?? null,
             needsRedecision: b.needsRedecision,
             redecisionReason: b.redecisionReason,
             decidedBy: b.decidedBy && known.has(b.decidedBy) ? b.decidedBy : null,

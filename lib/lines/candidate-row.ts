@@ -3,10 +3,12 @@
  * arrays, one per thickness:
  *
  *   [mm, layers, heat flow, surface °C (heat loss), surface °C (personnel), annual cost,
- *    layers within service limits, surface °C (condensation)]
+ *    layers within service limits, surface °C (condensation), vessel part fluxes]
  *
  * with layers as [materialId, mm] pairs and heat flow in W/m (pipes) or W/m² (vessels and flat
- * surfaces). Results stored before the last field existed have seven entries. Nothing outside this
+ * surfaces). The ninth entry, vessels only, is [shell, top head, bottom head] heat flux in W/m² of
+ * each part's own bare area (heat-loss conditions), for picks that give the parts their own thickness.
+ * Results stored before the eighth field existed have seven entries; before the ninth, eight. Nothing outside this
  * module reads or writes a position; the SQL that finds a candidate by thickness takes its path
  * from here too. Pure (server and client).
  */
@@ -22,6 +24,7 @@ export type CandidateRow = [
   number | null,
   boolean,
   (number | null)?,
+  [number, number, number]?,
 ];
 
 /** A stored candidate read back. */
@@ -40,6 +43,8 @@ export interface StoredCandidate {
   withinLimits: boolean;
   /** Surface temperature under the condensation conditions, °C, when solved (null in older rows). */
   condensationC: number | null;
+  /** Vessels: heat flux per m² of each part's bare area [shell, top, bottom], when stored. */
+  partFluxesWPerM2: [number, number, number] | null;
 }
 
 const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
@@ -49,8 +54,8 @@ const round = (v: number, d: number) => Math.round(v * POW10[d]) / POW10[d];
  * The stored row of one of the engine's candidates, rounded as stored (heat flow to 6 places,
  * temperatures to 0.01 K, annual cost to 3 places).
  */
-export function encodeCandidate(c: CandidateResult): CandidateRow {
-  return [
+export function encodeCandidate(c: CandidateResult, partFluxes?: [number, number, number]): CandidateRow {
+  const row: CandidateRow = [
     c.totalMm,
     c.layers.map((l) => [l.materialId, l.thicknessMm]),
     round(c.heatLoss.heatFlow, 6),
@@ -60,6 +65,8 @@ export function encodeCandidate(c: CandidateResult): CandidateRow {
     c.serviceLimitOk,
     c.condensation ? round(c.condensation.surfaceC, 2) : null,
   ];
+  if (partFluxes) row.push([round(partFluxes[0], 6), round(partFluxes[1], 6), round(partFluxes[2], 6)]);
+  return row;
 }
 
 export function decodeCandidate(r: CandidateRow): StoredCandidate {
@@ -72,6 +79,7 @@ export function decodeCandidate(r: CandidateRow): StoredCandidate {
     annualCost: r[5] ?? null,
     withinLimits: r[6],
     condensationC: r[7] ?? null,
+    partFluxesWPerM2: r[8] ?? null,
   };
 }
 

@@ -10,6 +10,11 @@ import { decodeCandidate, type CandidateRow } from './candidate-row';
 import { getDesignBasis } from './basis-store';
 import { inputOf } from './result-row';
 import { getLine, type LineQuery, listLines } from './results-store';
+import { and, inArray, isNotNull } from 'drizzle-orm';
+import { db } from '@/db/client';
+import { lineDesigns } from '@/db/schema';
+import { describeDesign } from './vessel-parts';
+import { formatterFor } from '@/lib/format';
 
 /** One thickness option as the client receives it (surfaceC: the heat-loss conditions' surface). */
 export interface PickerCandidate {
@@ -83,6 +88,22 @@ function toPicker(c: ReturnType<typeof candidateNumbers>[number]): PickerCandida
 export async function lineTablePage(q: LineQuery) {
   const r = await listLines(q);
   const { basis } = await getDesignBasis({ projectId: q.projectId });
+  // Vessels picked part by part: the table says so in words ("shell 100 mm · bottom head 180 mm").
+  const vesselIds = r.rows.filter((x) => x.geometry === 'vessel' && x.chosenMm !== null).map((x) => x.id);
+  const partRows = vesselIds.length
+    ? await db
+        .select({
+          lineId: lineDesigns.lineId,
+          thicknessMm: lineDesigns.thicknessMm,
+          parts: lineDesigns.parts,
+        })
+        .from(lineDesigns)
+        .where(and(inArray(lineDesigns.lineId, vesselIds), isNotNull(lineDesigns.parts)))
+    : [];
+  const fmt = formatterFor(basis);
+  const partsText = new Map(
+    partRows.map((x) => [x.lineId, describeDesign(x.thicknessMm, x.parts, (mm) => fmt.thickness(mm))]),
+  );
   const rows = await Promise.all(
     r.rows.map(async ({ shownCandidate, outdoor, accessible, maxTempC, purposes, jacketId, ...row }) => {
       const facts = { outdoor, accessible, normalTempC: row.normalTempC, maxTempC, purposes } as LineInput;
@@ -93,6 +114,7 @@ export async function lineTablePage(q: LineQuery) {
         ...row,
         heatFlowPerUnit: row.heatFlowPerUnit === null ? null : sig(row.heatFlowPerUnit, 5),
         surfaceTempC: row.surfaceTempC === null ? null : Math.round(row.surfaceTempC * 100) / 100,
+        chosenParts: partsText.get(row.id) ?? null,
         personnelLimitC: d.limits.personnelLimitC,
         condensationNeedC: d.limits.condensationNeedC,
         // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated.

@@ -386,7 +386,7 @@ export interface RecommendResult {
   fittingsHeatLossW?: number;
   totalHeatLossW?: number;
   /** Vessels: shell and heads decided per part (each meeting its criteria), with each part's heat flux and the vessel's mean flux at those thicknesses. */
-  vesselParts?: Recommendation['vesselParts'];
+  vesselParts?: Omit<NonNullable<Recommendation['vesselParts']>, 'candidateFluxesWPerM2'>;
   /** With cui: the corrosion-under-insulation screen (windows, their sources, what the specification then requires). */
   cui?: CuiScreen;
   unmet: CriterionId[];
@@ -750,7 +750,8 @@ export function runRecommendCase(input: unknown): RecommendOutput {
       criteria: criteriaOf(r, line, system, crit, c.thicknessMm, pipe),
       ...(tracing ? { heatTracing: tracing } : {}),
       ...(fittingsW !== undefined ? { fittingsHeatLossW: fittingsW, totalHeatLossW: totalW } : {}),
-      ...(r.vesselParts ? { vesselParts: r.vesselParts } : {}),
+      // The per-candidate part fluxes are for the stored result (the budget), not for the answer.
+      ...(r.vesselParts ? { vesselParts: withoutCandidateFluxes(r.vesselParts) } : {}),
       ...(c.cui
         ? {
             cui: screenCui(
@@ -776,4 +777,9 @@ export function runRecommendCase(input: unknown): RecommendOutput {
 export function recommendCaseCost(input: unknown): number {
   const g = (input as { geometry?: unknown } | null)?.geometry;
   return typeof g === 'string' && g.endsWith('vessel') ? 3 : 1;
+}
+
+function withoutCandidateFluxes(v: NonNullable<Recommendation['vesselParts']>) {
+  const { candidateFluxesWPerM2: _, ...rest } = v;
+  return rest;
 }

@@ -80,7 +80,7 @@ export function resultRow(ctx: ResultContext, line: Line) {
     unmet: r.unmet,
     warnings: r.warnings,
     // Compact cost curve and candidate table, one row per thickness (lib/lines/candidate-row.ts).
-    candidates: r.candidates.map(encodeCandidate),
+    candidates: r.candidates.map((c, i) => encodeCandidate(c, r.vesselParts?.candidateFluxesWPerM2[i])),
     design: r.design
       ? {
           profileC: r.design.profileC,

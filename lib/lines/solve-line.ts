@@ -11,6 +11,7 @@ import {
 } from '@/lib/thermal';
 import type { DesignBasis } from './design-basis';
 import { isSurfaceGeometry } from './fields';
+import { vesselDiameterM } from './vessel-area';
 import { catalogueOf } from './catalogue';
 import type { LineInput } from './validate';
 
@@ -68,13 +69,8 @@ export function criteriaFor(basis: DesignBasis, outdoor: boolean): Criteria {
   };
 }
 
-/**
- * Line list geometry → engine geometry. A vessel is a vertical shell with two flat heads whose bare
- * outside area is the given area: πDH + 2·πD²/4 = A, so D = √(H² + 2A/π) − H.
- */
-export function vesselDiameterM(areaM2: number, heightM: number): number {
-  return Math.sqrt(heightM * heightM + (2 * areaM2) / Math.PI) - heightM;
-}
+/** Line list geometry → engine geometry (a vessel's diameter from its area and height: `vesselDiameterM`). */
+export { vesselDiameterM };
 
 export function lineCaseFor(l: LineInput): LineCase {
   const base = {

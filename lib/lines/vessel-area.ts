@@ -116,3 +116,11 @@ export function parseHeadType(v: string): HeadType | null {
     return 'cone-roof';
   return null;
 }
+
+/**
+ * The engine's vessel: a vertical shell with two flat heads whose bare outside area is the given area,
+ * πDH + 2·πD²/4 = A, so D = √(H² + 2A/π) − H (the positive root of the quadratic in D).
+ */
+export function vesselDiameterM(areaM2: number, heightM: number): number {
+  return Math.sqrt(heightM * heightM + (2 * areaM2) / Math.PI) - heightM;
+}

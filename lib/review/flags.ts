@@ -18,6 +18,12 @@ import { cuiScreenFor } from '@/lib/lines/cui';
 import { criteriaFor, lineCaseFor } from '@/lib/lines/solve-line';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import type { LineInput } from '@/lib/lines/validate';
+import {
+  VESSEL_PART_IDS,
+  VESSEL_PART_LABEL,
+  type DesignParts,
+  type VesselPartId,
+} from '@/lib/lines/vessel-parts';
 
 export type FlagType = 'hot-surface' | 'sweating' | 'interface-limit' | 'below-criterion' | 'blocked' | 'cui';
 export const FLAG_LABEL: Record<FlagType, string> = {
@@ -40,7 +46,12 @@ export interface Flag {
 export interface FlagInput {
   line: LineInput;
   /** The chosen design (null: nothing chosen, the line is assessed as built bare). */
-  design: { layers: { materialId: string; thicknessMm: number }[]; belowCriterion: string | null } | null;
+  design: {
+    layers: { materialId: string; thicknessMm: number }[];
+    belowCriterion: string | null;
+    /** A vessel picked part by part (lib/lines/vessel-parts.ts); each part is then judged with its own layers. */
+    parts?: DesignParts | null;
+  } | null;
   /** Jacket the design uses (from the solved system); bare lines are bare steel. */
   jacketId: string | null;
   solved: boolean;
@@ -65,6 +76,8 @@ const k = (m: InsulationMaterial) => {
  * follows the touched surface (bare lines: bare steel) — the ISO 13732-1 burn threshold at the
  * project's contact time, or the project's fixed numbers (lib/thermal/touch.ts).
  */
+const partText = (past: string[]) => (past.length ? ` (${past.join('; ')})` : '');
+
 export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const flags: Flag[] = [];
   const l = f.line;
@@ -86,7 +99,14 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
   const c = lineCaseFor(l);
   const crit = criteriaFor(basis, l.outdoor);
   const cat = catalogueOf(basis);
-  const missing = (f.design?.layers ?? []).filter((x) => !cat.materials.has(x.materialId));
+  const parts = c.geometry === 'vessel' ? (f.design?.parts ?? null) : null;
+  const chosen = [
+    ...(f.design?.layers ?? []),
+    ...(parts ? VESSEL_PART_IDS.flatMap((p) => parts[p].layers) : []),
+  ];
+  const missing = [
+    ...new Map(chosen.filter((x) => !cat.materials.has(x.materialId)).map((x) => [x.materialId, x])).values(),
+  ];
   if (missing.length) {
     flags.push({
       type: 'blocked',
@@ -94,27 +114,43 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
     });
     return flags;
   }
-  const layers = (f.design?.layers ?? []).map((x) => {
-    const m = cat.materials.get(x.materialId)!;
-    return {
-      thicknessM: x.thicknessMm / 1000,
-      conductivity: k(m),
-      name: m.name,
-      minServiceC: m.minServiceC,
-      maxServiceC: m.maxServiceC,
-    };
-  });
-  const jacket = layers.length ? cat.jackets.get(f.jacketId ?? '') : undefined;
+  const layersOf = (ls: { materialId: string; thicknessMm: number }[]) =>
+    ls.map((x) => {
+      const m = cat.materials.get(x.materialId)!;
+      return {
+        thicknessM: x.thicknessMm / 1000,
+        conductivity: k(m),
+        name: m.name,
+        minServiceC: m.minServiceC,
+        maxServiceC: m.maxServiceC,
+      };
+    });
+  const layers = layersOf(f.design?.layers ?? []);
+  const partLayers = parts
+    ? {
+        shell: layersOf(parts.shell.layers),
+        top: layersOf(parts.top.layers),
+        bottom: layersOf(parts.bottom.layers),
+      }
+    : undefined;
+  const jacket = layers.length || parts ? cat.jackets.get(f.jacketId ?? '') : undefined;
   const emittance = jacket?.emittance ?? 0.8;
   const D = (c.pipeOuterDiameterMm ?? 0) / 1000,
     H = c.heightM ?? 1;
-  /** Outside surface temperature (the worst part of a vessel: shell, top or bottom head) and the solver's warnings. */
-  const surface = (processC: number, ambient: Ambient) => {
+  /**
+   * Outside surface temperature (the worst part of a vessel: shell, top or bottom head, each with its
+   * own layers when picked part by part; `byPart` then gives each) and the solver's warnings.
+   */
+  const surface = (
+    processC: number,
+    ambient: Ambient,
+  ): { surfaceC: number; warnings: string[]; byPart?: Record<VesselPartId, number> } => {
     if (c.geometry === 'vessel') {
-      const v = solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers });
+      const v = solveVessel({ diameterM: D, shellHeightM: H, processC, ambient, layers, partLayers });
       return {
         surfaceC: v.worstSurfaceC,
         warnings: [...new Set([...v.shell.warnings, ...v.top.warnings, ...v.bottom.warnings])],
+        byPart: { shell: v.shell.surfaceC, top: v.top.surfaceC, bottom: v.bottom.surfaceC },
       };
     }
     return solveSteady({
@@ -127,6 +163,13 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
       ambient,
     });
   };
+  /** With parts: which parts are past the limit ("bottom head 78.2 °C, guarded"), for the message. */
+  const partsPast = (byPart: Record<VesselPartId, number> | undefined, past: (t: number) => boolean) =>
+    parts && byPart
+      ? VESSEL_PART_IDS.filter((p) => past(byPart[p])).map(
+          (p) => `${VESSEL_PART_LABEL[p]} ${byPart[p].toFixed(1)} °C${parts[p].guarded ? ', guarded' : ''}`,
+        )
+      : [];
   const hotC = l.maxTempC ?? l.normalTempC;
 
   const pc = crit.conditions.personnel;
@@ -147,7 +190,7 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
         valueC: r.surfaceC,
         limitC: limit,
         conditions: `${pc.airC} °C air, ${pc.windMs} m/s, ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact (ISO 13732-1)` : ' (fixed limit)'}, ε ${emittance}`,
-        message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${shown} °C touch limit${layers.length ? '' : ' (bare)'}.`,
+        message: `Surface ${r.surfaceC.toFixed(1)} °C over the ${shown} °C touch limit${layers.length || parts ? '' : ' (bare)'}${partText(partsPast(r.byPart, (t) => t > limit))}.`,
       });
     }
     if (r.warnings.some((w) => w.includes('service temperature'))) {
@@ -175,7 +218,7 @@ export function flagsForLine(basis: DesignBasis, f: FlagInput): Flag[] {
         valueC: r.surfaceC,
         limitC: need,
         conditions: `${cc.airC} °C, ${cc.relativeHumidityPct ?? 80} % RH, ${th.basis} ${th.valueC.toFixed(1)} °C + ${basis.dewPointMarginK} K`,
-        message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin).`,
+        message: `Surface ${r.surfaceC.toFixed(1)} °C under ${need.toFixed(1)} °C (${th.basis} + margin)${partText(partsPast(r.byPart, (t) => t < need))}.`,
       });
     }
   }

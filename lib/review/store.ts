@@ -64,6 +64,7 @@ export async function currentFlags({ projectId, area }: { projectId: string; are
       design: {
         layers: lineDesigns.layers,
         belowCriterion: lineDesigns.belowCriterion,
+        parts: lineDesigns.parts,
         version: lineDesigns.version,
       },
     })
@@ -89,6 +90,7 @@ export async function currentFlags({ projectId, area }: { projectId: string; are
         ? {
             layers: design.layers,
             belowCriterion: design.belowCriterion,
+            parts: design.parts,
           }
         : null,
       jacketId: result?.jacketId ?? null,

@@ -187,6 +187,8 @@ export interface Recommendation {
     top: VesselPartDecision & { heatFluxWPerM2: number | null };
     bottom: VesselPartDecision & { heatFluxWPerM2: number | null };
     meanFluxWPerM2: number | null;
+    /** Each candidate's heat flux per m² of each part's bare area, heat-loss conditions: [shell, top, bottom] by candidate index. */
+    candidateFluxesWPerM2: [number, number, number][];
   };
   warnings: string[];
 }
@@ -1207,6 +1209,7 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
         is < 0 || it < 0 || ib < 0
           ? null
           : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
+      candidateFluxesWPerM2: results.map((_, i) => [partQ[0][i] / shellM2PerM, partQ[1][i], partQ[2][i]]),
     };
   }
   return {

@@ -27,6 +27,8 @@ export function solveVessel(o: {
   processC: number;
   ambient: Ambient;
   layers: SolidLayer[];
+  /** Each part's own layers when they differ (a vessel picked part by part); else `layers` all round. */
+  partLayers?: { shell: SolidLayer[]; top: SolidLayer[]; bottom: SolidLayer[] };
   horizontal?: boolean;
 }): VesselResult {
   // A lying vessel (`horizontal`): the shell a horizontal cylinder of length shellHeightM, both heads
@@ -38,7 +40,7 @@ export function solveVessel(o: {
     characteristicLengthM: 1,
     processC: o.processC,
     ambient: o.ambient,
-    layers: o.layers,
+    layers: o.partLayers?.shell ?? o.layers,
   });
   const head = o.horizontal
     ? {
@@ -57,8 +59,20 @@ export function solveVessel(o: {
         ambient: o.ambient,
         layers: o.layers,
       };
-  const top = solveSteady({ geometry: o.horizontal ? 'vertical-wall' : 'horizontal-wall-up', ...head });
-  const bottom = o.horizontal ? top : solveSteady({ geometry: 'horizontal-wall-down', ...head });
+  const pl = o.partLayers;
+  const top = solveSteady({
+    geometry: o.horizontal ? 'vertical-wall' : 'horizontal-wall-up',
+    ...head,
+    layers: pl?.top ?? o.layers,
+  });
+  const bottom =
+    o.horizontal && !pl
+      ? top
+      : solveSteady({
+          geometry: o.horizontal ? 'vertical-wall' : 'horizontal-wall-down',
+          ...head,
+          layers: pl?.bottom ?? o.layers,
+        });
   const dOut = shell.outerDiameterM ?? o.diameterM;
   const areasM2 = {
     shell: Math.PI * dOut * o.shellHeightM,

@@ -150,6 +150,56 @@ describe('quantities from a hand-checkable fixture', () => {
     expect(heads.areaM2).toBeCloseTo((40.088 - 31.416) * 1.05, 2);
     expect(q.materials).toHaveLength(0);
   });
+  it('a vessel picked part by part: the shell and each head at its own thickness, by their own areas', () => {
+    // D 2.0 m, H 5.0 m, 2:1 semi-ellipsoidal heads. Shell π·2·5 = 31.4159 m² [X]. Each head: half an
+    // oblate spheroid with semi-axes 1 m and 0.5 m, A = π a² + (π b²/2e)·ln((1+e)/(1−e)), e = √(1 − b²/a²)
+    // = 0.8660 → 3.1416 + 0.4534·2.6339 = 4.3359 m² (≈ 1.084·D², the usual handbook factor [recalled]).
+    // Line area 31.4159 + 2·4.3359 = 40.0877 m². Waste 5 % (the default factor, common practice).
+    const blanket = (mm: number) => ({
+      materialId: 'mineral-wool-blanket',
+      materialName: 'Mineral wool wired blanket',
+      productForm: 'blanket',
+      thicknessMm: mm,
+    });
+    const q = computeQuantities([
+      pipe({
+        tag: 'V-3',
+        geometry: 'vessel',
+        nps: null,
+        outsideDiameterMm: 2000,
+        heightM: 5,
+        lengthM: null,
+        surfaceAreaM2: 40.0877,
+        fittings: { elbows: 0, tees: 0, valves: 0, flanges: 0 },
+        layers: [blanket(100)],
+        parts: {
+          shell: { layers: [blanket(100)] },
+          top: { layers: [blanket(100)] },
+          bottom: { layers: [blanket(80), blanket(80)], guarded: false },
+        },
+      }),
+    ]);
+    const kind = (k: string) => q.surfaces.filter((x) => x.kind === k);
+    expect(kind('vessel shell')).toMatchObject([{ thicknessMm: 100 }]);
+    expect(kind('vessel shell')[0].areaM2).toBeCloseTo(31.4159 * 1.05, 3);
+    expect(kind('vessel shell')[0].volumeM3).toBeCloseTo(31.4159 * 1.05 * 0.1, 3);
+    expect(kind('vessel top head')[0].areaM2).toBeCloseTo(4.3359 * 1.05, 3);
+    expect(kind('vessel top head')[0].volumeM3).toBeCloseTo(4.3359 * 1.05 * 0.1, 3);
+    // The bottom head in two layers of 80 mm: each layer over the head's area.
+    expect(kind('vessel bottom head').map((x) => [x.layer, x.thicknessMm])).toEqual([
+      [1, 80],
+      [2, 80],
+    ]);
+    expect(kind('vessel bottom head').reduce((a, x) => a + x.volumeM3, 0)).toBeCloseTo(
+      4.3359 * 1.05 * 0.16,
+      3,
+    );
+    expect(kind('vessel heads')).toEqual([]);
+    expect(q.materials).toEqual([]);
+    expect(q.schedule[0].layers).toBe(
+      'shell 100 mm: 100 mm Mineral wool wired blanket · top head 100 mm: 100 mm Mineral wool wired blanket · bottom head 160 mm: 80 mm Mineral wool wired blanket + 80 mm Mineral wool wired blanket',
+    );
+  });
   it('the delta lists what changed between issues', () => {
     const a = computeQuantities([pipe()]),
       b = computeQuantities([pipe({ lengthM: 150 })]);

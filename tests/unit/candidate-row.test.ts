@@ -44,7 +44,12 @@ describe('stored candidate codec', () => {
       annualCost: 12.346,
       withinLimits: true,
       condensationC: null,
+      partFluxesWPerM2: null,
     });
+    // A vessel's row carries each part's flux as a ninth field, rounded as the heat flow is.
+    const vessel = encodeCandidate(engine, [12.3456789, 40.1234567, 55.5]);
+    expect(vessel).toHaveLength(9);
+    expect(decodeCandidate(vessel).partFluxesWPerM2).toEqual([12.345679, 40.123457, 55.5]);
     const old: CandidateRow = [0, [], 250.5, 180.2, null, null, true];
     expect(decodeCandidate(old)).toMatchObject({ mm: 0, layers: [], personnelC: null, condensationC: null });
   });

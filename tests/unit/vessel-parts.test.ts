@@ -149,3 +149,47 @@ describe('vesselPartDecisions (the rule the line page reads stored results with)
     ]);
   });
 });
+
+describe('picks per part (lib/lines/vessel-parts.ts)', () => {
+  const outcomes = [
+    { id: 'personnel', requiredMm: 180, parts: { shell: 100, top: 80, bottom: 180 } },
+    { id: 'processDrop', requiredMm: 60 },
+    { id: 'economic', requiredMm: 150 },
+  ];
+  it("holds each part to its own surface requirement and the vessel's others; a guarded head is not held to personnel", async () => {
+    const { partsBelow } = await import('@/lib/lines/vessel-parts');
+    const at = (shell: number, top: number, bottom: number, guarded = false) => ({
+      shell: { thicknessMm: shell },
+      top: { thicknessMm: top },
+      bottom: { thicknessMm: bottom, guarded },
+    });
+    expect(partsBelow(outcomes, at(100, 80, 180))).toEqual([]); // economic is advice, not hard
+    expect(partsBelow(outcomes, at(100, 80, 100))).toEqual([{ part: 'bottom', criteria: ['personnel'] }]);
+    expect(partsBelow(outcomes, at(100, 80, 100, true))).toEqual([]);
+    expect(partsBelow(outcomes, at(100, 50, 50, true))).toEqual([
+      { part: 'top', criteria: ['personnel', 'processDrop'] },
+      { part: 'bottom', criteria: ['processDrop'] },
+    ]);
+  });
+  it('says a design in words, naming only the heads that differ from the shell', async () => {
+    const { describeDesign } = await import('@/lib/lines/vessel-parts');
+    const p = (mm: number, guarded?: boolean) => ({
+      thicknessMm: mm,
+      layers: [],
+      ...(guarded ? { guarded } : {}),
+    });
+    expect(describeDesign(100, null)).toBe('100 mm');
+    expect(describeDesign(100, { shell: p(100), top: p(100), bottom: p(180) })).toBe(
+      'shell 100 mm · bottom head 180 mm',
+    );
+    expect(describeDesign(100, { shell: p(100), top: p(100), bottom: p(100, true) })).toBe(
+      'shell 100 mm · bottom head 100 mm (guarded)',
+    );
+  });
+  it("the engine's part areas add up to the line's area (πDH + 2·πD²/4 = A)", async () => {
+    const { engineVesselAreasM2 } = await import('@/lib/lines/vessel-parts');
+    const a = engineVesselAreasM2(56, 8);
+    expect(a.shell + a.top + a.bottom).toBeCloseTo(56, 9);
+    expect(a.top).toBeCloseTo(3.0869, 4); // D = 1.982519 m [X]
+  });
+});

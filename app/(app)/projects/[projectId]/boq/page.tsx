@@ -5,7 +5,7 @@ import { getIssue, listIssues, materialPricesByName, previewBill, unchangedSince
 import { currentBillFactors, EDITABLE_FACTORS } from '@/lib/boq/factors';
 import { FactorsForm } from './factors-form';
 import { getDesignBasis } from '@/lib/lines/basis-store';
-import { fixed, formatterFor } from '@/lib/format';
+import { fixed, formatterFor, localizeMessage } from '@/lib/format';
 import { IssueButton } from './issue-button';
 
 export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
@@ -41,6 +41,7 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
   const { basis } = await getDesignBasis({ projectId: project.id });
   const u = formatterFor(basis);
   const us = u.system === 'US';
+  const msg = (t: string) => localizeMessage(t, u);
   const prices = materialPricesByName(basis);
   const vol = (m3: number) =>
     us ? `${fixed(m3 / (0.3048 * 0.3048 * 0.3048), 2)} ft³` : `${fixed(m3, 3)} m³`;
@@ -61,6 +62,33 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
             sign-off — listed, not counted).
           </p>
           <IssueButton projectId={project.id} next={(issues[0]?.number ?? 0) + 1} unchangedSince={sameAs} />
+          {preview.schedule.some((r) => r.geometry === 'vessel') ? (
+            <table className="table-dense w-full" aria-label="Vessels in the next issue">
+              <caption className="mb-1 text-left text-sm font-semibold">
+                Vessels in the next issue: shell and each head at their own thickness
+              </caption>
+              <thead>
+                <tr>
+                  <th>Tag</th>
+                  <th className="text-right">Area</th>
+                  <th>Insulation by part</th>
+                  <th>Status</th>
+                </tr>
+              </thead>
+              <tbody>
+                {preview.schedule
+                  .filter((r) => r.geometry === 'vessel')
+                  .map((r) => (
+                    <tr key={r.tag} data-tag={r.tag}>
+                      <td>{r.tag}</td>
+                      <td className="num">{r.areaM2 === null ? '—' : u.area(r.areaM2)}</td>
+                      <td>{msg(r.layers)}</td>
+                      <td>{r.status}</td>
+                    </tr>
+                  ))}
+              </tbody>
+            </table>
+          ) : null}
           <details className="mt-4">
             <summary className="cursor-pointer text-sm">Bill factors and their sources</summary>
             <p className="my-2 text-xs text-ink-600">
@@ -147,6 +175,32 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
             Material at the design basis&apos;s prices (waste included; labour, jacketing and accessories not
             included): <strong>{u.money(materialCost)}</strong>
           </p>
+          {latest.quantities.surfaces.length ? (
+            <table className="table-dense panel mb-4" aria-label="Vessels and flat surfaces">
+              <thead>
+                <tr>
+                  <th>Part</th>
+                  <th>Material</th>
+                  <th>Layer</th>
+                  <th>Thickness</th>
+                  <th className="text-right">Area</th>
+                  <th className="text-right">Volume</th>
+                </tr>
+              </thead>
+              <tbody>
+                {latest.quantities.surfaces.map((r, i) => (
+                  <tr key={i}>
+                    <td>{r.kind}</td>
+                    <td>{r.material}</td>
+                    <td className="num">{r.layer}</td>
+                    <td className="num">{u.thickness(r.thicknessMm)}</td>
+                    <td className="num">{u.area(r.areaM2)}</td>
+                    <td className="num">{vol(r.volumeM3)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          ) : null}
           <div className="grid gap-4 md:grid-cols-2">
             <table className="table-dense panel" aria-label="Jacketing">
               <thead>

@@ -8,7 +8,7 @@ import { lineFilterSchema } from '@/lib/lines/filter';
 import { readImportRequest } from '@/lib/lines/import-request';
 import { applyBulkAccept, previewBulkAccept, undoBulkAccept } from '@/lib/lines/bulk-accept';
 import { storeUpload } from '@/lib/lines/import-store';
-import { pickDesign } from '@/lib/lines/picks-store';
+import { pickDesign, pickVesselParts } from '@/lib/lines/picks-store';
 import { enqueueJob } from '@/lib/jobs/store';
 
 // The mapping step's request is read by readImportRequest in the handler (after the session and
@@ -91,6 +91,19 @@ export const pickThicknessAction = projectAction(
     expectedVersion: z.number().int().min(0),
   }),
   async ({ project, user, input }) => pickDesign({ projectId: project.id, userId: user.id, ...input }),
+);
+
+const partPick = z.object({ thicknessMm: z.number().min(0).max(2000), guarded: z.boolean().optional() });
+/** A vessel picked part by part (lib/lines/vessel-pick.ts): shell and each head, a head may be guarded. */
+export const pickVesselPartsAction = projectAction(
+  'design.pick',
+  z.object({
+    lineId: z.uuid(),
+    parts: z.object({ shell: partPick, top: partPick, bottom: partPick }),
+    reason: z.string().max(500).optional(),
+    expectedVersion: z.number().int().min(0),
+  }),
+  async ({ project, user, input }) => pickVesselParts({ projectId: project.id, userId: user.id, ...input }),
 );
 
 const bulkItems = z

@@ -52,6 +52,8 @@ interface Row {
   surfaceTempC: number | null;
   unmet: string[] | null;
   chosenMm: number | null;
+  /** A vessel picked part by part, in words (its picker is on the line page). */
+  chosenParts?: string | null;
   source: 'recommended' | 'manual' | null;
   belowCriterion: string | null;
   needsRedecision: boolean | null;
@@ -1020,6 +1022,18 @@ function PickCell({
     enabled: opened && canPick && row.solved,
     staleTime: 60_000,
   });
+  if (row.chosenParts)
+    return (
+      <span className="whitespace-nowrap text-xs" data-testid="chosen-parts">
+        {row.chosenParts}
+        {canPick ? (
+          <>
+            {' '}
+            (<a href={`/projects/${projectId}/lines/${row.id}#parts-h`}>change per part</a>)
+          </>
+        ) : null}
+      </span>
+    );
   if (!canPick) return <span className="whitespace-nowrap">{u.thickness(row.chosenMm)}</span>;
   if (!row.solved) return <span className="text-xs text-ink-600">solve first</span>;
   const picked = value === '' ? null : Number(value);

@@ -27,6 +27,9 @@ import {
 import { cuiScreenFor } from '@/lib/lines/cui';
 import { convert, describeChanges, formatterFor, localizeMessage, sig } from '@/lib/format';
 import { PrintButton } from '@/components/print-button';
+import { can } from '@/lib/auth/permissions';
+import { VESSEL_PART_IDS, VESSEL_PART_LABEL } from '@/lib/lines/vessel-parts';
+import { PartsPicker } from './parts-picker';
 
 /** "1\"-HW-207-B2 · Line · BP-STM-24": each line's page has its own title. */
 export async function generateMetadata({
@@ -63,7 +66,7 @@ export default async function LinePage({
   params: Promise<{ projectId: string; lineId: string }>;
 }) {
   const { projectId, lineId } = await params;
-  const { project, allowed } = await loadProject(projectId, 'lines.read');
+  const { project, role, allowed } = await loadProject(projectId, 'lines.read');
   if (!allowed) return <Denied what="The line list" />;
   const row = await orNotFound(getLine({ projectId: project.id, lineId }));
   const { line, result, design, stale } = row;
@@ -89,6 +92,7 @@ export default async function LinePage({
           cands.map((c) => ({ totalMm: c.mm, serviceLimitOk: c.withinLimits })),
         )
       : null;
+  const canPick = can(role, 'design.pick');
   const cold = line.normalTempC < crit.conditions.heatLoss.airC;
   const energy = energyTerms(basis.economics, cold);
   const layerMaterials = [...new Set((result?.layers ?? []).map((l) => l.materialId))]
@@ -246,8 +250,13 @@ export default async function LinePage({
           <h2 className="mb-2">Chosen design</h2>
           {design ? (
             <div className="space-y-1 text-sm">
-              <p className="text-xl font-semibold">
-                {u.thickness(design.thicknessMm)}{' '}
+              <p className="text-xl font-semibold" data-testid="chosen-design">
+                {design.parts && line.geometry === 'vessel'
+                  ? VESSEL_PART_IDS.map(
+                      (p) =>
+                        `${VESSEL_PART_LABEL[p]} ${u.thickness(design.parts![p].thicknessMm)}${design.parts![p].guarded ? ' (guarded)' : ''}`,
+                    ).join(' · ')
+                  : u.thickness(design.thicknessMm)}{' '}
                 <span className="text-sm font-normal text-ink-600">
                   ({design.source === 'manual' ? 'manual pick' : 'recommendation accepted'})
                 </span>
@@ -563,6 +572,7 @@ export default async function LinePage({
                 <th>Thickness</th>
                 <th>Governing</th>
                 <th>Not met on this part</th>
+                <th>Chosen</th>
               </tr>
             </thead>
             <tbody>
@@ -580,10 +590,47 @@ export default async function LinePage({
                       ? `${partDecisions[p].unmet.map((x: string) => criterionLabel(x)).join(', ')}: guard or another system for this part`
                       : '—'}
                   </td>
+                  <td>
+                    {design
+                      ? `${u.thickness(design.parts?.[p].thicknessMm ?? design.thicknessMm)}${design.parts?.[p].guarded ? ', guarded' : ''}`
+                      : '—'}
+                  </td>
                 </tr>
               ))}
             </tbody>
           </table>
+          {canPick && !stale ? (
+            <PartsPicker
+              projectId={project.id}
+              lineId={line.id}
+              expectedVersion={design?.version ?? 0}
+              options={cands.map((c) => ({
+                mm: c.mm,
+                label: u.thickness(c.mm),
+                withinLimits: c.withinLimits,
+              }))}
+              recommended={{
+                shell: partDecisions.shell.recommendedMm,
+                top: partDecisions.top.recommendedMm,
+                bottom: partDecisions.bottom.recommendedMm,
+              }}
+              current={
+                design
+                  ? {
+                      shell: { thicknessMm: design.parts?.shell.thicknessMm ?? design.thicknessMm },
+                      top: {
+                        thicknessMm: design.parts?.top.thicknessMm ?? design.thicknessMm,
+                        guarded: !!design.parts?.top.guarded,
+                      },
+                      bottom: {
+                        thicknessMm: design.parts?.bottom.thicknessMm ?? design.thicknessMm,
+                        guarded: !!design.parts?.bottom.guarded,
+                      },
+                    }
+                  : null
+              }
+            />
+          ) : null}
         </section>
       ) : null}
       <section className="panel mt-4 p-4" aria-labelledby="cui-h" data-testid="cui">

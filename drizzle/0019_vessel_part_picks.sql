@@ -1,0 +1,1 @@
+ALTER TABLE "line_designs" ADD COLUMN "parts" jsonb;

@@ -1191,67 +1191,39 @@ export const CRITERION_EVALUATORS: readonly CriterionEvaluator[] = [
   economicCriterion,
 ];
 
+/** The heat-loss sweep every line gets: each candidate solved under the heat-loss conditions, bare first. */
+interface HeatLossSweep {
+  results: CandidateResult[];
+  hlQ: number[];
+  hlH: number[];
+  /** A vessel's parts under the heat-loss conditions: per metre of shell, per m² of each head. */
+  partQ: number[][] | null;
+}
 /**
- * Recommendation for one line: evaluates the candidates of its material system under each
- * criterion's own conditions (`CRITERION_EVALUATORS`) and returns the smallest that meets every
- * hard criterion the line needs and is at least the economic optimum (when heat conservation is
- * asked for), naming the governing criterion. A criterion no candidate can meet is said so
- * explicitly. `ws` is the solve's scratch memory (a fresh one per call when not given).
+ * Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share
+ * them. Each solve starts from its thinner neighbours' surface coefficient and resistance ratio
+ * (from the third candidate on, extrapolated in thickness: sweepHint).
  */
-export function recommendLine(
-  line: LineCase,
-  system: MaterialSystem,
-  crit: Criteria,
-  ws: Workspace = createWorkspace(),
-): Recommendation {
-  const vessel = line.geometry === 'vessel';
-  // A vessel's shell: a vertical cylinder, or a horizontal one when the vessel lies.
-  const geometry: Geometry =
-    line.geometry === 'vessel'
-      ? line.vesselOrientation === 'horizontal'
-        ? 'horizontal-pipe'
-        : 'vertical-pipe'
-      : line.geometry;
-  const pipe = isPipeLine(line);
-  const warnings: string[] = [];
-  const base = {
-    geometry,
-    pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
-    heightM: line.heightM ?? 1,
-    characteristicLengthM: line.characteristicLengthM ?? 1,
-  };
-  const emittance = system.jacket.emittance;
-  const maxC = hottestC(line);
-  const cold = isCold(line, crit);
-  const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
-  const { all, layersCache, layersOut } = set;
+function sweepHeatLoss(
+  lc: LineChains,
+  layersOut: CandidateSet['layersOut'],
+  processC: number,
+  hlBare: Ambient,
+  hlAmb: Ambient,
+  ws: Workspace,
+): HeatLossSweep {
+  const { all, layersCache } = lc;
+  const chains = lc.surface.chains;
   const n = all.length;
-  const parts = vessel
-    ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM, line.vesselOrientation === 'horizontal')
-    : null;
-  const surface = parts
-    ? parts.shell
-    : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
-  const chains = surface.chains;
-  const lc: LineChains = { all, layersCache, surface, parts };
-
-  const econ = crit.economics ?? DEFAULT_ECONOMICS;
-
-  // Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share them.
-  // Each solve starts from its thinner neighbour's surface coefficient and resistance ratio.
-  const hlAmb = ambientOf(crit.conditions.heatLoss, emittance),
-    hlBare = ambientOf(crit.conditions.heatLoss, BARE_EMITTANCE);
   const hlQ = new Array<number>(n),
     hlH = new Array<number>(n);
-  // A vessel's parts under the heat-loss conditions: per metre of shell, per m² of each head.
-  const partQ: number[][] | null = parts
+  const partQ: number[][] | null = lc.parts
     ? [new Array<number>(n), new Array<number>(n), new Array<number>(n)]
     : null;
   const results: CandidateResult[] = new Array(n);
-  // From the third candidate on the hint is extrapolated in thickness from the ones before (sweepHint).
   const sweep = newSweep();
   for (let i = 0; i < n; i++) {
-    const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? hlBare : hlAmb, sweep, ws);
+    const r = solveInSweep(lc, i, processC, i === 0 ? hlBare : hlAmb, sweep, ws);
     hlQ[i] = r.Q;
     hlH[i] = r.h;
     if (partQ) {
@@ -1277,26 +1249,37 @@ export function recommendLine(
       serviceLimitOk: r.limitOk,
     };
   }
+  return { results, hlQ, hlH, partQ };
+}
 
-  // Each criterion the line asks for, judged over the candidates (the table above).
-  const scan: LineScan = { line, system, crit, pipe, cold, maxC, emittance, lc, n, results, hlQ, hlH, ws };
-  const basis: DecisionBasis = { crit, system };
+/** Each criterion the line asks for, judged over the candidates (`CRITERION_EVALUATORS`, in order). */
+function judgeCriteria(scan: LineScan): CriterionOutcome[] {
+  const basis: DecisionBasis = { crit: scan.crit, system: scan.system };
   const outcomes: CriterionOutcome[] = [];
   for (const criterion of CRITERION_EVALUATORS) {
-    if (!criterion.applies(line, basis)) continue;
+    if (!criterion.applies(scan.line, basis)) continue;
     const v = criterion.evaluate(scan);
     if (!v) continue;
     outcomes.push({
       id: criterion.id,
       conditionSet: v.conditionSet,
-      requiredMm: v.index === null ? null : results[v.index].totalMm,
+      requiredMm: v.index === null ? null : scan.results[v.index].totalMm,
       ...v.detail,
       message: v.message,
     });
   }
-  const et = energyTerms(econ, cold);
+  return outcomes;
+}
 
-  // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
+/**
+ * The recommendation: the largest requirement, on a candidate whose layers stay within their limits
+ * (-1: none). An unmet criterion's message becomes a warning.
+ */
+function chooseCandidate(
+  outcomes: CriterionOutcome[],
+  results: CandidateResult[],
+  warnings: string[],
+): { governing: CriterionId | null; index: number } {
   let governing: CriterionId | null = null,
     need = 0;
   for (const o of outcomes) {
@@ -1309,24 +1292,30 @@ export function recommendLine(
       governing = o.id;
     }
   }
-  let recIdx = -1;
-  for (let i = 0; i < n; i++)
+  let index = -1;
+  for (let i = 0; i < results.length; i++)
     if (results[i].totalMm >= need && (i === 0 || results[i].serviceLimitOk)) {
-      recIdx = i;
+      index = i;
       break;
     }
-  if (recIdx < 0) {
+  if (index < 0) {
     warnings.push(
       'No candidate keeps every layer within its service temperature; choose another material system.',
     );
   }
+  return { governing, index };
+}
+
+/** What the line and its system say about themselves: service ratings, nothing to decide, steam plausibility. */
+function lineWarnings(s: LineScan, outcomeCount: number, warnings: string[]) {
+  const { line, system, cold, maxC } = s;
   if (!cold && maxC > system.outer.maxServiceC && !system.inner)
     warnings.push(
       `${system.outer.name} is rated to ${system.outer.maxServiceC} °C; the line runs at ${maxC} °C. Add a higher-temperature inner layer.`,
     );
   if (cold && line.normalTempC < system.outer.minServiceC)
     warnings.push(`${system.outer.name} is rated down to ${system.outer.minServiceC} °C only.`);
-  if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
+  if (outcomeCount === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
   if (line.steamPressureMPaAbs) {
     // Plausibility (IAPWS-IF97): saturated steam at the stated pressure has one temperature.
     const sat = saturatedSteamAtPressure(line.steamPressureMPaAbs).temperatureC;
@@ -1335,12 +1324,91 @@ export function recommendLine(
         `The line is at ${line.normalTempC} °C, ${(sat - line.normalTempC).toFixed(1)} K below the saturation temperature of steam at its pressure (${sat.toFixed(1)} °C, IAPWS-IF97): check the temperature or the pressure.`,
       );
   }
+}
 
+/** A vessel's parts at their own thicknesses: each part's heat flux per m² of its bare area, and the mean. */
+function vesselPartsSummary(
+  parts: VesselParts,
+  partQ: number[][],
+  outcomes: CriterionOutcome[],
+  results: CandidateResult[],
+  diameterM: number,
+): Recommendation['vesselParts'] {
+  const d = vesselPartDecisions(outcomes, results);
+  const at = (mm: number | null) => (mm === null ? -1 : results.findIndex((x) => x.totalMm === mm));
+  const is = at(d.shell.recommendedMm),
+    it = at(d.top.recommendedMm),
+    ib = at(d.bottom.recommendedMm);
+  const shellM2PerM = Math.PI * diameterM; // bare shell area per metre of its length
+  return {
+    shell: { ...d.shell, heatFluxWPerM2: is < 0 ? null : partQ[0][is] / shellM2PerM },
+    top: { ...d.top, heatFluxWPerM2: it < 0 ? null : partQ[1][it] },
+    bottom: { ...d.bottom, heatFluxWPerM2: ib < 0 ? null : partQ[2][ib] },
+    meanFluxWPerM2:
+      is < 0 || it < 0 || ib < 0
+        ? null
+        : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
+  };
+}
+
+/**
+ * Recommendation for one line: evaluates the candidates of its material system under each
+ * criterion's own conditions (`CRITERION_EVALUATORS`) and returns the smallest that meets every
+ * hard criterion the line needs and is at least the economic optimum (when heat conservation is
+ * asked for), naming the governing criterion. A criterion no candidate can meet is said so
+ * explicitly. `ws` is the solve's scratch memory (a fresh one per call when not given).
+ */
+export function recommendLine(
+  line: LineCase,
+  system: MaterialSystem,
+  crit: Criteria,
+  ws: Workspace = createWorkspace(),
+): Recommendation {
+  const vessel = line.geometry === 'vessel';
+  // A vessel's shell: a vertical cylinder, or a horizontal one when the vessel lies.
+  const geometry: Geometry =
+    line.geometry === 'vessel'
+      ? line.vesselOrientation === 'horizontal'
+        ? 'horizontal-pipe'
+        : 'vertical-pipe'
+      : line.geometry;
+  const pipe = isPipeLine(line);
+  const base = {
+    geometry,
+    pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
+    heightM: line.heightM ?? 1,
+    characteristicLengthM: line.characteristicLengthM ?? 1,
+  };
+  const emittance = system.jacket.emittance;
+  const maxC = hottestC(line);
+  const cold = isCold(line, crit);
+  const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
+  const { all, layersCache } = set;
+  const parts = vessel
+    ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM, line.vesselOrientation === 'horizontal')
+    : null;
+  const surface = parts
+    ? parts.shell
+    : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
+  const lc: LineChains = { all, layersCache, surface, parts };
+
+  const hlAmb = ambientOf(crit.conditions.heatLoss, emittance),
+    hlBare = ambientOf(crit.conditions.heatLoss, BARE_EMITTANCE);
+  const { results, hlQ, hlH, partQ } = sweepHeatLoss(lc, set.layersOut, line.normalTempC, hlBare, hlAmb, ws);
+  const n = all.length;
+  const scan: LineScan = { line, system, crit, pipe, cold, maxC, emittance, lc, n, results, hlQ, hlH, ws };
+  const outcomes = judgeCriteria(scan);
+
+  const warnings: string[] = [];
+  const { governing, index: recIdx } = chooseCandidate(outcomes, results, warnings);
+  lineWarnings(scan, outcomes.length, warnings);
+
+  // The design solved in full at the recommendation, under the heat-loss conditions.
   const rec = recIdx >= 0 ? results[recIdx] : null;
   const design =
     recIdx >= 0
       ? solvePrepared(
-          chains[recIdx],
+          surface.chains[recIdx],
           {
             geometry: base.geometry,
             pipeOuterDiameterM: base.pipeOuterDiameterM,
@@ -1358,6 +1426,8 @@ export function recommendLine(
   const extent = pipe ? (line.lengthM ?? 1) : parts ? parts.totalM2 : (line.areaM2 ?? 1);
   // A vessel's design profile is its shell's; its heat flow is the mean flux over shell and heads.
   const designFlow = design ? (parts ? hlQ[recIdx] : design.heatFlow) : 0;
+  const econ = crit.economics ?? DEFAULT_ECONOMICS;
+  const et = energyTerms(econ, cold);
   let annual: Recommendation['annual'];
   if (design) {
     const heatMWh = (Math.abs(designFlow) * extent * econ.hoursPerYear) / 1e6;
@@ -1379,24 +1449,6 @@ export function recommendLine(
       saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg,
     );
   }
-  let vesselParts: Recommendation['vesselParts'];
-  if (parts && partQ) {
-    const d = vesselPartDecisions(outcomes, results);
-    const at = (mm: number | null) => (mm === null ? -1 : results.findIndex((x) => x.totalMm === mm));
-    const is = at(d.shell.recommendedMm),
-      it = at(d.top.recommendedMm),
-      ib = at(d.bottom.recommendedMm);
-    const shellM2PerM = Math.PI * base.pipeOuterDiameterM; // bare shell area per metre of its length
-    vesselParts = {
-      shell: { ...d.shell, heatFluxWPerM2: is < 0 ? null : partQ[0][is] / shellM2PerM },
-      top: { ...d.top, heatFluxWPerM2: it < 0 ? null : partQ[1][it] },
-      bottom: { ...d.bottom, heatFluxWPerM2: ib < 0 ? null : partQ[2][ib] },
-      meanFluxWPerM2:
-        is < 0 || it < 0 || ib < 0
-          ? null
-          : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
-    };
-  }
   return {
     recommendedMm: rec?.totalMm ?? null,
     unmet,
@@ -1407,7 +1459,10 @@ export function recommendLine(
     design,
     annual,
     condensateKgPerHour: condensate,
-    vesselParts,
+    vesselParts:
+      parts && partQ
+        ? vesselPartsSummary(parts, partQ, outcomes, results, base.pipeOuterDiameterM)
+        : undefined,
     warnings,
   };
 }

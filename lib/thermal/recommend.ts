@@ -26,6 +26,7 @@ import { buildCandidates, type Candidate, type SeriesOptions } from './thickness
 import { pipeByOutsideDiameter } from './pipes';
 import { energyCodeMinimum } from './energy-code';
 import { TOUCH_SURFACE_LABEL, touchLimitFor, type TouchLimit, type TouchSurface } from './touch';
+import { createWorkspace, type SolvedCandidate, type Workspace } from './workspace';
 
 export interface ConditionSet {
   airC: number;
@@ -193,7 +194,12 @@ export interface Recommendation {
   warnings: string[];
 }
 
-const NO_INTERFACES: number[] = [];
+// Shared by every single-layer candidate; frozen so no reader can change it for the others.
+const NO_INTERFACES = Object.freeze([]) as unknown as number[];
+// The module-level caches below are memos, not state: each entry is a pure function of its key
+// (an input object, held weakly), filled on first use and never changed afterwards, so no answer
+// depends on what was solved before. Scratch memory for a solve lives in its workspace
+// (workspace.ts); tests/unit/engine-no-module-state.test.ts holds the engine to this.
 const compiled = new WeakMap<InsulationMaterial, Conductivity>();
 function cond(m: InsulationMaterial): Conductivity {
   let c = compiled.get(m);
@@ -205,7 +211,8 @@ function cond(m: InsulationMaterial): Conductivity {
 }
 
 // Candidates depend only on the material system and whether an inner layer is needed: cached, and
-// with them the prepared resistance chains per outside shape (lines of one size share them).
+// with them the prepared resistance chains per geometry and pipe size (lines of one size share them;
+// a chain is never changed after it is prepared).
 interface CandidateSet {
   all: (Candidate | null)[];
   layersCache: SolidLayer[][];
@@ -247,18 +254,27 @@ function candidatesFor(system: MaterialSystem, hotFaceC: number, coldFaceC: numb
 }
 
 const MAX_SIZES_PER_SET = 256;
+
 /**
- * The prepared chains of every candidate for one geometry and pipe size. The height and the
- * horizontal-surface length only enter the outside correlations, so they are set on the cached
- * chains' shapes for the line being solved (solving is synchronous; nothing else holds them).
+ * One outside surface of a line: the prepared chains of every candidate (shared, never changed) and
+ * the height and horizontal length the line gives it — they only enter the outside correlations, so
+ * chains are cached by geometry and pipe size alone and each solve is handed the line's shape.
  */
+interface Surface {
+  chains: PreparedChain[];
+  geometry: Geometry;
+  heightM: number;
+  lengthM: number;
+}
+
+/** The prepared chains of every candidate for one geometry and pipe size, with the line's height and length. */
 function chainsFor(
   set: CandidateSet,
   geometry: Geometry,
   odM: number,
   heightM: number,
   lengthM: number,
-): PreparedChain[] {
+): Surface {
   // Number keys: building a string key from the diameter cost more than the lookup (measured).
   let bySize = set.chains.get(geometry);
   if (!bySize) {
@@ -273,30 +289,35 @@ function chainsFor(
       prepareChain({ geometry, pipeOuterDiameterM: odM, heightM, characteristicLengthM: lengthM, layers }),
     );
     bySize.set(size, chains);
-  } else if (chains[0].shape.heightM !== heightM || chains[0].shape.characteristicLengthM !== lengthM) {
-    for (let i = 0; i < chains.length; i++) {
-      chains[i].shape.heightM = heightM;
-      chains[i].shape.characteristicLengthM = lengthM;
-    }
   }
-  return chains;
+  return { chains, geometry, heightM, lengthM };
 }
 
-/** One candidate solved: heat flow, surface temperature, what the next solve starts from, service limits (shared scratch). */
-const SOLVED = { Q: 0, Ts: 0, h: 0, ratio: 1, limitOk: true };
 const solveOne = solveChain; // bound once (see surface.ts)
+/**
+ * Candidate i of a surface solved into `ws.solved` (read it before the next solve with `ws`); the
+ * boundary temperatures are left in `ws.temps`.
+ */
 function solveCandidate(
-  chain: PreparedChain,
+  surface: Surface,
+  i: number,
   layers: SolidLayer[],
   processC: number,
   a: Ambient,
   hintH: number,
   hintRatio: number,
-): typeof SOLVED {
-  const r = solveOne(chain, processC, a, hintH, hintRatio);
+  ws: Workspace,
+): SolvedCandidate {
+  const chain = surface.chains[i];
+  const shape = ws.shape;
+  shape.geometry = surface.geometry;
+  shape.diameterM = 2 * chain.rOuter;
+  shape.heightM = surface.heightM;
+  shape.characteristicLengthM = surface.lengthM;
+  const r = solveOne(chain, processC, a, hintH, hintRatio, ws, shape);
   let limitOk = true;
-  const t = chain.temps,
-    first = t.length - layers.length;
+  const t = ws.temps,
+    first = chain.els.length - layers.length;
   for (let j = 0; j < layers.length; j++) {
     const x = first + j - 1 >= 0 ? t[first + j - 1] : processC,
       y = t[first + j];
@@ -309,25 +330,26 @@ function solveCandidate(
     )
       limitOk = false;
   }
-  SOLVED.Q = r.Q;
-  SOLVED.Ts = r.Ts;
-  SOLVED.h = r.h;
-  SOLVED.ratio = r.resistanceRatio;
-  SOLVED.limitOk = limitOk;
-  return SOLVED;
+  const out = ws.solved;
+  out.Q = r.Q;
+  out.Ts = r.Ts;
+  out.h = r.h;
+  out.ratio = r.resistanceRatio;
+  out.limitOk = limitOk;
+  return out;
 }
-/** Interface temperatures of the last solve of the chain (between insulation layers). */
-function interfacesOf(chain: PreparedChain, layerCount: number): number[] {
+/** Interface temperatures (between insulation layers) of the last solve with `ws`, of a chain like `chain`. */
+function interfacesOf(chain: PreparedChain, layerCount: number, ws: Workspace): number[] {
   if (layerCount < 2) return NO_INTERFACES;
-  const t = chain.temps;
-  return t.slice(t.length - layerCount, t.length - 1);
+  const n = chain.els.length;
+  return ws.temps.slice(n - layerCount, n - 1);
 }
 
 /**
  * Start values for candidate i of a sweep from the ones solved before it: surface coefficient and
  * resistance ratio extrapolated in total thickness — quadratically through the last three, linearly
  * through two for the third candidate (the previous values when that would not be positive).
- * `Sweep` keeps the history; `pushSweep` adds a solved candidate. Fills the shared HINT.
+ * `Sweep` keeps the history; `pushSweep` adds a solved candidate. Fills `ws.hint`.
  */
 interface Sweep {
   h1: number;
@@ -346,19 +368,19 @@ function pushSweep(s: Sweep, h: number, r: number) {
   s.h1 = h;
   s.r1 = r;
 }
-const HINT = { h: 0, ratio: 1 };
-function sweepHint(all: (Candidate | null)[], i: number, s: Sweep): typeof HINT {
-  HINT.h = 0;
-  HINT.ratio = 1;
+function sweepHint(all: (Candidate | null)[], i: number, s: Sweep, ws: Workspace): Workspace['hint'] {
+  const hint = ws.hint;
+  hint.h = 0;
+  hint.ratio = 1;
   if (i === 2) {
-    HINT.h = s.h1;
-    HINT.ratio = s.r1;
+    hint.h = s.h1;
+    hint.ratio = s.r1;
   } else if (i === 3) {
     const t0 = all[i - 2]!.totalMm,
       t1 = all[i - 1]!.totalMm,
       f = (all[i]!.totalMm - t1) / (t1 - t0);
-    HINT.h = s.h1 + (s.h1 - s.h2) * f;
-    HINT.ratio = s.r1 + (s.r1 - s.r2) * f;
+    hint.h = s.h1 + (s.h1 - s.h2) * f;
+    hint.ratio = s.r1 + (s.r1 - s.r2) * f;
   } else if (i > 3) {
     const t = all[i]!.totalMm,
       t1 = all[i - 1]!.totalMm,
@@ -367,14 +389,14 @@ function sweepHint(all: (Candidate | null)[], i: number, s: Sweep): typeof HINT 
     const l1 = ((t - t2) * (t - t3)) / ((t1 - t2) * (t1 - t3)),
       l2 = ((t - t1) * (t - t3)) / ((t2 - t1) * (t2 - t3)),
       l3 = ((t - t1) * (t - t2)) / ((t3 - t1) * (t3 - t2));
-    HINT.h = s.h1 * l1 + s.h2 * l2 + s.h3 * l3;
-    HINT.ratio = s.r1 * l1 + s.r2 * l2 + s.r3 * l3;
+    hint.h = s.h1 * l1 + s.h2 * l2 + s.h3 * l3;
+    hint.ratio = s.r1 * l1 + s.r2 * l2 + s.r3 * l3;
   }
-  if (i > 2 && !(HINT.h > 0 && HINT.ratio > 0)) {
-    HINT.h = s.h1;
-    HINT.ratio = s.r1;
+  if (i > 2 && !(hint.h > 0 && hint.ratio > 0)) {
+    hint.h = s.h1;
+    hint.ratio = s.r1;
   }
-  return HINT;
+  return hint;
 }
 
 // Capital recovery and levelising factors per economics object (the same for every line of a project).
@@ -393,9 +415,9 @@ function annuityFactors(econ: Economics): { crf: number; lf: number } {
 
 /** A vessel's parts for one candidate: shell (vertical cylinder) and the two flat heads, with their bare areas. */
 interface VesselParts {
-  shell: PreparedChain[];
-  top: PreparedChain[];
-  bottom: PreparedChain[];
+  shell: Surface;
+  top: Surface;
+  bottom: Surface;
   heightM: number;
   headM2: number;
   totalM2: number;
@@ -431,8 +453,10 @@ function vesselPartsFor(
   };
 }
 /**
- * Candidate i of a vessel: heat flow as the mean flux over the bare area, surface temperature the
- * hottest part on hot service (the coldest on cold service), service limits checked on every part.
+ * Candidate i of a vessel into `ws.solved`: heat flow as the mean flux over the bare area, surface
+ * temperature the hottest part on hot service (the coldest on cold service), service limits checked
+ * on every part; each part's own values into `ws.part`. The parts are independent solves; the shell
+ * goes last so that `ws.temps` holds its boundary temperatures (a vessel's profile is its shell's).
  */
 function solveVesselCandidate(
   v: VesselParts,
@@ -440,43 +464,44 @@ function solveVesselCandidate(
   layers: SolidLayer[],
   processC: number,
   a: Ambient,
-): typeof SOLVED {
-  const shell = solveCandidate(v.shell[i], layers, processC, a, 0, 1);
-  const qs = shell.Q,
-    ts = shell.Ts;
-  let ok = shell.limitOk;
-  const top = solveCandidate(v.top[i], layers, processC, a, 0, 1);
-  const qt = top.Q,
-    tt = top.Ts;
-  ok = ok && top.limitOk;
-  const bottom = solveCandidate(v.bottom[i], layers, processC, a, 0, 1);
+  ws: Workspace,
+): SolvedCandidate {
+  const part = ws.part;
+  // Each result is ws.solved: its values are copied out before the next part's solve overwrites it.
+  const top = solveCandidate(v.top, i, layers, processC, a, 0, 1, ws);
+  part.qt = top.Q;
+  part.tt = top.Ts;
+  let ok = top.limitOk;
+  const bottom = solveCandidate(v.bottom, i, layers, processC, a, 0, 1, ws);
+  part.qb = bottom.Q;
+  part.tb = bottom.Ts;
+  ok = ok && bottom.limitOk;
+  const shell = solveCandidate(v.shell, i, layers, processC, a, 0, 1, ws);
+  part.qs = shell.Q;
+  part.ts = shell.Ts;
+  ok = shell.limitOk && ok;
   const hot = processC >= a.airC;
-  const worst = hot ? Math.max(ts, tt, bottom.Ts) : Math.min(ts, tt, bottom.Ts);
-  // `bottom` is the shared SOLVED object: its part values are kept before SOLVED is overwritten.
-  PART.qs = qs;
-  PART.qt = qt;
-  PART.qb = bottom.Q;
-  PART.ts = ts;
-  PART.tt = tt;
-  PART.tb = bottom.Ts;
-  SOLVED.Q = (qs * v.heightM + (qt + bottom.Q) * v.headM2) / v.totalM2;
-  SOLVED.Ts = worst;
-  SOLVED.limitOk = ok && bottom.limitOk;
-  SOLVED.h = 0;
-  SOLVED.ratio = 1;
-  return SOLVED;
+  const out = ws.solved;
+  out.Q = (part.qs * v.heightM + (part.qt + part.qb) * v.headM2) / v.totalM2;
+  out.Ts = hot ? Math.max(part.ts, part.tt, part.tb) : Math.min(part.ts, part.tt, part.tb);
+  out.limitOk = ok;
+  out.h = 0;
+  out.ratio = 1;
+  return out;
 }
-
-/** The parts of the last vessel candidate solved (shared scratch, read right after the solve): heat flow per m of shell or m² of head, surface °C. */
-const PART = { qs: 0, qt: 0, qb: 0, ts: 0, tt: 0, tb: 0 };
 
 export type VesselPart = 'shell' | 'top' | 'bottom';
 export const VESSEL_PARTS: readonly VesselPart[] = ['shell', 'top', 'bottom'];
-/** First candidate index at which each part meets a surface criterion (filled while sweeping). */
-function trackParts(idx: (number | null)[], i: number, meets: (t: number) => boolean) {
-  if (idx[0] === null && meets(PART.ts)) idx[0] = i;
-  if (idx[1] === null && meets(PART.tt)) idx[1] = i;
-  if (idx[2] === null && meets(PART.tb)) idx[2] = i;
+/** First candidate index at which each part meets a surface criterion (filled while sweeping, from `ws.part`). */
+function trackParts(
+  idx: (number | null)[],
+  i: number,
+  part: Workspace['part'],
+  meets: (t: number) => boolean,
+) {
+  if (idx[0] === null && meets(part.ts)) idx[0] = i;
+  if (idx[1] === null && meets(part.tt)) idx[1] = i;
+  if (idx[2] === null && meets(part.tb)) idx[2] = i;
 }
 
 function partsMm(idx: (number | null)[], results: CandidateResult[]): Record<VesselPart, number | null> {
@@ -531,15 +556,23 @@ export function vesselPartDecisions(
 interface LineChains {
   all: (Candidate | null)[];
   layersCache: SolidLayer[][];
-  chains: PreparedChain[];
+  /** The line's surface (a vessel: its shell). */
+  surface: Surface;
   parts: VesselParts | null;
 }
 /** Candidate i of a sweep: solved from the sweep's hint (a vessel part by part), the sweep then told the result. */
-function solveInSweep(lc: LineChains, i: number, processC: number, a: Ambient, sweep: Sweep): typeof SOLVED {
-  const hint = sweepHint(lc.all, i, sweep);
+function solveInSweep(
+  lc: LineChains,
+  i: number,
+  processC: number,
+  a: Ambient,
+  sweep: Sweep,
+  ws: Workspace,
+): SolvedCandidate {
+  const hint = sweepHint(lc.all, i, sweep, ws);
   const r = lc.parts
-    ? solveVesselCandidate(lc.parts, i, lc.layersCache[i], processC, a)
-    : solveCandidate(lc.chains[i], lc.layersCache[i], processC, a, hint.h, hint.ratio);
+    ? solveVesselCandidate(lc.parts, i, lc.layersCache[i], processC, a, ws)
+    : solveCandidate(lc.surface, i, lc.layersCache[i], processC, a, hint.h, hint.ratio, ws);
   pushSweep(sweep, r.h, r.ratio);
   return r;
 }
@@ -751,205 +784,226 @@ export function installedCost(
 }
 
 /**
- * Recommendation for one line: evaluates the candidates of its material system under each
- * criterion's own conditions and returns the smallest that meets every hard criterion the line
- * needs and is at least the economic optimum (when heat conservation is asked for), naming the
- * governing criterion. A criterion no candidate can meet is said so explicitly.
+ * A line being decided, as every criterion's evaluator reads it: the line and its basis, the
+ * candidates of its material system (bare first) already solved under the heat-loss conditions, and
+ * the workspace its sweeps solve with. Evaluators add their own numbers to `results`.
  */
-export function recommendLine(line: LineCase, system: MaterialSystem, crit: Criteria): Recommendation {
-  const vessel = line.geometry === 'vessel';
-  // A vessel's shell: a vertical cylinder, or a horizontal one when the vessel lies.
-  const geometry: Geometry =
-    line.geometry === 'vessel'
-      ? line.vesselOrientation === 'horizontal'
-        ? 'horizontal-pipe'
-        : 'vertical-pipe'
-      : line.geometry;
-  const pipe = isPipe(geometry) && !vessel;
-  const warnings: string[] = [];
-  const bareEps = 0.8; // bare oxidised steel
-  const base = {
-    geometry,
-    pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
-    heightM: line.heightM ?? 1,
-    characteristicLengthM: line.characteristicLengthM ?? 1,
-  };
-  const emittance = system.jacket.emittance;
-  const maxC = line.maxTempC ?? line.normalTempC;
-  const cold = line.normalTempC < crit.conditions.heatLoss.airC;
-  const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
-  const { all, layersCache, layersOut } = set;
-  const n = all.length;
-  const parts = vessel
-    ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM, line.vesselOrientation === 'horizontal')
-    : null;
-  const chains = parts
-    ? parts.shell
-    : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
-  const lc: LineChains = { all, layersCache, chains, parts };
+export interface LineScan {
+  line: LineCase;
+  system: MaterialSystem;
+  crit: Criteria;
+  /** A pipe (not a vessel, not a flat surface). */
+  pipe: boolean;
+  /** Cold service: the line is colder than the heat-loss air. */
+  cold: boolean;
+  /** The hottest the line runs (personnel protection). */
+  maxC: number;
+  /** The jacket's emittance (the bare candidate is solved with bare steel's). */
+  emittance: number;
+  lc: LineChains;
+  n: number;
+  results: CandidateResult[];
+  /** Heat flow of each candidate under the heat-loss conditions (a vessel: the mean flux), and its surface coefficient. */
+  hlQ: number[];
+  hlH: number[];
+  ws: Workspace;
+}
 
-  const purposes = line.purposes;
-  const econ = crit.economics ?? DEFAULT_ECONOMICS;
-  const prices = crit.prices ?? DEFAULT_PRICES;
+/** What the line's basis is for `applies`: the criteria and the material system. */
+export interface DecisionBasis {
+  crit: Criteria;
+  system: MaterialSystem;
+}
 
-  // Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share them.
-  // Each solve starts from its thinner neighbour's surface coefficient and resistance ratio.
-  const hlAmb = ambientOf(crit.conditions.heatLoss, emittance),
-    hlBare = ambientOf(crit.conditions.heatLoss, bareEps);
-  const hlQ = new Array<number>(n),
-    hlH = new Array<number>(n);
-  // A vessel's parts under the heat-loss conditions: per metre of shell, per m² of each head.
-  const partQ: number[][] | null = parts
-    ? [new Array<number>(n), new Array<number>(n), new Array<number>(n)]
-    : null;
-  const results: CandidateResult[] = new Array(n);
-  // From the third candidate on the hint is extrapolated in thickness from the ones before (sweepHint).
+/** A criterion judged: the first candidate index meeting it (null: none), its sentence and its own details. */
+export interface Verdict {
+  conditionSet: CriterionOutcome['conditionSet'];
+  index: number | null;
+  message: string;
+  detail?: Partial<CriterionOutcome>;
+}
+
+/**
+ * One criterion of the recommendation: whether the line asks for it, and its verdict over the
+ * candidates (null: nothing to judge, e.g. no table row for the line). Adding a criterion is adding
+ * a row to `CRITERION_EVALUATORS` (and its id to `CriterionId`).
+ */
+export interface CriterionEvaluator {
+  id: CriterionId;
+  applies(line: LineCase, basis: DecisionBasis): boolean;
+  evaluate(scan: LineScan): Verdict | null;
+}
+
+const BARE_EMITTANCE = 0.8; // bare oxidised steel
+const isPipeLine = (line: LineCase) => line.geometry !== 'vessel' && isPipe(line.geometry);
+const hottestC = (line: LineCase) => line.maxTempC ?? line.normalTempC;
+const isCold = (line: LineCase, crit: Criteria) => line.normalTempC < crit.conditions.heatLoss.airC;
+
+/** The first candidate index for which `meets` holds, or null. */
+function firstMeeting(n: number, meets: (i: number) => boolean): number | null {
+  for (let i = 0; i < n; i++) if (meets(i)) return i;
+  return null;
+}
+
+/**
+ * A surface criterion swept under its own conditions: each candidate solved in turn (the bare one
+ * with bare steel's emittance) until the first whose surface meets it — or on through every candidate
+ * when the criteria ask for the whole sweep (for display; it decides nothing) — with a vessel's parts
+ * tracked one by one. `record` keeps a candidate's numbers; `beforeMet` sees each candidate up to the
+ * one that meets it.
+ */
+function sweepSurface(
+  s: LineScan,
+  processC: number,
+  conditions: ConditionSet,
+  meets: (surfaceC: number, i: number) => boolean,
+  record: (i: number, r: SolvedCandidate) => void,
+  beforeMet?: (i: number, r: SolvedCandidate) => void,
+): { index: number | null; parts: Record<VesselPart, number | null> | undefined } {
+  const a = ambientOf(conditions, s.emittance),
+    bare = ambientOf(conditions, BARE_EMITTANCE);
   const sweep = newSweep();
-  for (let i = 0; i < n; i++) {
-    const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? hlBare : hlAmb, sweep);
-    hlQ[i] = r.Q;
-    hlH[i] = r.h;
-    if (partQ) {
-      partQ[0][i] = PART.qs;
-      partQ[1][i] = PART.qt;
-      partQ[2][i] = PART.qb;
+  let index: number | null = null;
+  const partIdx: (number | null)[] = [null, null, null];
+  for (let i = 0; i < s.n; i++) {
+    const r = solveInSweep(s.lc, i, processC, i === 0 ? bare : a, sweep, s.ws);
+    record(i, r);
+    if (s.lc.parts) trackParts(partIdx, i, s.ws.part, (t) => meets(t, i));
+    if (index !== null) continue; // past the requirement: for display only, decides nothing
+    beforeMet?.(i, r);
+    if (meets(r.Ts, i)) {
+      index = i;
+      if (!s.crit.sweepAllCandidates) break;
     }
-    // Every field present from the start: one object shape for all candidates (the optional ones stay
-    // undefined unless a criterion fills them, and JSON leaves them out).
-    results[i] = {
-      totalMm: all[i]?.totalMm ?? 0,
-      layers: layersOut[i], // shared, read-only
-      heatLoss: {
-        heatFlow: r.Q,
-        surfaceC: r.Ts,
-        interfacesC: interfacesOf(chains[i], layersCache[i].length),
-      },
-      personnel: undefined,
-      condensation: undefined,
-      annualCost: undefined,
-      installedCost: undefined,
-      energyCostPerYear: undefined,
-      serviceLimitOk: r.limitOk,
-    };
   }
+  return { index, parts: s.lc.parts ? partsMm(partIdx, s.results) : undefined };
+}
 
-  const outcomes: CriterionOutcome[] = [];
-
-  // Personnel protection (rules.ts: every accessible surface hotter than the air): hottest air, still air, the actual jacket emittance.
-  if (
-    personnelProtectionApplies({ accessible: line.accessible, hottestC: maxC }, crit.conditions.personnel)
-  ) {
+/** Personnel protection (rules.ts: every accessible surface hotter than the air): hottest air, still air, the actual jacket emittance. */
+const personnelCriterion: CriterionEvaluator = {
+  id: 'personnel',
+  applies: (line, { crit }) =>
+    personnelProtectionApplies(
+      { accessible: line.accessible, hottestC: hottestC(line) },
+      crit.conditions.personnel,
+    ),
+  evaluate(s) {
+    const { crit, results } = s;
     // The limit follows the jacket's surface (ISO 13732-1 at the project's contact time, or the fixed
     // override); the bare candidate is bare steel whatever the system's jacket.
-    const tl = touchLimitCached(crit, system.jacket);
+    const tl = touchLimitCached(crit, s.system.jacket);
     const limit = tl.limitC,
       bareLimit = touchLimitCached(crit, BARE_STEEL_SURFACE).limitC;
-    const a = ambientOf(crit.conditions.personnel, emittance),
-      bare = ambientOf(crit.conditions.personnel, bareEps);
-    const sweep = newSweep();
-    let idx: number | null = null;
-    const partIdx: (number | null)[] = [null, null, null];
-    for (let i = 0; i < n; i++) {
-      const r = solveInSweep(lc, i, maxC, i === 0 ? bare : a, sweep);
-      results[i].personnel = { surfaceC: r.Ts, interfacesC: interfacesOf(chains[i], layersCache[i].length) };
-      if (parts) trackParts(partIdx, i, (t) => t <= (i === 0 ? bareLimit : limit));
-      if (idx !== null) continue; // past the requirement: for display only, decides nothing
-      if (!r.limitOk) results[i].serviceLimitOk = false;
-      if (r.Ts <= (i === 0 ? bareLimit : limit)) {
-        idx = i;
-        if (!crit.sweepAllCandidates) break;
-      }
-    }
+    const { index, parts } = sweepSurface(
+      s,
+      s.maxC,
+      crit.conditions.personnel,
+      (t, i) => t <= (i === 0 ? bareLimit : limit),
+      (i, r) => {
+        results[i].personnel = {
+          surfaceC: r.Ts,
+          interfacesC: interfacesOf(s.lc.surface.chains[i], s.lc.layersCache[i].length, s.ws),
+        };
+      },
+      // A layer past its service limit at the hottest conditions rules the candidate out.
+      (i, r) => {
+        if (!r.limitOk) results[i].serviceLimitOk = false;
+      },
+    );
     const shown = Math.round(limit * 10) / 10;
-    outcomes.push({
-      id: 'personnel',
+    return {
       conditionSet: 'personnel',
-      limitC: limit,
-      touchSurface: tl.surface,
-      touchBasis: tl.basis,
-      requiredMm: idx === null ? null : results[idx].totalMm,
-      parts: parts ? partsMm(partIdx, results) : undefined,
+      index,
+      detail: { limitC: limit, touchSurface: tl.surface, touchBasis: tl.basis, parts },
       message:
-        idx === null
+        index === null
           ? `No standard thickness keeps the surface at or under ${shown} °C; consider a guard or cage.`
           : `Surface ≤ ${shown} °C at ${crit.conditions.personnel.airC} °C still air (touch limit for ${TOUCH_SURFACE_LABEL[tl.surface]}${Number.isFinite(tl.contactSeconds) ? `, ${tl.contactSeconds} s contact, ISO 13732-1` : ', fixed by the project'}).`,
-    });
-  }
+    };
+  },
+};
 
-  // Condensation control (rules.ts): surface at or above the dew (frost) point plus margin under the condensation conditions.
-  if (
+/** Condensation control (rules.ts): surface at or above the dew (frost) point plus margin under the condensation conditions. */
+const condensationCriterion: CriterionEvaluator = {
+  id: 'condensation',
+  applies: (line, { crit }) =>
     condensationControlApplies(
-      { purposes, coldestC: line.normalTempC },
+      { purposes: line.purposes, coldestC: line.normalTempC },
       crit.conditions.condensation,
       crit.dewPointMarginK,
-    )
-  ) {
-    const c = crit.conditions.condensation;
-    const th = condensationLimit(c, crit.dewPointMarginK);
+    ),
+  evaluate(s) {
+    const c = s.crit.conditions.condensation;
+    const th = condensationLimit(c, s.crit.dewPointMarginK);
     const need = th.needC;
-    const a = ambientOf(c, emittance),
-      bare = ambientOf(c, bareEps);
-    const sweep = newSweep();
-    let idx: number | null = null;
-    const partIdx: (number | null)[] = [null, null, null];
-    for (let i = 0; i < n; i++) {
-      const r = solveInSweep(lc, i, line.normalTempC, i === 0 ? bare : a, sweep);
-      results[i].condensation = { surfaceC: r.Ts };
-      if (parts) trackParts(partIdx, i, (t) => t >= need);
-      if (idx !== null) continue;
-      if (r.Ts >= need) {
-        idx = i;
-        if (!crit.sweepAllCandidates) break;
-      }
-    }
-    outcomes.push({
-      id: 'condensation',
+    const { index, parts } = sweepSurface(
+      s,
+      s.line.normalTempC,
+      c,
+      (t) => t >= need,
+      (i, r) => {
+        s.results[i].condensation = { surfaceC: r.Ts };
+      },
+    );
+    return {
       conditionSet: 'condensation',
-      requiredMm: idx === null ? null : results[idx].totalMm,
-      parts: parts ? partsMm(partIdx, results) : undefined,
+      index,
+      detail: { parts },
       message:
-        idx === null
-          ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
-          : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.`,
-    });
-  }
+        index === null
+          ? `No standard thickness keeps the surface above ${need.toFixed(1)} °C (${th.basis} ${th.valueC.toFixed(1)} °C + ${s.crit.dewPointMarginK} K); add a vapour-tight system and review the design conditions.`
+          : `Surface ≥ ${th.basis} ${th.valueC.toFixed(1)} °C + ${s.crit.dewPointMarginK} K margin at ${c.airC} °C, ${c.relativeHumidityPct ?? 80} % RH.`,
+    };
+  },
+};
 
-  // Heat-loss limit.
-  const limit = pipe ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
-  if (limit !== undefined && (purposes.includes('heatConservation') || purposes.includes('processControl'))) {
-    let idx: number | null = null;
-    for (let i = 0; i < n; i++)
-      if (Math.abs(hlQ[i]) <= limit) {
-        idx = i;
-        break;
-      }
-    outcomes.push({
-      id: 'heatLossLimit',
+const heatLossLimitOf = (line: LineCase, crit: Criteria) =>
+  isPipeLine(line) ? crit.heatLossLimitWPerM : crit.heatLossLimitWPerM2;
+
+/** Heat-loss limit under the heat-loss conditions, per metre of pipe or per m² of surface. */
+const heatLossLimitCriterion: CriterionEvaluator = {
+  id: 'heatLossLimit',
+  applies: (line, { crit }) =>
+    heatLossLimitOf(line, crit) !== undefined &&
+    (line.purposes.includes('heatConservation') || line.purposes.includes('processControl')),
+  evaluate(s) {
+    const limit = heatLossLimitOf(s.line, s.crit)!;
+    const unit = s.pipe ? 'W/m' : 'W/m²';
+    const index = firstMeeting(s.n, (i) => Math.abs(s.hlQ[i]) <= limit);
+    return {
       conditionSet: 'heatLoss',
-      requiredMm: idx === null ? null : results[idx].totalMm,
+      index,
       message:
-        idx === null
-          ? `No standard thickness keeps the heat flow under ${limit} ${pipe ? 'W/m' : 'W/m²'}.`
-          : `Heat flow ≤ ${limit} ${pipe ? 'W/m' : 'W/m²'}.`,
-    });
-  }
+        index === null
+          ? `No standard thickness keeps the heat flow under ${limit} ${unit}.`
+          : `Heat flow ≤ ${limit} ${unit}.`,
+    };
+  },
+};
 
-  // Process temperature change along a flowing line, at the coldest design air and wind (the freeze
-  // conditions) for a hot line — the worst case, not the annual mean.
-  if (
-    purposes.includes('processControl') &&
-    pipe &&
+/**
+ * Process temperature change along a flowing line, at the coldest design air and wind (the freeze
+ * conditions) for a hot line — the worst case, not the annual mean; a cold line gains most on the
+ * hottest day (the personnel conditions).
+ */
+const processDropCriterion: CriterionEvaluator = {
+  id: 'processDrop',
+  applies: (line, { crit }) =>
+    line.purposes.includes('processControl') &&
+    isPipeLine(line) &&
     crit.maxProcessDropK !== undefined &&
-    line.massFlowKgPerS &&
-    line.lengthM
-  ) {
+    !!line.massFlowKgPerS &&
+    !!line.lengthM,
+  evaluate(s) {
+    const { line, crit, n, cold } = s;
     const cp = line.fluidCpJPerKgK ?? 4186;
-    const pc = cold ? crit.conditions.personnel : crit.conditions.freeze; // a cold line gains most on the hottest day
-    const a = ambientOf(pc, emittance),
-      aBare = ambientOf(pc, bareEps);
+    const pc = cold ? crit.conditions.personnel : crit.conditions.freeze;
+    const a = ambientOf(pc, s.emittance),
+      aBare = ambientOf(pc, BARE_EMITTANCE);
     const q = new Array<number>(n);
     const sweep = newSweep();
-    for (let i = 0; i < n; i++) q[i] = solveInSweep(lc, i, line.normalTempC, i === 0 ? aBare : a, sweep).Q;
+    for (let i = 0; i < n; i++)
+      q[i] = solveInSweep(s.lc, i, line.normalTempC, i === 0 ? aBare : a, sweep, s.ws).Q;
     const drop = (i: number) => {
       const u = q[i] / (line.normalTempC - pc.airC || 1);
       const out = outletTempC({
@@ -962,34 +1016,39 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       });
       return Math.abs(line.normalTempC - out);
     };
-    let idx: number | null = null;
-    for (let i = 0; i < n; i++)
-      if (drop(i) <= crit.maxProcessDropK) {
-        idx = i;
-        break;
-      }
+    const index = firstMeeting(n, (i) => drop(i) <= crit.maxProcessDropK!);
     const where = `${pc.airC} °C air, ${pc.windMs} m/s (${cold ? 'hottest' : 'coldest'} design conditions)`;
-    outcomes.push({
-      id: 'processDrop',
+    return {
       conditionSet: cold ? 'personnel' : 'freeze',
-      requiredMm: idx === null ? null : results[idx].totalMm,
+      index,
       message:
-        idx === null
+        index === null
           ? `No standard thickness keeps the temperature change over ${line.lengthM} m within ${crit.maxProcessDropK} K at ${where}.`
-          : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(idx).toFixed(2)} K at ${where}).`,
-    });
-  }
+          : `Temperature change over ${line.lengthM} m ≤ ${crit.maxProcessDropK} K (${drop(index).toFixed(2)} K at ${where}).`,
+    };
+  },
+};
 
-  // Freeze protection of a stagnant water line (ISO 12241 method): cooling to 0 °C, then freezing
-  // the allowed ice fraction; the time to that fraction must reach the required hours.
-  if (purposes.includes('freezeProtection') && pipe && crit.freeze && crit.conditions.freeze.airC < 0) {
-    const f = crit.freeze,
-      fc = crit.conditions.freeze;
-    const a = ambientOf(fc, emittance),
-      aBare = ambientOf(fc, bareEps);
+/**
+ * Freeze protection of a stagnant water line (ISO 12241 method): cooling to 0 °C, then freezing the
+ * allowed ice fraction; the time to that fraction must reach the required hours.
+ */
+const freezeCriterion: CriterionEvaluator = {
+  id: 'freeze',
+  applies: (line, { crit }) =>
+    line.purposes.includes('freezeProtection') &&
+    isPipeLine(line) &&
+    !!crit.freeze &&
+    crit.conditions.freeze.airC < 0,
+  evaluate(s) {
+    const { line, lc, ws } = s;
+    const f = s.crit.freeze!,
+      fc = s.crit.conditions.freeze;
+    const a = ambientOf(fc, s.emittance),
+      aBare = ambientOf(fc, BARE_EMITTANCE);
     const ice = f.iceFractionPct ?? 0;
     const flowAt = (i: number, T: number) =>
-      solveCandidate(chains[i], layersCache[i], T, i === 0 ? aBare : a, hlH[i], 1).Q;
+      solveCandidate(lc.surface, i, lc.layersCache[i], T, i === 0 ? aBare : a, s.hlH[i], 1, ws).Q;
     const toZero = (i: number) =>
       freezeTimeHours({
         odMm: line.pipeOuterDiameterMm!,
@@ -1008,73 +1067,81 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
             heatFlowAtZeroWPerM: flowAt(i, 0),
           })
         : 0);
-    let idx: number | null = null,
-      zeroH = 0,
+    let zeroH = 0,
       iceH = 0;
-    for (let i = 0; i < n; i++) {
+    const index = firstMeeting(s.n, (i) => {
       const z = toZero(i),
         t = toIce(i, z);
-      if (t >= f.requiredHours) {
-        idx = i;
-        zeroH = z;
-        iceH = t;
-        break;
-      }
-    }
+      if (t < f.requiredHours) return false;
+      zeroH = z;
+      iceH = t;
+      return true;
+    });
     const what = ice > 0 ? `${ice} % of the water has frozen` : 'freezing starts';
-    outcomes.push({
-      id: 'freeze',
+    return {
       conditionSet: 'freeze',
-      requiredMm: idx === null ? null : results[idx].totalMm,
-      hours: idx === null ? undefined : zeroH,
-      iceHours: idx === null || ice === 0 ? undefined : iceH,
+      index,
+      detail: {
+        hours: index === null ? undefined : zeroH,
+        iceHours: index === null || ice === 0 ? undefined : iceH,
+      },
       message:
-        idx === null
+        index === null
           ? `No standard thickness gives ${f.requiredHours} h before ${what} at ${fc.airC} °C; consider heat tracing or draining.`
           : `Stagnant water from ${f.initialWaterTempC} °C at ${fc.airC} °C air: ${zeroH.toFixed(1)} h to 0 °C${ice > 0 ? `, ${iceH.toFixed(1)} h to ${ice} % ice` : ''} (≥ ${f.requiredHours} h required, ISO 12241 method).`,
-    });
-  }
+    };
+  },
+};
 
-  // Energy-code minimum (ASHRAE 90.1 Table 6.8.3-1): heating and cooling piping, whatever the purposes.
-  if (crit.energyCode === 'ashrae-90.1' && pipe) {
-    const k = cond(system.outer);
+/** Energy-code minimum (ASHRAE 90.1 Table 6.8.3-1): heating and cooling piping, whatever the purposes. */
+const energyCodeCriterion: CriterionEvaluator = {
+  id: 'energyCode',
+  applies: (line, { crit }) => crit.energyCode === 'ashrae-90.1' && isPipeLine(line),
+  evaluate(s) {
+    const k = cond(s.system.outer);
     const m = energyCodeMinimum({
-      fluidC: line.normalTempC,
-      outsideDiameterMm: line.pipeOuterDiameterMm!,
+      fluidC: s.line.normalTempC,
+      outsideDiameterMm: s.line.pipeOuterDiameterMm!,
       conductivityAt: (T) => k.k(T),
     });
-    if (m) {
-      let idx: number | null = null;
-      for (let i = 0; i < n; i++)
-        if (results[i].totalMm >= m.minimumMm - 1e-6) {
-          idx = i;
-          break;
-        }
-      outcomes.push({
-        id: 'energyCode',
-        conditionSet: 'none',
-        requiredMm: idx === null ? null : results[idx].totalMm,
-        tableMm: m.tableMm,
-        minimumMm: m.minimumMm,
-        message:
-          idx === null
-            ? `No standard thickness reaches the ASHRAE 90.1 minimum of ${m.minimumMm.toFixed(1)} mm.`
-            : `ASHRAE 90.1 Table 6.8.3-1: ${(m.tableMm / 25.4).toFixed(1)} in (${m.tableMm.toFixed(1)} mm)${m.corrected ? `, ${m.minimumMm.toFixed(1)} mm for this insulation's conductivity (footnote formula)` : ''}.`,
-      });
-    }
-  }
+    if (!m) return null; // no table row for this service: nothing to judge
+    const index = firstMeeting(s.n, (i) => s.results[i].totalMm >= m.minimumMm - 1e-6);
+    return {
+      conditionSet: 'none',
+      index,
+      detail: { tableMm: m.tableMm, minimumMm: m.minimumMm },
+      message:
+        index === null
+          ? `No standard thickness reaches the ASHRAE 90.1 minimum of ${m.minimumMm.toFixed(1)} mm.`
+          : `ASHRAE 90.1 Table 6.8.3-1: ${(m.tableMm / 25.4).toFixed(1)} in (${m.tableMm.toFixed(1)} mm)${m.corrected ? `, ${m.minimumMm.toFixed(1)} mm for this insulation's conductivity (footnote formula)` : ''}.`,
+    };
+  },
+};
 
-  // Economic thickness: annualised cost over the whole series (cost curve). Cold service is priced
-  // as cooling (economics.cooling); the optimum and the flat range within flatRangePct of it.
-  let econIdx: number | null = null;
-  let econRange: { fromMm: number; toMm: number; optimumMm: number } | undefined;
-  const et = energyTerms(econ, cold);
-  if (purposes.includes('heatConservation')) {
+/**
+ * Economic thickness: annualised cost over the whole series (cost curve), written onto every
+ * candidate. Cold service is priced as cooling (economics.cooling); the optimum and the flat range
+ * within flatRangePct of it. Runs after personnel protection, which rules candidates out.
+ */
+const economicCriterion: CriterionEvaluator = {
+  id: 'economic',
+  applies: (line) => line.purposes.includes('heatConservation'),
+  evaluate(s) {
+    const { line, results, n, cold } = s;
+    const all = s.lc.all,
+      chains = s.lc.surface.chains;
+    const econ = s.crit.economics ?? DEFAULT_ECONOMICS;
+    const prices = s.crit.prices ?? DEFAULT_PRICES;
+    const et = energyTerms(econ, cold);
     const { crf, lf } = annuityFactors(econ);
+    let econIdx: number | null = null;
+    let econRange: { fromMm: number; toMm: number; optimumMm: number } | undefined;
     let best = Infinity;
     for (let i = 0; i < all.length; i++) {
-      const inst = all[i] ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices, system.jacket.id) : 0;
-      const energy = ((Math.abs(hlQ[i]) * econ.hoursPerYear) / 1000) * et.pricePerKWh * et.boughtPerHeat;
+      const inst = all[i]
+        ? installedCost(line, all[i]!, 2 * chains[i].rOuter, prices, s.system.jacket.id)
+        : 0;
+      const energy = ((Math.abs(s.hlQ[i]) * econ.hoursPerYear) / 1000) * et.pricePerKWh * et.boughtPerHeat;
       const annual = crf * inst + lf * energy;
       const ri = results[i];
       ri.installedCost = inst;
@@ -1102,16 +1169,119 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     const rangeText = econRange
       ? ` Within ${econ.flatRangePct ?? 2} % of the minimum from ${econRange.fromMm} to ${econRange.toMm} mm (optimum ${econRange.optimumMm} mm)${econ.economicChoice === 'thinnest-within-range' ? '; the thinnest of that range is taken' : ''}.`
       : '';
-    outcomes.push({
-      id: 'economic',
+    return {
       conditionSet: 'heatLoss',
-      requiredMm: econIdx === null ? null : results[econIdx].totalMm,
-      range: econRange,
+      index: econIdx,
+      detail: { range: econRange },
       message: `Lowest annualised cost (${(crf * 100).toFixed(1)} %/yr capital recovery, ${econ.hoursPerYear} h/yr${cold && econ.cooling ? `, cooling at COP ${econ.cooling.cop}` : ''}).${rangeText}`,
+    };
+  },
+};
+
+/**
+ * The criteria of a recommendation, in the order their outcomes are listed (and judged: personnel
+ * protection rules out candidates whose layers pass their service limit before the economic
+ * criterion prices them).
+ */
+export const CRITERION_EVALUATORS: readonly CriterionEvaluator[] = [
+  personnelCriterion,
+  condensationCriterion,
+  heatLossLimitCriterion,
+  processDropCriterion,
+  freezeCriterion,
+  energyCodeCriterion,
+  economicCriterion,
+];
+
+/** The heat-loss sweep every line gets: each candidate solved under the heat-loss conditions, bare first. */
+interface HeatLossSweep {
+  results: CandidateResult[];
+  hlQ: number[];
+  hlH: number[];
+  /** A vessel's parts under the heat-loss conditions: per metre of shell, per m² of each head. */
+  partQ: number[][] | null;
+}
+/**
+ * Heat-loss conditions for every candidate: the cost curve, heat-loss limit and process drop share
+ * them. Each solve starts from its thinner neighbours' surface coefficient and resistance ratio
+ * (from the third candidate on, extrapolated in thickness: sweepHint).
+ */
+function sweepHeatLoss(
+  lc: LineChains,
+  layersOut: CandidateSet['layersOut'],
+  processC: number,
+  hlBare: Ambient,
+  hlAmb: Ambient,
+  ws: Workspace,
+): HeatLossSweep {
+  const { all, layersCache } = lc;
+  const chains = lc.surface.chains;
+  const n = all.length;
+  const hlQ = new Array<number>(n),
+    hlH = new Array<number>(n);
+  const partQ: number[][] | null = lc.parts
+    ? [new Array<number>(n), new Array<number>(n), new Array<number>(n)]
+    : null;
+  const results: CandidateResult[] = new Array(n);
+  const sweep = newSweep();
+  for (let i = 0; i < n; i++) {
+    const r = solveInSweep(lc, i, processC, i === 0 ? hlBare : hlAmb, sweep, ws);
+    hlQ[i] = r.Q;
+    hlH[i] = r.h;
+    if (partQ) {
+      partQ[0][i] = ws.part.qs;
+      partQ[1][i] = ws.part.qt;
+      partQ[2][i] = ws.part.qb;
+    }
+    // Every field present from the start: one object shape for all candidates (the optional ones stay
+    // undefined unless a criterion fills them, and JSON leaves them out).
+    results[i] = {
+      totalMm: all[i]?.totalMm ?? 0,
+      layers: layersOut[i], // shared, read-only
+      heatLoss: {
+        heatFlow: r.Q,
+        surfaceC: r.Ts,
+        interfacesC: interfacesOf(chains[i], layersCache[i].length, ws),
+      },
+      personnel: undefined,
+      condensation: undefined,
+      annualCost: undefined,
+      installedCost: undefined,
+      energyCostPerYear: undefined,
+      serviceLimitOk: r.limitOk,
+    };
+  }
+  return { results, hlQ, hlH, partQ };
+}
+
+/** Each criterion the line asks for, judged over the candidates (`CRITERION_EVALUATORS`, in order). */
+function judgeCriteria(scan: LineScan): CriterionOutcome[] {
+  const basis: DecisionBasis = { crit: scan.crit, system: scan.system };
+  const outcomes: CriterionOutcome[] = [];
+  for (const criterion of CRITERION_EVALUATORS) {
+    if (!criterion.applies(scan.line, basis)) continue;
+    const v = criterion.evaluate(scan);
+    if (!v) continue;
+    outcomes.push({
+      id: criterion.id,
+      conditionSet: v.conditionSet,
+      requiredMm: v.index === null ? null : scan.results[v.index].totalMm,
+      ...v.detail,
+      message: v.message,
     });
   }
+  return outcomes;
+}
 
-  // The recommendation: the largest requirement, on a candidate whose layers stay within their limits.
+/**
+ * The recommendation: the largest requirement, on a candidate whose layers stay within their limits
+ * (-1: none). An unmet criterion's message becomes a warning.
+ */
+function chooseCandidate(
+  outcomes: CriterionOutcome[],
+  results: CandidateResult[],
+  warnings: string[],
+): { governing: CriterionId | null; index: number } {
   let governing: CriterionId | null = null,
     need = 0;
   for (const o of outcomes) {
@@ -1124,24 +1294,30 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       governing = o.id;
     }
   }
-  let recIdx = -1;
-  for (let i = 0; i < n; i++)
+  let index = -1;
+  for (let i = 0; i < results.length; i++)
     if (results[i].totalMm >= need && (i === 0 || results[i].serviceLimitOk)) {
-      recIdx = i;
+      index = i;
       break;
     }
-  if (recIdx < 0) {
+  if (index < 0) {
     warnings.push(
       'No candidate keeps every layer within its service temperature; choose another material system.',
     );
   }
+  return { governing, index };
+}
+
+/** What the line and its system say about themselves: service ratings, nothing to decide, steam plausibility. */
+function lineWarnings(s: LineScan, outcomeCount: number, warnings: string[]) {
+  const { line, system, cold, maxC } = s;
   if (!cold && maxC > system.outer.maxServiceC && !system.inner)
     warnings.push(
       `${system.outer.name} is rated to ${system.outer.maxServiceC} °C; the line runs at ${maxC} °C. Add a higher-temperature inner layer.`,
     );
   if (cold && line.normalTempC < system.outer.minServiceC)
     warnings.push(`${system.outer.name} is rated down to ${system.outer.minServiceC} °C only.`);
-  if (outcomes.length === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
+  if (outcomeCount === 0) warnings.push('No criterion applies to this line: nothing requires insulation.');
   if (line.steamPressureMPaAbs) {
     // Plausibility (IAPWS-IF97): saturated steam at the stated pressure has one temperature.
     const sat = saturatedSteamAtPressure(line.steamPressureMPaAbs).temperatureC;
@@ -1150,12 +1326,92 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
         `The line is at ${line.normalTempC} °C, ${(sat - line.normalTempC).toFixed(1)} K below the saturation temperature of steam at its pressure (${sat.toFixed(1)} °C, IAPWS-IF97): check the temperature or the pressure.`,
       );
   }
+}
 
+/** A vessel's parts at their own thicknesses: each part's heat flux per m² of its bare area, and the mean. */
+function vesselPartsSummary(
+  parts: VesselParts,
+  partQ: number[][],
+  outcomes: CriterionOutcome[],
+  results: CandidateResult[],
+  diameterM: number,
+): Recommendation['vesselParts'] {
+  const d = vesselPartDecisions(outcomes, results);
+  const at = (mm: number | null) => (mm === null ? -1 : results.findIndex((x) => x.totalMm === mm));
+  const is = at(d.shell.recommendedMm),
+    it = at(d.top.recommendedMm),
+    ib = at(d.bottom.recommendedMm);
+  const shellM2PerM = Math.PI * diameterM; // bare shell area per metre of its length
+  return {
+    shell: { ...d.shell, heatFluxWPerM2: is < 0 ? null : partQ[0][is] / shellM2PerM },
+    top: { ...d.top, heatFluxWPerM2: it < 0 ? null : partQ[1][it] },
+    bottom: { ...d.bottom, heatFluxWPerM2: ib < 0 ? null : partQ[2][ib] },
+    meanFluxWPerM2:
+      is < 0 || it < 0 || ib < 0
+        ? null
+        : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
+    candidateFluxesWPerM2: results.map((_, i) => [partQ[0][i] / shellM2PerM, partQ[1][i], partQ[2][i]]),
+  };
+}
+
+/**
+ * Recommendation for one line: evaluates the candidates of its material system under each
+ * criterion's own conditions (`CRITERION_EVALUATORS`) and returns the smallest that meets every
+ * hard criterion the line needs and is at least the economic optimum (when heat conservation is
+ * asked for), naming the governing criterion. A criterion no candidate can meet is said so
+ * explicitly. `ws` is the solve's scratch memory (a fresh one per call when not given).
+ */
+export function recommendLine(
+  line: LineCase,
+  system: MaterialSystem,
+  crit: Criteria,
+  ws: Workspace = createWorkspace(),
+): Recommendation {
+  const vessel = line.geometry === 'vessel';
+  // A vessel's shell: a vertical cylinder, or a horizontal one when the vessel lies.
+  const geometry: Geometry =
+    line.geometry === 'vessel'
+      ? line.vesselOrientation === 'horizontal'
+        ? 'horizontal-pipe'
+        : 'vertical-pipe'
+      : line.geometry;
+  const pipe = isPipeLine(line);
+  const base = {
+    geometry,
+    pipeOuterDiameterM: (line.pipeOuterDiameterMm ?? 0) / 1000,
+    heightM: line.heightM ?? 1,
+    characteristicLengthM: line.characteristicLengthM ?? 1,
+  };
+  const emittance = system.jacket.emittance;
+  const maxC = hottestC(line);
+  const cold = isCold(line, crit);
+  const set = candidatesFor(system, Math.max(maxC, line.normalTempC), Math.min(maxC, line.normalTempC));
+  const { all, layersCache } = set;
+  const parts = vessel
+    ? vesselPartsFor(set, base.pipeOuterDiameterM, base.heightM, line.vesselOrientation === 'horizontal')
+    : null;
+  const surface = parts
+    ? parts.shell
+    : chainsFor(set, base.geometry, base.pipeOuterDiameterM, base.heightM, base.characteristicLengthM);
+  const lc: LineChains = { all, layersCache, surface, parts };
+
+  const hlAmb = ambientOf(crit.conditions.heatLoss, emittance),
+    hlBare = ambientOf(crit.conditions.heatLoss, BARE_EMITTANCE);
+  const { results, hlQ, hlH, partQ } = sweepHeatLoss(lc, set.layersOut, line.normalTempC, hlBare, hlAmb, ws);
+  const n = all.length;
+  const scan: LineScan = { line, system, crit, pipe, cold, maxC, emittance, lc, n, results, hlQ, hlH, ws };
+  const outcomes = judgeCriteria(scan);
+
+  const warnings: string[] = [];
+  const { governing, index: recIdx } = chooseCandidate(outcomes, results, warnings);
+  lineWarnings(scan, outcomes.length, warnings);
+
+  // The design solved in full at the recommendation, under the heat-loss conditions.
   const rec = recIdx >= 0 ? results[recIdx] : null;
   const design =
     recIdx >= 0
       ? solvePrepared(
-          chains[recIdx],
+          surface.chains[recIdx],
           {
             geometry: base.geometry,
             pipeOuterDiameterM: base.pipeOuterDiameterM,
@@ -1166,12 +1422,15 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
             layers: layersCache[recIdx],
           },
           hlH[recIdx],
+          ws,
         )
       : undefined;
   if (design) for (const w of design.warnings) if (!warnings.includes(w)) warnings.push(w);
   const extent = pipe ? (line.lengthM ?? 1) : parts ? parts.totalM2 : (line.areaM2 ?? 1);
   // A vessel's design profile is its shell's; its heat flow is the mean flux over shell and heads.
   const designFlow = design ? (parts ? hlQ[recIdx] : design.heatFlow) : 0;
+  const econ = crit.economics ?? DEFAULT_ECONOMICS;
+  const et = energyTerms(econ, cold);
   let annual: Recommendation['annual'];
   if (design) {
     const heatMWh = (Math.abs(designFlow) * extent * econ.hoursPerYear) / 1e6;
@@ -1193,25 +1452,6 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
       saturatedSteamAtPressure(line.steamPressureMPaAbs).latentHeatKJPerKg,
     );
   }
-  let vesselParts: Recommendation['vesselParts'];
-  if (parts && partQ) {
-    const d = vesselPartDecisions(outcomes, results);
-    const at = (mm: number | null) => (mm === null ? -1 : results.findIndex((x) => x.totalMm === mm));
-    const is = at(d.shell.recommendedMm),
-      it = at(d.top.recommendedMm),
-      ib = at(d.bottom.recommendedMm);
-    const shellM2PerM = Math.PI * base.pipeOuterDiameterM; // bare shell area per metre of its length
-    vesselParts = {
-      shell: { ...d.shell, heatFluxWPerM2: is < 0 ? null : partQ[0][is] / shellM2PerM },
-      top: { ...d.top, heatFluxWPerM2: it < 0 ? null : partQ[1][it] },
-      bottom: { ...d.bottom, heatFluxWPerM2: ib < 0 ? null : partQ[2][ib] },
-      meanFluxWPerM2:
-        is < 0 || it < 0 || ib < 0
-          ? null
-          : (partQ[0][is] * parts.heightM + (partQ[1][it] + partQ[2][ib]) * parts.headM2) / parts.totalM2,
-      candidateFluxesWPerM2: results.map((_, i) => [partQ[0][i] / shellM2PerM, partQ[1][i], partQ[2][i]]),
-    };
-  }
   return {
     recommendedMm: rec?.totalMm ?? null,
     unmet,
@@ -1222,7 +1462,10 @@ export function recommendLine(line: LineCase, system: MaterialSystem, crit: Crit
     design,
     annual,
     condensateKgPerHour: condensate,
-    vesselParts,
+    vesselParts:
+      parts && partQ
+        ? vesselPartsSummary(parts, partQ, outcomes, results, base.pipeOuterDiameterM)
+        : undefined,
     warnings,
   };
 }

@@ -1,7 +1,6 @@
 import type { Conductivity } from './conductivity';
 import { brentRoot } from './roots';
 import {
-  CONVECTIVE_SLOPE,
   convectionDetail,
   isPipe,
   radiativeFlux,
@@ -11,10 +10,10 @@ import {
   type Geometry,
   type OuterShape,
 } from './surface';
+import { createWorkspace, type Workspace } from './workspace';
 // The inner loop's imports bound once to local constants (see surface.ts: loaders reach an import
 // through an accessor on every use).
-const flux = surfaceFlux,
-  slopeOfConvection = CONVECTIVE_SLOPE;
+const flux = surfaceFlux;
 
 /** One solid layer, inside to outside. */
 export interface SolidLayer {
@@ -113,9 +112,11 @@ function march(els: Element[], Tp: number, Q: number, out?: { [i: number]: numbe
   return T;
 }
 
-/** dTs/dQ along the chain: from ∫k dT = Q·f per element, k(T_in)·dT_in − k(T_out)·dT_out = f·dQ. */
-const SLOPE = { dTsdQ: 0 };
-function marchSlope(els: Element[], Tp: number, Q: number): number {
+/**
+ * Surface temperature for a heat flow Q, and dTs/dQ along the chain into `ws.dTsdQ`: from
+ * ∫k dT = Q·f per element, k(T_in)·dT_in − k(T_out)·dT_out = f·dQ.
+ */
+function marchSlope(els: Element[], Tp: number, Q: number, ws: Workspace): number {
   let T = Tp,
     d = 0;
   for (let i = 0; i < els.length; i++) {
@@ -131,7 +132,7 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
     d = (kin * d - e.factor) / e.cond!.k(Tout);
     T = Tout;
   }
-  SLOPE.dTsdQ = d;
+  ws.dTsdQ = d;
   return T;
 }
 
@@ -139,13 +140,13 @@ function marchSlope(els: Element[], Tp: number, Q: number): number {
  * Root of g(Q) = A·q_out(Ts(Q)) − Q, which has the sign of the heat flow at Q = 0 and the opposite
  * sign at the bare-surface flow Q_b = A·q_out(T_process) (the surface law is monotone in Ts and Ts
  * falls with Q). Newton steps with the exact conduction slope dTs/dQ and a surface-flux slope that
- * starts from the correlations' own slope estimate (CONVECTIVE_SLOPE) + 4εσT³ and then follows the
+ * starts from the correlations' own slope estimate (`ws.convectiveSlope`) + 4εσT³ and then follows the
  * secant, kept inside a shrinking bracket [0, Q_b] and replaced by bisection whenever they would
  * leave it; Brent's method takes over in the rare case this has not converged, so the answer always
  * exists. Q_b is evaluated only when a step needs the far end of the bracket (one surface evaluation
- * saved per solve); the tolerance is relative to the heat flow itself.
+ * saved per solve); the tolerance is relative to the heat flow itself. The answer goes into
+ * `ws.heatQ` and `ws.heatIterations`.
  */
-const HEAT = { Q: 0, iterations: 0 };
 function solveHeatFlow(
   els: Element[],
   Tp: number,
@@ -154,13 +155,14 @@ function solveHeatFlow(
   shape: OuterShape,
   amb: Ambient,
   guess: number,
-): typeof HEAT {
+  ws: Workspace,
+): void {
   let lo = 0,
     hi = sgn * Infinity; // g(lo) has the sign sgn, g(hi) the opposite (or zero)
   let Qb = NaN; // evaluated on demand (no closure: this is the hot path)
   let Q = guess;
   if (!(guess * sgn > 0 && Number.isFinite(guess))) {
-    Qb = area * flux(shape, Tp, amb);
+    Qb = area * flux(shape, Tp, amb, ws);
     hi = Qb;
     Q = 0.5 * Qb;
   }
@@ -168,19 +170,19 @@ function solveHeatFlow(
   let prevTs = NaN,
     prevFlux = NaN;
   for (let it = 1; it <= 40; it++) {
-    const Ts = marchSlope(els, Tp, Q);
+    const Ts = marchSlope(els, Tp, Q, ws);
     if (Ts !== Ts) {
       hi = Q;
       Q = 0.5 * (lo + hi);
       continue;
     }
-    const dTsdQ = SLOPE.dTsdQ;
-    const q = flux(shape, Ts, amb);
+    const dTsdQ = ws.dTsdQ;
+    const q = flux(shape, Ts, amb, ws);
     const g = area * q - Q;
     if (Math.abs(g) <= tol) {
-      HEAT.Q = Q;
-      HEAT.iterations = it;
-      return HEAT;
+      ws.heatQ = Q;
+      ws.heatIterations = it;
+      return;
     }
     if (g * sgn > 0) lo = Q;
     else hi = Q;
@@ -190,7 +192,7 @@ function solveHeatFlow(
       dflux = (q - prevFlux) / (Ts - prevTs); // secant on the surface law
     else {
       const t = Ts + 273.15;
-      dflux = slopeOfConvection.value + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
+      dflux = ws.convectiveSlope + 4 * amb.emittance * 5.670374419e-8 * t * t * t; // σ inlined: hot loop
     }
     prevTs = Ts;
     prevFlux = q;
@@ -198,30 +200,33 @@ function solveHeatFlow(
     let next = Q - g / dg;
     if (!((next - lo) * sgn > 0 && (hi - next) * sgn > 0)) {
       if (Qb !== Qb) {
-        Qb = area * flux(shape, Tp, amb);
+        Qb = area * flux(shape, Tp, amb, ws);
         if ((hi - Qb) * sgn > 0) hi = Qb;
       }
       next = 0.5 * (lo + hi);
     }
     if (Math.abs(next - Q) <= tol) {
-      HEAT.Q = next;
-      HEAT.iterations = it;
-      return HEAT;
+      ws.heatQ = next;
+      ws.heatIterations = it;
+      return;
     }
     Q = next;
   }
-  const b = Qb === Qb ? Qb : area * flux(shape, Tp, amb);
+  const b = Qb === Qb ? Qb : area * flux(shape, Tp, amb, ws);
   const g = (q: number) => {
     const t = march(els, Tp, q);
-    return t === t ? area * flux(shape, t, amb) - q : -b;
+    return t === t ? area * flux(shape, t, amb, ws) - q : -b;
   };
   const r = brentRoot(g, 0, b, b, g(b), Math.abs(b) * 1e-10);
-  HEAT.Q = r.x;
-  HEAT.iterations = 40 + r.iterations;
-  return HEAT;
+  ws.heatQ = r.x;
+  ws.heatIterations = 40 + r.iterations;
 }
 
-/** A case's resistance chain and outside shape, prepared once and solved under many conditions. */
+/**
+ * A case's resistance chain and outside shape, prepared once and solved under many conditions.
+ * Never changed after `prepareChain`: a solve writes only into its workspace, so a cached chain can
+ * serve any number of solves.
+ */
 export interface PreparedChain {
   els: Element[];
   /** The same chain with neighbouring layers of one material merged (their ∫k dT composes), for iterating. */
@@ -232,8 +237,6 @@ export interface PreparedChain {
   shape: OuterShape;
   /** Outside area per metre (pipes) or per m² (flat). */
   area: number;
-  /** Boundary temperatures after each element for the last solve. */
-  temps: number[];
 }
 
 export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): PreparedChain {
@@ -265,7 +268,6 @@ export function prepareChain(c: Omit<SteadyCase, 'processC' | 'ambient'>): Prepa
     pipe,
     shape,
     area: pipe ? 2 * Math.PI * rOuter : 1,
-    temps: new Array<number>(els.length).fill(0),
   };
 }
 
@@ -281,13 +283,14 @@ export interface ChainSolution {
   h: number;
   resistanceRatio: number;
 }
-const SOLUTION: ChainSolution = { Q: 0, Ts: 0, iterations: 0, h: 0, resistanceRatio: 1 };
 
 /**
  * The numerical core: heat flow Q and surface temperature for a prepared chain. Leaves the boundary
- * temperatures in `chain.temps`. For bulk use it allocates nothing: the returned object is shared
- * and valid until the next call (copy what you keep). `hintH` / `hintRatio` come from a neighbouring
- * solve (e.g. the previous thickness); 0 and 1 mean none.
+ * temperatures in `ws.temps` (the first `chain.els.length` entries). With a workspace from the caller
+ * it allocates nothing: the returned object is `ws.solution`, valid until the next solve with that
+ * workspace (copy what you keep). `hintH` / `hintRatio` come from a neighbouring solve (e.g. the
+ * previous thickness); 0 and 1 mean none. `shape` is the outside surface when the caller solves the
+ * chain for another height or horizontal length than it was prepared with (the chain's own otherwise).
  */
 export function solveChain(
   chain: PreparedChain,
@@ -295,14 +298,16 @@ export function solveChain(
   amb: Ambient,
   hintH = 0,
   hintRatio = 1,
+  ws: Workspace = createWorkspace(),
+  shape: OuterShape = chain.shape,
 ): ChainSolution {
   const ratio = hintRatio > 0 ? hintRatio : 1;
   const els = chain.els,
     fast = chain.fast,
-    area = chain.area,
-    shape = chain.shape;
+    area = chain.area;
   const Tp = processC;
-  const out = SOLUTION;
+  const out = ws.solution;
+  if (ws.temps.length < els.length) for (let i = ws.temps.length; i < els.length; i++) ws.temps.push(0);
   // The sign of the heat flow is the sign of the outside loss at the process temperature; it is
   // plain when the process is hotter (or colder) than both the air and the surroundings.
   const dA = Tp - amb.airC,
@@ -314,13 +319,13 @@ export function solveChain(
         ? 1
         : dA < 0 && dR <= 0
           ? -1
-          : Math.sign(surfaceFlux(shape, Tp, amb));
+          : Math.sign(surfaceFlux(shape, Tp, amb, ws));
   if (dA === 0 && (dR === 0 || amb.emittance === 0 || amb.fixedCoefficientWPerM2K !== undefined)) sgn = 0;
   let Q = 0,
     iterations = 0,
     Rc = 0,
     h0 = 5;
-  if (els.length === 0) Q = sgn === 0 ? 0 : area * surfaceFlux(shape, Tp, amb);
+  if (els.length === 0) Q = sgn === 0 ? 0 : area * surfaceFlux(shape, Tp, amb, ws);
   else if (sgn !== 0) {
     // First guess: series resistances, k at the mean of process and air, and the surface coefficient
     // either hinted by the caller or evaluated 15 % of the way up.
@@ -328,26 +333,18 @@ export function solveChain(
     h0 = hintH;
     if (!(h0 > 0)) {
       const Ts0 = amb.airC + 0.15 * (Tp - amb.airC);
-      h0 = Ts0 !== amb.airC ? surfaceFlux(shape, Ts0, amb) / (Ts0 - amb.airC) : 0;
+      h0 = Ts0 !== amb.airC ? surfaceFlux(shape, Ts0, amb, ws) / (Ts0 - amb.airC) : 0;
       if (!(h0 > 0)) h0 = 5;
     }
     for (let i = 0; i < fast.length; i++) {
       const e = fast[i];
       Rc += e.film ? e.factor : e.factor / e.cond!.k(Tm);
     }
-    const r = solveHeatFlow(
-      fast,
-      Tp,
-      sgn,
-      area,
-      shape,
-      amb,
-      (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)),
-    );
-    Q = r.Q;
-    iterations = r.iterations;
+    solveHeatFlow(fast, Tp, sgn, area, shape, amb, (Tp - amb.airC) / (Rc * ratio + 1 / (h0 * area)), ws);
+    Q = ws.heatQ;
+    iterations = ws.heatIterations;
   }
-  const Ts = els.length ? march(els, Tp, Q, chain.temps) : Tp;
+  const Ts = els.length ? march(els, Tp, Q, ws.temps) : Tp;
   const dTs = Ts - amb.airC;
   out.Q = Q;
   out.Ts = Ts;
@@ -357,16 +354,20 @@ export function solveChain(
   return out;
 }
 
-/** The highest / lowest temperature each insulation layer sees in the last solve of the chain. */
+/**
+ * The highest / lowest temperature insulation layer i sees, from the boundary temperatures `temps`
+ * of a solve of the chain (`ws.temps` right after `solveChain`).
+ */
 export function layerFaceTemps(
   chain: PreparedChain,
+  temps: ArrayLike<number>,
   processC: number,
   layerCount: number,
   i: number,
 ): [number, number] {
   const first = chain.els.length - layerCount;
-  const hot = first + i - 1 >= 0 ? chain.temps[first + i - 1] : processC;
-  const cold = chain.temps[first + i];
+  const hot = first + i - 1 >= 0 ? temps[first + i - 1] : processC;
+  const cold = temps[first + i];
   return hot > cold ? [hot, cold] : [cold, hot];
 }
 
@@ -378,24 +379,38 @@ export function layerFaceTemps(
  * where the residual (outside loss at the marched surface temperature − Q) is monotone. One Q passes
  * every layer by construction, so the energy balance closes at every interface.
  */
-export function solveSteady(c: SteadyCase, hintCoefficientWPerM2K?: number): SteadyResult {
-  return solvePrepared(prepareChain(c), c, hintCoefficientWPerM2K);
+export function solveSteady(
+  c: SteadyCase,
+  hintCoefficientWPerM2K?: number,
+  ws: Workspace = createWorkspace(),
+): SteadyResult {
+  return solvePrepared(prepareChain(c), c, hintCoefficientWPerM2K, ws);
 }
 
-/** `solveSteady` on a chain already prepared from the same case (geometry, sizes and layers). */
+/**
+ * `solveSteady` on a chain prepared from the same case's sizes and layers; the outside surface's
+ * height and horizontal length are the case's (a cached chain may have been prepared with others).
+ */
 export function solvePrepared(
   chain: PreparedChain,
   c: SteadyCase,
   hintCoefficientWPerM2K?: number,
+  ws: Workspace = createWorkspace(),
 ): SteadyResult {
-  const { els, rInner, rOuter, pipe, shape } = chain;
+  const { els, rInner, rOuter, pipe } = chain;
+  const shape: OuterShape = {
+    geometry: c.geometry,
+    diameterM: 2 * rOuter,
+    heightM: c.heightM,
+    characteristicLengthM: c.characteristicLengthM,
+  };
   const Tp = c.processC;
-  const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K ?? 0);
-  const temps = Array.from(chain.temps);
+  const { Q, Ts, iterations } = solveChain(chain, Tp, c.ambient, hintCoefficientWPerM2K ?? 0, 1, ws, shape);
+  const temps = ws.temps.slice(0, els.length);
 
   const warnings: string[] = [];
   const detail =
-    c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient) : undefined;
+    c.ambient.fixedCoefficientWPerM2K === undefined ? convectionDetail(shape, Ts, c.ambient, ws) : undefined;
   if (detail) warnings.push(...surfaceWarnings(detail));
   const dTs = Ts - c.ambient.airC;
   const hConv = detail ? detail.h : c.ambient.fixedCoefficientWPerM2K!;
@@ -407,7 +422,7 @@ export function solvePrepared(
   for (const [i, e] of els.entries()) profileC.push({ radiusOrDepthM: e.r2, tempC: temps[i] });
   const interfacesC = c.layers.slice(0, -1).map((_, i) => temps[first + i]);
   c.layers.forEach((l, i) => {
-    const [hi, lo] = layerFaceTemps(chain, Tp, c.layers.length, i);
+    const [hi, lo] = layerFaceTemps(chain, temps, Tp, c.layers.length, i);
     const label = l.name ?? `layer ${i + 1}`;
     if (l.maxServiceC !== undefined && hi > l.maxServiceC + 1e-9)
       warnings.push(

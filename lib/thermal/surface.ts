@@ -12,6 +12,7 @@ import {
   type NaturalCorrelation,
   type NaturalName,
 } from './correlations';
+import { createWorkspace, type Workspace } from './workspace';
 // The inner loop's imports bound once to local constants: module loaders and bundlers reach an
 // import through an accessor on every use, which the hottest calls should not pay (measured).
 const film = filmAt;
@@ -167,45 +168,65 @@ export interface ConvectionDetail {
  * combined as h = (h_forced³ + h_natural³)^(1/3) (Churchill's cube rule, common for mixed convection);
  * air properties at the film temperature.
  */
-export function convectionDetail(shape: OuterShape, TsC: number, amb: Ambient): ConvectionDetail {
-  convection(shape, TsC, amb, DETAIL);
-  const d: ConvectionDetail = {
-    h: DETAIL.h,
-    natural: DETAIL.natural,
-    ra: DETAIL.ra,
-    hNatural: DETAIL.hNatural,
-    pr: DETAIL.pr,
+export function convectionDetail(
+  shape: OuterShape,
+  TsC: number,
+  amb: Ambient,
+  ws: Workspace = createWorkspace(),
+): ConvectionDetail {
+  const all: ConvectionDetail = {
+    h: 0,
+    natural: 'horizontal-cylinder-churchill-chu',
+    ra: 0,
+    hNatural: 0,
+    pr: 0,
   };
-  if (DETAIL.forced) {
-    d.forced = DETAIL.forced;
-    d.re = DETAIL.re;
-    d.hForced = DETAIL.hForced;
+  convection(shape, TsC, amb, ws, all);
+  const d: ConvectionDetail = {
+    h: all.h,
+    natural: all.natural,
+    ra: all.ra,
+    hNatural: all.hNatural,
+    pr: all.pr,
+  };
+  if (all.forced) {
+    d.forced = all.forced;
+    d.re = all.re;
+    d.hForced = all.hForced;
   }
   return d;
 }
 
-/** Hot-path form of `convectionDetail`: the coefficient only, with no allocation. */
-export function convectiveCoefficient(shape: OuterShape, TsC: number, amb: Ambient): number {
-  return convection(shape, TsC, amb, null);
+/**
+ * Hot-path form of `convectionDetail`: the coefficient only, with no allocation when a workspace is
+ * given (which then also holds the flux slope, `ws.convectiveSlope`).
+ */
+export function convectiveCoefficient(
+  shape: OuterShape,
+  TsC: number,
+  amb: Ambient,
+  ws: Workspace = createWorkspace(),
+): number {
+  return convection(shape, TsC, amb, ws, null);
 }
 
-const DETAIL: ConvectionDetail = {
-  h: 0,
-  natural: 'horizontal-cylinder-churchill-chu',
-  ra: 0,
-  hNatural: 0,
-  pr: 0,
-};
-
 /**
- * The one implementation behind both forms: film properties from the tabulated formulas (`filmAt`),
- * the registry correlations through their Prandtl-factor forms. Fills `detail` when given.
+ * The one implementation behind both forms: film properties from the tabulated formulas (`filmAt`,
+ * into `ws.film`), the registry correlations through their Prandtl-factor forms. Fills `detail` when
+ * given, and always `ws.convectiveSlope`: d(h·ΔT)/dTs estimated at fixed air properties — a first
+ * derivative for the solver's Newton step, which then follows the secant.
  */
-function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: ConvectionDetail | null): number {
+function convection(
+  shape: OuterShape,
+  TsC: number,
+  amb: Ambient,
+  ws: Workspace,
+  detail: ConvectionDetail | null,
+): number {
   const dT = TsC - amb.airC;
   const plan = PLANS[shape.geometry];
   const hotter = dT > 0;
-  const air = film(0.5 * (TsC + amb.airC) + KELVIN);
+  const air = film(0.5 * (TsC + amb.airC) + KELVIN, ws.film);
   const L = plan.naturalLength(shape);
   const ra = (GRAVITY * air.beta * Math.abs(dT) * L * L * L * air.pr) / (air.nu * air.nu);
   let nuN = 0,
@@ -230,7 +251,7 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
     h = Math.cbrt(hF * hF * hF + hN3);
     dq = h + (hN3 / (h * h)) * m;
   }
-  CONVECTIVE_SLOPE.value = dq;
+  ws.convectiveSlope = dq;
   if (detail) {
     detail.h = h;
     detail.natural = hotter ? plan.whenHotter : plan.whenColder;
@@ -244,12 +265,6 @@ function convection(shape: OuterShape, TsC: number, amb: Ambient, detail: Convec
   return h;
 }
 
-/**
- * d(h·ΔT)/dTs estimated by the last convection evaluation (air properties held at their film
- * values) — a first derivative for the solver's Newton step, which then follows the secant.
- */
-export const CONVECTIVE_SLOPE = { value: 0 };
-
 /** Radiative flux εσ(Ts⁴ − Tsur⁴), W/m². */
 export function radiativeFlux(TsC: number, amb: Ambient): number {
   const ts = TsC + KELVIN,
@@ -259,10 +274,18 @@ export function radiativeFlux(TsC: number, amb: Ambient): number {
   return amb.emittance * STEFAN_BOLTZMANN * (ts2 * ts2 - tr2 * tr2);
 }
 
-/** Heat flux leaving the surface at Ts, W/m² (negative when the surface gains heat). */
-export function surfaceFlux(shape: OuterShape, TsC: number, amb: Ambient): number {
+/**
+ * Heat flux leaving the surface at Ts, W/m² (negative when the surface gains heat). The solver passes
+ * its workspace (no allocation; `ws.convectiveSlope` is then the slope of this evaluation).
+ */
+export function surfaceFlux(
+  shape: OuterShape,
+  TsC: number,
+  amb: Ambient,
+  ws: Workspace = createWorkspace(),
+): number {
   if (amb.fixedCoefficientWPerM2K !== undefined) return amb.fixedCoefficientWPerM2K * (TsC - amb.airC);
-  return convectiveCoefficient(shape, TsC, amb) * (TsC - amb.airC) + radiativeFlux(TsC, amb);
+  return convection(shape, TsC, amb, ws, null) * (TsC - amb.airC) + radiativeFlux(TsC, amb);
 }
 
 /** Warnings for correlations used outside their stated range at the solved surface state. */

@@ -121,8 +121,8 @@ describe('recommendLine on the demo project', () => {
       .update(JSON.stringify(canonical(recs)))
       .digest('hex');
     expect({ version: CALCULATION_VERSION, digest }).toEqual({
-      version: '2026.12-4',
-      digest: '2ce753297240e4e88200ed6e4a5eba817e0eff99144c1ec4e7f8deb0bc2bc8d9',
+      version: '2026.12-5',
+      digest: '7e6efb0de31cf54dbf655bbf3b2dcc2a0ddf60e61980af1522aa70992dc9bccd',
     });
   });
 });

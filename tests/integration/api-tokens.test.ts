@@ -462,6 +462,40 @@ describe('the API with Authorization: Bearer', () => {
     );
     expect(bad.status).toBe(400);
     expect((await bad.json()).error.message).toBe('thicknessMm: thicknessMm must be a number.');
+    // Per part is for vessels; one thickness or parts, not both.
+    const both = await designPost(
+      req(`/api/v1/projects/${projectA}/lines/${lineId}/design`, {
+        token: t.token,
+        body: {
+          thicknessMm: 50,
+          parts: { shell: { thicknessMm: 50 }, top: { thicknessMm: 50 }, bottom: { thicknessMm: 50 } },
+          expectedVersion: 0,
+        },
+      }),
+      at({ projectId: projectA, lineId }),
+    );
+    expect(both.status).toBe(400);
+    expect((await both.json()).error.message).toBe(
+      'send either thicknessMm or, for a vessel, parts { shell, top, bottom } (one of them).',
+    );
+    const partsOnPipe = await designPost(
+      req(`/api/v1/projects/${projectA}/lines/${lineId}/design`, {
+        token: t.token,
+        body: {
+          parts: {
+            shell: { thicknessMm: 50 },
+            top: { thicknessMm: 50, guarded: true },
+            bottom: { thicknessMm: 50 },
+          },
+          expectedVersion: 0,
+        },
+      }),
+      at({ projectId: projectA, lineId }),
+    );
+    expect(partsOnPipe.status).toBe(400);
+    expect((await partsOnPipe.json()).error.message).toBe(
+      'Only a vessel has a shell and heads to choose apart.',
+    );
     const notJson = await designPost(
       req(`/api/v1/projects/${projectA}/lines/${lineId}/design`, {
         token: t.token,

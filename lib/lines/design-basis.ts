@@ -134,6 +134,8 @@ export const systemBandSchema = z.object({
   jacketId,
 });
 
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+
 /** Heat-tracing settings of a new project (and of bases saved before tracing existed): nothing traced unless marked. */
 export const DEFAULT_HEAT_TRACING = {
   traceFreezeProtection: false,
@@ -256,16 +258,9 @@ export const designBasisObject = z.object({
       traceFreezeProtection: z.coerce.boolean().default(false),
       traceProcessControl: z.coerce.boolean().default(false),
       maintainTempC: num('Maintain temperature').min(0).max(200).default(5),
-      minAmbientC: num('Minimum design ambient')
-        .min(-60)
-        .max(40)
-        .optional()
-        .or(z.literal('').transform(() => undefined)),
-      windMs: num('Design wind for tracing')
-        .min(0)
-        .max(40)
-        .optional()
-        .or(z.literal('').transform(() => undefined)),
+      // A blank field is "not set" (the freeze condition set), not 0.
+      minAmbientC: z.preprocess(blankToUndefined, num('Minimum design ambient').min(-60).max(40).optional()),
+      windMs: z.preprocess(blankToUndefined, num('Design wind for tracing').min(0).max(40).optional()),
       safetyFactor: num('Tracing safety factor')
         .min(1, { error: 'Tracing safety factor must be 1 or more' })
         .max(3, { error: 'Tracing safety factor: at most 3' })

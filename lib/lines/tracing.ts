@@ -13,14 +13,7 @@ import { criteriaFor, lineCaseFor } from './solve-line';
 import type { StoredTracing } from './stored-result';
 import type { LineInput } from './validate';
 
-/** The standard the duty follows, as a page or sheet names it. */
-export const TRACING_STANDARD = 'IEEE 515 / IEC/IEEE 60079-30-2 sizing basis';
-
-export const TRACING_REASON_LABEL: Record<StoredTracing['reason'], string> = {
-  'line-list': 'marked traced in the line list',
-  'freeze-protection': 'freeze protection (design basis)',
-  'process-control': 'process temperature maintenance (design basis)',
-};
+export { TRACING_REASON_LABEL, TRACING_STANDARD } from './tracing-labels';
 
 type TracedLine = Pick<LineInput, 'geometry' | 'purposes' | 'normalTempC' | 'outdoor'> & {
   heatTraced?: boolean;

@@ -65,7 +65,7 @@ export function addTracingSheet(wb: ExcelJS.Workbook, rows: TracingRow[], o: { u
       perLen(t.requiredWPerM),
       len(t.runM),
       len(t.tracerM),
-      r(t.requiredW / 1000),
+      r(t.requiredW / 1000, 4),
     ]);
   ws.autoFilter = { from: { row: 1, column: 1 }, to: { row: 1, column: headers.length } };
   headers.forEach((h, i) => {
@@ -86,7 +86,7 @@ export function addTracingSheet(wb: ExcelJS.Workbook, rows: TracingRow[], o: { u
     null,
     r(len(rows.reduce((s, t) => s + t.runM, 0))),
     r(len(rows.reduce((s, t) => s + t.tracerM, 0))),
-    r(rows.reduce((s, t) => s + t.requiredW, 0) / 1000),
+    r(rows.reduce((s, t) => s + t.requiredW, 0) / 1000, 4),
   ]).font = { bold: true };
   ws.addRow([]);
   ws.addRow([

@@ -53,7 +53,7 @@ export async function tracingSchedule({
       requiredWPerM: r(t.requiredWPerM),
       runM: t.lengthM,
       tracerM: r(t.tracerM),
-      requiredW: r(t.requiredW, 1),
+      requiredW: r(t.requiredW),
     });
   }
   return out.sort((a, b) => compareTags(a.tag, b.tag));

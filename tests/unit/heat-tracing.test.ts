@@ -1,10 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  DEFAULT_TRACER_ALLOWANCES,
-  heatTracingDuty,
-  tracerLengthM,
-  tracingDuty,
-} from '@/lib/thermal';
+import { DEFAULT_TRACER_ALLOWANCES, heatTracingDuty, tracerLengthM, tracingDuty } from '@/lib/thermal';
 import { DEFAULT_DESIGN_BASIS, designBasisSchema, type DesignBasis } from '@/lib/lines/design-basis';
 import { lineTracing, tracingConditions, tracingOfSolved } from '@/lib/lines/tracing';
 import { solveLine } from '@/lib/lines/solve-line';
@@ -59,7 +54,9 @@ describe('heat-tracing duty (IEEE 515 / IEC/IEEE 60079-30-2 sizing basis) [X han
       heatTracingDuty({ heatLossWPerM: 12, safetyFactor: 1.2, fittingsExtraM: 8, lengthM: 80 }).requiredWPerM,
     ).toBeCloseTo(d.requiredWPerM, 9);
     // A pipe that gains heat needs no tracer.
-    expect(tracingDuty({ heatLossWPerM: -3, fittingsW: 0, lengthM: 10, safetyFactor: 1.2 }).requiredW).toBe(0);
+    expect(tracingDuty({ heatLossWPerM: -3, fittingsW: 0, lengthM: 10, safetyFactor: 1.2 }).requiredW).toBe(
+      0,
+    );
   });
 
   it('tracer length = run + allowance per fitting and support (common practice allowances)', () => {
@@ -102,7 +99,10 @@ describe('which lines are traced, and under which conditions', () => {
     expect(out.maintainC).toBe(5);
     expect(out.airC).toBe(b.conditions.freeze.airC);
     expect(out.windMs).toBe(b.conditions.freeze.windMs);
-    const own = tracingConditions(basisWith({ traceFreezeProtection: true, minAmbientC: -25, windMs: 12 }), pipe())!;
+    const own = tracingConditions(
+      basisWith({ traceFreezeProtection: true, minAmbientC: -25, windMs: 12 }),
+      pipe(),
+    )!;
     expect([own.airC, own.windMs]).toEqual([-25, 12]);
     const indoor = tracingConditions(b, pipe({ outdoor: false }))!;
     expect([indoor.airC, indoor.windMs]).toEqual([Math.max(b.conditions.freeze.airC, 5), 0]);

@@ -76,6 +76,12 @@ export default async function LinePage({
   const cat = catalogueOf(basis);
   const ev = result ? economicsView(basis, line as unknown as LineInput, design?.thicknessMm ?? null) : null;
   const u = formatterFor(basis);
+  // A decision taken before the energy code applied (or changed) that the current result says is too thin.
+  const codeOutcome = !stale ? result?.outcomes.find((o) => o.id === 'energyCode') : undefined;
+  const codeFail =
+    design && codeOutcome && (codeOutcome.requiredMm === null || design.thicknessMm < codeOutcome.requiredMm)
+      ? codeOutcome
+      : null;
   // Heat tracing at the line's thickness: the chosen one, else the recommendation.
   const tracing = result
     ? lineTracing(basis, line, result.tracing, design?.thicknessMm ?? result.recommendedMm)
@@ -269,6 +275,14 @@ export default async function LinePage({
               {design.reason ? <p>Reason: {design.reason}</p> : null}
               {design.belowCriterion ? (
                 <p className="text-alarm-700">Below {design.belowCriterion} — flagged for review.</p>
+              ) : null}
+              {codeFail ? (
+                <p className="text-alarm-700" data-testid="energy-code-fail">
+                  Fails the energy code: {localizeMessage(codeFail.message, u)} The chosen{' '}
+                  {u.thickness(design.thicknessMm)} is below the{' '}
+                  {codeFail.requiredMm === null ? 'code minimum' : u.thickness(codeFail.requiredMm)} it asks;
+                  choose the thickness again.
+                </p>
               ) : null}
               {design.needsRedecision ? (
                 <p className="text-ochre-700">Needs re-decision: {design.redecisionReason}</p>

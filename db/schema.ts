@@ -19,7 +19,7 @@ import type { CandidateRow } from '@/lib/lines/candidate-row';
 import type { LineListDiff } from '@/lib/lines/diff';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { ParsedFile } from '@/lib/lines/parse';
-import type { StoredDesign, StoredLayer, StoredOutcome } from '@/lib/lines/stored-result';
+import type { StoredDesign, StoredLayer, StoredOutcome, StoredTracing } from '@/lib/lines/stored-result';
 import type { DesignParts } from '@/lib/lines/vessel-parts';
 import type { Flag } from '@/lib/review/flags';
 import type { ReviewSnapshot } from '@/lib/review/snapshot';
@@ -240,6 +240,8 @@ export const lines = pgTable(
     accessible: boolean('accessible').notNull().default(true),
     accessHeightM: doublePrecision('access_height_m'),
     jacketId: text('jacket_id'),
+    /** Marked heat-traced in the line list (lib/lines/tracing.ts decides which lines are traced). */
+    heatTraced: boolean('heat_traced').notNull().default(false),
     notes: text('notes').notNull().default(''),
     /** Bumped when a thermal input changes. */
     inputVersion: integer('input_version').notNull().default(1),
@@ -291,6 +293,8 @@ export const lineResults = pgTable(
     annualCost: doublePrecision('annual_cost'),
     co2Tonnes: doublePrecision('co2_tonnes'),
     condensateKgPerH: doublePrecision('condensate_kg_per_h'),
+    /** Heat tracing (lib/lines/tracing.ts): the conditions and the heat loss per metre at each candidate; null when not traced. */
+    tracing: jsonb('tracing').$type<StoredTracing>(),
     solvedAt: timestamp('solved_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('line_results_project_idx').on(t.projectId)],

@@ -139,6 +139,8 @@ export function demoLineRows(count = 220, seed = 4471): Row[] {
       access,
       null,
       r() < 0.1 ? 'Tie-in at rack crossing' : null,
+      // The stagnant fire-water ring is electrically traced (no draw on the generator: the rows stay as they were).
+      s.code === 'FW' ? 'yes' : null,
     ]);
   }
   // The 14 vessels and flat surfaces of the demo plant: the downloadable template's example rows.

@@ -4,6 +4,7 @@ import {
   VESSEL_PART_LABEL,
   type VesselPartId,
 } from '@/lib/lines/vessel-parts';
+import type { TracingRow } from './tracing-sheet';
 import { compareTags } from '@/lib/lines/natural-sort';
 
 /**
@@ -189,6 +190,8 @@ export interface BillQuantities {
   covers?: CoverRow[];
   accessories?: AccessoryRow[];
   schedule: ScheduleRow[];
+  /** Traced lines among those counted (lib/boq/tracing.ts); absent when none or before tracing existed. */
+  tracing?: TracingRow[];
   counted: number;
   pending: number;
   factors: BoqFactors;

@@ -20,6 +20,7 @@ import { catalogueOf } from '@/lib/lines/catalogue';
 import { isIncompleteLine } from '@/lib/lines/fields';
 import type { DesignBasis } from '@/lib/lines/design-basis';
 import { billWorkbook } from './workbook';
+import { tracingSchedule } from './tracing';
 import { getDocument, putDocument, safeFileName } from '@/lib/storage/documents';
 import { randomUUID } from 'node:crypto';
 import {
@@ -144,8 +145,13 @@ export async function billFactors({ projectId }: { projectId: string }): Promise
   };
 }
 
-export async function previewBill({ projectId }: { projectId: string }) {
-  return computeQuantities(await collectBillLines({ projectId }), await billFactors({ projectId }));
+export async function previewBill({ projectId }: { projectId: string }): Promise<BillQuantities> {
+  const lines = await collectBillLines({ projectId });
+  const q = computeQuantities(lines, await billFactors({ projectId }));
+  const { basis } = await getDesignBasis({ projectId });
+  const countedTags = lines.filter((l) => l.status.counted).map((l) => l.tag);
+  const tracing = await tracingSchedule({ projectId, basis, countedTags });
+  return tracing.length ? { ...q, tracing } : q;
 }
 
 /** The last issue when the bill now would be identical to it (the page warns before issuing it again). */

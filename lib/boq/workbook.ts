@@ -1,6 +1,7 @@
 import ExcelJS from 'exceljs';
 import type { BillQuantities, QuantityDelta } from './quantities';
 import { convert } from '@/lib/format';
+import { addTracingSheet } from './tracing-sheet';
 
 /**
  * Text that a spreadsheet could read as a formula (= + - @, and tab/CR that some programs strip)
@@ -214,6 +215,7 @@ export async function billWorkbook(
     ]),
     [20, 20, 14, 11, 11, 48, ...tw(18), 22, 40, 22],
   );
+  if (q.tracing?.length) addTracingSheet(wb, q.tracing, { us });
   sheet(
     wb,
     'Change from previous',

@@ -9,6 +9,7 @@ import { decodeCandidate } from '@/lib/lines/candidate-row';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
 import { getDesignBasis } from '@/lib/lines/basis-store';
 import { isIncompleteLine } from '@/lib/lines/fields';
+import { lineTracing } from '@/lib/lines/tracing';
 
 export const budgetSchema = z
   .object({
@@ -134,6 +135,8 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     fittingsKW: number;
     thicknessMm: number | null;
   }[] = [];
+  // Heat tracing (IEEE 515 / IEC/IEEE 60079-30-2 sizing basis): electrical kW per area, cold lines included.
+  const tracingByArea = new Map<string, { kW: number; lines: number; tracerM: number }>();
   let coldGainKW = 0,
     incompleteCount = 0,
     fittingsKW = 0,
@@ -166,6 +169,14 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
       policy === 'chosen' && geometry === 'vessel' && row.chosenParts
         ? vesselPartsHeatW(cands, row.chosenParts, row.surfaceAreaM2 ?? 1, row.heightM ?? 1)
         : null;
+    const tr = lineTracing(basis, counts, result.tracing, c.mm);
+    if (tr) {
+      const t = tracingByArea.get(area) ?? { kW: 0, lines: 0, tracerM: 0 };
+      t.kW += tr.requiredW / 1000;
+      t.lines++;
+      t.tracerM += tr.tracerM ?? 0;
+      tracingByArea.set(area, t);
+    }
     const designedW = (partsW ?? c.heatFlow * extent) + fitW,
       bareW = result.bareHeatW + bareFitW;
     if (bareW < 0) {
@@ -218,6 +229,9 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     warnings.push(
       `Annual loss ${designed.mwhPerYear.toFixed(0)} MWh/yr is over the ${budget.totalMWhPerYear} MWh/yr budget.`,
     );
+  const tracingAreas = [...tracingByArea.entries()]
+    .sort((x, y) => x[0].localeCompare(y[0]))
+    .map(([area, v]) => ({ area, ...v }));
   return {
     policy,
     price,
@@ -230,6 +244,13 @@ export async function dashboard({ projectId, whatIf = {} }: { projectId: string;
     straightKW: designedKW - fittingsKW,
     fittingsKW,
     bareFittingsKW,
+    /** Heat-tracing duty per area and in total (electrical kW at the tracing conditions, safety factor included). */
+    tracing: {
+      areas: tracingAreas,
+      kW: tracingAreas.reduce((sum, a) => sum + a.kW, 0),
+      lines: tracingAreas.reduce((sum, a) => sum + a.lines, 0),
+      tracerM: tracingAreas.reduce((sum, a) => sum + a.tracerM, 0),
+    },
     areas,
     top: perLine.sort((a, b) => b.designedKW - a.designedKW).slice(0, 20),
     budget,

@@ -20,7 +20,8 @@ const MPH_MS = 0.44704; // 1 mi/h = 0.44704 m/s exactly (NIST SP 811 B.9)
 /** The kind of a form field by its name ("conditions.heatLoss.outdoor.airC" → temp). */
 export function fieldKind(name: string): FieldKind {
   if (/\.windMs$/.test(name)) return 'wind';
-  if (/(^|\.)(touchLimit\w*C|airC|initialWaterTempC|fromC|toC)$/.test(name)) return 'temp';
+  if (/(^|\.)(touchLimit\w*C|airC|initialWaterTempC|fromC|toC|maintainTempC|minAmbientC)$/.test(name))
+    return 'temp';
   if (/(dewPointMarginK|maxProcessDropK)$/.test(name)) return 'tempDelta';
   if (/heatLossLimitWPerM$/.test(name)) return 'linearLoss';
   if (/(labourPerMPerLayer|accessoriesPerM|perMPerLayer)$/.test(name)) return 'moneyPerM';

@@ -248,6 +248,10 @@ export interface Formatter {
   linearLossValue: (wPerM: number | null | undefined) => string;
   arealLossValue: (wPerM2: number | null | undefined) => string;
   power: (w: number | null | undefined) => string;
+  /** Electrical power (heat tracing): kW in both unit systems, as tracer circuits are rated. */
+  electricPower: (w: number | null | undefined) => string;
+  /** A tracer's output per length: W/m, or W/ft in US customary (as tracers are rated). */
+  tracerRating: (wPerM: number | null | undefined) => string;
   energy: (mwh: number | null | undefined) => string;
   conductivity: (wPerMK: number | null | undefined) => string;
   htc: (wPerM2K: number | null | undefined) => string;
@@ -313,6 +317,9 @@ export function formatter(o: FormatOptions): Formatter {
         : us
           ? withUnit(sig(convert.wToBtuPerH(w), 3), 'Btu/h')
           : withUnit(sig(w / 1000, 3), 'kW'),
+    electricPower: (w) => (missing(w) ? DASH : withUnit(sig(w / 1000, 3), 'kW')),
+    tracerRating: (w) =>
+      missing(w) ? DASH : us ? withUnit(sig(w * 0.3048, 3), 'W/ft') : withUnit(sig(w, 3), 'W/m'),
     energy: (mwh) => (missing(mwh) ? DASH : withUnit(sig(us ? convert.mwhToMMBtu(mwh) : mwh, 3), u.energy)),
     conductivity: (k) =>
       missing(k) ? DASH : withUnit(sig(us ? convert.wPerMKToBtuInPerHFt2F(k) : k, 3), u.conductivity),

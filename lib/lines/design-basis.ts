@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DEFAULT_COOLING, DEFAULT_ECONOMICS, DEFAULT_PRICES } from '@/lib/thermal/economics';
-import { DEFAULT_EQUIVALENT_LENGTHS } from '@/lib/thermal/fittings';
+import { DEFAULT_EQUIVALENT_LENGTHS, DEFAULT_TRACING_SAFETY_FACTOR } from '@/lib/thermal/fittings';
+import { DEFAULT_TRACER_ALLOWANCES } from '@/lib/thermal/tracing';
 import { DEFAULT_CRITERIA } from '@/lib/thermal/defaults';
 import { JACKETS, MATERIALS } from '@/lib/thermal/materials';
 import { isCurrencyCode } from '@/lib/format';
@@ -133,6 +134,19 @@ export const systemBandSchema = z.object({
   jacketId,
 });
 
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+
+/** Heat-tracing settings of a new project (and of bases saved before tracing existed): nothing traced unless marked. */
+export const DEFAULT_HEAT_TRACING = {
+  traceFreezeProtection: false,
+  traceProcessControl: false,
+  maintainTempC: 5,
+  minAmbientC: undefined as number | undefined,
+  windMs: undefined as number | undefined,
+  safetyFactor: DEFAULT_TRACING_SAFETY_FACTOR,
+  ...DEFAULT_TRACER_ALLOWANCES,
+};
+
 export const designBasisObject = z.object({
   unitSystem: z.enum(['SI', 'US']),
   /** Nominal thicknesses offered: the millimetre series or the inch series of each product. */
@@ -233,6 +247,34 @@ export const designBasisObject = z.object({
       valvesBare: z.coerce.boolean().default(false),
     })
     .default({ ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false }),
+  /**
+   * Heat tracing (IEEE 515 / IEC/IEEE 60079-30-2 sizing basis, lib/lines/tracing.ts): which lines are
+   * traced besides those the line list marks, the maintain temperature of freeze protection, the
+   * minimum design ambient and wind (blank: the freeze condition set, the project's coldest), the
+   * safety factor and the tracer allowance per fitting.
+   */
+  heatTracing: z
+    .object({
+      traceFreezeProtection: z.coerce.boolean().default(false),
+      traceProcessControl: z.coerce.boolean().default(false),
+      maintainTempC: num('Maintain temperature').min(0).max(200).default(5),
+      // A blank field is "not set" (the freeze condition set), not 0.
+      minAmbientC: z.preprocess(blankToUndefined, num('Minimum design ambient').min(-60).max(40).optional()),
+      windMs: z.preprocess(blankToUndefined, num('Design wind for tracing').min(0).max(40).optional()),
+      safetyFactor: num('Tracing safety factor')
+        .min(1, { error: 'Tracing safety factor must be 1 or more' })
+        .max(3, { error: 'Tracing safety factor: at most 3' })
+        .default(DEFAULT_TRACING_SAFETY_FACTOR),
+      elbowM: num('Tracer per elbow').min(0).max(20).default(DEFAULT_TRACER_ALLOWANCES.elbowM),
+      teeM: num('Tracer per tee').min(0).max(20).default(DEFAULT_TRACER_ALLOWANCES.teeM),
+      valveM: num('Tracer per valve').min(0).max(20).default(DEFAULT_TRACER_ALLOWANCES.valveM),
+      flangePairM: num('Tracer per flange pair')
+        .min(0)
+        .max(20)
+        .default(DEFAULT_TRACER_ALLOWANCES.flangePairM),
+      supportM: num('Tracer per support').min(0).max(20).default(DEFAULT_TRACER_ALLOWANCES.supportM),
+    })
+    .default(DEFAULT_HEAT_TRACING),
   economics: z.object({
     energyPricePerKWh: num('Energy price').min(0).max(10),
     efficiency: num('Heat-generation efficiency').gt(0).max(10),
@@ -430,6 +472,7 @@ export const DEFAULT_DESIGN_BASIS: DesignBasis = {
   },
   energyCode: 'none',
   fittings: { ...DEFAULT_EQUIVALENT_LENGTHS, supportsPerM: 0.33, valvesBare: false },
+  heatTracing: { ...DEFAULT_HEAT_TRACING },
   economics: {
     ...DEFAULT_ECONOMICS,
     heatSource: 'natural-gas',
@@ -465,6 +508,12 @@ export const DEFAULT_BASIS_NOTES: Record<string, string> = {
     'Stagnant water by the ISO 12241 method: cooling to 0 °C, then freezing the allowed fraction of the water (latent heat 334 kJ/kg). 25 % ice by the required time is common practice for water lines; set 0 to require the water stay above 0 °C.',
   fittings:
     "Each fitting adds the heat loss of so many metres of the same pipe (the simplified thermal-bridge approach of ISO 12241; VDI 2055 Part 1 and ASTM C1129 give values of this kind). The defaults are common-practice estimates recalled from design guides, not read from those standards: put the project specification's own. Supports: one every 3 m by default (common practice).",
+  heatTracing:
+    'Heat-tracing duty on the sizing basis of IEEE 515 and IEC/IEEE 60079-30-2: the heat loss of the insulated pipe at the maintain temperature in the minimum design ambient and wind, at the chosen thickness, times the safety factor, with the fittings (equivalent lengths above) spread over the run. Lines marked traced in the line list are traced; freeze-protected and process-control lines too when ticked here. Freeze-protected lines hold the maintain temperature (5 °C: common practice, a margin above 0 °C); process-control lines hold their normal temperature. Minimum ambient and wind left blank take the freeze condition set (the coldest of the project); indoor lines see at least 5 °C and still air, as for freezing.',
+  tracingSafetyFactor:
+    'Common practice [recalled]: IEEE 515 and IEC/IEEE 60079-30-2 ask for a margin on the calculated heat loss (insulation ageing and damage, supply voltage) and leave its size to the designer; 10–25 % is usual, 1.2 is the default.',
+  tracerAllowances:
+    "Extra tracer per fitting, looped on it: common practice [recalled] — about 1 m on a small-bore valve, 0.3 m on a flange pair, support, elbow or tee. Use the tracer manufacturer's allowances for the sizes installed. The duty and lengths are for budgeting: tracer selection, circuit lengths, sheath temperature and hazardous-area limits follow the manufacturer and the local electrical code.",
   energyCode:
     "ASHRAE 90.1 Table 6.8.3-1 minimum pipe insulation (2016 and later editions; the IECC carries the same table), corrected for the insulation's conductivity by the table's footnote; a hard criterion for every heating and cooling pipe when chosen.",
   cooling:

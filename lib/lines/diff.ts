@@ -35,6 +35,7 @@ export const COMPARED_FIELDS: (keyof LineInput)[] = [
   'accessible',
   'accessHeightM',
   'jacketId',
+  'heatTraced',
   'notes',
 ];
 
@@ -54,6 +55,7 @@ export const THERMAL_FIELDS: (keyof LineInput)[] = [
   'accessible',
   'jacketId',
   'surfaceAreaM2',
+  'heatTraced',
 ];
 
 function same(a: unknown, b: unknown): boolean {

@@ -11,6 +11,7 @@ export type FieldKind =
   | 'purposes'
   | 'location'
   | 'accessible'
+  | 'traced'
   | 'head';
 export type UnitKind =
   | 'temperature'
@@ -58,6 +59,7 @@ export type LineFieldKey =
   | 'location'
   | 'accessible'
   | 'jacket'
+  | 'heatTraced'
   | 'notes';
 
 export const FIELDS: FieldDef[] = [
@@ -537,6 +539,40 @@ export const FIELDS: FieldDef[] = [
     ],
   },
   {
+    key: 'heatTraced',
+    label: 'Heat traced',
+    kind: 'traced',
+    unit: 'none',
+    synonyms: [
+      'heat tracing',
+      'heat traced',
+      'tracing',
+      'traced',
+      'trace heating',
+      'trace heated',
+      'electric tracing',
+      'electrical tracing',
+      'electric heat tracing',
+      'ht',
+      'et',
+      'eht',
+      'begleitheizung',
+      'rohrbegleitheizung',
+      'elektrische begleitheizung',
+      'beheizt',
+      'begleitbeheizt',
+      'tracage',
+      'tracage electrique',
+      'rechauffage',
+      'traceado',
+      'traceado electrico',
+      'calefaccion electrica',
+      'tracing elektrisch',
+      'elektrische tracing',
+      'heat tracing ja nee',
+    ],
+  },
+  {
     key: 'notes',
     label: 'Notes',
     kind: 'text',
@@ -620,8 +656,15 @@ export const isIncompleteLine = (l: { geometry: string; lengthM: number | null }
  * location "Pipe rack", a purpose "ET") is asked once in the mapping step and remembered with the
  * column mapping; the answers are keyed by the cell text in lower case, trimmed.
  */
-export type ValueField = 'location' | 'purposes' | 'geometry' | 'accessible' | 'headType';
-export const VALUE_FIELDS: ValueField[] = ['geometry', 'headType', 'purposes', 'location', 'accessible'];
+export type ValueField = 'location' | 'purposes' | 'geometry' | 'accessible' | 'headType' | 'heatTraced';
+export const VALUE_FIELDS: ValueField[] = [
+  'geometry',
+  'headType',
+  'purposes',
+  'location',
+  'accessible',
+  'heatTraced',
+];
 export const VALUE_CHOICES: Record<ValueField, { value: string; label: string }[]> = {
   location: [
     { value: 'outdoor', label: 'Outdoor' },
@@ -630,6 +673,10 @@ export const VALUE_CHOICES: Record<ValueField, { value: string; label: string }[
   accessible: [
     { value: 'yes', label: 'Accessible to people' },
     { value: 'no', label: 'Out of reach' },
+  ],
+  heatTraced: [
+    { value: 'yes', label: 'Heat traced' },
+    { value: 'no', label: 'Not traced' },
   ],
   geometry: [
     { value: 'horizontal-pipe', label: 'Horizontal pipe' },

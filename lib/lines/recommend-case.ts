@@ -551,7 +551,7 @@ function defaultTotals(
 }
 
 /** Surface temperature and heat flow of a given build under one condition set (vessels: the worst part, mean flux). */
-function solveAt(
+export function solveAt(
   line: LineCase,
   system: MaterialSystem,
   layers: { materialId: string; thicknessMm: number }[],

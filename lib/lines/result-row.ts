@@ -7,6 +7,7 @@ import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
 import { encodeCandidate } from './candidate-row';
 import type { DesignBasis } from './design-basis';
 import { inputHash, solveLine } from './solve-line';
+import { tracingOfSolved } from './tracing';
 import type { LineInput } from './validate';
 
 export function inputOf(l: Line): LineInput {
@@ -34,6 +35,7 @@ export function inputOf(l: Line): LineInput {
     accessible: l.accessible,
     accessHeightM: l.accessHeightM,
     jacketId: l.jacketId,
+    heatTraced: l.heatTraced,
     notes: l.notes,
   };
 }
@@ -98,6 +100,7 @@ export function resultRow(ctx: ResultContext, line: Line) {
     annualCost: r.annual?.cost ?? null,
     co2Tonnes: r.annual?.co2Tonnes ?? null,
     condensateKgPerH: r.condensateKgPerHour ?? null,
+    tracing: tracingOfSolved(ctx.basis, input, s.system, r.candidates),
     solvedAt: new Date(),
   };
 }

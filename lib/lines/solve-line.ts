@@ -130,6 +130,8 @@ export function inputHash(basis: DesignBasis | string, l: LineInput): string {
     l.outdoor,
     l.accessible,
     l.jacketId,
+    // Only when marked, so hashes of lines stored before the flag existed stay as they were.
+    ...(l.heatTraced ? ['heat-traced'] : []),
   ];
   return createHash('sha1')
     .update(typeof basis === 'string' ? basis : JSON.stringify(basis))

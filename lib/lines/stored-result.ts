@@ -19,3 +19,17 @@ export interface StoredDesign {
 }
 
 export type StoredOutcome = CriterionOutcome;
+
+/**
+ * A traced line's tracing conditions and, per candidate thickness, the heat loss per metre at the
+ * maintain temperature (lib/lines/tracing.ts); solved with the result, so pages only read it.
+ */
+export interface StoredTracing {
+  /** Why the line is traced: marked in the line list, or by the project's freeze / process rule. */
+  reason: 'line-list' | 'freeze-protection' | 'process-control';
+  maintainC: number;
+  airC: number;
+  windMs: number;
+  /** [thickness mm, heat loss W/m at the maintain temperature] per candidate, bare (0 mm) first. */
+  lossByMm: [number, number][];
+}

@@ -28,6 +28,7 @@ export const TEMPLATE_HEADERS = [
   'Accessible',
   'Jacket',
   'Notes',
+  'Heat tracing',
 ];
 
 type Row = (string | number | null)[];
@@ -413,6 +414,9 @@ export async function lineListWorkbook(rows: Row[], o: { withInstructions?: bool
       ],
       [
         "Jacket: leave empty for the design-basis jacket, or name one from the library or the project's own jackets (e.g. Stainless steel, PVC sheet).",
+      ],
+      [
+        'Heat tracing: yes for a pipe with electric tracing (its duty is sized on the design basis), no or empty otherwise.',
       ],
     ].forEach((r) => {
       help.addRow(r);

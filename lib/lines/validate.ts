@@ -38,6 +38,8 @@ export interface LineInput {
   accessible: boolean;
   accessHeightM: number | null;
   jacketId: string | null;
+  /** Marked heat-traced in the line list (absent: not marked). */
+  heatTraced?: boolean;
   notes: string;
 }
 
@@ -243,7 +245,31 @@ export function parseYesNo(v: CellValue): boolean | null {
   return null;
 }
 
+/**
+ * A heat-tracing cell: yes/no words in the languages the import reads, or a word naming tracing
+ * ("ET", "electric", "traced", "beheizt", "tracé") or its absence ("none", "untraced", "ohne").
+ */
+export function parseTraced(v: CellValue): boolean | null {
+  const yn = parseYesNo(v);
+  if (yn !== null) return yn;
+  const s = foldWord(String(v));
+  if (
+    /^(traced|heat traced|tracing|trace|ht|et|eht|electric|electrical|electric tracing|elektrisch|beheizt|begleitbeheizt|trace electrique|traceado|traza|calefaccion|verwarmd|getraced)$/.test(
+      s,
+    )
+  )
+    return true;
+  if (
+    /^(none|not traced|untraced|no tracing|without|ohne|nicht beheizt|sans|non trace|sin|ninguno|geen|onverwarmd)$/.test(
+      s,
+    )
+  )
+    return false;
+  return null;
+}
+
 const VALUE_HINT: Record<ValueField, string> = {
+  heatTraced: 'yes or no (traced or not)',
   location: 'indoor or outdoor',
   accessible: 'yes, no or a height',
   geometry: 'horizontal pipe, vertical pipe, vessel or flat',
@@ -625,6 +651,17 @@ export function validateSheet(
       }
     }
 
+    const tRaw = raw('heatTraced');
+    let heatTraced = false;
+    if (tRaw !== null && String(tRaw).trim() !== '') {
+      const a = answer('heatTraced', String(tRaw));
+      const t = a ? a === 'yes' : parseTraced(tRaw);
+      if (t === null) {
+        bad = true;
+        noteUnknown('heatTraced', String(tRaw).trim(), row);
+      } else heatTraced = t;
+    }
+
     const counts = (['elbows', 'tees', 'valves', 'flanges'] as const).map(
       (k) => num(k, { min: 0, max: 100000, integer: true }) ?? 0,
     );
@@ -681,6 +718,7 @@ export function validateSheet(
         accessible,
         accessHeightM,
         jacketId,
+        heatTraced,
         notes: text('notes'),
       });
     }

@@ -19,6 +19,7 @@ export * from './steam';
 export * from './surface';
 export * from './thickness';
 export * from './touch';
+export * from './tracing';
 export * from './units';
 export const CALCULATION_VERSION = '2026.12-5'; // 5: each candidate carries its vessel-part fluxes (picks and the bill per vessel part); 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review; 4: touch limit by contact time and surface (ISO 13732-1), bare candidates held to bare steel, design conductivity (EN ISO 23993), vessel parts, condition sets and emission scopes on the results
 export * from './defaults';

@@ -1,9 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import ExcelJS from 'exceljs';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { db, getPool } from '@/db/client';
-import { lineResults, projects } from '@/db/schema';
+import { lineResults, lines, projects } from '@/db/schema';
+import { getDesignBasis } from '@/lib/lines/basis-store';
+import { lineTracing } from '@/lib/lines/tracing';
 import * as auth from '@/lib/auth/service';
 import { acceptRecommendations } from '@/lib/lines/bulk-accept';
 import { commitDraft, createDraft } from '@/lib/lines/import-store';
@@ -77,7 +79,8 @@ beforeAll(async () => {
   projectId = p.id;
   await importRows([
     row('N-1'),
-    row('N-2', { Area: 'South', NPS: '2', 'Length (m)': 50 }),
+    // Marked traced in the line list (the template's "Heat tracing" column).
+    row('N-2', { Area: 'South', NPS: '2', 'Length (m)': 50, 'Heat tracing': 'yes' }),
     row('=CMD|calc', { Service: '@SUM(A1)', 'Length (m)': 20 }),
   ]);
 });
@@ -214,6 +217,72 @@ describe('heat-loss budget', () => {
     expect(d.areas.map((a) => a.area)).toEqual(['North', 'South']);
     expect(d.top[0].designedKW).toBeGreaterThanOrEqual(d.top[d.top.length - 1].designedKW);
   });
+  it("heat tracing: a traced line's required W/m is its stored loss × safety factor + fittings, and the totals are the sum of the lines [X hand calculation]", async () => {
+    const { basis } = await getDesignBasis({ projectId });
+    const rows = await db
+      .select({ line: lines, result: lineResults })
+      .from(lines)
+      .innerJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .where(eq(lines.projectId, projectId));
+    const n2 = rows.find((r) => r.line.tag === 'N-2')!;
+    expect(n2.line.heatTraced).toBe(true);
+    expect(rows.filter((r) => r.result.tracing !== null).map((r) => r.line.tag)).toEqual(['N-2']);
+    const t = n2.result.tracing!;
+    // An H line marked traced holds the project's maintain temperature (5 °C default) in the freeze conditions.
+    expect(t).toMatchObject({
+      reason: 'line-list',
+      maintainC: 5,
+      airC: basis.conditions.freeze.airC,
+      windMs: basis.conditions.freeze.windMs,
+    });
+    const mm = n2.result.recommendedMm!;
+    const q = t.lossByMm.find(([x]) => x === mm)![1];
+    expect(q).toBeGreaterThan(0);
+    // By hand: 2 elbows and 0.33 supports per metre over 50 m as equivalent lengths of insulated pipe
+    // (the project's fittings), × the safety factor (1.2 default, common practice).
+    const f = basis.fittings;
+    const eqM = 2 * f.elbowM + f.supportsPerM * 50 * f.supportM;
+    const requiredW = basis.heatTracing.safetyFactor * (q * 50 + eqM * q);
+    const duty = lineTracing(basis, n2.line, t, mm)!;
+    expect(duty.requiredWPerM).toBeCloseTo(requiredW / 50, 9);
+    expect(duty.requiredWPerM).toBeCloseTo(1.2 * q * (1 + eqM / 50), 9);
+    // Tracer: the run + 2 elbows × 0.3 m + 16.5 supports × 0.3 m (common-practice allowances).
+    expect(duty.tracerM).toBeCloseTo(50 + 2 * 0.3 + 0.33 * 50 * 0.3, 9);
+    const d = await budget.dashboard({ projectId, whatIf: { policy: 'recommended' } });
+    expect(d.tracing.lines).toBe(1);
+    expect(d.tracing.kW).toBeCloseTo(requiredW / 1000, 9);
+    expect(d.tracing.areas).toHaveLength(1);
+    expect(d.tracing.areas[0].area).toBe('South');
+    expect(d.tracing.areas[0].kW).toBeCloseTo(requiredW / 1000, 9);
+    expect(d.tracing.tracerM).toBeCloseTo(duty.tracerM!, 9);
+    // Tracing is electrical duty beside the heat-loss budget, not inside it.
+    const sumKW = rows.reduce((s, r) => s + (r.result.totalHeatW ?? 0), 0) / 1000;
+    expect(d.designed.kW).toBeCloseTo(sumKW + d.fittingsKW, 6);
+  });
+
+  it('the issued bill has the traced line on its own "Heat tracing" sheet', async () => {
+    const wb = await readBook(2);
+    const ws = wb.getWorksheet('Heat tracing')!;
+    expect(ws).toBeTruthy();
+    const head = ws.getRow(1).values as unknown[];
+    const col = (h: string) => head.indexOf(h);
+    const r2 = ws.getRow(2);
+    expect(r2.getCell(1).value).toBe('N-2');
+    expect(r2.getCell(col('Pipe run (m)')).value).toBe(50);
+    expect(r2.getCell(col('Tracer length (m)')).value).toBeCloseTo(50 + 0.6 + 4.95, 3);
+    const { basis } = await getDesignBasis({ projectId });
+    const [n2] = await db
+      .select({ line: lines, result: lineResults })
+      .from(lines)
+      .innerJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .where(and(eq(lines.projectId, projectId), eq(lines.tag, 'N-2')));
+    const duty = lineTracing(basis, n2.line, n2.result.tracing, n2.result.recommendedMm)!;
+    expect(r2.getCell(col('Required tracer output (W/m)')).value).toBeCloseTo(duty.requiredWPerM, 3);
+    // kW to 0.1 W (4 decimals) in the sheet.
+    const kW = r2.getCell(col('Duty (kW electrical)')).value as number;
+    expect(Math.abs(kW - duty.requiredW / 1000)).toBeLessThanOrEqual(0.000051);
+  });
+
   it('flags an area over its allocation, and the what-if policy changes the totals without saving', async () => {
     const base = await budget.dashboard({ projectId });
     const north = base.areas.find((a) => a.area === 'North')!;

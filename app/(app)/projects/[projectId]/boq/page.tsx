@@ -145,6 +145,15 @@ export default async function BoqPage({ params }: { params: Promise<{ projectId:
       {latest ? (
         <section aria-label="Latest issue summary">
           <h2 className="mb-2">Issue {latest.issue.number}: summary</h2>
+          {latest.quantities.tracing?.length ? (
+            <p className="mb-2 text-sm" data-testid="bill-tracing">
+              Heat tracing (sheet &ldquo;Heat tracing&rdquo; of the workbook):{' '}
+              {latest.quantities.tracing.length} traced line
+              {latest.quantities.tracing.length === 1 ? '' : 's'},{' '}
+              {u.length(latest.quantities.tracing.reduce((a, t) => a + t.tracerM, 0))} of tracer,{' '}
+              {u.electricPower(latest.quantities.tracing.reduce((a, t) => a + t.requiredW, 0))} electrical.
+            </p>
+          ) : null}
           <table className="table-dense panel mb-4" aria-label="Material summary">
             <thead>
               <tr>

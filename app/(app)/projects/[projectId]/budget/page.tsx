@@ -6,6 +6,7 @@ import { dashboard } from '@/lib/budget/store';
 import { getDesignBasis } from '@/lib/lines/basis-store';
 import { listAreas } from '@/lib/lines/results-store';
 import { formatterFor, localizeMessage } from '@/lib/format';
+import { TRACING_STANDARD } from '@/lib/lines/tracing';
 import { AreaChart, BudgetForm, TotalsTable, WhatIfPanel } from './client';
 
 export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
@@ -112,6 +113,51 @@ export default async function BudgetPage({ params }: { params: Promise<{ project
           </table>
         </section>
       </div>
+      <section className="panel mt-4 p-4" aria-labelledby="tracing-heading">
+        <h2 id="tracing-heading" className="mb-2">
+          Heat tracing
+        </h2>
+        {d.tracing.lines === 0 ? (
+          <p className="text-sm text-ink-500">
+            No traced lines: mark lines in the line list (a heat-tracing column) or trace freeze-protected or
+            process-control lines on the design basis.
+          </p>
+        ) : (
+          <>
+            <p className="mb-2 text-sm" data-testid="tracing-total">
+              {d.tracing.lines} traced line{d.tracing.lines === 1 ? '' : 's'}:{' '}
+              {u.electricPower(d.tracing.kW * 1000)} electrical, {u.length(d.tracing.tracerM)} of tracer (
+              {TRACING_STANDARD}, safety factor {basis.heatTracing.safetyFactor} and fittings included).
+            </p>
+            <table className="table-dense" aria-label="Heat tracing by area">
+              <thead>
+                <tr>
+                  <th>Area</th>
+                  <th className="num">Traced lines</th>
+                  <th className="num">Tracer length</th>
+                  <th className="num">Tracing duty (kW electrical)</th>
+                </tr>
+              </thead>
+              <tbody>
+                {d.tracing.areas.map((a) => (
+                  <tr key={a.area} data-tracing-area={a.area}>
+                    <td>{a.area}</td>
+                    <td className="num">{a.lines}</td>
+                    <td className="num">{u.length(a.tracerM)}</td>
+                    <td className="num">{u.electricPower(a.kW * 1000)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+            <p className="mt-2 text-xs text-ink-500">
+              Duty = heat loss at the maintain temperature in the minimum design ambient and wind × safety
+              factor, fittings as equivalent lengths. For budgeting: tracer selection, circuit lengths, sheath
+              temperatures and hazardous-area limits follow the tracer manufacturer and the local electrical
+              code.
+            </p>
+          </>
+        )}
+      </section>
       <div className="mt-4 grid gap-4 lg:grid-cols-2">
         <section className="panel p-4">
           <h2 className="mb-2">Top 20 lines by heat loss</h2>

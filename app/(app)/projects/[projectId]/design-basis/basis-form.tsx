@@ -521,6 +521,56 @@ export function BasisForm({
               Valves and flanges are left bare
             </label>
           </div>
+          <fieldset className="panel p-3 md:col-span-4">
+            <legend className="px-1 text-sm font-semibold">
+              Heat tracing (IEEE 515 / IEC/IEEE 60079-30-2)
+            </legend>
+            <p className="mb-2 text-xs text-ink-600">{notes.heatTracing}</p>
+            <div className="mb-2 flex flex-wrap gap-4">
+              {(
+                [
+                  [
+                    'heatTracing.traceFreezeProtection',
+                    'Trace freeze-protected lines',
+                    basis.heatTracing.traceFreezeProtection,
+                  ],
+                  [
+                    'heatTracing.traceProcessControl',
+                    'Trace process-control lines (held at their normal temperature)',
+                    basis.heatTracing.traceProcessControl,
+                  ],
+                ] as const
+              ).map(([name, label, checked]) => (
+                <div key={name} className="flex items-center gap-2">
+                  <input
+                    id={`db-${name.replace('.', '-')}`}
+                    type="checkbox"
+                    name={name}
+                    defaultChecked={checked}
+                    disabled={!canEdit}
+                  />
+                  <label htmlFor={`db-${name.replace('.', '-')}`} className="text-sm">
+                    {label}
+                  </label>
+                </div>
+              ))}
+            </div>
+            <div className="grid gap-4 md:grid-cols-4">
+              <Num name="heatTracing.maintainTempC" label="Maintain temperature (freeze protection)" />
+              <Num name="heatTracing.minAmbientC" label="Minimum design ambient (blank: freeze conditions)" />
+              <Num name="heatTracing.windMs" label="Design wind for tracing (blank: freeze conditions)" />
+              <Num
+                name="heatTracing.safetyFactor"
+                label="Tracing safety factor"
+                hint={notes.tracingSafetyFactor}
+              />
+              <Num name="heatTracing.valveM" label="Tracer per valve, m" hint={notes.tracerAllowances} />
+              <Num name="heatTracing.flangePairM" label="Tracer per flange pair, m" />
+              <Num name="heatTracing.elbowM" label="Tracer per elbow, m" />
+              <Num name="heatTracing.teeM" label="Tracer per tee, m" />
+              <Num name="heatTracing.supportM" label="Tracer per support, m" />
+            </div>
+          </fieldset>
           <Num name="economics.energyPricePerKWh" label="Energy price per kWh" hint={notes.economics} />
           <Num name="economics.efficiency" label="Heat-generation efficiency" />
           <Num name="economics.hoursPerYear" label="Operating hours per year" />

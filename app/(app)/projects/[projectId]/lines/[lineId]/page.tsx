@@ -11,6 +11,7 @@ import { CostChart } from './cost-chart';
 import { auditForLine } from '@/lib/review/store';
 import { economicsView } from '@/lib/lines/economics-view';
 import { lineFittingsW } from '@/lib/lines/fittings-heat';
+import { lineTracing, TRACING_REASON_LABEL, TRACING_STANDARD } from '@/lib/lines/tracing';
 import type { LineInput } from '@/lib/lines/validate';
 import { candidateNumbers, decidingLimits, worstMargin } from '@/lib/lines/deciding';
 import { decodeCandidate } from '@/lib/lines/candidate-row';
@@ -75,6 +76,16 @@ export default async function LinePage({
   const cat = catalogueOf(basis);
   const ev = result ? economicsView(basis, line as unknown as LineInput, design?.thicknessMm ?? null) : null;
   const u = formatterFor(basis);
+  // A decision taken before the energy code applied (or changed) that the current result says is too thin.
+  const codeOutcome = !stale ? result?.outcomes.find((o) => o.id === 'energyCode') : undefined;
+  const codeFail =
+    design && codeOutcome && (codeOutcome.requiredMm === null || design.thicknessMm < codeOutcome.requiredMm)
+      ? codeOutcome
+      : null;
+  // Heat tracing at the line's thickness: the chosen one, else the recommendation.
+  const tracing = result
+    ? lineTracing(basis, line, result.tracing, design?.thicknessMm ?? result.recommendedMm)
+    : null;
   const msg = (t: string) => localizeMessage(t, u);
   const cands = (result?.candidates ?? []).map(decodeCandidate);
   const rows = result?.candidates ?? [];
@@ -265,6 +276,14 @@ export default async function LinePage({
               {design.belowCriterion ? (
                 <p className="text-alarm-700">Below {design.belowCriterion} — flagged for review.</p>
               ) : null}
+              {codeFail ? (
+                <p className="text-alarm-700" data-testid="energy-code-fail">
+                  Fails the energy code: {localizeMessage(codeFail.message, u)} The chosen{' '}
+                  {u.thickness(design.thicknessMm)} is below the{' '}
+                  {codeFail.requiredMm === null ? 'code minimum' : u.thickness(codeFail.requiredMm)} it asks;
+                  choose the thickness again.
+                </p>
+              ) : null}
               {design.needsRedecision ? (
                 <p className="text-ochre-700">Needs re-decision: {design.redecisionReason}</p>
               ) : null}
@@ -361,6 +380,44 @@ export default async function LinePage({
                 Annualised cost = capital recovery × installed cost + levelised energy cost (cold lines priced
                 as cooling), in {u.currency}. Rates and prices are the design basis&apos;s; set the
                 project&apos;s own.
+              </p>
+            </section>
+          ) : null}
+          {tracing ? (
+            <section className="panel p-4" aria-labelledby="tracing-heading" data-testid="tracing">
+              <h2 id="tracing-heading" className="mb-2">
+                Heat tracing ({TRACING_STANDARD})
+              </h2>
+              <dl className="grid grid-cols-2 gap-x-3 gap-y-1 text-sm">
+                <dt className="text-ink-500">Traced because</dt>
+                <dd>{TRACING_REASON_LABEL[tracing.reason]}</dd>
+                <dt className="text-ink-500">Held at</dt>
+                <dd>
+                  {u.temp(tracing.maintainC)} in {u.temp(tracing.airC)} air, wind {wind(tracing.windMs)},{' '}
+                  {u.thickness(tracing.thicknessMm)} {design ? '(chosen)' : '(recommended)'}
+                </dd>
+                <dt className="text-ink-500">Heat loss at the maintain temperature</dt>
+                <dd>
+                  {u.linearLoss(tracing.heatLossWPerM)}
+                  {tracing.fittingsW ? ` + fittings ${u.power(tracing.fittingsW)}` : ''}
+                </dd>
+                <dt className="text-ink-500">Required tracer output</dt>
+                <dd data-testid="tracing-required">
+                  {u.tracerRating(tracing.requiredWPerM)} (safety factor {tracing.safetyFactor}
+                  {tracing.fittingsW ? ', fittings spread over the run' : ''})
+                  {tracing.lengthM !== null ? ` · ${u.electricPower(tracing.requiredW)} for the line` : ''}
+                </dd>
+                <dt className="text-ink-500">Tracer length</dt>
+                <dd>
+                  {tracing.tracerM === null
+                    ? 'no pipe length yet'
+                    : `${u.length(tracing.tracerM)} (run ${u.length(tracing.lengthM)} + fitting allowances, common practice)`}
+                </dd>
+              </dl>
+              <p className="mt-2 text-xs text-ink-500">
+                Required output = heat loss at the maintain temperature in the minimum design ambient and wind
+                × safety factor, fittings as equivalent lengths. Tracer selection, sheath temperature, circuit
+                lengths and hazardous-area limits follow the manufacturer and the local electrical code.
               </p>
             </section>
           ) : null}

@@ -21,7 +21,15 @@ export * from './thickness';
 export * from './touch';
 export * from './tracing';
 export * from './units';
-export const CALCULATION_VERSION = '2026.12-5'; // 5: each candidate carries its vessel-part fluxes (picks and the bill per vessel part); 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts) shared with the review; 4: touch limit by contact time and surface (ISO 13732-1), bare candidates held to bare steel, design conductivity (EN ISO 23993), vessel parts, condition sets and emission scopes on the results
+/**
+ * Stamped on every stored result; a result of another version is stale (lib/lines/stale.ts).
+ * 2: vessels as shell + heads in the recommender; 3: one rule per safety criterion (rules.ts)
+ * shared with the review; 4: touch limit by contact time and surface (ISO 13732-1), bare candidates
+ * held to bare steel, design conductivity (EN ISO 23993), vessel parts, condition sets and emission
+ * scopes on the results; 5: each candidate carries its vessel-part fluxes (picks and the bill per
+ * vessel part).
+ */
+export const CALCULATION_VERSION = '2026.12-5';
 export * from './defaults';
 export * from './vessel';
 export * from './workspace';

@@ -205,13 +205,7 @@ test('shell: a menu instead of the sidebar at 768 px with tag, status and picker
   await page.reload();
   await expect(page.locator('tr[data-tag]').first()).toBeVisible();
   expect(await noSideways()).toBe(true);
-  // The design basis does not reflow at 320 px yet (README, known limitations); the review, budget and bill
-  // pages are not checked at this width yet either.
-  for (const path of ['']) {
-    await page.goto(`/projects/${id}${path}`);
-    await expect(page.locator('h1').first()).toBeVisible();
-    expect(await noSideways(), `${path || 'overview'} reflows at 320 px`).toBe(true);
-  }
+  // Every other main page at 320 and 768 px: tests/e2e/responsive.spec.ts.
 
   await page.setViewportSize({ width: 1280, height: 800 });
   await page.goto(`/projects/${id}/lines`);

@@ -22,10 +22,10 @@ test('sign-in has no serious or critical WCAG 2.1 A/AA violation', async ({ page
 
 const ROLES: DemoKey[] = ['owner', 'engineer', 'reviewer', 'contractor'];
 for (const role of ROLES) {
-  test(`as the ${role}: projects, line list, a line, design basis, review queue, budget and bill pass axe, each with its own title`, async ({
+  test(`as the ${role}: projects, line list, a line, design basis, review queue and round, budget, bill and design report pass axe, each with its own title`, async ({
     page,
   }) => {
-    test.setTimeout(420_000); // eight pages, each through axe, on a loaded 2-core machine
+    test.setTimeout(600_000); // ten pages, each through axe, on a loaded 2-core machine
     const u = demo(role);
     await signIn(page, u.email, u.password);
     await expectNoSeriousViolations(page, `${role} projects`);
@@ -55,13 +55,22 @@ for (const role of ROLES) {
     }
     await visit('/design-basis', 'design basis');
     await visit('/review', 'review queue');
+    if (role !== 'contractor') {
+      // The open round's own page: its number in the title.
+      const round = page.locator('main a[href*="/review/"]').first();
+      const href = (await round.getAttribute('href'))!;
+      const t = await visit(href.slice(base.length), 'review round');
+      expect(t).toMatch(/^Round \d+ · Review round · BP-STM-24 · Lagwise$/);
+    }
     await visit('/budget', 'budget');
     await visit('/boq', 'bill of quantities');
+    await visit('/report', 'design report');
     // The contractor reads the bill only: the other pages answer with their section's name alone.
     expect(titles).toContain(
       role === 'contractor' ? 'Line list · Lagwise' : 'Line list · BP-STM-24 · Lagwise',
     );
     expect(titles).toContain('Bill of quantities · BP-STM-24 · Lagwise');
+    expect(titles).toContain('Design report · BP-STM-24 · Lagwise');
   });
 }
 

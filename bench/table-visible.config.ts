@@ -11,7 +11,7 @@ import { defineConfig } from '@playwright/test';
 export default defineConfig({
   ...base,
   testDir: '.',
-  testMatch: 'table-visible.ts',
+  testMatch: '**/bench/table-visible.ts',
   timeout: 600_000,
   ...(process.env.BASE ? { webServer: undefined, use: { ...base.use, baseURL: process.env.BASE } } : {}),
 });

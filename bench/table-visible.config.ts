@@ -13,5 +13,8 @@ export default defineConfig({
   testDir: '.',
   testMatch: '**/bench/table-visible.ts',
   timeout: 600_000,
-  ...(process.env.BASE ? { webServer: undefined, use: { ...base.use, baseURL: process.env.BASE } } : {}),
+  // The server starts from the checkout's root (run from there), not from bench/.
+  ...(process.env.BASE
+    ? { webServer: undefined, use: { ...base.use, baseURL: process.env.BASE } }
+    : { webServer: { ...(base.webServer as object), cwd: process.cwd() } as typeof base.webServer }),
 });

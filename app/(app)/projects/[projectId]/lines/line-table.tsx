@@ -574,7 +574,6 @@ export function LineTable({
             ))}
           </select>
         </div>
-        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
         <div className="ml-auto flex gap-2">
           {canSolve ? (
             <button type="button" className="btn-quiet" onClick={solve} disabled={pending}>
@@ -756,6 +755,11 @@ export function LineTable({
           </select>
         </label>
       </nav>
+      {/* Downloads of the filter below the table, so filters and actions share one row above it (more rows
+          in view at 1440×900) and the way from the search field to "Next" stays short. */}
+      <div className="mt-2">
+        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
+      </div>
       {/* Paging and saved picks, for screen readers: polite, and not a role=status of its own. */}
       <p aria-live="polite" className="sr-only" data-testid="line-table-announce">
         {announce}

@@ -23,6 +23,7 @@ import type { StoredDesign, StoredLayer, StoredOutcome, StoredTracing } from '@/
 import type { DesignParts } from '@/lib/lines/vessel-parts';
 import type { Flag } from '@/lib/review/flags';
 import type { ReviewSnapshot } from '@/lib/review/snapshot';
+import type { LineTableView } from '@/lib/preferences/line-table-view';
 
 const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
 
@@ -786,3 +787,16 @@ export const jobs = pgTable(
   (t) => [index('jobs_project_idx').on(t.projectId, t.createdAt)],
 );
 export type Job = typeof jobs.$inferSelect;
+
+/**
+ * A person's own settings of the screens, one row per user, kept on the server so they follow the person
+ * to another browser. One typed column per screen; read through its pure module (tolerant of old values).
+ */
+export const userPreferences = pgTable('user_preferences', {
+  userId: text('user_id')
+    .primaryKey()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  /** The line table's hidden columns and row density (`lib/preferences/line-table-view.ts`). */
+  lineTable: jsonb('line_table').$type<LineTableView>(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});

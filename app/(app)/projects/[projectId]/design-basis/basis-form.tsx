@@ -127,7 +127,7 @@ export function BasisForm({
     <fieldset className="panel p-3">
       <legend className="px-1 text-sm font-semibold">{title}</legend>
       {(['outdoor', 'indoor'] as const).map((side) => (
-        <div key={side} className="mb-2 grid grid-cols-3 gap-2">
+        <div key={side} className="mb-2 grid grid-cols-3 items-end gap-2">
           <Num name={`conditions.${key}.${side}.airC`} label={`${side} air`} />
           <Num name={`conditions.${key}.${side}.windMs`} label={`${side} wind`} />
           {rh ? <Num name={`conditions.${key}.${side}.relativeHumidityPct`} label={`${side} RH %`} /> : null}

@@ -1,7 +1,9 @@
 'use server';
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
-import { projectAction, projectFormDataAction } from '@/lib/server/action';
+import { ownAction, projectAction, projectFormDataAction } from '@/lib/server/action';
+import { saveLineTableView } from '@/db/queries/preferences';
+import { lineTableViewSchema } from '@/lib/preferences/line-table-view';
 import { AppError } from '@/lib/errors';
 import { MAX_UPLOAD_BYTES } from '@/lib/lines';
 import { lineFilterSchema } from '@/lib/lines/filter';
@@ -147,4 +149,12 @@ export const undoBulkAcceptAction = projectAction(
     revalidatePath(`/projects/${project.id}/lines`);
     return r;
   },
+);
+
+/**
+ * The line table's hidden columns and row density, kept for the signed-in person (not the project): the
+ * same view in every browser they sign in from. Key columns cannot be hidden (refused with a sentence).
+ */
+export const saveLineTableViewAction = ownAction(lineTableViewSchema, async ({ user, input }) =>
+  saveLineTableView({ userId: user.id, view: input }),
 );

@@ -9,11 +9,13 @@ import {
   getCoreRowModel,
   useReactTable,
   type SortingState,
+  type VisibilityState,
 } from '@tanstack/react-table';
 import {
   applyBulkAcceptAction,
   pickThicknessAction,
   previewBulkAcceptAction,
+  saveLineTableViewAction,
   solveLinesAction,
   startSheetsBatchAction,
   undoBulkAcceptAction,
@@ -24,6 +26,13 @@ import { SHEETS_INLINE_LIMIT } from '@/lib/documents/limits';
 import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 import { criterionLabel } from '@/lib/lines/criterion-labels';
+import {
+  DEFAULT_LINE_TABLE_VIEW,
+  HIDEABLE_COLUMNS,
+  type Density,
+  type LineTableColumnId,
+  type LineTableView,
+} from '@/lib/preferences/line-table-view';
 
 interface Candidate {
   mm: number;
@@ -66,14 +75,17 @@ interface Row {
   shown: Omit<Candidate, 'mm'> | null;
   worstMargin: Margin | null;
 }
-interface Page {
+export interface LineTablePage {
   rows: Row[];
   total: number;
   page: number;
   size: number;
 }
 
+type Page = LineTablePage;
 const ch = createColumnHelper<Row>();
+/** The first page as the server renders it: what the table asks for before anyone filters, sorts or pages. */
+const FIRST_PAGE_KEY = 'page=0&size=100&sort=tag&dir=asc';
 
 export function LineTable({
   projectId,
@@ -82,6 +94,9 @@ export function LineTable({
   canSolve,
   unitSystem = 'SI',
   format,
+  firstPage,
+  firstPageAt,
+  initialView = DEFAULT_LINE_TABLE_VIEW,
 }: {
   projectId: string;
   areas: string[];
@@ -89,6 +104,12 @@ export function LineTable({
   canSolve: boolean;
   unitSystem?: UnitSystem;
   format?: FormatOptions;
+  /** The first 100 rows in tag order, rendered on the server so the table is there before any script runs. */
+  firstPage?: Page;
+  /** When the server read `firstPage` (ms since the epoch): it counts as fresh as of then. */
+  firstPageAt?: number;
+  /** The signed-in person's hidden columns and density (kept on the server, per user). */
+  initialView?: LineTableView;
 }) {
   const fmt = format ?? { unitSystem };
   const u = formatter(fmt);
@@ -121,6 +142,9 @@ export function LineTable({
       return r.json();
     },
     placeholderData: keepPreviousData,
+    ...(firstPage && params.toString() === FIRST_PAGE_KEY
+      ? { initialData: firstPage, initialDataUpdatedAt: firstPageAt }
+      : {}),
   });
   const refresh = () => qc.invalidateQueries({ queryKey: ['lines', projectId] });
   const router = useRouter();
@@ -130,11 +154,21 @@ export function LineTable({
   const active = useRef({ r: 0, c: 0 });
   const [announce, setAnnounce] = useState('');
   const pagedBy = useRef<'next' | 'previous' | null>(null);
-  const [density, setDensity] = useState<'compact' | 'comfortable'>('compact');
-  useEffect(() => {
-    const d = localStorage.getItem('lagwise.lineTable.density');
-    if (d === 'comfortable') setDensity(d);
-  }, []);
+  // Hidden columns and density, as the person left them (in any browser): saved on every change.
+  const [view, setView] = useState<LineTableView>(initialView);
+  const density = view.density;
+  const columnVisibility: VisibilityState = Object.fromEntries(view.hiddenColumns.map((id) => [id, false]));
+  const savedView = useRef(initialView);
+  function changeView(next: LineTableView) {
+    setView(next);
+    saveLineTableViewAction(next).then((r) => {
+      if (r.ok) savedView.current = r.data;
+      else {
+        setView(savedView.current);
+        setMessage({ kind: 'error', text: r.error });
+      }
+    });
+  }
 
   /** The body's cells row by row, only those shown at this width. */
   const gridCells = useCallback((): HTMLTableCellElement[][] => {
@@ -275,6 +309,7 @@ export function LineTable({
     () => [
       ch.accessor('tag', {
         header: 'Tag',
+        enableHiding: false,
         cell: (c) => (
           <Link href={`/projects/${projectId}/lines/${c.row.original.id}`} className="font-mono">
             {c.getValue()}
@@ -335,11 +370,17 @@ export function LineTable({
         header: 'Worst margin',
         cell: (c) => <MarginCell m={c.row.original.worstMargin} u={u} />,
       }),
-      ch.display({ id: 'status', header: 'Status', cell: (c) => <Badges row={c.row.original} /> }),
+      ch.display({
+        id: 'status',
+        header: 'Status',
+        enableHiding: false,
+        cell: (c) => <Badges row={c.row.original} />,
+      }),
       // Keyed by the design version: a bulk accept, an undo or someone else's save remounts the picker on the stored choice.
       ch.display({
         id: 'pick',
         header: 'Chosen thickness',
+        enableHiding: false,
         cell: (c) => (
           <PickCell
             key={c.row.original.designVersion ?? 0}
@@ -363,7 +404,14 @@ export function LineTable({
     getRowId: (r) => r.id,
     manualSorting: true,
     manualPagination: true,
-    state: { sorting },
+    state: { sorting, columnVisibility },
+    onColumnVisibilityChange: (update) => {
+      const next = typeof update === 'function' ? update(columnVisibility) : update;
+      changeView({
+        ...view,
+        hiddenColumns: HIDEABLE_COLUMNS.map((c) => c.id).filter((id) => next[id] === false),
+      });
+    },
     onSortingChange: (u) => {
       setSorting(u);
       setPage(0);
@@ -526,7 +574,6 @@ export function LineTable({
             ))}
           </select>
         </div>
-        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
         <div className="ml-auto flex gap-2">
           {canSolve ? (
             <button type="button" className="btn-quiet" onClick={solve} disabled={pending}>
@@ -646,7 +693,7 @@ export function LineTable({
             ))}
             {!query.isLoading && data.length === 0 ? (
               <tr>
-                <td colSpan={columns.length} className="py-6 text-center text-ink-600">
+                <td colSpan={table.getVisibleLeafColumns().length} className="py-6 text-center text-ink-600">
                   No lines match. {total === 0 && !q && !area && !status ? 'Import a line list above.' : ''}
                 </td>
               </tr>
@@ -687,27 +734,72 @@ export function LineTable({
         >
           Next
         </button>
-        <label className="ml-auto flex items-center gap-2">
+        <ColumnMenu
+          hidden={view.hiddenColumns}
+          onToggle={(id, shown) => table.getColumn(id)?.toggleVisibility(shown)}
+        />
+        <label className="flex items-center gap-2">
           <span>Row density</span>
           <select
             className="input w-auto py-0.5 text-sm"
             value={density}
-            onChange={(e) => {
-              const d = e.target.value === 'comfortable' ? 'comfortable' : 'compact';
-              setDensity(d);
-              localStorage.setItem('lagwise.lineTable.density', d);
-            }}
+            onChange={(e) =>
+              changeView({
+                ...view,
+                density: (e.target.value === 'comfortable' ? 'comfortable' : 'compact') as Density,
+              })
+            }
           >
             <option value="compact">Compact</option>
             <option value="comfortable">Comfortable</option>
           </select>
         </label>
       </nav>
+      {/* Downloads of the filter below the table, so filters and actions share one row above it (more rows
+          in view at 1440×900) and the way from the search field to "Next" stays short. */}
+      <div className="mt-2">
+        <DocumentLinks projectId={projectId} filter={{ q, area, status }} total={total} />
+      </div>
       {/* Paging and saved picks, for screen readers: polite, and not a role=status of its own. */}
       <p aria-live="polite" className="sr-only" data-testid="line-table-announce">
         {announce}
       </p>
     </section>
+  );
+}
+
+/** Which columns show: a checkbox per column that may be hidden; tag, status and chosen thickness always show. */
+function ColumnMenu({
+  hidden,
+  onToggle,
+}: {
+  hidden: LineTableColumnId[];
+  onToggle: (id: LineTableColumnId, shown: boolean) => void;
+}) {
+  return (
+    <details className="relative ml-auto">
+      <summary className="btn-quiet cursor-pointer py-0.5">
+        Columns{hidden.length ? ` (${hidden.length} hidden)` : ''}
+      </summary>
+      <fieldset className="absolute bottom-full right-0 z-30 mb-1 w-64 max-w-[90vw] rounded-md border border-ink-300 bg-white p-3 shadow-lg">
+        <legend className="sr-only">Columns shown in the line table</legend>
+        <p className="mb-2 text-xs text-ink-600">
+          Kept for you in every browser. Tag, status and chosen thickness always show; below 1024 px wide
+          service, area, governing criterion, surface temperature, heat loss per area and worst margin are
+          left out.
+        </p>
+        {HIDEABLE_COLUMNS.map((c) => (
+          <label key={c.id} className="flex items-center gap-2 py-0.5">
+            <input
+              type="checkbox"
+              checked={!hidden.includes(c.id)}
+              onChange={(e) => onToggle(c.id, e.target.checked)}
+            />
+            {c.label}
+          </label>
+        ))}
+      </fieldset>
+    </details>
   );
 }
 

@@ -6,6 +6,8 @@ import { Disclosure } from '@/components/disclosure';
 import { getDesignBasis } from '@/lib/lines/basis-store';
 import { listRevisions } from '@/lib/lines/import-store';
 import { listAreas } from '@/lib/lines/results-store';
+import { lineTablePage } from '@/lib/lines/picker';
+import { getLineTableView } from '@/db/queries/preferences';
 import { ImportPanel } from './import-panel';
 import { LineTable } from './line-table';
 import { RecentJobs } from './job-progress';
@@ -16,7 +18,7 @@ export async function generateMetadata({ params }: { params: Promise<{ projectId
 
 export default async function LinesPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
-  const { project, role, allowed } = await loadProject(projectId, 'lines.read');
+  const { project, role, allowed, user } = await loadProject(projectId, 'lines.read');
   if (!allowed)
     return (
       <>
@@ -24,10 +26,15 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
         <Denied what="The line list" />
       </>
     );
-  const [areas, revisions, basis] = await Promise.all([
+  // The first page of rows comes with the page (the same query as GET …/lines answers), so the table
+  // is visible before the scripts run; the table takes over from there.
+  const firstPageAt = Date.now();
+  const [areas, revisions, basis, view, firstPage] = await Promise.all([
     listAreas({ projectId: project.id }),
     listRevisions({ projectId: project.id }),
     getDesignBasis({ projectId: project.id }),
+    getLineTableView({ userId: user.id }),
+    lineTablePage({ projectId: project.id, page: 0, size: 100, sort: 'tag', dir: 'asc' }),
   ]);
   const canEdit = can(role, 'lines.edit');
   return (
@@ -59,6 +66,9 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
         canPick={can(role, 'design.pick')}
         canSolve={canEdit}
         unitSystem={basis.basis.unitSystem}
+        firstPage={firstPage}
+        firstPageAt={firstPageAt}
+        initialView={view}
         format={{
           unitSystem: basis.basis.unitSystem,
           thicknessSeries: basis.basis.thicknessSeries,

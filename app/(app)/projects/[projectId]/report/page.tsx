@@ -1,4 +1,4 @@
-import { loadProject } from '@/lib/server/page';
+import { loadProject, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
 import { listReports } from '@/lib/documents/report-store';
@@ -6,7 +6,9 @@ import { getDesignBasis } from '@/lib/lines/basis-store';
 import { formatterFor } from '@/lib/format';
 import { IssueReportForm } from './issue-form';
 
-export const metadata = { title: 'Design report' };
+export async function generateMetadata({ params }: { params: Promise<{ projectId: string }> }) {
+  return { title: await projectPageTitle((await params).projectId, 'Design report', 'report.read') };
+}
 
 export default async function ReportPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;

@@ -1,14 +1,27 @@
 import Link from 'next/link';
-import { loadProject, orNotFound } from '@/lib/server/page';
+import { loadProject, orNotFound, projectPageTitle } from '@/lib/server/page';
 import { can } from '@/lib/auth/permissions';
 import { Denied } from '@/components/denied';
-import { getRound } from '@/lib/review/store';
+import { getRound, listRounds } from '@/lib/review/store';
 import { FLAG_LABEL } from '@/lib/review/flags';
 import { ReviewQueue } from './queue';
 import { getDesignBasis } from '@/lib/lines/basis-store';
 import { formatterFor, localizeMessage } from '@/lib/format';
 
-export const metadata = { title: 'Review round' };
+/** "Round 2 · Review round · BP-STM-24": each round's page has its own title. */
+export async function generateMetadata({
+  params,
+}: {
+  params: Promise<{ projectId: string; roundId: string }>;
+}) {
+  const { projectId, roundId } = await params;
+  return {
+    title: await projectPageTitle(projectId, 'Review round', 'review.read', async (id) => {
+      const r = (await listRounds({ projectId: id })).find((x) => x.round.id === roundId);
+      return r ? `Round ${r.round.number}` : null;
+    }),
+  };
+}
 
 export default async function RoundPage({
   params,

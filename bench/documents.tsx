@@ -29,6 +29,11 @@ const sampler = setInterval(() => {
 const s = (t0: number) => ((performance.now() - t0) / 1000).toFixed(1);
 const mb = (n: number) => (n / 1048576).toFixed(1);
 const pages = (buf: Buffer) => (buf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+/** CPU seconds of this process since `from` — what the work costs, whatever else the machine runs. */
+const cpu = (from: NodeJS.CpuUsage) => {
+  const u = process.cpuUsage(from);
+  return ((u.user + u.system) / 1e6).toFixed(1);
+};
 const load = () =>
   `load average ${loadavg()
     .map((v) => v.toFixed(2))
@@ -81,6 +86,7 @@ async function main() {
   phasePeak();
   console.log(`before the sheets: RSS ${mb(process.memoryUsage().rss)} MB, ${load()}`);
   t = performance.now();
+  let c0 = process.cpuUsage();
   let reported = 0;
   const batch = await sheetsBatchZip({
     projectId: p.id,
@@ -95,18 +101,20 @@ async function main() {
     },
   });
   console.log(
-    `calculation sheets for ${batch.count} lines: ${s(t)} s, zip ${mb(batch.document.bytes)} MB in the object store, ${((performance.now() - t) / batch.count).toFixed(0)} ms per line, ${phasePeak()}, ${load()}`,
+    `calculation sheets for ${batch.count} lines: ${s(t)} s (CPU ${cpu(c0)} s), zip ${mb(batch.document.bytes)} MB in the object store, ${((performance.now() - t) / batch.count).toFixed(0)} ms per line, ${phasePeak()}, ${load()}`,
   );
 
   t = performance.now();
+  c0 = process.cpuUsage();
   const d = await draftReport({ projectId: p.id, userId: owner.userId });
   console.log(
-    `design report for ${N} lines (draft): ${s(t)} s, ${pages(d.buf)} pages, ${mb(d.buf.length)} MB, ${phasePeak()}, ${load()}`,
+    `design report for ${N} lines (draft): ${s(t)} s (CPU ${cpu(c0)} s), ${pages(d.buf)} pages, ${mb(d.buf.length)} MB, ${phasePeak()}, ${load()}`,
   );
   t = performance.now();
+  c0 = process.cpuUsage();
   const r = await issueReport({ projectId: p.id, userId: owner.userId, note: 'bench' });
   console.log(
-    `design report issued as revision ${r.number} (rendered and stored): ${s(t)} s, ${phasePeak()}, ${load()}`,
+    `design report issued as revision ${r.number} (rendered and stored): ${s(t)} s (CPU ${cpu(c0)} s), ${phasePeak()}, ${load()}`,
   );
 }
 

@@ -7,10 +7,12 @@ export const COMMENT_MAX = 2000;
  * as markup, so `<b>` stays the four characters typed.
  */
 export function cleanComment(text: string): string {
-  return text
-    .replace(/\r\n?/g, '\n')
-    .replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, '')
-    .trim();
+  let out = '';
+  for (const ch of text.replace(/\r\n?/g, '\n')) {
+    const c = ch.charCodeAt(0);
+    if (c === 9 || c === 10 || (c >= 32 && c !== 127)) out += ch;
+  }
+  return out.trim();
 }
 
 /** A sentence saying what is wrong with the comment, or null when it may be posted. */

@@ -104,7 +104,12 @@ export function LineComments({
   const [threads, setThreads] = useState(initial);
   const [replyTo, setReplyTo] = useState<string | null>(null);
   const post = async (body: string, parentId: string | null) => {
-    const r = await addLineCommentAction(projectId, { lineId, parentId, body });
+    let r: Awaited<ReturnType<typeof addLineCommentAction>>;
+    try {
+      r = await addLineCommentAction(projectId, { lineId, parentId, body });
+    } catch {
+      return 'The server could not be reached, so nothing was posted. Try again.';
+    }
     if (!r.ok) return r.error;
     setThreads(r.data);
     setReplyTo(null);

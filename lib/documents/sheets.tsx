@@ -175,6 +175,9 @@ export async function sheetsBatchZip(o: {
     const hash = createHash('sha256');
     let bytes = 0;
     let failed: Error | null = null;
+    out.on('error', (e) => {
+      failed = e; // a full disk: the next sheet stops the batch with it
+    });
     const zip = new Zip((err, chunk, final) => {
       if (err) {
         failed = err;

@@ -1,6 +1,6 @@
 /**
  * Moves the bytes of design reports and sheet batches kept in PostgreSQL before documents went to the
- * object store (migration 0019) into the store, each checked against its recorded SHA-256 first,
+ * object store (migration 0021) into the store, each checked against its recorded SHA-256 first,
  * then records the key and clears the column. Needs the owner's connection: the application may not
  * update the append-only `design_reports`. Idempotent; one document in memory at a time. A report
  * whose bytes do not match its fingerprint is left where it is and named in the log (it is refused

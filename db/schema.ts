@@ -1,6 +1,7 @@
 import { relations, sql } from 'drizzle-orm';
 import {
   boolean,
+  type AnyPgColumn,
   customType,
   doublePrecision,
   index,
@@ -460,6 +461,30 @@ export const auditLog = pgTable(
   (t) => [index('audit_log_project_idx').on(t.projectId, t.at), index('audit_log_line_idx').on(t.lineId)],
 );
 
+/**
+ * Comments on a line, threaded one level: a reply names the comment that opened its thread
+ * (lib/comments/store.ts). Plain text; the author's name is kept as it was when they wrote.
+ */
+export const lineComments = pgTable(
+  'line_comments',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    projectId: uuid('project_id')
+      .notNull()
+      .references(() => projects.id, { onDelete: 'cascade' }),
+    lineId: uuid('line_id')
+      .notNull()
+      .references(() => lines.id, { onDelete: 'cascade' }),
+    parentId: uuid('parent_id').references((): AnyPgColumn => lineComments.id, { onDelete: 'cascade' }),
+    authorId: text('author_id').references(() => users.id, { onDelete: 'set null' }),
+    authorName: text('author_name').notNull(),
+    body: text('body').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('line_comments_line_idx').on(t.lineId, t.createdAt)],
+);
+export type LineComment = typeof lineComments.$inferSelect;
+
 /** Issued revisions of the bill of quantities, each with the quantities as issued. */
 export const boqIssues = pgTable(
   'boq_issues',
@@ -510,7 +535,12 @@ export const sheetBatches = pgTable('sheet_batches', {
     .references(() => projects.id, { onDelete: 'cascade' }),
   fileName: text('file_name').notNull(),
   lineCount: integer('line_count').notNull(),
-  pdf: bytea('pdf').notNull(),
+  /** The zip of per-line PDFs in the object store (lib/storage/documents.ts): key, SHA-256, size. */
+  documentKey: text('document_key'),
+  documentSha256: text('document_sha256'),
+  documentBytes: integer('document_bytes'),
+  /** Legacy: batches made before documents moved to the object store kept their PDF here (still served). */
+  pdf: bytea('pdf'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -536,8 +566,12 @@ export const designReports = pgTable(
     note: text('note').notNull().default(''),
     /** The figures the report states (totals, counts), for the revision list and checks. */
     summary: jsonb('summary').notNull(),
+    /** SHA-256 of the PDF as issued; the bytes are in the object store under `documentKey`. */
     sha256: text('sha256').notNull(),
-    pdf: bytea('pdf').notNull(),
+    documentKey: text('document_key'),
+    documentBytes: integer('document_bytes'),
+    /** Legacy: revisions issued before documents moved to the object store (moved by `npm run documents:move`). */
+    pdf: bytea('pdf'),
   },
   (t) => [uniqueIndex('design_reports_number_key').on(t.projectId, t.number)],
 );

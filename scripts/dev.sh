@@ -8,6 +8,7 @@ ensure_secret_key
 migrate
 start_dev_idp
 start_s3_fake
+node_modules/.bin/tsx db/move-documents.ts
 node_modules/.bin/tsx seed/index.ts --if-empty
 start_mail_sink
 print_logins

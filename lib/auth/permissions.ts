@@ -23,6 +23,8 @@ export const ACTIONS = [
   'boq.issue',
   'report.read', // issued design-report revisions
   'report.issue',
+  'comments.read', // comments on a line
+  'comments.write', // add a comment or a reply
   'members.read',
   'members.manage', // invite, change role, remove
   'org.settings',
@@ -61,6 +63,10 @@ const MATRIX: Record<Action, readonly Role[]> = {
   'boq.issue': [O, E],
   'report.read': [O, E, R, C],
   'report.issue': [O, E],
+  // Comments are the engineer's and the reviewer's conversation about a line (the owner takes part).
+  // A contractor sees issued documents only, not the line list, so neither reads nor writes them.
+  'comments.read': [O, E, R],
+  'comments.write': [O, E, R],
   'members.read': [O, E, R],
   'members.manage': [O],
   'org.settings': [O],

@@ -1,10 +1,15 @@
-/** Issuing and reading design-report revisions — free of Next.js. An issued PDF is stored as issued and never rendered again. */
-import { createHash } from 'node:crypto';
+/**
+ * Issuing and reading design-report revisions — free of Next.js. An issued PDF is kept as issued in
+ * the object store (lib/storage/documents.ts) and never rendered again; its row keeps the key, size,
+ * SHA-256 and the figures it states, and every read is checked against the SHA-256.
+ */
+import { randomUUID } from 'node:crypto';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { designReports, users } from '@/db/schema';
 import { actorName, writeAudit } from '@/lib/audit';
 import { AppError } from '@/lib/errors';
+import { getDocument, putDocument, sha256Hex } from '@/lib/storage/documents';
 import { reportData, reportPdf } from './report';
 import { projectHeader, safeFilePart } from './sheets';
 
@@ -73,7 +78,15 @@ export async function issueReport({
     const issuedAt = new Date();
     const prior = await history(projectId);
     const pdf = await reportPdf(d, { number, issuedAt, issuedBy: name, note: text, history: prior });
-    const sha256 = createHash('sha256').update(pdf).digest('hex');
+    const sha256 = sha256Hex(pdf);
+    // Stored first, recorded second: if the store refuses, the transaction ends with nothing written.
+    const id = randomUUID();
+    const p = await projectHeader(projectId);
+    const doc = await putDocument(
+      `projects/${projectId}/reports/${id}/${safeFilePart(p.project.code)}-design-report-rev-${number}.pdf`,
+      pdf,
+      'application/pdf',
+    );
     const summary = {
       lines: d.counts.lines,
       decided: d.counts.decided,
@@ -87,6 +100,7 @@ export async function issueReport({
     const [row] = await tx
       .insert(designReports)
       .values({
+        id,
         projectId,
         number,
         issuedBy: userId,
@@ -97,7 +111,8 @@ export async function issueReport({
         note: text,
         summary,
         sha256,
-        pdf,
+        documentKey: doc.key,
+        documentBytes: doc.bytes,
       })
       .returning({
         id: designReports.id,
@@ -137,7 +152,13 @@ export async function listReports({ projectId }: { projectId: string }) {
 
 export async function getReportPdf({ projectId, number }: { projectId: string; number: number }) {
   const [r] = await db
-    .select({ pdf: designReports.pdf, number: designReports.number })
+    .select({
+      pdf: designReports.pdf,
+      number: designReports.number,
+      sha256: designReports.sha256,
+      key: designReports.documentKey,
+      bytes: designReports.documentBytes,
+    })
     .from(designReports)
     .where(and(eq(designReports.projectId, projectId), eq(designReports.number, number)));
   if (!r)
@@ -146,5 +167,14 @@ export async function getReportPdf({ projectId, number }: { projectId: string; n
       `Design report revision ${number} does not exist; only issued revisions can be downloaded.`,
     );
   const p = await projectHeader(projectId);
-  return { buf: r.pdf, fileName: `${safeFilePart(p.project.code)}-design-report-rev-${r.number}.pdf` };
+  let buf: Buffer;
+  if (r.key && r.bytes !== null) buf = await getDocument({ key: r.key, sha256: r.sha256, bytes: r.bytes });
+  else if (r.pdf && sha256Hex(r.pdf) === r.sha256)
+    buf = r.pdf; // issued before the object store; not yet moved
+  else
+    throw new AppError(
+      'conflict',
+      'The stored copy of this report does not match the fingerprint recorded when it was issued, so it is not served.',
+    );
+  return { buf, fileName: `${safeFilePart(p.project.code)}-design-report-rev-${r.number}.pdf` };
 }

@@ -22,7 +22,7 @@ import { issueBill } from '@/lib/boq/store';
 import type { ColumnMapping } from '@/lib/lines/mapping';
 import type { SolvePool } from '@/lib/lines/solve-pool';
 import { JOB_KIND_LABEL, QUEUES } from './queues';
-import { sheetsBatchPdf } from '@/lib/documents/sheets';
+import { sheetsBatchZip } from '@/lib/documents/sheets';
 import type { LineFilter } from '@/lib/lines/filter';
 
 const progress = (jobId: string) => async (done: number, total: number) => {
@@ -81,18 +81,27 @@ export async function runJob(jobId: string, o: { pool?: SolvePool | null } = {})
         const d = await dashboard({ projectId: job.projectId, whatIf: job.input as WhatIf });
         result = { bare: d.bare, designed: d.designed, savings: d.savings, warnings: d.warnings };
       } else if (job.kind === 'sheets-batch') {
-        // Calculation sheets of the filtered lines as one PDF, kept for download beside the job.
+        // Calculation sheets of the filtered lines, one PDF per line in a zip kept in the object store.
         const input = job.input as { filter: LineFilter };
-        const r = await sheetsBatchPdf({
+        const r = await sheetsBatchZip({
           projectId: job.projectId,
           filter: input.filter,
+          key: (fileName) => `projects/${job.projectId}/sheet-batches/${jobId}/${fileName}`,
           onProgress: progress(jobId),
         });
         await tx
           .insert(sheetBatches)
-          .values({ jobId, projectId: job.projectId, fileName: r.fileName, lineCount: r.count, pdf: r.buf })
+          .values({
+            jobId,
+            projectId: job.projectId,
+            fileName: r.fileName,
+            lineCount: r.count,
+            documentKey: r.document.key,
+            documentSha256: r.document.sha256,
+            documentBytes: r.document.bytes,
+          })
           .onConflictDoNothing();
-        result = { sheets: r.count, fileName: r.fileName, bytes: r.buf.length };
+        result = { sheets: r.count, fileName: r.fileName, bytes: r.document.bytes };
       } else if (job.kind === 'issue-bill') {
         // Issued inside this transaction: a retry after a crash finds the job done, never a second issue.
         const issue = await issueBill({

@@ -7,6 +7,7 @@
  * Keys are never reused: each names the record it belongs to (a bill issue's or an upload's id).
  */
 import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
 import { GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { env } from '@/lib/env';
 import { AppError } from '@/lib/errors';
@@ -72,6 +73,34 @@ export async function putDocument(
     throw new AppError('unavailable', UNAVAILABLE);
   }
   return { key, sha256, bytes: body.byteLength };
+}
+
+/**
+ * Stores a file already written to disk (a large batch) by streaming it, with the SHA-256 and size
+ * its writer computed on the way — the file is never read into memory.
+ */
+export async function putDocumentFile(
+  key: string,
+  file: string,
+  contentType: string,
+  fingerprint: { sha256: string; bytes: number },
+): Promise<StoredDocument> {
+  try {
+    await client().send(
+      new PutObjectCommand({
+        Bucket: env.s3Bucket(),
+        Key: key,
+        Body: createReadStream(file),
+        ContentType: contentType,
+        ContentLength: fingerprint.bytes,
+        Metadata: { sha256: fingerprint.sha256 },
+      }),
+    );
+  } catch (e) {
+    logUnexpected('document store put', e);
+    throw new AppError('unavailable', UNAVAILABLE);
+  }
+  return { key, ...fingerprint };
 }
 
 /** Reads the bytes stored under `key` and checks them against the fingerprint recorded with them. */

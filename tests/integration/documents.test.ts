@@ -1,14 +1,20 @@
 /**
  * The deliverables read back: calculation sheets and the design report as PDFs (text extracted with
  * pdfjs-dist) against the stored results and the budget, issued report revisions byte for byte,
- * the results export round trip (exceljs), and the batch of sheets run as a worker job.
+ * the results export round trip (exceljs), and the batch of sheets run as a worker job. Issued reports
+ * and batches live in the object store (the test fake); the database keeps key, size and SHA-256.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHash, randomUUID } from 'node:crypto';
 import ExcelJS from 'exceljs';
 import { and, eq } from 'drizzle-orm';
+import { unzipSync } from 'fflate';
+import { Pool } from 'pg';
 import { db, getPool } from '@/db/client';
-import { jobs, lineDesigns, lineResults, lines, projects, sheetBatches } from '@/db/schema';
+import { designReports, jobs, lineDesigns, lineResults, lines, projects, sheetBatches } from '@/db/schema';
+import { env } from '@/lib/env';
+import { getDocument } from '@/lib/storage/documents';
+import { moveLegacyDocuments } from '@/lib/storage/move-legacy';
 import * as auth from '@/lib/auth/service';
 import { getDesignBasis, saveDesignBasis } from '@/lib/lines/basis-store';
 import { acceptRecommendations } from '@/lib/lines/bulk-accept';
@@ -151,7 +157,7 @@ describe('calculation sheet', () => {
     );
   });
 
-  it('runs a batch of sheets as a worker job and keeps the PDF for download', async () => {
+  it('runs a batch of sheets as a worker job: one PDF per line in a zip kept in the object store', async () => {
     const [job] = await db
       .insert(jobs)
       .values({ projectId, kind: 'sheets-batch', createdBy: userId, input: { filter: { area: 'South' } } })
@@ -159,11 +165,32 @@ describe('calculation sheet', () => {
     await runJob(job.id);
     const [done] = await db.select().from(jobs).where(eq(jobs.id, job.id));
     expect(done).toMatchObject({ state: 'done', done: 2, total: 2 });
-    expect(done.result).toMatchObject({ sheets: 2, fileName: 'DOC-1-calculation-sheets-2-lines.pdf' });
+    expect(done.result).toMatchObject({ sheets: 2, fileName: 'DOC-1-calculation-sheets-2-lines.zip' });
     const [b] = await db.select().from(sheetBatches).where(eq(sheetBatches.jobId, job.id));
-    const text = await pdfText(b.pdf);
-    expect(text).toContain('Line S-1');
-    expect(text).toContain('Line =CMD|calc');
+    expect(b.pdf).toBeNull();
+    expect(b.documentKey).toBe(
+      `projects/${projectId}/sheet-batches/${job.id}/DOC-1-calculation-sheets-2-lines.zip`,
+    );
+    const zip = await getDocument({
+      key: b.documentKey!,
+      sha256: b.documentSha256!,
+      bytes: b.documentBytes!,
+    });
+    expect(createHash('sha256').update(zip).digest('hex')).toBe(b.documentSha256);
+    const files = unzipSync(new Uint8Array(zip));
+    // Tag order as a person reads it ("=CMD|calc" sorts before "S-1" in "C" collation: '=' < 'S').
+    expect(Object.keys(files)).toEqual([
+      'DOC-1-calculation-sheet-CMD-calc.pdf',
+      'DOC-1-calculation-sheet-S-1.pdf',
+    ]);
+    const s1 = await pdfText(Buffer.from(files['DOC-1-calculation-sheet-S-1.pdf']));
+    expect(s1).toContain('Line S-1');
+    expect(s1).not.toContain('Line =CMD|calc');
+    // Each sheet numbers its own pages.
+    expect(s1).toMatch(/Page 1 of \d/);
+    expect(await pdfText(Buffer.from(files['DOC-1-calculation-sheet-CMD-calc.pdf']))).toContain(
+      'Line =CMD|calc',
+    );
   });
 });
 
@@ -207,6 +234,19 @@ describe('design report', () => {
     });
     const again = await getReportPdf({ projectId, number: 1 });
     expect(Buffer.compare(Buffer.from(again.buf), Buffer.from(one.buf))).toBe(0);
+    // Read from the object store, not the database: the row holds key, size and SHA-256 only.
+    const [row] = await db
+      .select()
+      .from(designReports)
+      .where(and(eq(designReports.projectId, projectId), eq(designReports.number, 1)));
+    expect(row.pdf).toBeNull();
+    expect(row.documentKey).toBe(`projects/${projectId}/reports/${row.id}/DOC-1-design-report-rev-1.pdf`);
+    const fromStore = await getDocument({
+      key: row.documentKey!,
+      sha256: row.sha256,
+      bytes: row.documentBytes!,
+    });
+    expect(Buffer.compare(fromStore, Buffer.from(one.buf))).toBe(0);
     const r3 = await issueReport({ projectId, userId });
     expect(await pdfText((await getReportPdf({ projectId, number: 3 })).buf)).toContain(
       `Budget ${formatterFor((await getDesignBasis({ projectId })).basis).power(60_000)}`,
@@ -219,6 +259,37 @@ describe('design report', () => {
       'invalid',
       /at most 300 characters/,
     );
+  });
+
+  it('serves a revision issued before the object store from its column, and moves it there byte for byte', async () => {
+    const pdf = Buffer.from('%PDF-1.4 legacy report kept in the database\n%%EOF\n');
+    const sha256 = createHash('sha256').update(pdf).digest('hex');
+    const [legacy] = await db
+      .insert(designReports)
+      .values({
+        projectId,
+        number: 50,
+        issuedBy: userId,
+        basisRevision: 1,
+        calcVersion: 'legacy',
+        summary: {},
+        sha256,
+        pdf,
+      })
+      .returning({ id: designReports.id });
+    expect(Buffer.compare((await getReportPdf({ projectId, number: 50 })).buf, pdf)).toBe(0);
+    const owner = new Pool({ connectionString: env.databaseOwnerUrl(), max: 1 });
+    try {
+      const r = await moveLegacyDocuments(owner);
+      expect(r).toEqual({ moved: 1, refused: [] });
+      expect(await moveLegacyDocuments(owner)).toEqual({ moved: 0, refused: [] });
+    } finally {
+      await owner.end();
+    }
+    const [row] = await db.select().from(designReports).where(eq(designReports.id, legacy.id));
+    expect(row).toMatchObject({ pdf: null, documentBytes: pdf.length, sha256 });
+    expect(row.documentKey).toBe(`projects/${projectId}/reports/${legacy.id}/design-report-rev-50.pdf`);
+    expect(Buffer.compare((await getReportPdf({ projectId, number: 50 })).buf, pdf)).toBe(0);
   });
 });
 

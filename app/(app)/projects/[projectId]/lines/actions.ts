@@ -71,7 +71,7 @@ export const solveLinesAction = projectAction(
     enqueueJob({ projectId: project.id, userId: user.id, kind: 'solve-all', input: { all: input.all } }),
 );
 
-/** A batch of calculation sheets for exactly the table's filter, produced by the worker as one PDF. */
+/** A batch of calculation sheets for exactly the table's filter, produced by the worker (a zip, one PDF per line). */
 export const startSheetsBatchAction = projectAction(
   'lines.read',
   z.object({ filter: lineFilterSchema }),

@@ -145,7 +145,7 @@ export function RecentJobs({ projectId }: { projectId: string }) {
                 <>
                   {' · '}
                   <a href={`/api/v1/projects/${projectId}/sheets/${j.id}`} download>
-                    Download the {String(j.result.sheets)} sheets (PDF)
+                    Download the {String(j.result.sheets)} sheets (zip, one PDF per line)
                   </a>
                 </>
               ) : null}

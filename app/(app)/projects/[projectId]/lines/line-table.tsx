@@ -911,7 +911,7 @@ function DocumentLinks({
               });
             }}
           >
-            Produce the calculation sheets of the {total} filtered lines (PDF, in the background)
+            Produce the calculation sheets of the {total} filtered lines (zip of PDFs, in the background)
           </button>
         ) : null}
       </span>

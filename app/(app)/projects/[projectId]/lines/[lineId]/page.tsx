@@ -31,6 +31,8 @@ import { PrintButton } from '@/components/print-button';
 import { can } from '@/lib/auth/permissions';
 import { VESSEL_PART_IDS, VESSEL_PART_LABEL } from '@/lib/lines/vessel-parts';
 import { PartsPicker } from './parts-picker';
+import { listComments } from '@/lib/comments/store';
+import { LineComments } from './line-comments';
 
 /** "1\"-HW-207-B2 · Line · BP-STM-24": each line's page has its own title. */
 export async function generateMetadata({
@@ -765,6 +767,15 @@ export default async function LinePage({
             );
           })}
         </section>
+      ) : null}
+      {can(role, 'comments.read') ? (
+        <LineComments
+          projectId={project.id}
+          lineId={line.id}
+          tag={line.tag}
+          initial={await listComments({ projectId: project.id, lineId: line.id })}
+          canWrite={can(role, 'comments.write')}
+        />
       ) : null}
       <section className="panel mt-4 overflow-x-auto p-4">
         <h2 className="mb-2">Record</h2>

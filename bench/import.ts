@@ -222,6 +222,7 @@ async function productPath() {
       await new Promise((r) => setTimeout(r, 100));
       [row] = await db.select().from(jobs).where(eq(jobs.id, job.id));
     }
+    if (row.state !== 'done') throw new Error(`the ${job.kind} job ended ${row.state}: ${row.error}`);
     return row.result!;
   };
   const t0 = performance.now();

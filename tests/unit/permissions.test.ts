@@ -22,6 +22,8 @@ const EXPECTED: Record<string, string> = {
   'boq.issue': 'OE',
   'report.read': 'OERC',
   'report.issue': 'OE',
+  'comments.read': 'OER',
+  'comments.write': 'OER',
   'members.read': 'OER',
   'members.manage': 'O',
   'org.settings': 'O',

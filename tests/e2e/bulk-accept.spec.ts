@@ -49,7 +49,7 @@ test('engineer: bulk accept states its counts for the filter shown, leaves a man
 
   // Area North, any status: two lines change, the manual pick is left alone.
   await page.getByLabel('Status', { exact: true }).selectOption('');
-  await page.getByLabel('Area', { exact: true }).selectOption('North');
+  await page.getByRole('combobox', { name: 'Area', exact: true }).selectOption('North');
   await expect(page.locator('tr[data-tag]')).toHaveCount(3);
   const rec101 = await recommended('N-101');
   await button.click();

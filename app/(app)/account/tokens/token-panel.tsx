@@ -180,49 +180,52 @@ export function TokenPanel({
         </form>
       ) : null}
       {tokens.length ? (
-        <table className="w-full text-left text-sm">
-          <thead>
-            <tr className="border-b border-ink-200 text-xs uppercase text-ink-500">
-              <th className="py-1">Name</th>
-              <th>Token</th>
-              <th>Scopes</th>
-              <th>Made</th>
-              <th>Expires</th>
-              <th>Last used</th>
-              <th>State</th>
-              <th />
-            </tr>
-          </thead>
-          <tbody>
-            {tokens.map((t) => {
-              const state = t.revokedAt ? `Revoked ${t.revokedAt}` : t.expired ? 'Expired' : 'Active';
-              return (
-                <tr key={t.id} className="border-b border-ink-100" data-testid="token-row">
-                  <td className="py-1.5">{t.name}</td>
-                  <td className="font-mono text-xs">{t.prefix}…</td>
-                  <td>{t.scopes.join(', ')}</td>
-                  <td>{t.createdAt}</td>
-                  <td>{t.expiresAt}</td>
-                  <td>{t.lastUsedAt}</td>
-                  <td>{state}</td>
-                  <td>
-                    {!t.revokedAt ? (
-                      <button
-                        type="button"
-                        className="btn-danger"
-                        disabled={pending}
-                        onClick={() => revoke(t.id)}
-                        aria-label={`Revoke ${t.name}`}
-                      >
-                        Revoke
-                      </button>
-                    ) : null}
-                  </td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        // On a narrow screen the table scrolls in its own box, not the page.
+        <div className="overflow-x-auto">
+          <table className="w-full text-left text-sm">
+            <thead>
+              <tr className="border-b border-ink-200 text-xs uppercase text-ink-500">
+                <th className="py-1">Name</th>
+                <th>Token</th>
+                <th>Scopes</th>
+                <th>Made</th>
+                <th>Expires</th>
+                <th>Last used</th>
+                <th>State</th>
+                <th />
+              </tr>
+            </thead>
+            <tbody>
+              {tokens.map((t) => {
+                const state = t.revokedAt ? `Revoked ${t.revokedAt}` : t.expired ? 'Expired' : 'Active';
+                return (
+                  <tr key={t.id} className="border-b border-ink-100" data-testid="token-row">
+                    <td className="py-1.5">{t.name}</td>
+                    <td className="font-mono text-xs">{t.prefix}…</td>
+                    <td>{t.scopes.join(', ')}</td>
+                    <td>{t.createdAt}</td>
+                    <td>{t.expiresAt}</td>
+                    <td>{t.lastUsedAt}</td>
+                    <td>{state}</td>
+                    <td>
+                      {!t.revokedAt ? (
+                        <button
+                          type="button"
+                          className="btn-danger"
+                          disabled={pending}
+                          onClick={() => revoke(t.id)}
+                          aria-label={`Revoke ${t.name}`}
+                        >
+                          Revoke
+                        </button>
+                      ) : null}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
       ) : (
         <p className="text-sm text-ink-500">No tokens yet.</p>
       )}

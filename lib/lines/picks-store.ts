@@ -4,7 +4,7 @@
  * of recommendations lives in `./bulk-accept`.
  */
 import { and, eq } from 'drizzle-orm';
-import { db } from '@/db/client';
+import { db, type Tx } from '@/db/client';
 import { lineDesigns, lineResults, lines } from '@/db/schema';
 import { actorName, writeAudit } from '@/lib/audit';
 import { AppError } from '@/lib/errors';
@@ -19,7 +19,31 @@ import {
   type DesignParts,
   type PartPicks,
 } from './vessel-parts';
+
+type LineDesign = typeof lineDesigns.$inferSelect;
+type NewLineDesign = typeof lineDesigns.$inferInsert;
+
 const HARD: ReadonlySet<string> = HARD_CRITERIA;
+
+/**
+ * The line's stored design, locked for this transaction, when its version is the one the user saw
+ * (`expectedVersion`, 0 when there was none); otherwise someone else saved first and the pick is refused.
+ */
+async function lockedDesign(tx: Tx, lineId: string, expectedVersion: number) {
+  const [existing] = await tx.select().from(lineDesigns).where(eq(lineDesigns.lineId, lineId)).for('update');
+  if ((existing?.version ?? 0) !== expectedVersion)
+    throw new AppError(
+      'conflict',
+      "Someone else changed this line's design while you were looking at it. Reload to see their choice, then decide again.",
+    );
+  return existing;
+}
+
+/** Writes the design over the locked one, or as the line's first. */
+async function storeDesign(tx: Tx, existing: LineDesign | undefined, values: NewLineDesign) {
+  if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, values.lineId));
+  else await tx.insert(lineDesigns).values(values);
+}
 
 /**
  * Saves the chosen thickness for a line. `expectedVersion` is the design version the user saw
@@ -64,16 +88,7 @@ export async function pickDesign(o: {
       throw new AppError('invalid', 'Give a reason for choosing another thickness than the recommendation.', {
         reason: ['A reason is required for a manual pick.'],
       });
-    const [existing] = await tx
-      .select()
-      .from(lineDesigns)
-      .where(eq(lineDesigns.lineId, o.lineId))
-      .for('update');
-    if ((existing?.version ?? 0) !== o.expectedVersion)
-      throw new AppError(
-        'conflict',
-        "Someone else changed this line's design while you were looking at it. Reload to see their choice, then decide again.",
-      );
+    const existing = await lockedDesign(tx, o.lineId, o.expectedVersion);
     const values = {
       lineId: o.lineId,
       projectId: o.projectId,
@@ -90,8 +105,7 @@ export async function pickDesign(o: {
       decidedAt: new Date(),
       version: (existing?.version ?? row.line.lastDesignVersion) + 1,
     };
-    if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
-    else await tx.insert(lineDesigns).values(values);
+    await storeDesign(tx, existing, values);
     await writeAudit(tx, [
       {
         projectId: o.projectId,
@@ -201,16 +215,7 @@ export async function pickVesselParts(o: {
           },
         );
     }
-    const [existing] = await tx
-      .select()
-      .from(lineDesigns)
-      .where(eq(lineDesigns.lineId, o.lineId))
-      .for('update');
-    if ((existing?.version ?? 0) !== o.expectedVersion)
-      throw new AppError(
-        'conflict',
-        "Someone else changed this line's design while you were looking at it. Reload to see their choice, then decide again.",
-      );
+    const existing = await lockedDesign(tx, o.lineId, o.expectedVersion);
     const parts: DesignParts | null = split
       ? {
           shell: { thicknessMm: o.parts.shell.thicknessMm, layers: layersOf.shell },
@@ -242,8 +247,7 @@ export async function pickVesselParts(o: {
       decidedAt: new Date(),
       version: (existing?.version ?? row.line.lastDesignVersion) + 1,
     };
-    if (existing) await tx.update(lineDesigns).set(values).where(eq(lineDesigns.lineId, o.lineId));
-    else await tx.insert(lineDesigns).values(values);
+    await storeDesign(tx, existing, values);
     await writeAudit(tx, [
       {
         projectId: o.projectId,

@@ -8,6 +8,7 @@ import { db, type Tx } from '@/db/client';
 import { designBases, lineDesigns, lines } from '@/db/schema';
 import { actorName, writeAudit } from '@/lib/audit';
 import { AppError } from '@/lib/errors';
+import { canonicalJson } from './canonical-json';
 import { catalogueOf, ownId } from './catalogue';
 import {
   DEFAULT_DESIGN_BASIS,
@@ -75,23 +76,14 @@ export async function saveDesignBasis({
   userId: string;
   basis: DesignBasis;
 }) {
-  // jsonb does not keep key order, so compare with sorted keys.
-  const canon = (v: unknown): unknown =>
-    Array.isArray(v)
-      ? v.map(canon)
-      : v && typeof v === 'object'
-        ? Object.fromEntries(
-            Object.keys(v)
-              .sort()
-              .map((k) => [k, canon((v as Record<string, unknown>)[k])]),
-          )
-        : v;
-  const json = (v: unknown) => JSON.stringify(canon(v));
   return withLockedBasis(projectId, async (tx, row, current) => {
     // What changed, by section; the display unit system and the currency label change no result, so
     // they alone keep the revision (nothing goes stale).
     const changed = [...new Set([...Object.keys(current), ...Object.keys(basis)])].filter(
-      (k) => json((current as Record<string, unknown>)[k]) !== json((basis as Record<string, unknown>)[k]),
+      (k) =>
+        // jsonb does not keep key order, so compare with sorted keys.
+        canonicalJson((current as Record<string, unknown>)[k]) !==
+        canonicalJson((basis as Record<string, unknown>)[k]),
     );
     if (!changed.length) return { revision: row.revision };
     const revision = await writeBasis(

@@ -7,6 +7,7 @@
  * no decision yet, or whose decision is an accepted recommendation other than the current one.
  * It never touches a manual pick, a decision waiting for re-decision, or a stale result.
  */
+import { canonicalJson } from './canonical-json';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, type Tx } from '@/db/client';
 import {
@@ -65,17 +66,7 @@ const chunks = <T>(xs: T[]) =>
   Array.from({ length: Math.ceil(xs.length / CHUNK) }, (_, i) => xs.slice(i * CHUNK, (i + 1) * CHUNK));
 
 // jsonb does not keep key order: compare layer lists with sorted keys.
-const canon = (v: unknown): unknown =>
-  Array.isArray(v)
-    ? v.map(canon)
-    : v && typeof v === 'object'
-      ? Object.fromEntries(
-          Object.keys(v)
-            .sort()
-            .map((k) => [k, canon((v as Record<string, unknown>)[k])]),
-        )
-      : v;
-const sameJson = (a: unknown, b: unknown) => JSON.stringify(canon(a)) === JSON.stringify(canon(b));
+const sameJson = (a: unknown, b: unknown) => canonicalJson(a) === canonicalJson(b);
 
 interface Classified {
   lineId: string;

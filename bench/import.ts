@@ -14,6 +14,7 @@ import { eq } from 'drizzle-orm';
 import { jobs } from '../db/schema';
 import { enqueueJob, type JobView } from '../lib/jobs/store';
 import { stopBoss } from '../lib/jobs/boss';
+import { WORKER_NODE_ARGS } from '../lib/jobs/queues';
 import { randomUUID } from 'node:crypto';
 import { db, getPool } from '../db/client';
 import { projects } from '../db/schema';
@@ -201,7 +202,7 @@ async function productPath() {
     .values({ organizationId: owner.organizationId, code: `BJ-${Date.now()}`, name: 'Bench job' })
     .returning();
   const bytes = await lineListWorkbook(demoLineRows(N, 99));
-  const worker = spawn(process.execPath, ['--import', 'tsx', 'lib/jobs/worker.ts'], {
+  const worker = spawn(process.execPath, WORKER_NODE_ARGS, {
     env: process.env,
     stdio: ['ignore', 'ignore', 'pipe'],
   });

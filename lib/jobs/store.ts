@@ -3,6 +3,7 @@ import { db } from '@/db/client';
 import { jobs, type Job } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { getBoss } from './boss';
+import { wakeWorkers } from './wake';
 import { jobExpireSeconds, type QueueName, SCREEN_STEP_KINDS } from './queues';
 
 /** What the page shows of a job. */
@@ -68,6 +69,7 @@ export async function enqueueJob({
   const [job] = await db.insert(jobs).values({ projectId, kind, createdBy: userId, input }).returning(VIEW);
   const boss = await getBoss();
   await boss.send(kind, { jobId: job.id }, { expireInSeconds: jobExpireSeconds(), singletonKey: job.id });
+  await wakeWorkers(kind);
   return job as JobView;
 }
 

@@ -8,15 +8,25 @@ import { getBoss, stopBoss } from './boss';
 import { QUEUES } from './queues';
 import { markAbandonedJobs, runJob } from './run';
 import { createSolvePool } from '@/lib/lines/solve-pool';
+import { listenForJobs } from './wake';
 
 async function main() {
   const pool = createSolvePool();
   const boss = await getBoss({ supervise: true });
+  const workerIds = new Map<string, string>();
   for (const name of Object.keys(QUEUES)) {
-    await boss.work<{ jobId: string }>(name, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) =>
-      runJob(job.data.jobId, { pool }),
+    const id = await boss.work<{ jobId: string }>(
+      name,
+      { batchSize: 1, pollingIntervalSeconds: 0.5 },
+      async ([job]) => runJob(job.data.jobId, { pool }),
     );
+    workerIds.set(name, id);
   }
+  // Fetch at once when the web process says a job was queued (lib/jobs/wake.ts); polling remains.
+  const stopListening = listenForJobs((queue) => {
+    const id = workerIds.get(queue);
+    if (id) boss.notifyWorker(id);
+  });
   const sweep = setInterval(() => {
     markAbandonedJobs().catch((e) => console.error('[worker] sweep:', e?.code ?? '', e?.message));
   }, 5_000);
@@ -25,6 +35,7 @@ async function main() {
   );
   const stop = async () => {
     clearInterval(sweep);
+    await stopListening();
     await stopBoss().catch(() => undefined);
     await pool?.close().catch(() => undefined);
     await getPool()

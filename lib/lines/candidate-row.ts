@@ -91,5 +91,5 @@ export function candidateAt(rows: readonly CandidateRow[], mm: number | null): C
   return mm === null ? undefined : rows.find((r) => r[0] === mm);
 }
 
-/** SQL/JSON path filter of the candidate whose thickness is `$mm` (for `jsonb_path_query_first`). */
-export const CANDIDATE_AT_MM_PATH = 'strict $[*] ? (@[0] == $mm)';
+/** Where a stored row keeps its thickness, for the SQL that finds the candidate at a thickness. */
+export const CANDIDATE_MM_POSITION = 0;

@@ -9,7 +9,7 @@ import {
   type Delimiter,
   type TextEncodingName,
 } from './decode';
-import { checkWorkbookZip, SHEET_LIMITS, ZipLimitError } from './zip-guard';
+import { checkWorkbookZip, ROW_LIMIT_SENTENCE, SHEET_LIMITS, ZipLimitError } from './zip-guard';
 import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
 export type { CellValue, GridRow } from './header';
@@ -211,7 +211,7 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
         throw new ParseError(
           e.kind === 'columns'
             ? `This CSV file has ${e.count.toLocaleString('en')} fields in row ${e.row}; the limit is ${MAX_COLUMNS} columns. Delete the unused columns on the right (or check the field separator) and upload again.`
-            : `This CSV file has more than ${MAX_ROWS.toLocaleString('en')} rows with data (row ${e.row.toLocaleString('en')} is past the limit); the limit is ${MAX_ROWS.toLocaleString('en')} rows. Split the line list into files of at most that many rows.`,
+            : `This CSV file has more than ${MAX_ROWS.toLocaleString('en')} rows with data (row ${e.row.toLocaleString('en')} is past the limit); ${ROW_LIMIT_SENTENCE}`,
         );
       }
       if (e instanceof CsvQuoteError)
@@ -234,7 +234,7 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
   for (const s of sheets)
     if (s.grid.length > MAX_ROWS)
       throw new ParseError(
-        `Sheet "${s.name}" has ${s.grid.length.toLocaleString('en')} rows; the limit is ${MAX_ROWS.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`,
+        `Sheet "${s.name}" has ${s.grid.length.toLocaleString('en')} rows with data; ${ROW_LIMIT_SENTENCE}`,
       );
   return { kind: csv.encoding ? 'csv' : 'xlsx', sheets, ...csv };
 }

@@ -8,9 +8,9 @@ import { db, type Tx } from '@/db/client';
 import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { getDesignBasis } from './basis-store';
-import { CANDIDATE_AT_MM_PATH, type CandidateRow } from './candidate-row';
+import { CANDIDATE_MM_POSITION, type CandidateRow } from './candidate-row';
 import type { LineFilter } from './filter';
-import { resultContext, resultRow } from './result-row';
+import { resultContext, type ResultRow, resultRow } from './result-row';
 import type { SolvePool } from './solve-pool';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
 
@@ -38,36 +38,55 @@ export async function solveProject({
     .from(lines)
     .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
     .where(and(eq(lines.projectId, projectId), staleCond));
+  const total = todo.length;
   const ctx = resultContext({ basis, revision, projectId });
   let solveMs = 0;
-  // Solved and written a chunk at a time, so only one chunk of results is held in memory.
+  // Solved and written a chunk at a time, so only a few chunks of results are held in memory.
   await (outer ?? db).transaction(async (tx) => {
-    // With a pool (the job worker), chunks are solved on worker threads a few at a time and written
-    // in order as they come back; without one, in this thread.
-    const chunks: Line[][] = [];
+    const chunks: (Line[] | undefined)[] = [];
     for (let i = 0; i < todo.length; i += SOLVE_CHUNK)
       chunks.push(todo.slice(i, i + SOLVE_CHUNK).map((t) => t.line));
-    const solveChunk = (c: Line[]) =>
-      pool
-        ? pool.solve({ basis, revision, projectId, lines: c })
-        : Promise.resolve(c.map((l) => resultRow(ctx, l)));
+    todo.length = 0;
+    // With a pool (the job worker on 3+ cores), chunks are solved on worker threads a few at a time;
+    // without one, in this thread, handing the event loop back every few lines so the previous
+    // chunk's rows keep streaming to PostgreSQL while this one is solved.
+    const solveChunk = async (c: Line[]) => {
+      if (pool) return pool.solve({ basis, revision, projectId, lines: c });
+      const rows: ResultRow[] = [];
+      for (let j = 0; j < c.length; j++) {
+        rows.push(resultRow(ctx, c[j]));
+        if (j % YIELD_EVERY === YIELD_EVERY - 1) await new Promise((r) => setImmediate(r));
+      }
+      return rows;
+    };
     const ahead = pool ? pool.threads * 2 : 1;
-    const inFlight = chunks.slice(0, ahead).map(solveChunk);
+    const inFlight: (Promise<ResultRow[]> | undefined)[] = chunks.slice(0, ahead).map((c) => solveChunk(c!));
+    // PostgreSQL writes chunk i while chunk i + 1 is solved: two cores busy instead of taking turns.
+    let writing: Promise<void> = Promise.resolve();
     let done = 0;
     for (let i = 0; i < chunks.length; i++) {
       const t0 = Date.now();
-      const results = await inFlight[i];
-      if (i + ahead < chunks.length) inFlight.push(solveChunk(chunks[i + ahead]));
+      const results = await inFlight[i]!;
+      inFlight[i] = undefined; // the rows are the write's now; keeping them held every chunk in memory
+      chunks[i] = undefined;
+      if (i + ahead < chunks.length) inFlight.push(solveChunk(chunks[i + ahead]!));
       solveMs += Date.now() - t0;
-      done += results.length;
-      await upsertRows(tx, lineResults, results, { target: ['lineId'] });
-      if (onProgress) await onProgress(done, todo.length);
+      await writing;
+      writing = upsertRows(tx, lineResults, results, { target: ['lineId'] }).then(() => {
+        done += results.length;
+        return onProgress?.(done, total);
+      });
+      // Awaited before the next write (or at the end); a failure meanwhile is not "unhandled".
+      writing.catch(() => undefined);
     }
+    await writing;
   });
-  return { solved: todo.length, solveMs, basisRevision: revision };
+  return { solved: total, solveMs, basisRevision: revision };
 }
 
 const SOLVE_CHUNK = 250;
+/** Lines solved between two turns of the event loop (so a write in progress keeps flowing). */
+const YIELD_EVERY = 25;
 
 // ---------- reading ----------
 
@@ -158,7 +177,8 @@ export async function listLines(o: LineQuery) {
           needsRedecision: lineDesigns.needsRedecision,
           designVersion: lineDesigns.version,
           stale,
-          shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+          shownCandidate: sql<CandidateRow | null>`(select c from json_array_elements(${lineResults.candidates}) c
+            where (c->>${sql.raw(String(CANDIDATE_MM_POSITION))})::float8 = coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm}) limit 1)`,
         })
         .from(lines)
         .leftJoin(lineResults, eq(lineResults.lineId, lines.id))

@@ -20,14 +20,23 @@ export const ZIP_LIMITS = {
   maxRatio: 150,
 } as const;
 
+/** Lines per sheet, and the rows above them a client's sheet may spend on titles, notes and the header. */
+const MAX_LINES = 50_000;
+const TITLE_ROWS = 30;
+
 export const SHEET_LIMITS = {
-  /** Rows holding at least one value, per sheet. */
-  maxRows: 50_000,
+  maxLines: MAX_LINES,
+  titleRows: TITLE_ROWS,
+  /** Rows holding at least one value, per sheet: the lines and their title and header rows. */
+  maxRows: MAX_LINES + TITLE_ROWS,
   /** The rightmost column holding a value (256 = column IV). */
   maxColumns: 256,
   /** Cells holding a value, over the whole file. */
   maxCells: 2_500_000,
 } as const;
+
+/** The row limit as the user reads it, in every refusal that names it. */
+export const ROW_LIMIT_SENTENCE = `the limit is ${MAX_LINES.toLocaleString('en')} lines per sheet, with up to ${TITLE_ROWS} rows above them for titles and the header. Split the line list into files of at most ${MAX_LINES.toLocaleString('en')} lines.`;
 
 export class ZipLimitError extends Error {}
 
@@ -196,7 +205,7 @@ class SheetScanner {
       this.rows++;
       if (this.rows > SHEET_LIMITS.maxRows) {
         throw new ZipLimitError(
-          `Sheet "${this.sheetName}" has more than ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows with data; the limit is ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows per sheet. Split the line list into files of at most that many rows.`,
+          `Sheet "${this.sheetName}" has more than ${SHEET_LIMITS.maxRows.toLocaleString('en')} rows with data; ${ROW_LIMIT_SENTENCE}`,
         );
       }
     }

@@ -80,7 +80,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
     const deflated = { data: zlib.deflateRawSync(xml, { level: 1 }), size: xml.length, crc: zlib.crc32(xml) };
     const { message, ms } = await refusal('huge.xlsx', buildZip(workbookParts('Lines', { deflated })));
     expect(message).toBe(
-      'Sheet "Lines" has more than 50,000 rows with data; the limit is 50,000 rows per sheet. Split the line list into files of at most that many rows.',
+      'Sheet "Lines" has more than 50,030 rows with data; the limit is 50,000 lines per sheet, with up to 30 rows above them for titles and the header. Split the line list into files of at most 50,000 lines.',
     );
     expect(ms).toBeLessThan(5_000); // the issue measured 13.5 s and 1.37 GB for this file
   });
@@ -139,7 +139,7 @@ describe('upload limits: CSV', () => {
     );
     const { message } = await refusal('long.csv', csv);
     expect(message).toBe(
-      'This CSV file has more than 50,000 rows with data (row 50,001 is past the limit); the limit is 50,000 rows. Split the line list into files of at most that many rows.',
+      'This CSV file has more than 50,030 rows with data (row 50,031 is past the limit); the limit is 50,000 lines per sheet, with up to 30 rows above them for titles and the header. Split the line list into files of at most 50,000 lines.',
     );
   });
 

@@ -33,6 +33,41 @@ export async function getDesignBasis({
 }
 
 /**
+ * The same as `getDesignBasis` for read-only hot paths (the line table): the parsed basis is kept
+ * per project while its revision and `updated_at` stay the same (every write goes through
+ * `writeBasis`, which sets both), so a request reads one row and parses nothing. The object is
+ * shared between requests and frozen: never change it.
+ */
+export async function getDesignBasisShared({
+  projectId,
+}: {
+  projectId: string;
+}): Promise<{ basis: DesignBasis; revision: number }> {
+  const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
+  if (!row) return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
+  const at = row.updatedAt.getTime();
+  const hit = parsedBases.get(projectId);
+  if (hit && hit.revision === row.revision && hit.at === at) return { basis: hit.basis, revision: row.revision };
+  const basis = deepFreeze(designBasisSchema.parse(row.basis));
+  parsedBases.delete(projectId);
+  // Bounded: the oldest project read is dropped first (a Map iterates in insertion order).
+  if (parsedBases.size >= PARSED_BASES_MAX) parsedBases.delete(parsedBases.keys().next().value!);
+  parsedBases.set(projectId, { revision: row.revision, at, basis });
+  return { basis, revision: row.revision };
+}
+
+const PARSED_BASES_MAX = 200;
+const parsedBases = new Map<string, { revision: number; at: number; basis: DesignBasis }>();
+
+function deepFreeze<T>(v: T): T {
+  if (v && typeof v === 'object' && !Object.isFrozen(v)) {
+    Object.freeze(v);
+    for (const x of Object.values(v)) deepFreeze(x);
+  }
+  return v;
+}
+
+/**
  * Runs `fn` in a transaction holding the project's design-basis row locked, with the stored basis
  * (the default row is created first when the project has none). Every basis write goes through it.
  */

@@ -7,7 +7,7 @@ import type { DesignBasis } from './design-basis';
 import type { LineInput } from './validate';
 import { candidateNumbers, decidingLimits, worstMargin, type DecidingLimits } from './deciding';
 import { decodeCandidate, type CandidateRow } from './candidate-row';
-import { getDesignBasis } from './basis-store';
+import { getDesignBasis, getDesignBasisShared } from './basis-store';
 import { inputOf } from './result-row';
 import { getLine, type LineQuery, listLines } from './results-store';
 import { and, inArray, isNotNull } from 'drizzle-orm';
@@ -86,8 +86,8 @@ function toPicker(c: ReturnType<typeof candidateNumbers>[number]): PickerCandida
  * chosen) with the worst margin. The picker's thickness options come from `getPickerOptions`.
  */
 export async function lineTablePage(q: LineQuery) {
-  const r = await listLines(q);
-  const { basis } = await getDesignBasis({ projectId: q.projectId });
+  const { basis, revision } = await getDesignBasisShared({ projectId: q.projectId });
+  const r = await listLines({ ...q, basisRevision: revision });
   // Vessels picked part by part: the table says so in words ("shell 100 mm · bottom head 180 mm").
   const vesselIds = r.rows.filter((x) => x.geometry === 'vessel' && x.chosenMm !== null).map((x) => x.id);
   const partRows = vesselIds.length
@@ -104,28 +104,51 @@ export async function lineTablePage(q: LineQuery) {
   const partsText = new Map(
     partRows.map((x) => [x.lineId, describeDesign(x.thicknessMm, x.parts, (mm) => fmt.thickness(mm))]),
   );
-  const rows = await Promise.all(
-    r.rows.map(async ({ shownCandidate, outdoor, accessible, maxTempC, purposes, jacketId, ...row }) => {
-      const facts = { outdoor, accessible, normalTempC: row.normalTempC, maxTempC, purposes } as LineInput;
-      const loadLine = async () => inputOf((await getLine({ projectId: q.projectId, lineId: row.id })).line);
-      const d = await tableRowDeciding(basis, facts, jacketId, shownCandidate, loadLine);
-      // What the table shows, at the precision it shows (the sort ran on the stored values).
-      return {
-        ...row,
-        heatFlowPerUnit: row.heatFlowPerUnit === null ? null : sig(row.heatFlowPerUnit, 5),
-        surfaceTempC: row.surfaceTempC === null ? null : Math.round(row.surfaceTempC * 100) / 100,
-        chosenParts: partsText.get(row.id) ?? null,
-        personnelLimitC: d.limits.personnelLimitC,
-        condensationNeedC: d.limits.condensationNeedC,
-        // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated.
-        shown: d.shown && { ...d.shown, mm: undefined },
-        worstMargin: d.worstMargin && {
-          ...d.worstMargin,
-          marginK: Math.round(d.worstMargin.marginK * 100) / 100,
-        },
-      };
-    }),
-  );
+  const rows = [];
+  for (const row of r.rows) {
+    const facts = row as LineFacts;
+    const loadLine = async () => inputOf((await getLine({ projectId: q.projectId, lineId: row.id })).line);
+    const d = await tableRowDeciding(basis, facts, row.jacketId, row.shownCandidate, loadLine);
+    // What the table shows, at the precision it shows (the sort ran on the stored values); written
+    // out field by field (an object spread or rest of every row cost more than the rest of the work).
+    rows.push({
+      id: row.id,
+      tag: row.tag,
+      service: row.service,
+      area: row.area,
+      geometry: row.geometry,
+      nps: row.nps,
+      outsideDiameterMm: row.outsideDiameterMm,
+      normalTempC: row.normalTempC,
+      recommendedMm: row.recommendedMm,
+      governing: row.governing,
+      heatFlowPerUnit: row.heatFlowPerUnit === null ? null : sig(row.heatFlowPerUnit, 5),
+      surfaceTempC: row.surfaceTempC === null ? null : Math.round(row.surfaceTempC * 100) / 100,
+      unmet: row.unmet,
+      solved: row.solved,
+      chosenMm: row.chosenMm,
+      chosenParts: partsText.get(row.id) ?? null,
+      source: row.source,
+      belowCriterion: row.belowCriterion,
+      needsRedecision: row.needsRedecision,
+      designVersion: row.designVersion,
+      stale: row.stale,
+      personnelLimitC: d.limits.personnelLimitC,
+      condensationNeedC: d.limits.condensationNeedC,
+      // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated.
+      shown: d.shown && {
+        heatFlow: d.shown.heatFlow,
+        surfaceC: d.shown.surfaceC,
+        personnelC: d.shown.personnelC,
+        condensationC: d.shown.condensationC,
+        ok: d.shown.ok,
+      },
+      worstMargin: d.worstMargin && {
+        criterion: d.worstMargin.criterion,
+        marginK: Math.round(d.worstMargin.marginK * 100) / 100,
+      },
+    });
+  }
   return { ...r, rows };
 }
 

@@ -107,93 +107,161 @@ export interface LineQuery extends LineFilter {
   dir: 'asc' | 'desc';
 }
 
-export async function listLines(o: LineQuery) {
-  const { revision } = await getDesignBasis({ projectId: o.projectId });
-  const stale = staleSql(revision);
-  const where = [lineFilterSql(o.projectId, o, revision)];
-  const sortCol = {
-    tag: sql`${lines.tagKey} collate "C"`,
-    area: lines.area,
-    normalTempC: lines.normalTempC,
-    outsideDiameterMm: lines.outsideDiameterMm,
-    recommendedMm: lineResults.recommendedMm,
-    heatFlowPerUnit: lineResults.heatFlowPerUnit,
-    surfaceTempC: lineResults.surfaceTempC,
-    governing: lineResults.governing,
-  }[o.sort];
-  // Two steps: the page's ids from a narrow sort (only the sort key travels through the joins and
-  // the sort — the wide rows made the sort of a 10,000-line project cost ~40 ms a page), then the
-  // columns the table shows for those ids only. The candidate table (the bulk of a result) is read
-  // by lib/lines/picker.ts when a picker opens; here only the one candidate the row shows.
-  const filtered = and(...where);
-  const [page, [{ total }]] = await Promise.all([
-    db
-      .select({ id: lines.id })
-      .from(lines)
-      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(filtered)
-      .orderBy(
-        o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
-        sql`${lines.tagKey} collate "C" asc`,
-      )
-      .limit(o.size)
-      .offset(o.page * o.size),
-    db
-      .select({ total: count() })
-      .from(lines)
-      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(filtered),
-  ]);
-  const ids = page.map((r) => r.id);
-  const found = ids.length
-    ? await db
-        .select({
-          id: lines.id,
-          tag: lines.tag,
-          service: lines.service,
-          area: lines.area,
-          geometry: lines.geometry,
-          nps: lines.nps,
-          outsideDiameterMm: lines.outsideDiameterMm,
-          normalTempC: lines.normalTempC,
-          recommendedMm: lineResults.recommendedMm,
-          governing: lineResults.governing,
-          heatFlowPerUnit: lineResults.heatFlowPerUnit,
-          surfaceTempC: lineResults.surfaceTempC,
-          unmet: lineResults.unmet,
-          solved: sql<boolean>`${lineResults.lineId} is not null`,
-          jacketId: lineResults.jacketId,
-          // The facts that decide which limits apply, and the one candidate at the chosen (or else
-          // the recommended) thickness for the worst-margin column.
-          outdoor: lines.outdoor,
-          accessible: lines.accessible,
-          maxTempC: lines.maxTempC,
-          purposes: lines.purposes,
-          chosenMm: lineDesigns.thicknessMm,
-          source: lineDesigns.source,
-          belowCriterion: lineDesigns.belowCriterion,
-          needsRedecision: lineDesigns.needsRedecision,
-          designVersion: lineDesigns.version,
-          stale,
-          shownCandidate: sql<CandidateRow | null>`(select c from json_array_elements(${lineResults.candidates}) c
-            where (c->>${sql.raw(String(CANDIDATE_MM_POSITION))})::float8 = coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm}) limit 1)`,
-        })
-        .from(lines)
-        .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-        .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-        .where(inArray(lines.id, ids))
-    : [];
+/**
+ * One page of the line table. `basisRevision` saves a read when the caller has the basis already.
+ * Two steps: the page's ids in order (`tableOrder`: a narrow sort where only the sort key travels
+ * through the joins, its answer kept per project, filter and sort while nothing changed), then the
+ * columns the table shows for those ids only, by one prepared statement. The candidate table (the
+ * bulk of a result) is read by lib/lines/picker.ts when a picker opens; here only the one candidate
+ * the row shows.
+ */
+export async function listLines(o: LineQuery & { basisRevision?: number }) {
+  const revision = o.basisRevision ?? (await getDesignBasis({ projectId: o.projectId })).revision;
+  const { ids, total } = await tableOrder(o, revision);
+  const found = ids.length ? await tableRowsById.execute({ ids }) : [];
   const byId = new Map(found.map((r) => [r.id, r]));
   return {
     // In the page's order; a line deleted between the two reads is left out.
-    rows: ids.flatMap((id) => byId.get(id) ?? []),
+    rows: ids.flatMap((id) => {
+      const r = byId.get(id);
+      return r ? [tableRow(r, revision)] : [];
+    }),
     total,
     page: o.page,
     size: o.size,
   };
 }
+
+const SORT_COLUMN = {
+  tag: sql`${lines.tagKey} collate "C"`,
+  area: lines.area,
+  normalTempC: lines.normalTempC,
+  outsideDiameterMm: lines.outsideDiameterMm,
+  recommendedMm: lineResults.recommendedMm,
+  heatFlowPerUnit: lineResults.heatFlowPerUnit,
+  surfaceTempC: lineResults.surfaceTempC,
+  governing: lineResults.governing,
+} satisfies Record<LineSort, unknown>;
+
+/** The filtered lines' ids in the table's order: sort key (nulls last), then tag. */
+function orderedIds(o: LineQuery, revision: number) {
+  const sortCol = SORT_COLUMN[o.sort];
+  return {
+    from: db
+      .select({ id: lines.id })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(lineFilterSql(o.projectId, o, revision)),
+    order: [
+      o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
+      sql`${lines.tagKey} collate "C" asc`,
+    ],
+  };
+}
+
+/** The page's ids and the filter's total in one statement (the count as a window over the same rows). */
+async function tableOrder(o: LineQuery, revision: number) {
+  const sortCol = SORT_COLUMN[o.sort];
+  const filtered = lineFilterSql(o.projectId, o, revision);
+  const page = await db
+    .select({ id: lines.id, total: sql<number>`count(*) over ()`.mapWith(Number) })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(filtered)
+    .orderBy(
+      o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
+      sql`${lines.tagKey} collate "C" asc`,
+    )
+    .limit(o.size)
+    .offset(o.page * o.size);
+  if (page.length) return { ids: page.map((r) => r.id), total: page[0].total };
+  // Past the last page (or nothing matches): the count alone.
+  const [{ total }] = await db
+    .select({ total: count() })
+    .from(lines)
+    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+    .where(filtered);
+  return { ids: [] as string[], total };
+}
+
+/** A row as the table reads it, with its staleness (written out field by field: an object rest is slow here). */
+function tableRow(r: Awaited<ReturnType<typeof tableRowsById.execute>>[number], revision: number) {
+  return {
+    id: r.id,
+    tag: r.tag,
+    service: r.service,
+    area: r.area,
+    geometry: r.geometry,
+    nps: r.nps,
+    outsideDiameterMm: r.outsideDiameterMm,
+    normalTempC: r.normalTempC,
+    recommendedMm: r.recommendedMm,
+    governing: r.governing,
+    heatFlowPerUnit: r.heatFlowPerUnit,
+    surfaceTempC: r.surfaceTempC,
+    unmet: r.unmet,
+    solved: r.solved,
+    jacketId: r.jacketId,
+    outdoor: r.outdoor,
+    accessible: r.accessible,
+    maxTempC: r.maxTempC,
+    purposes: r.purposes,
+    chosenMm: r.chosenMm,
+    source: r.source,
+    belowCriterion: r.belowCriterion,
+    needsRedecision: r.needsRedecision,
+    designVersion: r.designVersion,
+    stale: isResultStale(r.resultProvenance, { inputVersion: r.inputVersion }, revision),
+    shownCandidate: r.shownCandidate,
+  };
+}
+
+/** The columns the table shows, for a page of ids (prepared once per connection). */
+const tableRowsById = db
+  .select({
+    id: lines.id,
+    tag: lines.tag,
+    service: lines.service,
+    area: lines.area,
+    geometry: lines.geometry,
+    nps: lines.nps,
+    outsideDiameterMm: lines.outsideDiameterMm,
+    normalTempC: lines.normalTempC,
+    recommendedMm: lineResults.recommendedMm,
+    governing: lineResults.governing,
+    heatFlowPerUnit: lineResults.heatFlowPerUnit,
+    surfaceTempC: lineResults.surfaceTempC,
+    unmet: lineResults.unmet,
+    solved: sql<boolean>`${lineResults.lineId} is not null`,
+    jacketId: lineResults.jacketId,
+    // The facts that decide which limits apply, and the one candidate at the chosen (or else
+    // the recommended) thickness for the worst-margin column.
+    outdoor: lines.outdoor,
+    accessible: lines.accessible,
+    maxTempC: lines.maxTempC,
+    purposes: lines.purposes,
+    chosenMm: lineDesigns.thicknessMm,
+    source: lineDesigns.source,
+    belowCriterion: lineDesigns.belowCriterion,
+    needsRedecision: lineDesigns.needsRedecision,
+    designVersion: lineDesigns.version,
+    // What the stale rule compares (applied in TypeScript with the basis revision of the request).
+    inputVersion: lines.inputVersion,
+    resultProvenance: {
+      basisRevision: lineResults.basisRevision,
+      inputVersion: lineResults.inputVersion,
+      calcVersion: lineResults.calcVersion,
+    },
+    shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+  })
+  .from(lines)
+  .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+  .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+  .where(sql`${lines.id} = any(${sql.placeholder('ids')}::uuid[])`)
+  .prepare('line_table_rows');
 
 export async function listAreas({ projectId }: { projectId: string }) {
   const r = await db

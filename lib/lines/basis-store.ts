@@ -47,7 +47,8 @@ export async function getDesignBasisShared({
   if (!row) return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
   const at = row.updatedAt.getTime();
   const hit = parsedBases.get(projectId);
-  if (hit && hit.revision === row.revision && hit.at === at) return { basis: hit.basis, revision: row.revision };
+  if (hit && hit.revision === row.revision && hit.at === at)
+    return { basis: hit.basis, revision: row.revision };
   const basis = deepFreeze(designBasisSchema.parse(row.basis));
   parsedBases.delete(projectId);
   // Bounded: the oldest project read is dropped first (a Map iterates in insertion order).

@@ -135,17 +135,15 @@ export async function lineTablePage(q: LineQuery) {
       stale: row.stale,
       personnelLimitC: d.limits.personnelLimitC,
       condensationNeedC: d.limits.condensationNeedC,
-      // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated.
+      // At chosenMm, else recommendedMm (the client knows which): the thickness is not repeated. The
+      // worst margin is not sent either: the browser derives it from these and the limits
+      // (`worstMargin` in lib/lines/margin.ts), which keeps a page of 100 rows under 60 KB.
       shown: d.shown && {
         heatFlow: d.shown.heatFlow,
         surfaceC: d.shown.surfaceC,
         personnelC: d.shown.personnelC,
         condensationC: d.shown.condensationC,
         ok: d.shown.ok,
-      },
-      worstMargin: d.worstMargin && {
-        criterion: d.worstMargin.criterion,
-        marginK: Math.round(d.worstMargin.marginK * 100) / 100,
       },
     });
   }

@@ -2,7 +2,7 @@
  * Results: solving a project's stale lines (or all of them) and reading lines with their results,
  * decisions and staleness for the table and the line page. The stale rule itself lives in `./stale`.
  */
-import { and, asc, count, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, count, eq, sql } from 'drizzle-orm';
 import { upsertRows } from '@/db/bulk';
 import { db, type Tx } from '@/db/client';
 import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
@@ -13,6 +13,7 @@ import type { LineFilter } from './filter';
 import { resultContext, type ResultRow, resultRow } from './result-row';
 import type { SolvePool } from './solve-pool';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
+import { cachedTableOrder } from './table-order-cache';
 
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
 export async function solveProject({
@@ -143,48 +144,59 @@ const SORT_COLUMN = {
   governing: lineResults.governing,
 } satisfies Record<LineSort, unknown>;
 
-/** The filtered lines' ids in the table's order: sort key (nulls last), then tag. */
-function orderedIds(o: LineQuery, revision: number) {
+/** The filter's condition and the table's order: the sort key (nulls last), then the tag. */
+function orderOf(o: LineQuery, revision: number) {
   const sortCol = SORT_COLUMN[o.sort];
   return {
-    from: db
-      .select({ id: lines.id })
-      .from(lines)
-      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(lineFilterSql(o.projectId, o, revision)),
-    order: [
+    where: lineFilterSql(o.projectId, o, revision),
+    orderBy: [
       o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
       sql`${lines.tagKey} collate "C" asc`,
     ],
   };
 }
 
-/** The page's ids and the filter's total in one statement (the count as a window over the same rows). */
+/**
+ * The page's ids and the filter's total: a slice of the whole order kept in this process
+ * (`./table-order-cache`), or while it cannot be trusted, the page and the count from PostgreSQL.
+ */
 async function tableOrder(o: LineQuery, revision: number) {
-  const sortCol = SORT_COLUMN[o.sort];
-  const filtered = lineFilterSql(o.projectId, o, revision);
-  const page = await db
-    .select({ id: lines.id, total: sql<number>`count(*) over ()`.mapWith(Number) })
-    .from(lines)
-    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-    .where(filtered)
-    .orderBy(
-      o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
-      sql`${lines.tagKey} collate "C" asc`,
-    )
-    .limit(o.size)
-    .offset(o.page * o.size);
-  if (page.length) return { ids: page.map((r) => r.id), total: page[0].total };
-  // Past the last page (or nothing matches): the count alone.
-  const [{ total }] = await db
-    .select({ total: count() })
-    .from(lines)
-    .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-    .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-    .where(filtered);
-  return { ids: [] as string[], total };
+  const { where, orderBy } = orderOf(o, revision);
+  const key = JSON.stringify([revision, o.q ?? '', o.area ?? '', o.status ?? '', o.sort, o.dir]);
+  const all = await cachedTableOrder(o.projectId, key, async () => {
+    // Every id in order as one text value (10,000 rows would cost more to parse one by one).
+    const [{ ids }] = await db
+      .select({
+        ids: sql<string | null>`string_agg(${lines.id}::text, ',' order by ${sql.join(orderBy, sql`, `)})`,
+      })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(where);
+    const list = ids ? ids.split(',') : [];
+    return { ids: list, total: list.length };
+  });
+  if (all) return { ids: all.ids.slice(o.page * o.size, (o.page + 1) * o.size), total: all.total };
+  const [page, [{ total }]] = await Promise.all([
+    db
+      .select({ id: lines.id })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(where)
+      .orderBy(...orderBy)
+      .limit(o.size)
+      .offset(o.page * o.size),
+    // A second pass, but without a sort: with no filter on results or picks, PostgreSQL drops both
+    // joins and counts the project's lines from an index (a window count over the sorted rows cost more).
+    db
+      .select({ total: count() })
+      .from(lines)
+      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+      .where(where),
+  ]);
+  return { ids: page.map((r) => r.id), total };
 }
 
 /** A row as the table reads it, with its staleness (written out field by field: an object rest is slow here). */

@@ -1,0 +1,254 @@
+/**
+ * The line table's order (the filtered lines' ids, sorted) kept in this process, so paging and
+ * re-sorting a big project does not join and sort every line on each request. Server only.
+ *
+ * Correctness rests on PostgreSQL telling us what changed, not on writers remembering to:
+ * - statement-level triggers on `lines`, `line_results` and `line_designs` (migration
+ *   line_table_order_notify) send `NOTIFY line_table_changed` with the project ids a statement
+ *   touched ("*" for a truncate or a very long list). A notification is sent at commit.
+ * - One LISTEN connection per process. While it is not connected, nothing is read from or stored in
+ *   the cache (every request sorts in PostgreSQL, as without it), and everything kept is dropped
+ *   when it goes down, since notifications may have been missed.
+ * - Before a cached order is used, one round trip on that connection (`select 1`, shared by the
+ *   requests waiting at the same time): PostgreSQL sends a listener the notifications of every
+ *   commit that came before a command it reads, so a write committed before this request started
+ *   has dropped its project's entries by then — a pick, solve or import shows on the next request.
+ * - A generation number per project, taken before the sort is read: an order computed while a
+ *   notification for its project arrived is returned but not kept (it may predate the commit).
+ * - The design-basis revision is part of the key (the stale filter depends on it).
+ * - Bounded: entries live at most TTL_MS, and at most MAX_IDS ids are kept (oldest read dropped first).
+ */
+import { Client } from 'pg';
+import { env } from '@/lib/env';
+
+export const TABLE_ORDER_CHANNEL = 'line_table_changed';
+const TTL_MS = 10 * 60_000;
+/** About 30 MB of ids across all entries (a 10,000-line project's order is 10,000 ids). */
+const MAX_IDS = 500_000;
+const MAX_ENTRIES = 1_000;
+const MAX_PROJECTS = 10_000;
+const RETRY_MS = 2_000;
+const SYNC_TIMEOUT_MS = 2_000;
+const CONNECT_WAIT_MS = 1_000;
+
+export interface TableOrder {
+  /** The ids in the table's order (shared between requests: never change it). */
+  ids: readonly string[];
+  total: number;
+}
+
+interface Entry {
+  projectId: string;
+  order: TableOrder;
+  at: number;
+}
+
+interface State {
+  entries: Map<string, Entry>;
+  /** Orders being read now, by key, with the generation and epoch they began at. */
+  reading: Map<string, { order: Promise<TableOrder>; generation: number; epoch: number }>;
+  idCount: number;
+  generations: Map<string, number>;
+  /** Bumped whenever every entry is dropped (connection up or down, "*"): a read begun before is not kept. */
+  epoch: number;
+  client: Client | null;
+  /** The connection being opened, not yet listening. */
+  connecting: Client | null;
+  opened: Promise<void>;
+  retryAt: number;
+  queuedSync: Promise<void> | null;
+  runningSync: Promise<void> | null;
+}
+
+// On globalThis, like the database pool: Next's dev reloads must not open a second listener.
+const g = globalThis as unknown as { __lagwiseTableOrder?: State };
+function state(): State {
+  g.__lagwiseTableOrder ??= {
+    entries: new Map(),
+    reading: new Map(),
+    idCount: 0,
+    generations: new Map(),
+    epoch: 0,
+    client: null,
+    connecting: null,
+    opened: Promise.resolve(),
+    retryAt: 0,
+    queuedSync: null,
+    runningSync: null,
+  };
+  return g.__lagwiseTableOrder;
+}
+
+const enabled = () => process.env.LAGWISE_TABLE_ORDER_CACHE !== 'off';
+
+/**
+ * The order for (project, key) from the cache, or computed by `compute` and kept. Answers null
+ * when the cache cannot be trusted now (switched off, or the LISTEN connection is not up): the
+ * caller then reads the page from PostgreSQL directly.
+ */
+export async function cachedTableOrder(
+  projectId: string,
+  key: string,
+  compute: () => Promise<TableOrder>,
+): Promise<TableOrder | null> {
+  if (!enabled()) return null;
+  const s = state();
+  if (!s.client) {
+    // The first request of a process waits for the connection a moment rather than sort alone.
+    await connect(s);
+    if (!s.client) return null;
+  }
+  try {
+    await sync(s);
+  } catch {
+    return null;
+  }
+  if (!s.client) return null;
+  const k = `${projectId}\u0000${key}`;
+  const hit = s.entries.get(k);
+  if (hit && Date.now() - hit.at < TTL_MS) {
+    // Most recently read last, so the bound drops the oldest read first.
+    s.entries.delete(k);
+    s.entries.set(k, hit);
+    return hit.order;
+  }
+  if (hit) drop(s, k);
+  const generation = s.generations.get(projectId) ?? 0;
+  const epoch = s.epoch;
+  // Requests that miss the same key together share one read, if nothing changed since it began.
+  const shared = s.reading.get(k);
+  if (shared && shared.generation === generation && shared.epoch === epoch) return shared.order;
+  const order = compute();
+  s.reading.set(k, { order, generation, epoch });
+  try {
+    const o = await order;
+    if (s.client && s.epoch === epoch && (s.generations.get(projectId) ?? 0) === generation)
+      keep(s, k, projectId, o);
+    return o;
+  } finally {
+    if (s.reading.get(k)?.order === order) s.reading.delete(k);
+  }
+}
+
+/** What the cache holds now (tests and diagnostics). */
+export function tableOrderCacheStats() {
+  const s = state();
+  return { listening: s.client !== null, entries: s.entries.size, ids: s.idCount };
+}
+
+/** Closes the LISTEN connection and drops everything (tests; a process that exits needs nothing). */
+export async function stopTableOrderCache() {
+  const s = state();
+  const c = s.client;
+  const opening = s.connecting;
+  s.client = null;
+  s.connecting = null;
+  dropAll(s);
+  await Promise.all([c, opening].map((x) => x?.end().catch(() => {})));
+  s.retryAt = 0;
+}
+
+function keep(s: State, k: string, projectId: string, order: TableOrder) {
+  if (order.ids.length > MAX_IDS) return;
+  if (s.entries.has(k)) drop(s, k);
+  while (s.entries.size && (s.idCount + order.ids.length > MAX_IDS || s.entries.size >= MAX_ENTRIES))
+    drop(s, s.entries.keys().next().value!);
+  Object.freeze(order.ids);
+  s.entries.set(k, { projectId, order, at: Date.now() });
+  s.idCount += order.ids.length;
+}
+
+function drop(s: State, k: string) {
+  const e = s.entries.get(k);
+  if (!e) return;
+  s.entries.delete(k);
+  s.idCount -= e.order.ids.length;
+}
+
+function dropAll(s: State) {
+  s.entries.clear();
+  s.idCount = 0;
+  s.generations.clear();
+  s.epoch++;
+}
+
+function changed(s: State, payload: string | undefined) {
+  if (!payload || payload === '*') return dropAll(s);
+  if (s.generations.size > MAX_PROJECTS) return dropAll(s);
+  const projects = new Set(payload.split(','));
+  for (const p of projects) s.generations.set(p, (s.generations.get(p) ?? 0) + 1);
+  for (const [k, e] of s.entries) if (projects.has(e.projectId)) drop(s, k);
+}
+
+/**
+ * Opens the LISTEN connection; the promise settles when it listens, fails, or after CONNECT_WAIT_MS
+ * (requests meanwhile read PostgreSQL directly).
+ */
+function connect(s: State): Promise<void> {
+  if (Date.now() < s.retryAt) return Promise.resolve();
+  if (s.connecting) return s.opened;
+  const c = new Client({ connectionString: env.databaseUrl() });
+  s.connecting = c;
+  const down = () => {
+    if (s.client === c) {
+      s.client = null;
+      dropAll(s);
+    }
+    if (s.connecting === c) s.connecting = null;
+    if (!s.client && !s.connecting) s.retryAt = Date.now() + RETRY_MS;
+    c.end().catch(() => {});
+  };
+  c.on('error', down);
+  c.on('end', down);
+  c.on('notification', (m) => {
+    if (m.channel === TABLE_ORDER_CHANNEL) changed(s, m.payload);
+  });
+  const listening = c
+    .connect()
+    .then(() => c.query(`LISTEN ${TABLE_ORDER_CHANNEL}`))
+    .then(() => {
+      // The listener alone must not keep a script (a benchmark, a CLI) from exiting.
+      (c as unknown as { connection?: { stream?: { unref?: () => void } } }).connection?.stream?.unref?.();
+      if (s.connecting !== c) return void c.end().catch(() => {});
+      dropAll(s);
+      s.client = c;
+      s.connecting = null;
+    })
+    .catch(down);
+  s.opened = Promise.race([listening, new Promise<void>((r) => setTimeout(r, CONNECT_WAIT_MS).unref())]);
+  return s.opened;
+}
+
+/**
+ * One round trip on the LISTEN connection that starts after the caller arrived; callers that arrive
+ * before it starts share it. Fails (and takes the connection down) when the answer is late.
+ */
+function sync(s: State): Promise<void> {
+  if (s.queuedSync) return s.queuedSync;
+  const before = s.runningSync ?? Promise.resolve();
+  const queued: Promise<void> = before
+    .catch(() => {})
+    .then(() => {
+      if (s.queuedSync === queued) s.queuedSync = null;
+      const c = s.client;
+      if (!c) throw new Error('not listening');
+      let timer: NodeJS.Timeout | undefined;
+      const running = Promise.race([
+        c.query('select 1').then(() => undefined),
+        new Promise<never>((_, reject) => {
+          timer = setTimeout(() => {
+            c.emit('error', new Error('the listener did not answer'));
+            reject(new Error('the listener did not answer'));
+          }, SYNC_TIMEOUT_MS);
+          timer.unref();
+        }),
+      ]).finally(() => {
+        clearTimeout(timer);
+        if (s.runningSync === running) s.runningSync = null;
+      });
+      s.runningSync = running;
+      return running;
+    });
+  s.queuedSync = queued;
+  return queued;
+}

@@ -22,6 +22,8 @@ import { Client } from 'pg';
 import { env } from '@/lib/env';
 
 export const TABLE_ORDER_CHANNEL = 'line_table_changed';
+/** The listener's `application_name` (pg_stat_activity: one per web process). */
+export const TABLE_ORDER_LISTENER = 'lagwise line-table listener';
 const TTL_MS = 10 * 60_000;
 /** About 30 MB of ids across all entries (a 10,000-line project's order is 10,000 ids). */
 const MAX_IDS = 500_000;
@@ -187,7 +189,7 @@ function changed(s: State, payload: string | undefined) {
 function connect(s: State): Promise<void> {
   if (Date.now() < s.retryAt) return Promise.resolve();
   if (s.connecting) return s.opened;
-  const c = new Client({ connectionString: env.databaseUrl() });
+  const c = new Client({ connectionString: env.databaseUrl(), application_name: TABLE_ORDER_LISTENER });
   s.connecting = c;
   const down = () => {
     if (s.client === c) {

@@ -10,6 +10,7 @@ import { decodeCandidate, type CandidateRow } from './candidate-row';
 import { getDesignBasis, getDesignBasisShared } from './basis-store';
 import { inputOf } from './result-row';
 import { getLine, type LineQuery, listLines } from './results-store';
+import { tableReads } from './table-read-cache';
 import { and, inArray, isNotNull } from 'drizzle-orm';
 import { db } from '@/db/client';
 import { lineDesigns } from '@/db/schema';
@@ -86,8 +87,9 @@ function toPicker(c: ReturnType<typeof candidateNumbers>[number]): PickerCandida
  * chosen) with the worst margin. The picker's thickness options come from `getPickerOptions`.
  */
 export async function lineTablePage(q: LineQuery) {
-  const { basis, revision } = await getDesignBasisShared({ projectId: q.projectId });
-  const r = await listLines({ ...q, basisRevision: revision });
+  const reads = await tableReads();
+  const { basis, revision } = await getDesignBasisShared({ projectId: q.projectId, reads });
+  const r = await listLines({ ...q, basisRevision: revision, reads });
   // Vessels picked part by part: the table says so in words ("shell 100 mm · bottom head 180 mm").
   const vesselIds = r.rows.filter((x) => x.geometry === 'vessel' && x.chosenMm !== null).map((x) => x.id);
   const partRows = vesselIds.length

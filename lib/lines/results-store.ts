@@ -13,7 +13,7 @@ import type { LineFilter } from './filter';
 import { resultContext, type ResultRow, resultRow } from './result-row';
 import type { SolvePool } from './solve-pool';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
-import { cachedTableOrder } from './table-order-cache';
+import { type TableReads, tableReads } from './table-read-cache';
 
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
 export async function solveProject({
@@ -109,16 +109,18 @@ export interface LineQuery extends LineFilter {
 }
 
 /**
- * One page of the line table. `basisRevision` saves a read when the caller has the basis already.
+ * One page of the line table. `basisRevision` saves a read when the caller has the basis already,
+ * `reads` the cache's sync when the caller has begun the request with `tableReads()`.
  * Two steps: the page's ids in order (`tableOrder`: a narrow sort where only the sort key travels
  * through the joins, its answer kept per project, filter and sort while nothing changed), then the
  * columns the table shows for those ids only, by one prepared statement. The candidate table (the
  * bulk of a result) is read by lib/lines/picker.ts when a picker opens; here only the one candidate
  * the row shows.
  */
-export async function listLines(o: LineQuery & { basisRevision?: number }) {
+export async function listLines(o: LineQuery & { basisRevision?: number; reads?: TableReads | null }) {
+  const reads = o.reads === undefined ? await tableReads() : o.reads;
   const revision = o.basisRevision ?? (await getDesignBasis({ projectId: o.projectId })).revision;
-  const { ids, total } = await tableOrder(o, revision);
+  const { ids, total } = await tableOrder(o, revision, reads);
   const found = ids.length ? await tableRowsById.execute({ ids }) : [];
   const byId = new Map(found.map((r) => [r.id, r]));
   return {
@@ -158,24 +160,30 @@ function orderOf(o: LineQuery, revision: number) {
 
 /**
  * The page's ids and the filter's total: a slice of the whole order kept in this process
- * (`./table-order-cache`), or while it cannot be trusted, the page and the count from PostgreSQL.
+ * (`./table-read-cache`), or while it cannot be trusted, the page and the count from PostgreSQL.
  */
-async function tableOrder(o: LineQuery, revision: number) {
+async function tableOrder(o: LineQuery, revision: number, reads: TableReads | null) {
   const { where, orderBy } = orderOf(o, revision);
-  const key = JSON.stringify([revision, o.q ?? '', o.area ?? '', o.status ?? '', o.sort, o.dir]);
-  const all = await cachedTableOrder(o.projectId, key, async () => {
-    // Every id in order as one text value (10,000 rows would cost more to parse one by one).
-    const [{ ids }] = await db
-      .select({
-        ids: sql<string | null>`string_agg(${lines.id}::text, ',' order by ${sql.join(orderBy, sql`, `)})`,
-      })
-      .from(lines)
-      .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-      .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(where);
-    const list = ids ? ids.split(',') : [];
-    return { ids: list, total: list.length };
-  });
+  // The revision is part of the key: the stale filter depends on it.
+  const key = JSON.stringify(['order', revision, o.q ?? '', o.area ?? '', o.status ?? '', o.sort, o.dir]);
+  const all = await reads?.get(
+    o.projectId,
+    key,
+    async () => {
+      // Every id in order as one text value (10,000 rows would cost more to parse one by one).
+      const [{ ids }] = await db
+        .select({
+          ids: sql<string | null>`string_agg(${lines.id}::text, ',' order by ${sql.join(orderBy, sql`, `)})`,
+        })
+        .from(lines)
+        .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+        .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+        .where(where);
+      const list = ids ? ids.split(',') : [];
+      return { ids: list as readonly string[], total: list.length };
+    },
+    (v) => v.total,
+  );
   if (all) return { ids: all.ids.slice(o.page * o.size, (o.page + 1) * o.size), total: all.total };
   const [page, [{ total }]] = await Promise.all([
     db

@@ -1,5 +1,6 @@
--- The line table's order is kept in each web process (lib/lines/table-order-cache.ts) and dropped
--- when a statement changes the lines, results or picks of a project: one notification per statement
+-- The line table's order and the parsed design basis are kept in each web process
+-- (lib/lines/table-read-cache.ts) and dropped when a statement changes the lines, results, picks or
+-- design basis of a project: one notification per statement
 -- naming the projects it touched (statement-level, from the transition tables: no row locks, no
 -- counter row that writers would queue on). NOTIFY is sent at commit, so a listener never hears of
 -- a change it cannot yet read.
@@ -31,7 +32,10 @@ CREATE TRIGGER line_results_table_upd AFTER UPDATE ON line_results REFERENCING O
 CREATE TRIGGER line_results_table_del AFTER DELETE ON line_results REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
 CREATE TRIGGER line_designs_table_ins AFTER INSERT ON line_designs REFERENCING NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
 CREATE TRIGGER line_designs_table_upd AFTER UPDATE ON line_designs REFERENCING OLD TABLE AS old_rows NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
-CREATE TRIGGER line_designs_table_del AFTER DELETE ON line_designs REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();
+CREATE TRIGGER line_designs_table_del AFTER DELETE ON line_designs REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
+CREATE TRIGGER design_bases_table_ins AFTER INSERT ON design_bases REFERENCING NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
+CREATE TRIGGER design_bases_table_upd AFTER UPDATE ON design_bases REFERENCING OLD TABLE AS old_rows NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();--> statement-breakpoint
+CREATE TRIGGER design_bases_table_del AFTER DELETE ON design_bases REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION line_table_changed();
 --> statement-breakpoint
 CREATE FUNCTION line_table_truncated() RETURNS trigger LANGUAGE plpgsql AS $$
 BEGIN
@@ -42,4 +46,5 @@ $$;
 --> statement-breakpoint
 CREATE TRIGGER lines_table_trunc AFTER TRUNCATE ON lines FOR EACH STATEMENT EXECUTE FUNCTION line_table_truncated();--> statement-breakpoint
 CREATE TRIGGER line_results_table_trunc AFTER TRUNCATE ON line_results FOR EACH STATEMENT EXECUTE FUNCTION line_table_truncated();--> statement-breakpoint
-CREATE TRIGGER line_designs_table_trunc AFTER TRUNCATE ON line_designs FOR EACH STATEMENT EXECUTE FUNCTION line_table_truncated();
+CREATE TRIGGER line_designs_table_trunc AFTER TRUNCATE ON line_designs FOR EACH STATEMENT EXECUTE FUNCTION line_table_truncated();--> statement-breakpoint
+CREATE TRIGGER design_bases_table_trunc AFTER TRUNCATE ON design_bases FOR EACH STATEMENT EXECUTE FUNCTION line_table_truncated();

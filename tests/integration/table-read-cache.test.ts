@@ -1,7 +1,8 @@
 /**
- * The line table's order kept in the process (lib/lines/table-order-cache.ts): a pick, a solve, an
- * import and a write from another connection show on the very next request; an order read while its
- * project changed is not kept; with the LISTEN connection down nothing is read from the cache.
+ * The line table's reads kept in the process (lib/lines/table-read-cache.ts): a pick, a solve, an
+ * import, a design-basis save and a write from another connection show on the very next request; a
+ * value read while its project changed is not kept; with the LISTEN connection down nothing is read
+ * from the cache.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
@@ -17,11 +18,12 @@ import { getPickerOptions, lineTablePage } from '@/lib/lines/picker';
 import { solveProject } from '@/lib/lines/results-store';
 import type { LineQuery } from '@/lib/lines/results-store';
 import {
-  cachedTableOrder,
-  stopTableOrderCache,
-  tableOrderCacheStats,
-  TABLE_ORDER_LISTENER,
-} from '@/lib/lines/table-order-cache';
+  stopTableReadCache,
+  TABLE_READ_LISTENER,
+  tableReadCacheStats,
+  tableReads,
+} from '@/lib/lines/table-read-cache';
+import { getDesignBasisShared, saveDesignBasis } from '@/lib/lines/basis-store';
 import { lineListWorkbook, TEMPLATE_HEADERS } from '../../seed/line-list';
 
 type Row = (string | number | null)[];
@@ -91,23 +93,23 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await other.end();
-  await stopTableOrderCache();
+  await stopTableReadCache();
   await getPool().end();
 });
 
-describe('the line table order kept in the process', () => {
+describe('the line table reads kept in the process', () => {
   it('keeps an order once read and serves the next request from it', async () => {
     expect(await tagsOf()).toEqual(['P-4', 'P-3', 'P-2', 'P-1']);
-    expect(tableOrderCacheStats().listening).toBe(true);
+    expect(tableReadCacheStats().listening).toBe(true);
     let reads = 0;
     const read = async () => {
       reads++;
       return { ids: ['x'], total: 1 };
     };
-    await cachedTableOrder(projectId, 'probe', read);
-    expect(await cachedTableOrder(projectId, 'probe', read)).toEqual({ ids: ['x'], total: 1 });
+    await (await tableReads())!.get(projectId, 'probe', read);
+    expect(await (await tableReads())!.get(projectId, 'probe', read)).toEqual({ ids: ['x'], total: 1 });
     expect(reads).toBe(1);
-    expect(tableOrderCacheStats().entries).toBeGreaterThanOrEqual(2);
+    expect(tableReadCacheStats().entries).toBeGreaterThanOrEqual(2);
   });
 
   it('a pick shows on the next request (filter "Undecided" and "Manual pick")', async () => {
@@ -146,6 +148,29 @@ describe('the line table order kept in the process', () => {
     expect(byLoss).toHaveLength(5);
   });
 
+  it('a design-basis save shows on the next request, also one that keeps the revision', async () => {
+    const before = await getDesignBasisShared({ projectId, reads: await tableReads() });
+    expect(before.basis.unitSystem).toBe('SI');
+    expect(await getDesignBasisShared({ projectId, reads: await tableReads() })).toBe(before);
+    // The display units alone keep the revision (nothing goes stale), yet the page must follow them.
+    await saveDesignBasis({ projectId, userId, basis: { ...before.basis, unitSystem: 'US' } });
+    const after = await getDesignBasisShared({ projectId, reads: await tableReads() });
+    expect(after.basis.unitSystem).toBe('US');
+    expect(after.revision).toBe(before.revision);
+    await saveDesignBasis({
+      projectId,
+      userId,
+      basis: { ...after.basis, dewPointMarginK: after.basis.dewPointMarginK + 1 },
+    });
+    expect((await getDesignBasisShared({ projectId, reads: await tableReads() })).revision).toBe(
+      before.revision + 1,
+    );
+    // Every line is stale after the revision changed: the stale filter (keyed by revision) says so.
+    expect(await tagsOf({ status: 'stale' })).toHaveLength(5);
+    await solveProject({ projectId });
+    expect(await tagsOf({ status: 'stale' })).toEqual([]);
+  });
+
   it('a write from another connection shows on the next request', async () => {
     expect(await tagsOf({ area: 'B7' })).toEqual([]);
     await other.query(`update lines set area = 'B7' where project_id = $1 and tag = 'P-2'`, [projectId]);
@@ -167,9 +192,9 @@ describe('the line table order kept in the process', () => {
       }
       return { ids: [`read ${reads}`], total: 1 };
     };
-    expect((await cachedTableOrder(projectId, 'racing', read))?.ids).toEqual(['read 1']);
-    expect((await cachedTableOrder(projectId, 'racing', read))?.ids).toEqual(['read 2']);
-    expect((await cachedTableOrder(projectId, 'racing', read))?.ids).toEqual(['read 2']);
+    expect((await (await tableReads())!.get(projectId, 'racing', read))?.ids).toEqual(['read 1']);
+    expect((await (await tableReads())!.get(projectId, 'racing', read))?.ids).toEqual(['read 2']);
+    expect((await (await tableReads())!.get(projectId, 'racing', read))?.ids).toEqual(['read 2']);
     expect(reads).toBe(2);
   });
 
@@ -178,22 +203,22 @@ describe('the line table order kept in the process', () => {
     // Cut the listener off from the server side, as a restart or a network fault would.
     const { rows } = await other.query(
       'select pid from pg_stat_activity where application_name = $1 and datname = current_database()',
-      [TABLE_ORDER_LISTENER],
+      [TABLE_READ_LISTENER],
     );
     expect(rows.length).toBeGreaterThanOrEqual(1);
     for (const r of rows) await other.query('select pg_terminate_backend($1)', [r.pid]);
     await new Promise((r) => setTimeout(r, 300));
-    expect(tableOrderCacheStats()).toMatchObject({ listening: false, entries: 0 });
+    expect(tableReadCacheStats()).toMatchObject({ listening: false, entries: 0 });
     // Without the listener the page is read from PostgreSQL, and so is correct.
     await other.query(`update lines set normal_temp_c = 10 where project_id = $1 and tag = 'P-5'`, [
       projectId,
     ]);
     expect(await tagsOf()).toEqual(['P-5', 'P-1', 'P-3', 'P-2']);
-    expect(await cachedTableOrder(projectId, 'down', async () => ({ ids: [], total: 0 }))).toBeNull();
+    expect(await tableReads()).toBeNull();
     // After the retry pause it listens again and keeps orders.
     await new Promise((r) => setTimeout(r, 2_200));
     expect(await tagsOf()).toEqual(['P-5', 'P-1', 'P-3', 'P-2']);
-    expect(tableOrderCacheStats().listening).toBe(true);
+    expect(tableReadCacheStats().listening).toBe(true);
     await other.query(`update lines set normal_temp_c = 300 where project_id = $1 and tag = 'P-5'`, [
       projectId,
     ]);

@@ -1,55 +1,51 @@
 /**
- * The line table's order (the filtered lines' ids, sorted) kept in this process, so paging and
- * re-sorting a big project does not join and sort every line on each request. Server only.
+ * What the line table reads of a project — the filtered lines' ids in order, and the parsed design
+ * basis — kept in this process, so paging and re-sorting a big project does not join and sort
+ * every line on each request. Server only.
  *
  * Correctness rests on PostgreSQL telling us what changed, not on writers remembering to:
- * - statement-level triggers on `lines`, `line_results` and `line_designs` (migration
- *   line_table_order_notify) send `NOTIFY line_table_changed` with the project ids a statement
- *   touched ("*" for a truncate or a very long list). A notification is sent at commit.
+ * - statement-level triggers on `lines`, `line_results`, `line_designs` and `design_bases`
+ *   (migration line_table_read_notify) send `NOTIFY line_table_changed` with the project ids a
+ *   statement touched ("*" for a truncate or a very long list). A notification is sent at commit.
  * - One LISTEN connection per process. While it is not connected, nothing is read from or stored in
- *   the cache (every request sorts in PostgreSQL, as without it), and everything kept is dropped
- *   when it goes down, since notifications may have been missed.
- * - Before a cached order is used, one round trip on that connection (`select 1`, shared by the
+ *   the cache (every request reads PostgreSQL, as without it), and everything kept is dropped when
+ *   it goes down, since notifications may have been missed.
+ * - Before a request uses the cache, one round trip on that connection (`select 1`, shared by the
  *   requests waiting at the same time): PostgreSQL sends a listener the notifications of every
  *   commit that came before a command it reads, so a write committed before this request started
  *   has dropped its project's entries by then — a pick, solve or import shows on the next request.
- * - A generation number per project, taken before the sort is read: an order computed while a
- *   notification for its project arrived is returned but not kept (it may predate the commit).
- * - The design-basis revision is part of the key (the stale filter depends on it).
- * - Bounded: entries live at most TTL_MS, and at most MAX_IDS ids are kept (oldest read dropped first).
+ * - A generation number per project, taken before a read: a value read while a notification for
+ *   its project arrived is returned but not kept (it may predate the commit).
+ * - Bounded: entries live at most TTL_MS, and their weights (ids for an order) add up to at most
+ *   MAX_WEIGHT (the oldest read is dropped first).
  */
 import { Client } from 'pg';
 import { env } from '@/lib/env';
 
-export const TABLE_ORDER_CHANNEL = 'line_table_changed';
+export const TABLE_READ_CHANNEL = 'line_table_changed';
 /** The listener's `application_name` (pg_stat_activity: one per web process). */
-export const TABLE_ORDER_LISTENER = 'lagwise line-table listener';
+export const TABLE_READ_LISTENER = 'lagwise line-table listener';
 const TTL_MS = 10 * 60_000;
-/** About 30 MB of ids across all entries (a 10,000-line project's order is 10,000 ids). */
-const MAX_IDS = 500_000;
+/** About 30 MB when the weights are ids (a 10,000-line project's order weighs 10,000). */
+const MAX_WEIGHT = 500_000;
 const MAX_ENTRIES = 1_000;
 const MAX_PROJECTS = 10_000;
 const RETRY_MS = 2_000;
 const SYNC_TIMEOUT_MS = 2_000;
 const CONNECT_WAIT_MS = 1_000;
 
-export interface TableOrder {
-  /** The ids in the table's order (shared between requests: never change it). */
-  ids: readonly string[];
-  total: number;
-}
-
 interface Entry {
   projectId: string;
-  order: TableOrder;
+  value: unknown;
+  weight: number;
   at: number;
 }
 
 interface State {
   entries: Map<string, Entry>;
-  /** Orders being read now, by key, with the generation and epoch they began at. */
-  reading: Map<string, { order: Promise<TableOrder>; generation: number; epoch: number }>;
-  idCount: number;
+  /** Values being read now, by key, with the generation and epoch they began at. */
+  reading: Map<string, { value: Promise<unknown>; generation: number; epoch: number }>;
+  weight: number;
   generations: Map<string, number>;
   /** Bumped whenever every entry is dropped (connection up or down, "*"): a read begun before is not kept. */
   epoch: number;
@@ -63,12 +59,12 @@ interface State {
 }
 
 // On globalThis, like the database pool: Next's dev reloads must not open a second listener.
-const g = globalThis as unknown as { __lagwiseTableOrder?: State };
+const g = globalThis as unknown as { __lagwiseTableReads?: State };
 function state(): State {
-  g.__lagwiseTableOrder ??= {
+  g.__lagwiseTableReads ??= {
     entries: new Map(),
     reading: new Map(),
-    idCount: 0,
+    weight: 0,
     generations: new Map(),
     epoch: 0,
     client: null,
@@ -78,21 +74,26 @@ function state(): State {
     queuedSync: null,
     runningSync: null,
   };
-  return g.__lagwiseTableOrder;
+  return g.__lagwiseTableReads;
 }
 
-const enabled = () => process.env.LAGWISE_TABLE_ORDER_CACHE !== 'off';
+const enabled = () => process.env.LAGWISE_TABLE_READ_CACHE !== 'off';
+
+/** A request's view of the cache, after its sync: every commit before the request is accounted for. */
+export interface TableReads {
+  /**
+   * The value for (project, key) from the cache, or read by `read` and kept (`weight`: its share of
+   * the bound, 1 unless given). Shared between requests: never change what it returns.
+   */
+  get<T>(projectId: string, key: string, read: () => Promise<T>, weight?: (v: T) => number): Promise<T>;
+}
 
 /**
- * The order for (project, key) from the cache, or computed by `compute` and kept. Answers null
- * when the cache cannot be trusted now (switched off, or the LISTEN connection is not up): the
- * caller then reads the page from PostgreSQL directly.
+ * The cache for one request, or null when it cannot be trusted now (switched off with
+ * LAGWISE_TABLE_READ_CACHE=off, or the LISTEN connection is not up): the caller then reads
+ * PostgreSQL directly. Call it once per request, when the request starts.
  */
-export async function cachedTableOrder(
-  projectId: string,
-  key: string,
-  compute: () => Promise<TableOrder>,
-): Promise<TableOrder | null> {
+export async function tableReads(): Promise<TableReads | null> {
   if (!enabled()) return null;
   const s = state();
   if (!s.client) {
@@ -106,40 +107,50 @@ export async function cachedTableOrder(
     return null;
   }
   if (!s.client) return null;
+  return { get: (projectId, key, read, weight) => cached(s, projectId, key, read, weight) };
+}
+
+async function cached<T>(
+  s: State,
+  projectId: string,
+  key: string,
+  read: () => Promise<T>,
+  weight: (v: T) => number = () => 1,
+): Promise<T> {
   const k = `${projectId}\u0000${key}`;
   const hit = s.entries.get(k);
   if (hit && Date.now() - hit.at < TTL_MS) {
     // Most recently read last, so the bound drops the oldest read first.
     s.entries.delete(k);
     s.entries.set(k, hit);
-    return hit.order;
+    return hit.value as T;
   }
   if (hit) drop(s, k);
   const generation = s.generations.get(projectId) ?? 0;
   const epoch = s.epoch;
   // Requests that miss the same key together share one read, if nothing changed since it began.
   const shared = s.reading.get(k);
-  if (shared && shared.generation === generation && shared.epoch === epoch) return shared.order;
-  const order = compute();
-  s.reading.set(k, { order, generation, epoch });
+  if (shared && shared.generation === generation && shared.epoch === epoch) return shared.value as Promise<T>;
+  const value = read();
+  s.reading.set(k, { value, generation, epoch });
   try {
-    const o = await order;
+    const v = await value;
     if (s.client && s.epoch === epoch && (s.generations.get(projectId) ?? 0) === generation)
-      keep(s, k, projectId, o);
-    return o;
+      keep(s, k, projectId, v, weight(v));
+    return v;
   } finally {
-    if (s.reading.get(k)?.order === order) s.reading.delete(k);
+    if (s.reading.get(k)?.value === value) s.reading.delete(k);
   }
 }
 
 /** What the cache holds now (tests and diagnostics). */
-export function tableOrderCacheStats() {
+export function tableReadCacheStats() {
   const s = state();
-  return { listening: s.client !== null, entries: s.entries.size, ids: s.idCount };
+  return { listening: s.client !== null, entries: s.entries.size, weight: s.weight };
 }
 
 /** Closes the LISTEN connection and drops everything (tests; a process that exits needs nothing). */
-export async function stopTableOrderCache() {
+export async function stopTableReadCache() {
   const s = state();
   const c = s.client;
   const opening = s.connecting;
@@ -150,26 +161,25 @@ export async function stopTableOrderCache() {
   s.retryAt = 0;
 }
 
-function keep(s: State, k: string, projectId: string, order: TableOrder) {
-  if (order.ids.length > MAX_IDS) return;
+function keep(s: State, k: string, projectId: string, value: unknown, weight: number) {
+  if (weight > MAX_WEIGHT) return;
   if (s.entries.has(k)) drop(s, k);
-  while (s.entries.size && (s.idCount + order.ids.length > MAX_IDS || s.entries.size >= MAX_ENTRIES))
+  while (s.entries.size && (s.weight + weight > MAX_WEIGHT || s.entries.size >= MAX_ENTRIES))
     drop(s, s.entries.keys().next().value!);
-  Object.freeze(order.ids);
-  s.entries.set(k, { projectId, order, at: Date.now() });
-  s.idCount += order.ids.length;
+  s.entries.set(k, { projectId, value, weight, at: Date.now() });
+  s.weight += weight;
 }
 
 function drop(s: State, k: string) {
   const e = s.entries.get(k);
   if (!e) return;
   s.entries.delete(k);
-  s.idCount -= e.order.ids.length;
+  s.weight -= e.weight;
 }
 
 function dropAll(s: State) {
   s.entries.clear();
-  s.idCount = 0;
+  s.weight = 0;
   s.generations.clear();
   s.epoch++;
 }
@@ -189,7 +199,7 @@ function changed(s: State, payload: string | undefined) {
 function connect(s: State): Promise<void> {
   if (Date.now() < s.retryAt) return Promise.resolve();
   if (s.connecting) return s.opened;
-  const c = new Client({ connectionString: env.databaseUrl(), application_name: TABLE_ORDER_LISTENER });
+  const c = new Client({ connectionString: env.databaseUrl(), application_name: TABLE_READ_LISTENER });
   s.connecting = c;
   const down = () => {
     if (s.client === c) {
@@ -203,11 +213,11 @@ function connect(s: State): Promise<void> {
   c.on('error', down);
   c.on('end', down);
   c.on('notification', (m) => {
-    if (m.channel === TABLE_ORDER_CHANNEL) changed(s, m.payload);
+    if (m.channel === TABLE_READ_CHANNEL) changed(s, m.payload);
   });
   const listening = c
     .connect()
-    .then(() => c.query(`LISTEN ${TABLE_ORDER_CHANNEL}`))
+    .then(() => c.query(`LISTEN ${TABLE_READ_CHANNEL}`))
     .then(() => {
       // The listener alone must not keep a script (a benchmark, a CLI) from exiting.
       (c as unknown as { connection?: { stream?: { unref?: () => void } } }).connection?.stream?.unref?.();

@@ -111,7 +111,7 @@ export interface LineQuery extends LineFilter {
 /**
  * One page of the line table. `basisRevision` saves a read when the caller has the basis already,
  * `reads` the cache's sync when the caller has begun the request with `tableReads()`.
- * Two steps: the page's ids in order (`tableOrder`: a narrow sort where only the sort key travels
+ * Two steps: the page's ids in order (`lineTableOrder`: a narrow sort where only the sort key travels
  * through the joins, its answer kept per project, filter and sort while nothing changed), then the
  * columns the table shows for those ids only, by one prepared statement. The candidate table (the
  * bulk of a result) is read by lib/lines/picker.ts when a picker opens; here only the one candidate
@@ -120,19 +120,18 @@ export interface LineQuery extends LineFilter {
 export async function listLines(o: LineQuery & { basisRevision?: number; reads?: TableReads | null }) {
   const reads = o.reads === undefined ? await tableReads() : o.reads;
   const revision = o.basisRevision ?? (await getDesignBasis({ projectId: o.projectId })).revision;
-  const { ids, total } = await tableOrder(o, revision, reads);
+  const { ids, total } = await lineTableOrder(o, revision, reads);
+  return { rows: await lineTableRows(ids, revision), total, page: o.page, size: o.size };
+}
+
+/** The table's columns for these lines, in the order given; a line deleted meanwhile is left out. */
+export async function lineTableRows(ids: readonly string[], revision: number) {
   const found = ids.length ? await tableRowsById.execute({ ids }) : [];
   const byId = new Map(found.map((r) => [r.id, r]));
-  return {
-    // In the page's order; a line deleted between the two reads is left out.
-    rows: ids.flatMap((id) => {
-      const r = byId.get(id);
-      return r ? [tableRow(r, revision)] : [];
-    }),
-    total,
-    page: o.page,
-    size: o.size,
-  };
+  return ids.flatMap((id) => {
+    const r = byId.get(id);
+    return r ? [tableRow(r, revision)] : [];
+  });
 }
 
 const SORT_COLUMN = {
@@ -162,7 +161,7 @@ function orderOf(o: LineQuery, revision: number) {
  * The page's ids and the filter's total: a slice of the whole order kept in this process
  * (`./table-read-cache`), or while it cannot be trusted, the page and the count from PostgreSQL.
  */
-async function tableOrder(o: LineQuery, revision: number, reads: TableReads | null) {
+export async function lineTableOrder(o: LineQuery, revision: number, reads: TableReads | null) {
   const { where, orderBy } = orderOf(o, revision);
   // The revision is part of the key: the stale filter depends on it.
   const key = JSON.stringify(['order', revision, o.q ?? '', o.area ?? '', o.status ?? '', o.sort, o.dir]);

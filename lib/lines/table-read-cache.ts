@@ -86,6 +86,17 @@ export interface TableReads {
    * the bound, 1 unless given). Shared between requests: never change what it returns.
    */
   get<T>(projectId: string, key: string, read: () => Promise<T>, weight?: (v: T) => number): Promise<T>;
+  /**
+   * Values by id within (project, key): those not kept are read in one call of `read` (which answers
+   * what it found, by id) and kept, each weighing `weight`. The answer holds what was found.
+   */
+  many<V>(
+    projectId: string,
+    key: string,
+    ids: readonly string[],
+    read: (missing: readonly string[]) => Promise<Map<string, V>>,
+    weight: number,
+  ): Promise<ReadonlyMap<string, V>>;
 }
 
 /**
@@ -107,7 +118,61 @@ export async function tableReads(): Promise<TableReads | null> {
     return null;
   }
   if (!s.client) return null;
-  return { get: (projectId, key, read, weight) => cached(s, projectId, key, read, weight) };
+  return {
+    get: (projectId, key, read, weight) => cached(s, projectId, key, read, weight),
+    many: (projectId, key, ids, read, weight) => cachedMany(s, projectId, key, ids, read, weight),
+  };
+}
+
+async function cachedMany<V>(
+  s: State,
+  projectId: string,
+  key: string,
+  ids: readonly string[],
+  read: (missing: readonly string[]) => Promise<Map<string, V>>,
+  weight: number,
+): Promise<ReadonlyMap<string, V>> {
+  const k = `${projectId}\u0000${key}`;
+  let e = s.entries.get(k);
+  if (e && Date.now() - e.at >= TTL_MS) {
+    drop(s, k);
+    e = undefined;
+  }
+  if (e) {
+    s.entries.delete(k);
+    s.entries.set(k, e);
+  } else {
+    e = { projectId, value: new Map<string, V>(), weight: 0, at: Date.now() };
+    s.entries.set(k, e);
+  }
+  const kept = e.value as Map<string, V>;
+  const missing = ids.filter((id) => !kept.has(id));
+  if (!missing.length) return kept;
+  const generation = s.generations.get(projectId) ?? 0;
+  const epoch = s.epoch;
+  const got = await read(missing);
+  // Kept only when nothing of the project changed while reading and the entry is still the one held.
+  if (
+    s.client &&
+    s.epoch === epoch &&
+    (s.generations.get(projectId) ?? 0) === generation &&
+    s.entries.get(k) === e
+  ) {
+    for (const [id, v] of got) kept.set(id, v);
+    e.weight += got.size * weight;
+    s.weight += got.size * weight;
+    if (e.weight > MAX_WEIGHT) drop(s, k);
+    else
+      while (s.weight > MAX_WEIGHT) {
+        const oldest = s.entries.keys().next().value!;
+        if (oldest === k) break;
+        drop(s, oldest);
+      }
+    return kept;
+  }
+  const answer = new Map(got);
+  for (const id of ids) if (!answer.has(id) && kept.has(id)) answer.set(id, kept.get(id)!);
+  return answer;
 }
 
 async function cached<T>(

@@ -98,7 +98,7 @@ afterAll(async () => {
 });
 
 describe('the line table reads kept in the process', () => {
-  it('keeps an order once read and serves the next request from it', async () => {
+  it('keeps an order, a basis and rows once read and serves the next request from them', async () => {
     expect(await tagsOf()).toEqual(['P-4', 'P-3', 'P-2', 'P-1']);
     expect(tableReadCacheStats().listening).toBe(true);
     let reads = 0;
@@ -109,7 +109,18 @@ describe('the line table reads kept in the process', () => {
     await (await tableReads())!.get(projectId, 'probe', read);
     expect(await (await tableReads())!.get(projectId, 'probe', read)).toEqual({ ids: ['x'], total: 1 });
     expect(reads).toBe(1);
-    expect(tableReadCacheStats().entries).toBeGreaterThanOrEqual(2);
+    // The order, the basis, the rows and the probe.
+    expect(tableReadCacheStats().entries).toBeGreaterThanOrEqual(4);
+    let rowReads = 0;
+    const rows = async (ids: readonly string[]) => {
+      rowReads += ids.length;
+      return new Map(ids.map((id) => [id, `row ${id}`]));
+    };
+    const cache = (await tableReads())!;
+    expect([...(await cache.many(projectId, 'probe rows', ['a', 'b'], rows, 1)).keys()]).toEqual(['a', 'b']);
+    const again = await cache.many(projectId, 'probe rows', ['b', 'c'], rows, 1);
+    expect([again.get('b'), again.get('c')]).toEqual(['row b', 'row c']);
+    expect(rowReads).toBe(3); // a, b, then only c
   });
 
   it('a pick shows on the next request (filter "Undecided" and "Manual pick")', async () => {
@@ -132,6 +143,10 @@ describe('the line table reads kept in the process', () => {
     expect(undecided.total).toBe(3);
     expect(undecided.rows.map((r) => r.tag)).toEqual(['P-4', 'P-2', 'P-1']);
     expect(await tagsOf({ status: 'overridden' })).toEqual(['P-3']);
+    // The row itself (kept per line) shows the pick too.
+    const p3row = (await lineTablePage(q())).rows.find((r) => r.tag === 'P-3')!;
+    expect(p3row).toMatchObject({ chosenMm: alt.mm, source: 'manual', designVersion: 1 });
+    expect(p3row.shown!.heatFlow).toBe(alt.heatFlow);
   });
 
   it('an import and the solve after it show on the next request (order, total, stale filter)', async () => {
@@ -173,8 +188,10 @@ describe('the line table reads kept in the process', () => {
 
   it('a write from another connection shows on the next request', async () => {
     expect(await tagsOf({ area: 'B7' })).toEqual([]);
+    expect((await lineTablePage(q())).rows.find((r) => r.tag === 'P-2')!.area).toBe('A1');
     await other.query(`update lines set area = 'B7' where project_id = $1 and tag = 'P-2'`, [projectId]);
     expect(await tagsOf({ area: 'B7' })).toEqual(['P-2']);
+    expect((await lineTablePage(q())).rows.find((r) => r.tag === 'P-2')!.area).toBe('B7');
     await other.query(`delete from lines where project_id = $1 and tag = 'P-4'`, [projectId]);
     expect(await tagsOf()).toEqual(['P-1', 'P-3', 'P-2', 'P-5']);
   });

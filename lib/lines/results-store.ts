@@ -274,7 +274,8 @@ const tableRowsById = db
       inputVersion: lineResults.inputVersion,
       calcVersion: lineResults.calcVersion,
     },
-    shownCandidate: sql<CandidateRow | null>`jsonb_path_query_first(${lineResults.candidates}, ${sql.raw(`'${CANDIDATE_AT_MM_PATH}'`)}, jsonb_build_object('mm', coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm})))`,
+    shownCandidate: sql<CandidateRow | null>`(select c from json_array_elements(${lineResults.candidates}) c
+      where (c->>${sql.raw(String(CANDIDATE_MM_POSITION))})::float8 = coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm}) limit 1)`,
   })
   .from(lines)
   .leftJoin(lineResults, eq(lineResults.lineId, lines.id))

@@ -10,6 +10,7 @@ import { actorName, writeAudit } from '@/lib/audit';
 import { AppError } from '@/lib/errors';
 import { canonicalJson } from './canonical-json';
 import { catalogueOf, ownId } from './catalogue';
+import type { TableReads } from './table-read-cache';
 import {
   DEFAULT_DESIGN_BASIS,
   type DesignBasis,
@@ -30,6 +31,50 @@ export async function getDesignBasis({
   const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
   if (row) return { basis: designBasisSchema.parse(row.basis), revision: row.revision };
   return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
+}
+
+/**
+ * The same as `getDesignBasis` for read-only hot paths (the line table): the parsed basis is kept
+ * per project while its revision and `updated_at` stay the same (every write goes through
+ * `writeBasis`, which sets both), so a request reads one row and parses nothing; with the line
+ * table's read cache, not even the row. The object is shared between requests and frozen: never
+ * change it.
+ */
+export async function getDesignBasisShared({
+  projectId,
+  reads,
+}: {
+  projectId: string;
+  /** The line table's read cache for this request (lib/lines/table-read-cache.ts), when trusted. */
+  reads?: TableReads | null;
+}): Promise<{ basis: DesignBasis; revision: number }> {
+  return reads ? reads.get(projectId, 'basis', () => readBasisShared(projectId)) : readBasisShared(projectId);
+}
+
+async function readBasisShared(projectId: string): Promise<{ basis: DesignBasis; revision: number }> {
+  const [row] = await db.select().from(designBases).where(eq(designBases.projectId, projectId));
+  if (!row) return { basis: DEFAULT_DESIGN_BASIS, revision: 1 };
+  const at = row.updatedAt.getTime();
+  const hit = parsedBases.get(projectId);
+  if (hit && hit.revision === row.revision && hit.at === at)
+    return { basis: hit.basis, revision: row.revision };
+  const basis = deepFreeze(designBasisSchema.parse(row.basis));
+  parsedBases.delete(projectId);
+  // Bounded: the oldest project read is dropped first (a Map iterates in insertion order).
+  if (parsedBases.size >= PARSED_BASES_MAX) parsedBases.delete(parsedBases.keys().next().value!);
+  parsedBases.set(projectId, { revision: row.revision, at, basis });
+  return { basis, revision: row.revision };
+}
+
+const PARSED_BASES_MAX = 200;
+const parsedBases = new Map<string, { revision: number; at: number; basis: DesignBasis }>();
+
+function deepFreeze<T>(v: T): T {
+  if (v && typeof v === 'object' && !Object.isFrozen(v)) {
+    Object.freeze(v);
+    for (const x of Object.values(v)) deepFreeze(x);
+  }
+  return v;
 }
 
 /**

@@ -22,6 +22,7 @@ import type { LineInput } from '@/lib/lines/validate';
 import { decodeCandidate, type CandidateRow } from '@/lib/lines/candidate-row';
 
 export type { CandidateRow };
+export { worstMargin, type Margin } from './margin';
 
 export interface DecidingLimits {
   /** Touch limit when personnel protection applies (the system's jacket: metal or not). */
@@ -39,10 +40,6 @@ export interface CandidateNumbers {
   personnelC: number | null;
   condensationC: number | null;
   ok: boolean;
-}
-export interface Margin {
-  criterion: 'personnel' | 'condensation';
-  marginK: number;
 }
 
 type LineFacts = Pick<LineInput, 'outdoor' | 'accessible' | 'normalTempC' | 'maxTempC' | 'purposes'>;
@@ -93,19 +90,6 @@ export function candidateNumbers(
       ok: c.withinLimits,
     };
   });
-}
-
-/** The smallest margin to an applicable temperature limit (negative: the limit is not met). */
-export function worstMargin(
-  c: Pick<CandidateNumbers, 'personnelC' | 'condensationC'>,
-  limits: DecidingLimits,
-): Margin | null {
-  const m: Margin[] = [];
-  if (limits.personnelLimitC !== null && c.personnelC !== null)
-    m.push({ criterion: 'personnel', marginK: limits.personnelLimitC - c.personnelC });
-  if (limits.condensationNeedC !== null && c.condensationC !== null)
-    m.push({ criterion: 'condensation', marginK: c.condensationC - limits.condensationNeedC });
-  return m.length ? m.reduce((a, b) => (b.marginK < a.marginK ? b : a)) : null;
 }
 
 /** Surface temperature of a candidate's layers under the personnel or condensation conditions (the worst part of a vessel). */

@@ -2,7 +2,7 @@
  * Results: solving a project's stale lines (or all of them) and reading lines with their results,
  * decisions and staleness for the table and the line page. The stale rule itself lives in `./stale`.
  */
-import { and, asc, count, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, count, eq, sql } from 'drizzle-orm';
 import { upsertRows } from '@/db/bulk';
 import { db, type Tx } from '@/db/client';
 import { type Line, lineDesigns, lineResults, lines } from '@/db/schema';
@@ -13,6 +13,7 @@ import type { LineFilter } from './filter';
 import { resultContext, type ResultRow, resultRow } from './result-row';
 import type { SolvePool } from './solve-pool';
 import { isResultStale, lineFilterSql, staleSql } from './stale';
+import { type TableReads, tableReads } from './table-read-cache';
 
 /** Solves the project's lines (only the stale ones unless `all`), storing each result with what it was computed from. */
 export async function solveProject({
@@ -107,93 +108,180 @@ export interface LineQuery extends LineFilter {
   dir: 'asc' | 'desc';
 }
 
-export async function listLines(o: LineQuery) {
-  const { revision } = await getDesignBasis({ projectId: o.projectId });
-  const stale = staleSql(revision);
-  const where = [lineFilterSql(o.projectId, o, revision)];
-  const sortCol = {
-    tag: sql`${lines.tagKey} collate "C"`,
-    area: lines.area,
-    normalTempC: lines.normalTempC,
-    outsideDiameterMm: lines.outsideDiameterMm,
-    recommendedMm: lineResults.recommendedMm,
-    heatFlowPerUnit: lineResults.heatFlowPerUnit,
-    surfaceTempC: lineResults.surfaceTempC,
-    governing: lineResults.governing,
-  }[o.sort];
-  // Two steps: the page's ids from a narrow sort (only the sort key travels through the joins and
-  // the sort — the wide rows made the sort of a 10,000-line project cost ~40 ms a page), then the
-  // columns the table shows for those ids only. The candidate table (the bulk of a result) is read
-  // by lib/lines/picker.ts when a picker opens; here only the one candidate the row shows.
-  const filtered = and(...where);
+/**
+ * One page of the line table. `basisRevision` saves a read when the caller has the basis already,
+ * `reads` the cache's sync when the caller has begun the request with `tableReads()`.
+ * Two steps: the page's ids in order (`lineTableOrder`: a narrow sort where only the sort key travels
+ * through the joins, its answer kept per project, filter and sort while nothing changed), then the
+ * columns the table shows for those ids only, by one prepared statement. The candidate table (the
+ * bulk of a result) is read by lib/lines/picker.ts when a picker opens; here only the one candidate
+ * the row shows.
+ */
+export async function listLines(o: LineQuery & { basisRevision?: number; reads?: TableReads | null }) {
+  const reads = o.reads === undefined ? await tableReads() : o.reads;
+  const revision = o.basisRevision ?? (await getDesignBasis({ projectId: o.projectId })).revision;
+  const { ids, total } = await lineTableOrder(o, revision, reads);
+  return { rows: await lineTableRows(ids, revision), total, page: o.page, size: o.size };
+}
+
+/** The table's columns for these lines, in the order given; a line deleted meanwhile is left out. */
+export async function lineTableRows(ids: readonly string[], revision: number) {
+  const found = ids.length ? await tableRowsById.execute({ ids }) : [];
+  const byId = new Map(found.map((r) => [r.id, r]));
+  return ids.flatMap((id) => {
+    const r = byId.get(id);
+    return r ? [tableRow(r, revision)] : [];
+  });
+}
+
+const SORT_COLUMN = {
+  tag: sql`${lines.tagKey} collate "C"`,
+  area: lines.area,
+  normalTempC: lines.normalTempC,
+  outsideDiameterMm: lines.outsideDiameterMm,
+  recommendedMm: lineResults.recommendedMm,
+  heatFlowPerUnit: lineResults.heatFlowPerUnit,
+  surfaceTempC: lineResults.surfaceTempC,
+  governing: lineResults.governing,
+} satisfies Record<LineSort, unknown>;
+
+/** The filter's condition and the table's order: the sort key (nulls last), then the tag. */
+function orderOf(o: LineQuery, revision: number) {
+  const sortCol = SORT_COLUMN[o.sort];
+  return {
+    where: lineFilterSql(o.projectId, o, revision),
+    orderBy: [
+      o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
+      sql`${lines.tagKey} collate "C" asc`,
+    ],
+  };
+}
+
+/**
+ * The page's ids and the filter's total: a slice of the whole order kept in this process
+ * (`./table-read-cache`), or while it cannot be trusted, the page and the count from PostgreSQL.
+ */
+export async function lineTableOrder(o: LineQuery, revision: number, reads: TableReads | null) {
+  const { where, orderBy } = orderOf(o, revision);
+  // The revision is part of the key: the stale filter depends on it.
+  const key = JSON.stringify(['order', revision, o.q ?? '', o.area ?? '', o.status ?? '', o.sort, o.dir]);
+  const all = await reads?.get(
+    o.projectId,
+    key,
+    async () => {
+      // Every id in order as one text value (10,000 rows would cost more to parse one by one).
+      const [{ ids }] = await db
+        .select({
+          ids: sql<string | null>`string_agg(${lines.id}::text, ',' order by ${sql.join(orderBy, sql`, `)})`,
+        })
+        .from(lines)
+        .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+        .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+        .where(where);
+      const list = ids ? ids.split(',') : [];
+      return { ids: list as readonly string[], total: list.length };
+    },
+    (v) => v.total,
+  );
+  if (all) return { ids: all.ids.slice(o.page * o.size, (o.page + 1) * o.size), total: all.total };
   const [page, [{ total }]] = await Promise.all([
     db
       .select({ id: lines.id })
       .from(lines)
       .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
       .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(filtered)
-      .orderBy(
-        o.dir === 'asc' ? sql`${sortCol} asc nulls last` : sql`${sortCol} desc nulls last`,
-        sql`${lines.tagKey} collate "C" asc`,
-      )
+      .where(where)
+      .orderBy(...orderBy)
       .limit(o.size)
       .offset(o.page * o.size),
+    // A second pass, but without a sort: with no filter on results or picks, PostgreSQL drops both
+    // joins and counts the project's lines from an index (a window count over the sorted rows cost more).
     db
       .select({ total: count() })
       .from(lines)
       .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
       .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-      .where(filtered),
+      .where(where),
   ]);
-  const ids = page.map((r) => r.id);
-  const found = ids.length
-    ? await db
-        .select({
-          id: lines.id,
-          tag: lines.tag,
-          service: lines.service,
-          area: lines.area,
-          geometry: lines.geometry,
-          nps: lines.nps,
-          outsideDiameterMm: lines.outsideDiameterMm,
-          normalTempC: lines.normalTempC,
-          recommendedMm: lineResults.recommendedMm,
-          governing: lineResults.governing,
-          heatFlowPerUnit: lineResults.heatFlowPerUnit,
-          surfaceTempC: lineResults.surfaceTempC,
-          unmet: lineResults.unmet,
-          solved: sql<boolean>`${lineResults.lineId} is not null`,
-          jacketId: lineResults.jacketId,
-          // The facts that decide which limits apply, and the one candidate at the chosen (or else
-          // the recommended) thickness for the worst-margin column.
-          outdoor: lines.outdoor,
-          accessible: lines.accessible,
-          maxTempC: lines.maxTempC,
-          purposes: lines.purposes,
-          chosenMm: lineDesigns.thicknessMm,
-          source: lineDesigns.source,
-          belowCriterion: lineDesigns.belowCriterion,
-          needsRedecision: lineDesigns.needsRedecision,
-          designVersion: lineDesigns.version,
-          stale,
-          shownCandidate: sql<CandidateRow | null>`(select c from json_array_elements(${lineResults.candidates}) c
-            where (c->>${sql.raw(String(CANDIDATE_MM_POSITION))})::float8 = coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm}) limit 1)`,
-        })
-        .from(lines)
-        .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
-        .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
-        .where(inArray(lines.id, ids))
-    : [];
-  const byId = new Map(found.map((r) => [r.id, r]));
+  return { ids: page.map((r) => r.id), total };
+}
+
+/** A row as the table reads it, with its staleness (written out field by field: an object rest is slow here). */
+function tableRow(r: Awaited<ReturnType<typeof tableRowsById.execute>>[number], revision: number) {
   return {
-    // In the page's order; a line deleted between the two reads is left out.
-    rows: ids.flatMap((id) => byId.get(id) ?? []),
-    total,
-    page: o.page,
-    size: o.size,
+    id: r.id,
+    tag: r.tag,
+    service: r.service,
+    area: r.area,
+    geometry: r.geometry,
+    nps: r.nps,
+    outsideDiameterMm: r.outsideDiameterMm,
+    normalTempC: r.normalTempC,
+    recommendedMm: r.recommendedMm,
+    governing: r.governing,
+    heatFlowPerUnit: r.heatFlowPerUnit,
+    surfaceTempC: r.surfaceTempC,
+    unmet: r.unmet,
+    solved: r.solved,
+    jacketId: r.jacketId,
+    outdoor: r.outdoor,
+    accessible: r.accessible,
+    maxTempC: r.maxTempC,
+    purposes: r.purposes,
+    chosenMm: r.chosenMm,
+    source: r.source,
+    belowCriterion: r.belowCriterion,
+    needsRedecision: r.needsRedecision,
+    designVersion: r.designVersion,
+    stale: isResultStale(r.resultProvenance, { inputVersion: r.inputVersion }, revision),
+    shownCandidate: r.shownCandidate,
   };
 }
+
+/** The columns the table shows, for a page of ids (prepared once per connection). */
+const tableRowsById = db
+  .select({
+    id: lines.id,
+    tag: lines.tag,
+    service: lines.service,
+    area: lines.area,
+    geometry: lines.geometry,
+    nps: lines.nps,
+    outsideDiameterMm: lines.outsideDiameterMm,
+    normalTempC: lines.normalTempC,
+    recommendedMm: lineResults.recommendedMm,
+    governing: lineResults.governing,
+    heatFlowPerUnit: lineResults.heatFlowPerUnit,
+    surfaceTempC: lineResults.surfaceTempC,
+    unmet: lineResults.unmet,
+    solved: sql<boolean>`${lineResults.lineId} is not null`,
+    jacketId: lineResults.jacketId,
+    // The facts that decide which limits apply, and the one candidate at the chosen (or else
+    // the recommended) thickness for the worst-margin column.
+    outdoor: lines.outdoor,
+    accessible: lines.accessible,
+    maxTempC: lines.maxTempC,
+    purposes: lines.purposes,
+    chosenMm: lineDesigns.thicknessMm,
+    source: lineDesigns.source,
+    belowCriterion: lineDesigns.belowCriterion,
+    needsRedecision: lineDesigns.needsRedecision,
+    designVersion: lineDesigns.version,
+    // What the stale rule compares (applied in TypeScript with the basis revision of the request).
+    inputVersion: lines.inputVersion,
+    resultProvenance: {
+      basisRevision: lineResults.basisRevision,
+      inputVersion: lineResults.inputVersion,
+      calcVersion: lineResults.calcVersion,
+    },
+    shownCandidate: sql<CandidateRow | null>`(select c from json_array_elements(${lineResults.candidates}) c
+      where (c->>${sql.raw(String(CANDIDATE_MM_POSITION))})::float8 = coalesce(${lineDesigns.thicknessMm}, ${lineResults.recommendedMm}) limit 1)`,
+  })
+  .from(lines)
+  .leftJoin(lineResults, eq(lineResults.lineId, lines.id))
+  .leftJoin(lineDesigns, eq(lineDesigns.lineId, lines.id))
+  .where(sql`${lines.id} = any(${sql.placeholder('ids')}::uuid[])`)
+  .prepare('line_table_rows');
 
 export async function listAreas({ projectId }: { projectId: string }) {
   const r = await db

@@ -26,6 +26,7 @@ import { SHEETS_INLINE_LIMIT } from '@/lib/documents/limits';
 import { formatter, type Formatter, type FormatOptions, type UnitSystem } from '@/lib/format';
 import { isSurfaceGeometry } from '@/lib/lines/fields';
 import { criterionLabel } from '@/lib/lines/criterion-labels';
+import { type Margin, worstMargin } from '@/lib/lines/margin';
 import {
   DEFAULT_LINE_TABLE_VIEW,
   HIDEABLE_COLUMNS,
@@ -41,10 +42,6 @@ interface Candidate {
   personnelC: number | null;
   condensationC: number | null;
   ok: boolean;
-}
-interface Margin {
-  criterion: 'personnel' | 'condensation';
-  marginK: number;
 }
 interface Row {
   id: string;
@@ -73,7 +70,6 @@ interface Row {
   condensationNeedC: number | null;
   /** Deciding numbers at chosenMm, else recommendedMm. */
   shown: Omit<Candidate, 'mm'> | null;
-  worstMargin: Margin | null;
 }
 export interface LineTablePage {
   rows: Row[];
@@ -368,7 +364,7 @@ export function LineTable({
       ch.display({
         id: 'margin',
         header: 'Worst margin',
-        cell: (c) => <MarginCell m={c.row.original.worstMargin} u={u} />,
+        cell: (c) => <MarginCell m={marginOf(c.row.original)} u={u} />,
       }),
       ch.display({
         id: 'status',
@@ -1056,6 +1052,9 @@ function Badges({ row }: { row: Row }) {
 }
 
 /** The smallest margin to a temperature limit at the chosen thickness (the recommendation while undecided). */
+/** The worst margin at the shown candidate (derived here: the route does not send it). */
+const marginOf = (row: Row): Margin | null => (row.shown ? worstMargin(row.shown, row) : null);
+
 function MarginCell({ m, u }: { m: Margin | null; u: Formatter }) {
   if (!m) return <span className="text-ink-600">—</span>;
   return (

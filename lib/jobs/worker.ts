@@ -3,6 +3,7 @@
  * any machines, against one database: pg-boss hands each job to one of them (SELECT … FOR UPDATE
  * SKIP LOCKED). One job at a time per worker process.
  */
+import { setPriority } from 'node:os';
 import { getPool } from '@/db/client';
 import { getBoss, stopBoss } from './boss';
 import { QUEUES } from './queues';
@@ -10,7 +11,23 @@ import { markAbandonedJobs, runJob } from './run';
 import { createSolvePool } from '@/lib/lines/solve-pool';
 import { listenForJobs } from './wake';
 
+/**
+ * Below the web server's CPU priority where both share a machine: a long solve then takes the time
+ * the web requests leave, and other users' pages are not slowed by it (the kernel's nice 19; the
+ * worker's own PostgreSQL sessions keep their priority). WORKER_NICE overrides it; 0 turns it off.
+ */
+function lowerPriority() {
+  const nice = Number(process.env.WORKER_NICE ?? 19);
+  if (!Number.isFinite(nice) || nice <= 0) return;
+  try {
+    setPriority(Math.min(19, Math.round(nice)));
+  } catch {
+    // Not allowed here (a container without the right): run at the normal priority.
+  }
+}
+
 async function main() {
+  lowerPriority();
   const pool = createSolvePool();
   const boss = await getBoss({ supervise: true });
   const workerIds = new Map<string, string>();

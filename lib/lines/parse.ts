@@ -9,7 +9,14 @@ import {
   type Delimiter,
   type TextEncodingName,
 } from './decode';
-import { checkWorkbookZip, ROW_LIMIT_SENTENCE, SHEET_LIMITS, ZipLimitError } from './zip-guard';
+import { Readable } from 'node:stream';
+import {
+  checkWorkbookZip,
+  ROW_LIMIT_SENTENCE,
+  SHEET_LIMITS,
+  type ZipCheck,
+  ZipLimitError,
+} from './zip-guard';
 import { detectHeaderRow, headerView, type CellValue, type GridRow } from './header';
 
 export type { CellValue, GridRow } from './header';
@@ -111,6 +118,99 @@ function plain(v: unknown): { value: CellValue; formula: boolean } {
   return { value: String(v), formula: false };
 }
 
+/**
+ * Workbooks with a sheet of more rows than this are read row by row (exceljs' streaming reader):
+ * the whole-workbook model of a 50,000-row sheet takes over 256 MB of heap (measured; the job
+ * worker's peak went past 900 MB), the rows alone a tenth of it. Smaller ones keep the whole
+ * model, which every messy client file in the tests has been read with; both give the same cells
+ * (tests/unit/parse-row-by-row.test.ts).
+ */
+export const ROW_BY_ROW_FROM = 20_000;
+
+async function readWhole(bytes: Buffer): Promise<StoredSheet[]> {
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(bytes as unknown as ArrayBuffer);
+  return wb.worksheets.map(fromWorksheet);
+}
+
+/** "C12" → [12, 3] (row, 1-based column). */
+function cellRef(ref: string): [number, number] {
+  const m = /^([A-Z]+)(\d+)$/.exec(ref)!;
+  let col = 0;
+  for (const ch of m[1]) col = col * 26 + ch.charCodeAt(0) - 64;
+  return [Number(m[2]), col];
+}
+
+/**
+ * The streaming reader's sheets, made to read as the whole model does: merged ranges (which the
+ * streaming reader skips; the zip check collected them) give every covered cell the first cell's
+ * value and are listed as merged, and as formulas where the first cell is one.
+ */
+async function readRowByRow(bytes: Buffer, check: ZipCheck): Promise<StoredSheet[]> {
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([bytes]), {
+    sharedStrings: 'cache',
+    styles: 'cache',
+    hyperlinks: 'ignore',
+    worksheets: 'emit',
+    entries: 'ignore',
+  });
+  const out: { order: number; sheet: StoredSheet }[] = [];
+  const mergesByName = new Map(check.sheets.map((x) => [x.name, x.merges]));
+  for await (const ws of reader) {
+    const w = ws as unknown as { name: string; state?: string; id: number };
+    const rows = new Map<number, CellValue[]>();
+    const formulas = new Set<string>();
+    for await (const row of ws) {
+      const cells: CellValue[] = [];
+      row.eachCell({ includeEmpty: true }, (cell, col) => {
+        const p = plain(cell.value);
+        cells[col - 1] = p.value;
+        if (p.formula) formulas.add(`${columnLetter(col - 1)}${row.number}`);
+      });
+      for (let i = 0; i < cells.length; i++) if (cells[i] === undefined) cells[i] = null;
+      rows.set(row.number, cells);
+    }
+    const merged: [number, number][] = [];
+    for (const range of mergesByName.get(w.name) ?? []) {
+      const [from, to] = range.split(':').map(cellRef);
+      const master = rows.get(from[0])?.[from[1] - 1] ?? null;
+      const masterFormula = formulas.has(`${columnLetter(from[1] - 1)}${from[0]}`);
+      for (let r = from[0]; r <= Math.min(to[0], from[0] + 10_000); r++)
+        for (let c = from[1]; c <= Math.min(to[1], SHEET_LIMITS.maxColumns); c++) {
+          if (r === from[0] && c === from[1]) continue;
+          let cells = rows.get(r);
+          if (!cells) rows.set(r, (cells = []));
+          for (let i = cells.length; i < c; i++) cells[i] = null;
+          cells[c - 1] = master;
+          merged.push([r, c]);
+          if (masterFormula) formulas.add(`${columnLetter(c - 1)}${r}`);
+        }
+    }
+    const grid: GridRow[] = [...rows.entries()]
+      .sort((a, b) => a[0] - b[0])
+      .filter(([, cells]) => cells.some((c) => c !== null))
+      .map(([row, cells]) => ({ row, cells }));
+    const order = (a: [number, number], b: [number, number]) => a[0] - b[0] || a[1] - b[1];
+    const byPosition = [...formulas].map(cellRef).sort(order);
+    out.push({
+      // The workbook's own sheet order (the reader meets the parts in the zip's order).
+      order:
+        (reader as unknown as { model?: { sheets?: { name: string }[] } }).model?.sheets?.findIndex(
+          (x) => x.name === w.name,
+        ) ?? w.id,
+      sheet: {
+        name: w.name,
+        hidden: w.state === 'hidden' || w.state === 'veryHidden',
+        grid,
+        headerRow: detectHeaderRow(grid),
+        formulaCells: byPosition.map(([r, c]) => `${columnLetter(c - 1)}${r}`),
+        mergedCells: merged.sort(order).map(([r, c]) => `${columnLetter(c - 1)}${r}`),
+      },
+    });
+  }
+  return out.sort((a, b) => a.order - b.order).map((x) => x.sheet);
+}
+
 function fromWorksheet(ws: ExcelJS.Worksheet): StoredSheet {
   const grid: GridRow[] = [];
   const formulaCells: string[] = [];
@@ -156,7 +256,12 @@ function fromCsv(text: string): { sheet: StoredSheet; delimiter: Delimiter } {
 }
 
 /** Reads an uploaded .xlsx or .csv into sheets of plain cell values; throws ParseError with a user message. */
-export async function parseUpload(fileName: string, bytes: Buffer): Promise<ParsedFile> {
+export async function parseUpload(
+  fileName: string,
+  bytes: Buffer,
+  /** rowByRow: read a workbook with the streaming reader whatever its size (tests compare both). */
+  o: { rowByRow?: boolean } = {},
+): Promise<ParsedFile> {
   if (bytes.length === 0) throw new ParseError('The file is empty.');
   if (bytes.length > MAX_UPLOAD_BYTES)
     throw new ParseError(
@@ -178,21 +283,21 @@ export async function parseUpload(fileName: string, bytes: Buffer): Promise<Pars
       );
     // The zip directory and a streaming count of rows and columns first: nothing is held in
     // memory beyond a 16 KB step until the limits are known to hold.
+    let check: ZipCheck;
     try {
-      await checkWorkbookZip(bytes);
+      check = await checkWorkbookZip(bytes);
     } catch (e) {
       if (e instanceof ZipLimitError) throw new ParseError(e.message);
       throw e;
     }
-    const wb = new ExcelJS.Workbook();
+    const rowByRow = o.rowByRow ?? check.sheets.some((x) => x.rows > ROW_BY_ROW_FROM);
     try {
-      await wb.xlsx.load(bytes as unknown as ArrayBuffer);
+      sheets = rowByRow ? await readRowByRow(bytes, check) : await readWhole(bytes);
     } catch {
       throw new ParseError(
         'This .xlsx workbook could not be read: it is corrupt or not a real spreadsheet. Save it again as .xlsx and upload it.',
       );
     }
-    sheets = wb.worksheets.map(fromWorksheet);
   } else if (lower.endsWith('.csv') || lower.endsWith('.tsv')) {
     if (isZip || isOle)
       throw new ParseError(

@@ -175,6 +175,8 @@ class SheetScanner {
   rows = 0;
   maxColumn = 0;
   cells = 0;
+  /** Merged ranges ("A1:I1"), the first MAX_MERGES; the row-by-row reader does not see them itself. */
+  merges: string[] = [];
   private rowHasValue = false;
   private column = 0;
   private tail = '';
@@ -214,6 +216,9 @@ class SheetScanner {
   }
 
   private scan(s: string) {
+    if (s.includes('<mergeCell'))
+      for (const m of s.matchAll(/<mergeCell\b[^>]*?\sref="([A-Z]{1,3}\d+:[A-Z]{1,3}\d+)"/g))
+        if (this.merges.length < MAX_MERGES) this.merges.push(m[1]);
     const re = SheetScanner.TOKEN;
     re.lastIndex = 0;
     let m: RegExpExecArray | null;
@@ -333,10 +338,12 @@ async function streamEntry(buf: Buffer, e: Entry, onText: ((s: string) => void) 
   if (produced !== e.uncompressedSize) throw lying(e);
 }
 
+const MAX_MERGES = 10_000;
+
 export interface ZipCheck {
   entries: number;
   uncompressedBytes: number;
-  sheets: { name: string; rows: number; columns: number }[];
+  sheets: { name: string; rows: number; columns: number; merges: string[] }[];
 }
 
 /** Throws ZipLimitError naming the limit crossed; returns what it counted. */
@@ -357,7 +364,7 @@ export async function checkWorkbookZip(buf: Buffer): Promise<ZipCheck> {
     await streamEntry(buf, e, (s) => scanner.push(s));
     scanner.end();
     cells += scanner.cells;
-    sheets.push({ name, rows: scanner.rows, columns: scanner.maxColumn });
+    sheets.push({ name, rows: scanner.rows, columns: scanner.maxColumn, merges: scanner.merges });
   }
   return {
     entries: entries.length,

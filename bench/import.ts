@@ -210,7 +210,10 @@ async function productPath() {
   rmSync(file);
   // BENCH_WORKER_FLAGS: other V8 flags for the worker, to compare settings.
   const flags = process.env.BENCH_WORKER_FLAGS;
-  const args = flags === undefined ? WORKER_NODE_ARGS : [...flags.split(' ').filter(Boolean), ...WORKER_NODE_ARGS.slice(-3)];
+  const args =
+    flags === undefined
+      ? WORKER_NODE_ARGS
+      : [...flags.split(' ').filter(Boolean), ...WORKER_NODE_ARGS.slice(-3)];
   const worker = spawn(process.execPath, args, {
     env: process.env,
     stdio: ['ignore', 'ignore', 'pipe'],

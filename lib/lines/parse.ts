@@ -119,13 +119,15 @@ function plain(v: unknown): { value: CellValue; formula: boolean } {
 }
 
 /**
- * Workbooks with a sheet of more rows than this are read row by row (exceljs' streaming reader):
+ * Workbooks with a sheet of more rows than this (or many cells) are read row by row (exceljs' streaming reader):
  * the whole-workbook model of a 50,000-row sheet takes over 256 MB of heap (measured; the job
  * worker's peak went past 900 MB), the rows alone a tenth of it. Smaller ones keep the whole
  * model, which every messy client file in the tests has been read with; both give the same cells
  * (tests/unit/parse-row-by-row.test.ts).
  */
 export const ROW_BY_ROW_FROM = 20_000;
+/** …or more cells with values than this in all (the model costs ~350 bytes of heap a cell). */
+export const ROW_BY_ROW_FROM_CELLS = 300_000;
 
 async function readWhole(bytes: Buffer): Promise<StoredSheet[]> {
   const wb = new ExcelJS.Workbook();
@@ -290,7 +292,10 @@ export async function parseUpload(
       if (e instanceof ZipLimitError) throw new ParseError(e.message);
       throw e;
     }
-    const rowByRow = o.rowByRow ?? check.sheets.some((x) => x.rows > ROW_BY_ROW_FROM);
+    const rowByRow =
+      o.rowByRow ??
+      (check.sheets.some((x) => x.rows > ROW_BY_ROW_FROM) ||
+        check.sheets.reduce((a, x) => a + x.cells, 0) > ROW_BY_ROW_FROM_CELLS);
     try {
       sheets = rowByRow ? await readRowByRow(bytes, check) : await readWhole(bytes);
     } catch {

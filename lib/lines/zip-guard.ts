@@ -343,7 +343,7 @@ const MAX_MERGES = 10_000;
 export interface ZipCheck {
   entries: number;
   uncompressedBytes: number;
-  sheets: { name: string; rows: number; columns: number; merges: string[] }[];
+  sheets: { name: string; rows: number; columns: number; cells: number; merges: string[] }[];
 }
 
 /** Throws ZipLimitError naming the limit crossed; returns what it counted. */
@@ -364,7 +364,13 @@ export async function checkWorkbookZip(buf: Buffer): Promise<ZipCheck> {
     await streamEntry(buf, e, (s) => scanner.push(s));
     scanner.end();
     cells += scanner.cells;
-    sheets.push({ name, rows: scanner.rows, columns: scanner.maxColumn, merges: scanner.merges });
+    sheets.push({
+      name,
+      rows: scanner.rows,
+      columns: scanner.maxColumn,
+      cells: scanner.cells,
+      merges: scanner.merges,
+    });
   }
   return {
     entries: entries.length,

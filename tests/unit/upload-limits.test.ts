@@ -107,7 +107,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
       workbookParts('Lines', { data: sheetXml(`<row r="1"><c r="A1"><v>1</v></c></row>${rows}`) }),
     );
     const check = await checkWorkbookZip(file);
-    expect(check.sheets).toEqual([{ name: 'Lines', rows: 1, columns: 1, merges: [] }]);
+    expect(check.sheets).toEqual([{ name: 'Lines', rows: 1, columns: 1, cells: 1, merges: [] }]);
   });
 
   it('a workbook written by exceljs at the column limit passes', async () => {
@@ -117,7 +117,7 @@ describe('upload limits: hostile workbooks are refused before exceljs inflates t
     ws.addRow(Array.from({ length: SHEET_LIMITS.maxColumns }, (_, i) => i));
     const bytes = Buffer.from(await wb.xlsx.writeBuffer());
     expect((await checkWorkbookZip(bytes)).sheets).toEqual([
-      { name: 'Lines & more', rows: 2, columns: 256, merges: [] },
+      { name: 'Lines & more', rows: 2, columns: 256, cells: 512, merges: [] },
     ]);
     expect((await parseUpload('ok.xlsx', bytes)).sheets[0].grid).toHaveLength(2);
   });

@@ -42,14 +42,14 @@ export const SCREEN_STEP_KINDS: readonly QueueName[] = ['read-upload', 'check-im
  * it): a larger young generation, because solving allocates many short-lived objects per line and
  * V8's default made the garbage collector a fifth of a 10,000-line import (measured: node CPU
  * 7.3 / 6.4 s → 5.5 / 5.9 s for the import + solve job, about 50 MB more resident); and an old
- * generation capped at 384 MB, so V8 collects before the process grows (a 50,000-line import + solve
- * peaked at 802 MB uncapped, 500 MB capped, no slower). Every job holds a bounded slice of its data
+ * generation capped at 512 MB, so V8 collects before the process grows (a 50,000-line import + solve
+ * peaked at 802 MB uncapped, 494 MB capped, no slower). Every job holds a bounded slice of its data
  * (rows read one by one above 20,000, results solved and written 250 at a time, the budget read
  * 2,000 lines at a time), so the cap is room, not a squeeze; raise it here if a job ever needs more.
  */
 export const WORKER_NODE_ARGS = [
   '--max-semi-space-size=64',
-  '--max-old-space-size=384',
+  '--max-old-space-size=512',
   '--import',
   'tsx',
   'lib/jobs/worker.ts',

@@ -44,7 +44,7 @@ export const SCREEN_STEP_KINDS: readonly QueueName[] = ['read-upload', 'check-im
  * 7.3 / 6.4 s → 5.5 / 5.9 s for the import + solve job, about 50 MB more resident); and an old
  * generation capped at 512 MB, so V8 collects before the process grows (a 50,000-line import + solve
  * peaked at 802 MB uncapped, 494 MB capped, no slower). Every job holds a bounded slice of its data
- * (rows read one by one above 20,000, results solved and written 250 at a time, the budget read
+ * (rows read one by one above 5,000, results solved and written 250 at a time, the budget read
  * 2,000 lines at a time), so the cap is room, not a squeeze; raise it here if a job ever needs more.
  */
 export const WORKER_NODE_ARGS = [

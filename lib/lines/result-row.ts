@@ -6,7 +6,8 @@ import type { Line } from '@/db/schema';
 import { CALCULATION_VERSION, type MaterialSystem } from '@/lib/thermal';
 import { encodeCandidate } from './candidate-row';
 import type { DesignBasis } from './design-basis';
-import { inputHash, solveLine } from './solve-line';
+import type { Hash } from 'node:crypto';
+import { basisHashOf, inputHash, solveLine } from './solve-line';
 import { tracingOfSolved } from './tracing';
 import type { LineInput } from './validate';
 
@@ -52,13 +53,16 @@ export function systemLabelOf(system: MaterialSystem, layers: { materialId: stri
 export interface ResultContext {
   basis: DesignBasis;
   basisJson: string;
+  /** The basis' JSON hashed once (inputHash copies it per line). */
+  basisHash: Hash;
   revision: number;
   projectId: string;
   systems: Map<string, MaterialSystem>;
 }
 
 export function resultContext(o: { basis: DesignBasis; revision: number; projectId: string }): ResultContext {
-  return { ...o, basisJson: JSON.stringify(o.basis), systems: new Map() };
+  const basisJson = JSON.stringify(o.basis);
+  return { ...o, basisJson, basisHash: basisHashOf(basisJson), systems: new Map() };
 }
 
 export function resultRow(ctx: ResultContext, line: Line) {
@@ -72,7 +76,7 @@ export function resultRow(ctx: ResultContext, line: Line) {
     calcVersion: CALCULATION_VERSION,
     basisRevision: ctx.revision,
     inputVersion: line.inputVersion,
-    inputHash: inputHash(ctx.basisJson, input),
+    inputHash: inputHash(ctx.basisHash, input),
     recommendedMm: r.recommendedMm,
     governing: r.governing,
     layers: r.layers,

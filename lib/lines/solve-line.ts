@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import { createHash, Hash } from 'node:crypto';
 import {
   CALCULATION_VERSION,
   barGaugeToMPaAbs,
@@ -112,8 +112,13 @@ export function lineCaseFor(l: LineInput): LineCase {
   };
 }
 
+/** The basis' JSON hashed once, for `inputHash` over many lines. */
+export function basisHashOf(basisJson: string): Hash {
+  return createHash('sha1').update(basisJson);
+}
+
 /** Hash of everything the answer depends on: calculation version, design basis (or its JSON, when hashing many lines) and the line's inputs. */
-export function inputHash(basis: DesignBasis | string, l: LineInput): string {
+export function inputHash(basis: DesignBasis | string | Hash, l: LineInput): string {
   const relevant = [
     CALCULATION_VERSION,
     l.geometry,
@@ -133,11 +138,13 @@ export function inputHash(basis: DesignBasis | string, l: LineInput): string {
     // Only when marked, so hashes of lines stored before the flag existed stay as they were.
     ...(l.heatTraced ? ['heat-traced'] : []),
   ];
-  return createHash('sha1')
-    .update(typeof basis === 'string' ? basis : JSON.stringify(basis))
-    .update(JSON.stringify(relevant))
-    .digest('hex')
-    .slice(0, 20);
+  // A Hash is the basis already hashed (`basisHashOf`): copied per line, the same digest without
+  // hashing the basis' JSON again for every line of a solve.
+  const h =
+    basis instanceof Hash
+      ? basis.copy()
+      : createHash('sha1').update(typeof basis === 'string' ? basis : JSON.stringify(basis));
+  return h.update(JSON.stringify(relevant)).digest('hex').slice(0, 20);
 }
 
 export interface SolvedLine {

@@ -1,6 +1,7 @@
 'use client';
 import { useEffect, useRef } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useRouter } from 'next/navigation';
 import type { JobView } from '@/lib/jobs/store';
 import { JOB_KIND_LABEL as KIND } from '@/lib/jobs/queues';
 
@@ -111,8 +112,9 @@ export function JobProgressBar({ job }: { job: Wire }) {
  * The project's recent jobs: a progress bar while one runs (also after leaving the page and coming
  * back), and the last few with their outcome. Refreshes the line table when a job finishes.
  */
-export function RecentJobs({ projectId }: { projectId: string }) {
+export function RecentJobs({ projectId, renderedAt }: { projectId: string; renderedAt: string }) {
   const qc = useQueryClient();
+  const router = useRouter();
   const q = useQuery({
     queryKey: ['jobs', projectId, 'recent'],
     queryFn: async (): Promise<Wire[]> => {
@@ -128,6 +130,17 @@ export function RecentJobs({ projectId }: { projectId: string }) {
     if (was.current && !running) qc.invalidateQueries({ queryKey: ['lines', projectId] });
     was.current = running?.id ?? null;
   }, [running, projectId, qc]);
+  // A job that finished between the server's render of this page and the first poll (an import
+  // finishing while the user came back to the page) is never seen running: refresh for it too.
+  const checked = useRef(false);
+  useEffect(() => {
+    if (!q.data || checked.current) return;
+    checked.current = true;
+    if (q.data.some((j) => j.finishedAt !== null && j.finishedAt > renderedAt)) {
+      qc.invalidateQueries({ queryKey: ['lines', projectId] });
+      router.refresh();
+    }
+  }, [q.data, renderedAt, projectId, qc, router]);
   if (!q.data?.length) return null;
   return (
     <section aria-label="Jobs" className="mb-4">

@@ -59,7 +59,7 @@ export default async function LinesPage({ params }: { params: Promise<{ projectI
           </Disclosure>
         </div>
       ) : null}
-      <RecentJobs projectId={project.id} />
+      <RecentJobs projectId={project.id} renderedAt={new Date().toISOString()} />
       <LineTable
         projectId={project.id}
         areas={areas}

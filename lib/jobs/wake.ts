@@ -26,6 +26,9 @@ export function listenForJobs(onQueued: (queue: string) => void): () => Promise<
   let client: Client | null = null;
   let stopped = false;
   let retry: NodeJS.Timeout | undefined;
+  const retryLater = () => {
+    if (!stopped) retry = setTimeout(() => void connect().catch(() => undefined), 5_000);
+  };
   const connect = async () => {
     const c = new Client({ connectionString: env.databaseUrl() });
     c.on('notification', (m) => {
@@ -35,7 +38,7 @@ export function listenForJobs(onQueued: (queue: string) => void): () => Promise<
       console.error('[worker] job wake-up connection lost; polling until it is back:', (e as Error).message);
       client = null;
       c.end().catch(() => undefined);
-      if (!stopped) retry = setTimeout(() => void connect().catch(() => undefined), 5_000);
+      retryLater();
     });
     try {
       await c.connect();
@@ -44,7 +47,7 @@ export function listenForJobs(onQueued: (queue: string) => void): () => Promise<
       else client = c;
     } catch (e) {
       c.end().catch(() => undefined);
-      if (!stopped) retry = setTimeout(() => void connect().catch(() => undefined), 5_000);
+      retryLater();
       throw e;
     }
   };

@@ -12,6 +12,7 @@ import {
 import { Readable } from 'node:stream';
 import {
   checkWorkbookZip,
+  columnIndex,
   ROW_LIMIT_SENTENCE,
   SHEET_LIMITS,
   type ZipCheck,
@@ -139,9 +140,7 @@ async function readWhole(bytes: Buffer): Promise<StoredSheet[]> {
 /** "C12" → [12, 3] (row, 1-based column). */
 function cellRef(ref: string): [number, number] {
   const m = /^([A-Z]+)(\d+)$/.exec(ref)!;
-  let col = 0;
-  for (const ch of m[1]) col = col * 26 + ch.charCodeAt(0) - 64;
-  return [Number(m[2]), col];
+  return [Number(m[2]), columnIndex(m[1])];
 }
 
 /**

@@ -151,7 +151,8 @@ export function readZipDirectory(buf: Buffer): Entry[] {
   return entries;
 }
 
-function columnIndex(letters: string): number {
+/** "AB" → 28 (1-based). */
+export function columnIndex(letters: string): number {
   let n = 0;
   for (let i = 0; i < letters.length; i++) n = n * 26 + (letters.charCodeAt(i) - 64);
   return n;

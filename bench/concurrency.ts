@@ -17,7 +17,6 @@ import { lineTablePage } from '../lib/lines/picker';
 import { authenticateApiToken, createApiToken, recordTokenUse } from '../lib/auth/api-tokens';
 import { enqueueJob } from '../lib/jobs/store';
 import { stopBoss } from '../lib/jobs/boss';
-import { WORKER_NODE_ARGS } from '../lib/jobs/queues';
 import { demoLineRows, lineListWorkbook } from '../seed/line-list';
 
 const N = Number(process.argv[2] ?? 10000);
@@ -140,7 +139,7 @@ async function main() {
   const big = await importProject(owner.userId, owner.organizationId, N);
   const other = await importProject(owner.userId, owner.organizationId, 1000);
   console.log(`imported and solved ${N} lines (and 1,000 for the other users)`);
-  const worker = spawn(process.execPath, WORKER_NODE_ARGS, {
+  const worker = spawn('bash', ['scripts/worker.sh'], {
     env: process.env,
     stdio: ['ignore', 'ignore', 'pipe'],
   });

@@ -16,7 +16,6 @@ import { eq } from 'drizzle-orm';
 import { jobs } from '../db/schema';
 import { enqueueJob, type JobView } from '../lib/jobs/store';
 import { stopBoss } from '../lib/jobs/boss';
-import { WORKER_NODE_ARGS } from '../lib/jobs/queues';
 import { randomUUID } from 'node:crypto';
 import { db, getPool } from '../db/client';
 import { projects } from '../db/schema';
@@ -208,13 +207,8 @@ async function productPath() {
   execFileSync(process.execPath, ['--import', 'tsx', 'bench/make-line-list.ts', String(N), '99', file]);
   const bytes = readFileSync(file);
   rmSync(file);
-  // BENCH_WORKER_FLAGS: other V8 flags for the worker, to compare settings.
-  const flags = process.env.BENCH_WORKER_FLAGS;
-  const args =
-    flags === undefined
-      ? WORKER_NODE_ARGS
-      : [...flags.split(' ').filter(Boolean), ...WORKER_NODE_ARGS.slice(-3)];
-  const worker = spawn(process.execPath, args, {
+  // The worker as npm run worker starts it (scripts/worker.sh; WORKER_NODE_FLAGS to compare V8 settings).
+  const worker = spawn('bash', ['scripts/worker.sh'], {
     env: process.env,
     stdio: ['ignore', 'ignore', 'pipe'],
   });

@@ -63,7 +63,7 @@ start_worker() {
   if [ -f "$f" ] && kill -0 "$(cat "$f")" 2>/dev/null; then log "job worker already running (pid $(cat "$f"))"; return; fi
   # React (the PDFs) runs its production build in the worker: the development build adds checks and
   # a debug stack to every element of every calculation sheet, which the worker has no use for.
-  NODE_ENV="${WORKER_NODE_ENV:-production}" nohup node --max-semi-space-size=64 --max-old-space-size=512 --import tsx lib/jobs/worker.ts >> "$l" 2>&1 &
+  NODE_ENV="${WORKER_NODE_ENV:-production}" nohup bash scripts/worker.sh >> "$l" 2>&1 &
   echo $! > "$f"
   for _ in $(seq 1 50); do grep -q "\[worker\] working" "$l" 2>/dev/null && break; kill -0 "$(cat "$f")" 2>/dev/null || break; sleep 0.2; done
   kill -0 "$(cat "$f")" 2>/dev/null || { log "job worker did not start; see $l"; exit 1; }

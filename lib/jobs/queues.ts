@@ -36,21 +36,3 @@ export const JOB_KIND_LABEL: Record<QueueName, string> = {
 
 /** Jobs that are steps of one screen: they wait for no other job and are not listed as the project's work. */
 export const SCREEN_STEP_KINDS: readonly QueueName[] = ['read-upload', 'check-import', 'what-if'];
-
-/**
- * How a worker process is started (npm run worker, scripts/common.sh, benchmarks and tests keep to
- * it): a larger young generation, because solving allocates many short-lived objects per line and
- * V8's default made the garbage collector a fifth of a 10,000-line import (measured: node CPU
- * 7.3 / 6.4 s → 5.5 / 5.9 s for the import + solve job, about 50 MB more resident); and an old
- * generation capped at 512 MB, so V8 collects before the process grows (a 50,000-line import + solve
- * peaked at 802 MB uncapped, 494 MB capped, no slower). Every job holds a bounded slice of its data
- * (rows read one by one above 5,000, results solved and written 250 at a time, the budget read
- * 2,000 lines at a time), so the cap is room, not a squeeze; raise it here if a job ever needs more.
- */
-export const WORKER_NODE_ARGS = [
-  '--max-semi-space-size=64',
-  '--max-old-space-size=512',
-  '--import',
-  'tsx',
-  'lib/jobs/worker.ts',
-];
